@@ -1,0 +1,100 @@
+# headroom — build, test, demo and benchmark.
+#
+#   make          build build/headroom (installs missing Debian packages first)
+#   make demo     build and render the demo calc packages in examples/
+#   make check    build with AddressSanitizer + UBSan and run every test
+#   make bench    benchmarks (not tests): timing and peak memory
+#   make install  PREFIX=/usr/local DESTDIR=
+
+PREFIX  ?= /usr/local
+VERSION := 0.1.0
+CC      ?= cc
+BUILD   := build
+
+# Debian packages the build, the tests and the reference checks need.
+DEB_PACKAGES := libcmark-gfm-dev libcmark-gfm-extensions-dev libhpdf-dev libyaml-dev \
+                libjansson-dev nettle-dev fonts-dejavu-core libcmocka-dev pkg-config \
+                units python3-fluids python3-iapws poppler-utils qpdf
+
+PKGS    := libcmark-gfm jansson nettle yaml-0.1
+WARN    := -std=c11 -Wall -Wextra -Wshadow -Wconversion -Wstrict-prototypes \
+           -Wno-sign-conversion -Wmissing-prototypes
+CFLAGS  ?= -O2 -g
+ALL_CFLAGS = $(WARN) $(CFLAGS) -D_POSIX_C_SOURCE=200809L -DHEADROOM_VERSION='"$(VERSION)"' \
+             -Iinclude -Isrc $(shell pkg-config --cflags $(PKGS) 2>/dev/null)
+LIBS    = $(shell pkg-config --libs $(PKGS) 2>/dev/null) -lcmark-gfm-extensions -lhpdf -lm
+
+SAN     := -fsanitize=address,undefined -fno-omit-frame-pointer -fno-sanitize-recover=undefined
+
+SRC      := $(wildcard src/*.c src/methods/*.c src/report/*.c)
+LIB_SRC  := $(filter-out src/main.c,$(SRC))
+OBJ      := $(SRC:%.c=$(BUILD)/obj/%.o)
+SAN_OBJ  := $(SRC:%.c=$(BUILD)/san/%.o)
+SAN_LIB_OBJ := $(LIB_SRC:%.c=$(BUILD)/san/%.o)
+UNIT_TESTS := $(patsubst tests/unit/%.c,$(BUILD)/tests/%,$(wildcard tests/unit/test_*.c))
+
+.PHONY: all deps demo check unit-tests bench install clean
+all: $(BUILD)/headroom
+
+# Install what is missing, once. As root with apt it installs; otherwise it
+# prints the one command to run.
+$(BUILD)/.deps:
+	@mkdir -p $(BUILD)
+	@missing=""; for p in $(DEB_PACKAGES); do \
+	  dpkg-query -W -f='$${Status}' $$p 2>/dev/null | grep -q 'install ok installed' || missing="$$missing $$p"; \
+	done; \
+	if [ -n "$$missing" ]; then \
+	  if [ "$$(id -u)" = 0 ] && command -v apt-get >/dev/null; then \
+	    echo "installing:$$missing"; \
+	    apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends $$missing; \
+	  else \
+	    echo "missing Debian packages; run:"; echo "  sudo apt-get install$$missing"; exit 1; \
+	  fi; \
+	fi
+	@touch $@
+deps: $(BUILD)/.deps
+
+$(BUILD)/obj/%.o: %.c | $(BUILD)/.deps
+	@mkdir -p $(dir $@)
+	$(CC) $(ALL_CFLAGS) -MMD -MP -c $< -o $@
+
+$(BUILD)/san/%.o: %.c | $(BUILD)/.deps
+	@mkdir -p $(dir $@)
+	$(CC) $(ALL_CFLAGS) -O1 $(SAN) -MMD -MP -c $< -o $@
+
+$(BUILD)/headroom: $(OBJ)
+	$(CC) $(CFLAGS) $^ -o $@ $(LIBS)
+
+$(BUILD)/san/headroom: $(SAN_OBJ)
+	$(CC) $(SAN) $^ -o $@ $(LIBS)
+
+$(BUILD)/tests/%: tests/unit/%.c $(SAN_LIB_OBJ)
+	@mkdir -p $(dir $@)
+	$(CC) $(ALL_CFLAGS) -O1 $(SAN) $< $(SAN_LIB_OBJ) -o $@ $(LIBS) -lcmocka
+
+unit-tests: $(UNIT_TESTS)
+	@set -e; for t in $(UNIT_TESTS); do echo "== $$t"; $$t; done
+
+demo: $(BUILD)/headroom
+	@mkdir -p $(BUILD)/demo
+	@set -e; for f in examples/*.calc.md; do \
+	  base=$$(basename $$f .calc.md); \
+	  echo "== $$f"; \
+	  $(BUILD)/headroom build $$f --format text -o $(BUILD)/demo/$$base.txt; \
+	  cat $(BUILD)/demo/$$base.txt; \
+	done
+
+check: $(BUILD)/headroom $(BUILD)/san/headroom $(UNIT_TESTS)
+	@HEADROOM=$(BUILD)/san/headroom HEADROOM_FAST=$(BUILD)/headroom BUILD=$(BUILD) tests/run-all
+
+bench: $(BUILD)/headroom
+	@BUILD=$(BUILD) bench/run
+
+install: $(BUILD)/headroom
+	install -d $(DESTDIR)$(PREFIX)/bin
+	install -m 755 $(BUILD)/headroom $(DESTDIR)$(PREFIX)/bin/headroom
+
+clean:
+	rm -rf $(BUILD)
+
+-include $(OBJ:.o=.d) $(SAN_OBJ:.o=.d)

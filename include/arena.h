@@ -1,0 +1,60 @@
+/* arena.h — memory for one document.
+ *
+ * Everything a document owns (tokens, nodes, strings, values) is carved out of
+ * one Arena and released with arena_free(); nothing inside is freed on its own.
+ * The xmalloc family aborts on exhaustion so call sites never test for NULL.
+ * Vec is a growable array of pointers or small structs kept on the heap (not
+ * in the arena), owned by whoever declared it and released with vec_free(). */
+#ifndef HEADROOM_ARENA_H
+#define HEADROOM_ARENA_H
+
+#include <stdarg.h>
+#include <stddef.h>
+
+void *xmalloc(size_t n);
+void *xcalloc(size_t count, size_t size);
+void *xrealloc(void *p, size_t n);
+char *xstrdup(const char *s);
+char *xstrndup(const char *s, size_t n);
+
+typedef struct ArenaBlock ArenaBlock;
+typedef struct Arena {
+    ArenaBlock *head;
+    size_t used_total;
+} Arena;
+
+void arena_init(Arena *a);
+void arena_free(Arena *a);
+void *arena_alloc(Arena *a, size_t n);   /* zeroed, aligned for any type */
+char *arena_strdup(Arena *a, const char *s);
+char *arena_strndup(Arena *a, const char *s, size_t n);
+char *arena_printf(Arena *a, const char *fmt, ...)
+    __attribute__((format(printf, 2, 3)));
+char *arena_vprintf(Arena *a, const char *fmt, va_list ap);
+
+/* A growable byte string on the heap. */
+typedef struct StrBuf {
+    char *data;     /* always NUL-terminated once anything is appended */
+    size_t len;
+    size_t cap;
+} StrBuf;
+
+void sb_putc(StrBuf *sb, char c);
+void sb_puts(StrBuf *sb, const char *s);
+void sb_putn(StrBuf *sb, const char *s, size_t n);
+void sb_printf(StrBuf *sb, const char *fmt, ...) __attribute__((format(printf, 2, 3)));
+void sb_clear(StrBuf *sb);
+void sb_free(StrBuf *sb);
+const char *sb_str(const StrBuf *sb); /* "" when empty */
+
+/* A growable array of pointers. */
+typedef struct Vec {
+    void **items;
+    size_t len;
+    size_t cap;
+} Vec;
+
+void vec_push(Vec *v, void *item);
+void vec_free(Vec *v);
+
+#endif

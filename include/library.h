@@ -1,0 +1,77 @@
+/* library.h — the functions a calc can call.
+ *
+ * Built-in functions (math, and the published hydraulic methods in
+ * src/methods/) are listed once in src/builtins.def. Each receives evaluated
+ * arguments with their positions and returns a Value; it reports problems as
+ * diagnostics at the argument's or the call's position and returns false on
+ * error. A function that applies a published method names it with
+ * call_use_method(), so the report can show the method's formula, validity
+ * range and reference beside the statement and in the references section. */
+#ifndef HEADROOM_LIBRARY_H
+#define HEADROOM_LIBRARY_H
+
+#include "arena.h"
+#include "diag.h"
+#include "value.h"
+
+/* A published method: how the report shows and cites it. `formula` is written
+ * in the calc language's expression syntax so the math layout can typeset it
+ * (e.g. "1/sqrt(f) = -2*log10(rr/3.7 + 2.51/(Re*sqrt(f)))"). */
+typedef struct Method {
+    const char *key;        /* stable identifier, e.g. "colebrook" */
+    const char *title;      /* "Colebrook-White equation" */
+    const char *formula;    /* in calc syntax; may be NULL */
+    const char *validity;   /* "4000 <= Re <= 1e8, 0 <= rr <= 0.05"; may be NULL */
+    const char *reference;  /* "Colebrook, C. F. (1939). J. Inst. Civil Eng. 11(4), 133-156." */
+} Method;
+
+typedef struct CallArgs {
+    size_t n;
+    const Value *args;
+    const Pos *arg_pos;
+    size_t nkw;
+    const char *const *kw_names;
+    const Value *kw;
+    const Pos *kw_pos;
+    Pos pos;                /* the function name */
+    const char *name;
+} CallArgs;
+
+#define CALL_MAX_METHODS 8
+
+typedef struct CallCtx {
+    Arena *arena;
+    DiagList *diags;
+    UnitSystem units;
+    const Method *methods[CALL_MAX_METHODS];   /* methods used by this statement */
+    size_t nmethods;
+} CallCtx;
+
+typedef bool (*BuiltinFn)(CallCtx *cx, const CallArgs *a, Value *out);
+
+typedef struct Builtin {
+    const char *name;
+    BuiltinFn fn;
+    int min_args;
+    int max_args;           /* -1: any number */
+    const char *summary;    /* one line for --help and the manual */
+} Builtin;
+
+const Builtin *builtin_lookup(const char *name);
+void builtin_each(void (*fn)(const Builtin *b, void *ctx), void *ctx);
+
+/* Record that the current call used a method (deduplicated). */
+void call_use_method(CallCtx *cx, const Method *m);
+
+/* Argument helpers: each reports a diagnostic naming the function, the
+ * argument and the expected and found dimension, and returns false. */
+bool arg_number(CallCtx *cx, const CallArgs *a, size_t i, Dim want, const char *what, double *si);
+bool arg_dimensionless(CallCtx *cx, const CallArgs *a, size_t i, const char *what, double *x);
+bool arg_string(CallCtx *cx, const CallArgs *a, size_t i, const char *what, const char **s);
+bool arg_record(CallCtx *cx, const CallArgs *a, size_t i, const char *type, const char *what, const Record **r);
+/* Keyword argument lookup: NULL when absent. Unknown keywords are reported
+ * by kw_check(). */
+const Value *kw_get(const CallArgs *a, const char *name, Pos *pos);
+bool kw_check(CallCtx *cx, const CallArgs *a, const char *const *allowed);
+
+#endif

@@ -1,0 +1,117 @@
+/* units.h — dimensions, quantities and the unit registry.
+ *
+ * A quantity is a double in coherent SI base units plus a dimension vector of
+ * seven exponents (doubles, so sqrt gives m^0.5); both are small value types
+ * passed by value. Temperatures are stored in kelvin and carry whether they
+ * are an absolute temperature (a point on a scale) or a difference. Units are
+ * data: one table in units.c, with NIST SP 811 factors, and a parser for
+ * compound unit expressions such as `lbf*s/ft^2` or `m^3/h`. Nothing here
+ * allocates; returned strings point into static tables or caller buffers. */
+#ifndef HEADROOM_UNITS_H
+#define HEADROOM_UNITS_H
+
+#include <stdbool.h>
+#include <stddef.h>
+
+enum {
+    DIM_LENGTH,      /* m   */
+    DIM_MASS,        /* kg  */
+    DIM_TIME,        /* s   */
+    DIM_CURRENT,     /* A   */
+    DIM_TEMPERATURE, /* K   */
+    DIM_AMOUNT,      /* mol */
+    DIM_LUMINOUS,    /* cd  */
+    DIM_COUNT
+};
+
+typedef struct Dim {
+    double e[DIM_COUNT];
+} Dim;
+
+Dim dim_none(void);
+Dim dim_base(int which);             /* one of DIM_LENGTH ... */
+Dim dim_mul(Dim a, Dim b);
+Dim dim_div(Dim a, Dim b);
+Dim dim_pow(Dim a, double p);        /* exponents rounded to 1e-9 */
+bool dim_eq(Dim a, Dim b);
+bool dim_is_none(Dim a);
+
+/* Named dimensions, built once. */
+extern const Dim DIM_NONE, DIM_L, DIM_M, DIM_T, DIM_THETA, DIM_AREA, DIM_VOLUME,
+    DIM_VELOCITY, DIM_ACCEL, DIM_FLOW, DIM_FORCE, DIM_PRESSURE, DIM_DENSITY,
+    DIM_SPECIFIC_WEIGHT, DIM_DYN_VISC, DIM_KIN_VISC, DIM_ENERGY, DIM_POWER;
+
+/* A plain word for the dimension ("pressure", "length", "flow rate", ...) or
+ * NULL when it has no common name. */
+const char *dim_name(Dim d);
+
+/* Spell the dimension in coherent SI units with `*`, `/` and `^`:
+ * "kg/m^3", "Pa*s", "m/s", "1" for none. Named coherent units (N, Pa, J, W,
+ * Pa*s, N/m^3) are used where the whole dimension matches one; otherwise base
+ * units in the order kg m s A K mol cd. Writes at most n bytes, NUL included. */
+void dim_format_si(Dim d, char *buf, size_t n);
+
+/* What kind of temperature a quantity is. Quantities without a temperature
+ * dimension are TEMP_NONE. */
+typedef enum TempKind {
+    TEMP_NONE = 0,       /* not a temperature point (includes differences) */
+    TEMP_ABSOLUTE,       /* a point on an absolute scale (K, degR): scalable */
+    TEMP_ABSOLUTE_OFFSET /* a point entered on degC or degF: not scalable */
+} TempKind;
+
+typedef struct Quantity {
+    double si;    /* value in coherent SI base units; temperatures in K */
+    Dim dim;
+    TempKind temp;
+} Quantity;
+
+Quantity qty(double si, Dim dim);     /* a TEMP_NONE quantity */
+Quantity qty_number(double x);        /* dimensionless */
+
+/* A resolved unit expression: si = value * factor + offset. `offset` is
+ * non-zero only for a lone degC or degF; inside a compound (J/(kg*degC)) an
+ * offset unit stands for its difference. */
+typedef struct Unit {
+    double factor;
+    double offset;
+    Dim dim;
+    TempKind temp;       /* TEMP_ABSOLUTE(_OFFSET) for K, degR, degC, degF */
+    char text[48];       /* the spelling to display, e.g. "gal/min", "degF" */
+} Unit;
+
+typedef enum UnitStatus {
+    UNIT_OK,
+    UNIT_UNKNOWN,        /* a name is not in the registry; see `bad` */
+    UNIT_SYNTAX,         /* malformed expression */
+    UNIT_TOO_LONG
+} UnitStatus;
+
+/* Parse a unit expression: term (('*' | '/' | '·') term)*, where a term is a
+ * unit name, optionally with a prefix, followed by an optional `^` and a
+ * signed number; parentheses group. `°C`, `°F`, `gpm`, `cfs` are accepted.
+ * On UNIT_UNKNOWN, *bad_off and *bad_len locate the unknown name in `s`. */
+UnitStatus unit_parse(const char *s, size_t len, Unit *out, size_t *bad_off, size_t *bad_len);
+
+/* The registered name closest to `name` (for "did you mean ...?"), or NULL
+ * when nothing is close. */
+const char *unit_suggest(const char *name, size_t len);
+
+/* Value in the unit -> quantity, and back. unit_to_qty applies the offset for
+ * a lone absolute temperature unit and sets the temperature kind. */
+Quantity unit_to_qty(double v, const Unit *u);
+double unit_from_si(double si, const Unit *u, bool is_difference);
+
+/* Display systems and the default display unit for a dimension. */
+typedef enum UnitSystem { UNITS_US, UNITS_SI } UnitSystem;
+
+/* The unit a quantity is shown in when nothing else says: by dimension and
+ * system (US: ft, ft/s, gal/min, psi, lbf/ft^3, ...; SI: m, m/s, L/s, kPa,
+ * kg/m^3, ...). Temperatures: degF/degC for points, delta_degF/delta_degC for
+ * differences. Falls back to the SI spelling of the dimension. */
+Unit unit_default(Dim d, TempKind temp, UnitSystem sys);
+
+/* Visit every registered unit name (for tests and the manual). */
+typedef void (*UnitVisit)(const char *name, const Unit *u, void *ctx);
+void unit_each(UnitVisit fn, void *ctx);
+
+#endif

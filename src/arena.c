@@ -1,0 +1,204 @@
+/* arena.c — the xmalloc family, the document arena, string buffers and
+ * pointer vectors. Exhaustion aborts with a message: a compiler that runs
+ * out of memory on one document has nothing useful left to do. */
+#include "arena.h"
+
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+static void out_of_memory(size_t n)
+{
+    fprintf(stderr, "headroom: out of memory (asked for %zu bytes)\n", n);
+    abort();
+}
+
+void *xmalloc(size_t n)
+{
+    void *p = malloc(n ? n : 1);
+    if (!p)
+        out_of_memory(n);
+    return p;
+}
+
+void *xcalloc(size_t count, size_t size)
+{
+    void *p = calloc(count ? count : 1, size ? size : 1);
+    if (!p)
+        out_of_memory(count * size);
+    return p;
+}
+
+void *xrealloc(void *p, size_t n)
+{
+    void *q = realloc(p, n ? n : 1);
+    if (!q)
+        out_of_memory(n);
+    return q;
+}
+
+char *xstrndup(const char *s, size_t n)
+{
+    char *d = xmalloc(n + 1);
+    memcpy(d, s, n);
+    d[n] = '\0';
+    return d;
+}
+
+char *xstrdup(const char *s) { return xstrndup(s, strlen(s)); }
+
+/* Blocks grow geometrically; a request larger than the usual block gets a
+ * block of its own. */
+struct ArenaBlock {
+    ArenaBlock *next;
+    size_t size;
+    size_t used;
+    max_align_t data[];
+};
+
+enum { ARENA_MIN_BLOCK = 64 * 1024 };
+
+void arena_init(Arena *a)
+{
+    a->head = NULL;
+    a->used_total = 0;
+}
+
+void arena_free(Arena *a)
+{
+    ArenaBlock *b = a->head;
+    while (b) {
+        ArenaBlock *next = b->next;
+        free(b);
+        b = next;
+    }
+    a->head = NULL;
+    a->used_total = 0;
+}
+
+void *arena_alloc(Arena *a, size_t n)
+{
+    const size_t align = sizeof(max_align_t);
+    n = (n + align - 1) / align * align;
+    if (n == 0)
+        n = align;
+    ArenaBlock *b = a->head;
+    if (!b || b->size - b->used < n) {
+        size_t size = ARENA_MIN_BLOCK;
+        if (b && b->size * 2 > size && b->size < 16u * 1024 * 1024)
+            size = b->size * 2;
+        if (size < n)
+            size = n;
+        b = xmalloc(sizeof *b + size);
+        b->size = size;
+        b->used = 0;
+        b->next = a->head;
+        a->head = b;
+    }
+    void *p = (char *)b->data + b->used;
+    b->used += n;
+    a->used_total += n;
+    memset(p, 0, n);
+    return p;
+}
+
+char *arena_strndup(Arena *a, const char *s, size_t n)
+{
+    char *d = arena_alloc(a, n + 1);
+    memcpy(d, s, n);
+    d[n] = '\0';
+    return d;
+}
+
+char *arena_strdup(Arena *a, const char *s) { return arena_strndup(a, s, strlen(s)); }
+
+char *arena_vprintf(Arena *a, const char *fmt, va_list ap)
+{
+    va_list copy;
+    va_copy(copy, ap);
+    int n = vsnprintf(NULL, 0, fmt, copy);
+    va_end(copy);
+    if (n < 0)
+        n = 0;
+    char *d = arena_alloc(a, (size_t)n + 1);
+    vsnprintf(d, (size_t)n + 1, fmt, ap);
+    return d;
+}
+
+char *arena_printf(Arena *a, const char *fmt, ...)
+{
+    va_list ap;
+    va_start(ap, fmt);
+    char *d = arena_vprintf(a, fmt, ap);
+    va_end(ap);
+    return d;
+}
+
+static void sb_reserve(StrBuf *sb, size_t extra)
+{
+    if (sb->len + extra + 1 <= sb->cap)
+        return;
+    size_t cap = sb->cap ? sb->cap : 64;
+    while (cap < sb->len + extra + 1)
+        cap *= 2;
+    sb->data = xrealloc(sb->data, cap);
+    sb->cap = cap;
+}
+
+void sb_putn(StrBuf *sb, const char *s, size_t n)
+{
+    sb_reserve(sb, n);
+    memcpy(sb->data + sb->len, s, n);
+    sb->len += n;
+    sb->data[sb->len] = '\0';
+}
+
+void sb_putc(StrBuf *sb, char c) { sb_putn(sb, &c, 1); }
+void sb_puts(StrBuf *sb, const char *s) { sb_putn(sb, s, strlen(s)); }
+
+void sb_printf(StrBuf *sb, const char *fmt, ...)
+{
+    va_list ap, copy;
+    va_start(ap, fmt);
+    va_copy(copy, ap);
+    int n = vsnprintf(NULL, 0, fmt, copy);
+    va_end(copy);
+    if (n > 0) {
+        sb_reserve(sb, (size_t)n);
+        vsnprintf(sb->data + sb->len, (size_t)n + 1, fmt, ap);
+        sb->len += (size_t)n;
+    }
+    va_end(ap);
+}
+
+void sb_clear(StrBuf *sb)
+{
+    sb->len = 0;
+    if (sb->data)
+        sb->data[0] = '\0';
+}
+
+void sb_free(StrBuf *sb)
+{
+    free(sb->data);
+    sb->data = NULL;
+    sb->len = sb->cap = 0;
+}
+
+const char *sb_str(const StrBuf *sb) { return sb->data ? sb->data : ""; }
+
+void vec_push(Vec *v, void *item)
+{
+    if (v->len == v->cap) {
+        v->cap = v->cap ? v->cap * 2 : 8;
+        v->items = xrealloc(v->items, v->cap * sizeof *v->items);
+    }
+    v->items[v->len++] = item;
+}
+
+void vec_free(Vec *v)
+{
+    free(v->items);
+    v->items = NULL;
+    v->len = v->cap = 0;
+}
