@@ -1,0 +1,231 @@
+/* doc.h — the document tree: what the reading stages produce.
+ *
+ * source -> (frontmatter, markdown) -> blocks of prose and calc -> (lex,
+ * parse) -> statements with expression trees. Everything hangs off one
+ * Document and lives in its Arena; doc_free() releases it all. The evaluator
+ * adds results in a separate Evaluated (eval.h) so this tree stays what the
+ * author wrote, and renderers read both without re-parsing anything. */
+#ifndef HEADROOM_DOC_H
+#define HEADROOM_DOC_H
+
+#include <stdbool.h>
+#include <stddef.h>
+
+#include "arena.h"
+#include "diag.h"
+#include "units.h"
+
+/* ---- expressions ------------------------------------------------------ */
+
+typedef enum ExprKind {
+    EXPR_NUMBER,  /* 38 gal/min                      */
+    EXPR_STRING,  /* "1-1/2"                         */
+    EXPR_NAME,    /* Q, rho_w, pi                    */
+    EXPR_NEG,     /* -x                              */
+    EXPR_BINARY,  /* a + b, a * b, a ^ b, ...        */
+    EXPR_CALL,    /* f(a, b, method="x")             */
+    EXPR_FIELD,   /* tube.id                         */
+    EXPR_PAREN    /* (a + b): kept for display       */
+} ExprKind;
+
+typedef enum BinOp { OP_ADD, OP_SUB, OP_MUL, OP_DIV, OP_POW } BinOp;
+
+/* Where a name refers to. Statement slots are >= 0. */
+enum { SLOT_UNRESOLVED = -1, SLOT_PI = -2, SLOT_G = -3 };
+
+typedef struct Expr Expr;
+struct Expr {
+    ExprKind kind;
+    Pos pos;
+    /* EXPR_NUMBER */
+    double number;           /* as written, in `unit` */
+    const char *text;        /* the literal as written: number, string or name */
+    bool has_unit;
+    Unit unit;               /* resolved unit, when has_unit */
+    /* EXPR_NAME: text is the name */
+    int slot;
+    /* EXPR_NEG (operand in lhs), EXPR_BINARY, EXPR_PAREN (inner in lhs) */
+    BinOp op;
+    bool middle_dot;         /* written with · */
+    Expr *lhs, *rhs;
+    /* EXPR_CALL: text is the function name */
+    Expr **args;
+    size_t nargs;
+    const char **kw_names;
+    Expr **kw;
+    Pos *kw_pos;
+    size_t nkw;
+    int callee_slot;         /* a record defined in the calc called as f(x), else -1 */
+    /* EXPR_FIELD: base in lhs, text is the field name */
+};
+
+/* ---- statements -------------------------------------------------------- */
+
+typedef enum StmtKind {
+    STMT_DEF,    /* NAME = EXPR [as UNIT]                          */
+    STMT_SOLVE,  /* NAME = solve VAR where A = B [between LO and HI] */
+    STMT_CHECK,  /* check LABEL: A OP B                            */
+    STMT_NOTE    /* a whole-line comment                           */
+} StmtKind;
+
+typedef enum CmpOp { CMP_LE, CMP_LT, CMP_GE, CMP_GT } CmpOp;
+
+typedef struct Cite {
+    const char *key;
+    Pos pos;
+    int source;              /* index into Document.sources, -1 if unknown */
+} Cite;
+
+typedef struct Stmt {
+    StmtKind kind;
+    int index;               /* position in Document.stmts: the name's slot */
+    Pos pos;                 /* first character of the statement */
+    const char *line;        /* the source line as written, without the comment */
+    const char *name;        /* DEF, SOLVE */
+    Pos name_pos;
+    Expr *expr;              /* DEF */
+    bool has_as;             /* DEF, SOLVE */
+    const char *as_text;
+    Unit as_unit;
+    Pos as_pos;
+    const char *var;         /* SOLVE: the varied name */
+    Pos var_pos;
+    int var_slot;
+    Expr *lhs, *rhs;         /* SOLVE: the equation; CHECK: the two sides */
+    Expr *lo, *hi;           /* SOLVE: optional bracket */
+    const char *label;       /* CHECK */
+    CmpOp cmp;
+    const char *description; /* trailing comment, citations removed; NOTE: its text */
+    Cite *cites;
+    size_t ncites;
+    int *deps;               /* slots this statement reads directly, ascending */
+    size_t ndeps;
+    bool parse_failed;       /* nothing to evaluate: errors were reported */
+} Stmt;
+
+/* ---- prose ------------------------------------------------------------- */
+
+typedef enum InlineKind {
+    INL_TEXT,
+    INL_CODE,
+    INL_EMPH,
+    INL_STRONG,
+    INL_STRIKE,
+    INL_LINK,
+    INL_SOFTBREAK,
+    INL_LINEBREAK,
+    INL_VALUE                /* {name} or {name as unit} */
+} InlineKind;
+
+typedef struct Inline Inline;
+struct Inline {
+    InlineKind kind;
+    const char *text;        /* TEXT, CODE; VALUE: the name */
+    const char *url;         /* LINK */
+    Inline *children;        /* EMPH, STRONG, STRIKE, LINK */
+    Inline *next;
+    Pos pos;                 /* VALUE */
+    int slot;                /* VALUE */
+    const char *field;       /* VALUE: {tube.id} reads a record field */
+    bool has_as;             /* VALUE */
+    Unit as_unit;
+};
+
+typedef enum BlockKind {
+    BLK_HEADING,
+    BLK_PARAGRAPH,
+    BLK_LIST,
+    BLK_ITEM,
+    BLK_QUOTE,
+    BLK_CODE,                /* any other fenced or indented code */
+    BLK_TABLE,
+    BLK_TABLE_ROW,
+    BLK_TABLE_CELL,
+    BLK_RULE,
+    BLK_HTML,
+    BLK_CALC,                /* ```calc: statements [first_stmt, first_stmt + nstmts) */
+    BLK_SOURCES              /* ```sources */
+} BlockKind;
+
+typedef enum Align { ALIGN_NONE, ALIGN_LEFT, ALIGN_CENTER, ALIGN_RIGHT } Align;
+
+typedef struct Block Block;
+struct Block {
+    BlockKind kind;
+    Pos pos;
+    int level;               /* HEADING: 1..6 */
+    char number[32];         /* HEADING: "2.1" */
+    bool ordered;            /* LIST */
+    int start;               /* LIST: first number */
+    bool header_row;         /* TABLE_ROW */
+    Align *align;            /* TABLE: per column */
+    int ncols;               /* TABLE */
+    Inline *inlines;         /* HEADING, PARAGRAPH, TABLE_CELL */
+    const char *text;        /* CODE, HTML: literal */
+    const char *info;        /* CODE: info string */
+    size_t first_stmt, nstmts;  /* CALC */
+    Block *children;         /* LIST, ITEM, QUOTE, TABLE, TABLE_ROW */
+    Block *next;
+};
+
+/* ---- front matter and sources ------------------------------------------ */
+
+typedef struct Revision {
+    const char *rev, *date, *by, *note;
+} Revision;
+
+typedef enum Paper { PAPER_LETTER, PAPER_A4 } Paper;
+
+typedef struct Meta {
+    const char *title, *project, *client, *number, *subject, *revision, *date;
+    const char *prepared, *checked, *approved, *engineer, *license, *status;
+    const char *prepared_date, *checked_date;
+    UnitSystem units;
+    Paper paper;
+    int digits;
+    Revision *revisions;
+    size_t nrevisions;
+    bool present;            /* the file had front matter */
+} Meta;
+
+typedef struct Source {
+    const char *key;
+    const char *text;
+    Pos pos;
+    bool cited;
+} Source;
+
+/* ---- the document ------------------------------------------------------ */
+
+typedef struct NameTable NameTable;
+
+typedef struct Document {
+    Arena arena;
+    const char *file;        /* display name */
+    const char *text;        /* the source bytes, NUL-terminated */
+    size_t len;
+    char digest[65];         /* SHA-256 of the source bytes, lower-case hex */
+    Meta meta;
+    Block *blocks;
+    Stmt **stmts;
+    size_t nstmts;
+    Source *sources;
+    size_t nsources;
+    NameTable *names;        /* name -> statement slot */
+} Document;
+
+/* Read a whole calc file (or standard input for "-") into a Document: front
+ * matter, Markdown, calc statements, sources, name resolution. Problems go to
+ * `diags`; the document is returned even when it has errors, so every error
+ * of a run is found. NULL only when the file cannot be read (an I/O error,
+ * reported in `diags` without a line). */
+Document *doc_load(const char *path, DiagList *diags);
+/* The same for text already in memory (the tests, the diff of git revisions). */
+Document *doc_from_text(const char *display_name, const char *text, size_t len, DiagList *diags);
+void doc_free(Document *doc);
+
+/* Name table: NULL/-1 when absent. */
+int doc_lookup(const Document *doc, const char *name);
+const char *doc_source_line(const Document *doc, int line, size_t *len);
+
+#endif

@@ -1,0 +1,35 @@
+/* numfmt.h — reading and writing numbers, independent of the locale.
+ *
+ * One module parses number literals and prints numbers everywhere: JSON uses
+ * round-trip precision (17 significant digits, shortest that round-trips),
+ * the text listing and the report use significant figures, and `convert`
+ * prints 10 significant digits. The C locale is never changed, and these
+ * functions do not depend on it. */
+#ifndef HEADROOM_NUMFMT_H
+#define HEADROOM_NUMFMT_H
+
+#include <stdbool.h>
+#include <stddef.h>
+
+/* Parse a decimal literal (digits, optional fraction, optional exponent) at
+ * s[0..]; returns the number of bytes used (0: not a number). */
+size_t num_parse(const char *s, size_t len, double *out);
+
+/* Shortest decimal that reads back to the same double ("0.1", "1e-05"). */
+void num_roundtrip(double x, char *buf, size_t n);
+
+/* A number split for display with `digits` significant figures: mantissa text
+ * and a power of ten (exp10 == 0 when no ×10^n is needed). Plain notation is
+ * used for 1e-3 <= |x| < 1e6 (and for 0); otherwise scientific. Trailing
+ * zeros are kept to show the significance ("4.000"), except for integers
+ * shown exactly. */
+typedef struct NumParts {
+    char mantissa[40];
+    int exp10;
+} NumParts;
+
+NumParts num_parts(double x, int digits);
+/* num_parts joined as plain text: "4.050", "1.234e-05" -> "1.234e-5". */
+void num_sig(double x, int digits, char *buf, size_t n);
+
+#endif

@@ -1,0 +1,41 @@
+/* render.h — the renderers: text listing, JSON results and the PDF report.
+ *
+ * Renderers read only the Document and its Evaluated results; they never
+ * parse or evaluate. Each writes to a stream or a path the caller chose (main
+ * writes reports to a temporary file and renames it into place). */
+#ifndef HEADROOM_RENDER_H
+#define HEADROOM_RENDER_H
+
+#include <stdbool.h>
+#include <stdio.h>
+
+#include "diag.h"
+#include "eval.h"
+
+/* Plain, stable, diffable listing: every statement as
+ * symbol = formula = substituted values = result, checks with verdicts. */
+bool render_text(const Evaluated *ev, FILE *out);
+
+/* The JSON results of DESIGN 2.5. `nfiles` > 1 writes an array. */
+bool render_json(const Evaluated *const *evs, const DiagList *diags, size_t nfiles, FILE *out);
+
+/* The sealed-style PDF report, written to `path`. */
+bool render_pdf(const Evaluated *ev, const char *path, DiagList *diags);
+
+/* How a name is shown: a leading Greek word becomes the letter and the part
+ * after the first '_' a subscript: "rho_w" -> base "ρ", sub "w"; "h_f" ->
+ * "h", "f". Delta is the difference operator, so "Delta_z" -> base "Δz" and
+ * "Delta_p_f" -> base "Δp", sub "f". Greek words inside the subscript are
+ * also replaced ("h_Delta" -> "h", "Δ"). */
+typedef struct Symbol {
+    char base[64];   /* UTF-8 */
+    char sub[64];    /* UTF-8, "" when none */
+} Symbol;
+
+Symbol symbol_of(const char *name);
+
+/* A value with its unit as text: "4.050 ft/s", "0.02 (dimensionless)" is
+ * shown as just "0.02000". Uses num_sig with the document's digits. */
+void render_quantity(const Evaluated *ev, const Value *v, const Unit *unit, char *buf, size_t n);
+
+#endif
