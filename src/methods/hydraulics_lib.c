@@ -307,7 +307,7 @@ bool fn_water(CallCtx *cx, const CallArgs *a, Value *out)
         return false;
     WaterProps w;
     WaterStatus st = water_props(T, p, &w);
-    char b1[128], b2[128], b3[128], b4[128];
+    char b1[128], b2[128], b3[128];
     switch (st) {
     case WATER_OK:
         break;
@@ -317,11 +317,10 @@ bool fn_water(CallCtx *cx, const CallArgs *a, Value *out)
         return false;
     case WATER_T_OUT_OF_RANGE:
         diag_error(cx->diags, arg_at(a, 0),
-                   "%s: temperature %s is outside the range served, %s to %s "
+                   "%s: temperature %s is outside the range served, %s "
                    "(IAPWS-IF97 region 1, liquid water)",
                    a->name, show_temp(cx, T, b1, sizeof b1),
-                   show_temp(cx, WATER_T_MIN, b2, sizeof b2),
-                   show_temp(cx, WATER_T_MAX, b3, sizeof b3));
+                   cx->units == UNITS_US ? "32.02 degF to 302 degF" : "0.01 degC to 150 degC");
         return false;
     case WATER_P_TOO_HIGH:
         diag_error(cx->diags, arg_at(a, 1),
@@ -336,7 +335,7 @@ bool fn_water(CallCtx *cx, const CallArgs *a, Value *out)
                    show_temp(cx, T, b2, sizeof b2),
                    show(cx, water_psat(T), DIM_PRESSURE, TEMP_NONE, b3, sizeof b3),
                    a->n > 1 ? "give" : "give water(T, p) with",
-                   show(cx, water_psat(T), DIM_PRESSURE, TEMP_NONE, b4, sizeof b4));
+                   b3);
         return false;
     }
     call_use_method(cx, &METHOD_IF97);
