@@ -18,7 +18,7 @@ DEB_PACKAGES := libcmark-gfm-dev libcmark-gfm-extensions-dev libhpdf-dev libyaml
 
 PKGS    := libcmark-gfm jansson nettle yaml-0.1
 WARN    := -std=c11 -Wall -Wextra -Wshadow -Wconversion -Wstrict-prototypes \
-           -Wno-sign-conversion -Wmissing-prototypes
+           -Wno-sign-conversion -Wmissing-prototypes -Werror=implicit-function-declaration
 CFLAGS  ?= -O2 -g
 ALL_CFLAGS = $(WARN) $(CFLAGS) -D_POSIX_C_SOURCE=200809L -DHEADROOM_VERSION='"$(VERSION)"' \
              -Iinclude -Isrc $(shell pkg-config --cflags $(PKGS) 2>/dev/null)

@@ -212,6 +212,8 @@ typedef struct Document {
     Source *sources;
     size_t nsources;
     NameTable *names;        /* name -> statement slot */
+    size_t *line_start;      /* byte offset of each line (index 0 = line 1) */
+    size_t nlines;
 } Document;
 
 /* Read a whole calc file (or standard input for "-") into a Document: front

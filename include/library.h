@@ -74,4 +74,10 @@ bool arg_record(CallCtx *cx, const CallArgs *a, size_t i, const char *type, cons
 const Value *kw_get(const CallArgs *a, const char *name, Pos *pos);
 bool kw_check(CallCtx *cx, const CallArgs *a, const char *const *allowed);
 
+/* "pressure (psi)", "length (ft)", "kg*m^-3" — a dimension as messages name
+ * it: its plain word and the unit the document's system shows it in. */
+void dim_describe(Dim d, TempKind temp, UnitSystem sys, char *buf, size_t n);
+/* The same for a value: "a string", "a pipe record", or dim_describe. */
+void value_describe(const Value *v, UnitSystem sys, char *buf, size_t n);
+
 #endif

@@ -38,4 +38,12 @@ Symbol symbol_of(const char *name);
  * shown as just "0.02000". Uses num_sig with the document's digits. */
 void render_quantity(const Evaluated *ev, const Value *v, const Unit *unit, char *buf, size_t n);
 
+/* An expression in one line of plain text, as written (substitute = false)
+ * or with every name replaced by its value and unit (substitute = true). */
+void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBuf *out);
+
+/* A value as plain text in the unit it is shown in ("4.160 ft/s", a string
+ * in quotes, a record as "(pipe record)"). */
+void render_value_text(const Evaluated *ev, const Value *v, const Unit *shown, StrBuf *out);
+
 #endif

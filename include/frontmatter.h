@@ -1,0 +1,15 @@
+/* frontmatter.h — the YAML block at the top of a calc file (DESIGN 2.1).
+ *
+ * Only the front matter stage includes libyaml. Unknown keys and malformed
+ * values are errors at their line; nothing is silently ignored. */
+#ifndef HEADROOM_FRONTMATTER_H
+#define HEADROOM_FRONTMATTER_H
+
+#include "doc.h"
+
+/* If the text opens with a `---` line, parse up to the closing `---` (or
+ * `...`) line into doc->meta and return the number of bytes the block spans
+ * (through the closing line's newline); otherwise fill defaults, return 0. */
+size_t frontmatter_read(Document *doc, DiagList *diags);
+
+#endif

@@ -1,0 +1,31 @@
+/* source.h — reading a calc file: bytes, checks and digest.
+ *
+ * The bytes are read whole (a file, standard input for "-", or a buffer),
+ * checked to be UTF-8 without control characters other than tab, CR and LF,
+ * bounded in size, and hashed with SHA-256 (nettle) so every report can be
+ * traced to the exact source. The caller owns the returned buffer (free()). */
+#ifndef HEADROOM_SOURCE_H
+#define HEADROOM_SOURCE_H
+
+#include <stdbool.h>
+#include <stddef.h>
+
+#include "diag.h"
+
+enum {
+    SOURCE_MAX_BYTES = 8 * 1024 * 1024,  /* largest calc file accepted */
+    SOURCE_MAX_LINE = 64 * 1024          /* longest line inside a calc block */
+};
+
+/* Read a file ("-": standard input). NULL on an I/O error or an oversize
+ * file, reported in diags. The buffer is NUL-terminated. */
+char *source_read(const char *path, const char *display, size_t *len, DiagList *diags);
+
+/* Report the first byte that is not valid UTF-8, or a forbidden control
+ * character, with its line and column. */
+bool source_check_text(const char *text, size_t len, const char *display, DiagList *diags);
+
+/* SHA-256 as 64 lower-case hex digits and a NUL. */
+void source_digest(const char *text, size_t len, char out[65]);
+
+#endif

@@ -1,0 +1,299 @@
+/* builtins.c — the table of callable functions, argument checking, and the
+ * math functions of DESIGN 2.3.
+ *
+ * The table is generated from builtins.def so a function is listed in one
+ * place. Math functions check dimensions the way the language does: exp, ln,
+ * log10 take pure numbers; sin, cos, tan take angles (rad and deg are
+ * dimensionless in SI, so any pure number is accepted as radians); sqrt
+ * halves the exponents; min and max want one dimension throughout. */
+#include "library.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#define BUILTIN(name, fn, mn, mx, summary) bool fn(CallCtx *cx, const CallArgs *a, Value *out);
+#include "builtins.def"
+#undef BUILTIN
+
+static const Builtin builtins[] = {
+#define BUILTIN(name, fn, mn, mx, summary) {#name, fn, mn, mx, summary},
+#include "builtins.def"
+#undef BUILTIN
+};
+
+enum { NBUILTINS = sizeof builtins / sizeof builtins[0] };
+
+const Builtin *builtin_lookup(const char *name)
+{
+    for (size_t i = 0; i < NBUILTINS; i++)
+        if (strcmp(builtins[i].name, name) == 0)
+            return &builtins[i];
+    return NULL;
+}
+
+void builtin_each(void (*fn)(const Builtin *b, void *ctx), void *ctx)
+{
+    for (size_t i = 0; i < NBUILTINS; i++)
+        fn(&builtins[i], ctx);
+}
+
+void call_use_method(CallCtx *cx, const Method *m)
+{
+    for (size_t i = 0; i < cx->nmethods; i++)
+        if (cx->methods[i] == m)
+            return;
+    if (cx->nmethods < CALL_MAX_METHODS)
+        cx->methods[cx->nmethods++] = m;
+}
+
+void dim_describe(Dim d, TempKind temp, UnitSystem sys, char *buf, size_t n)
+{
+    const char *word = dim_name(d);
+    Unit u = unit_default(d, temp, sys);
+    if (dim_is_none(d))
+        snprintf(buf, n, "a pure number");
+    else if (word)
+        snprintf(buf, n, "%s (%s)", word, u.text);
+    else
+        snprintf(buf, n, "%s", u.text);
+}
+
+void value_describe(const Value *v, UnitSystem sys, char *buf, size_t n)
+{
+    switch (v->kind) {
+    case VAL_NUMBER:
+        dim_describe(v->q.dim, v->q.temp, sys, buf, n);
+        break;
+    case VAL_STRING:
+        snprintf(buf, n, "a string");
+        break;
+    case VAL_RECORD:
+        snprintf(buf, n, "a %s record", v->rec && v->rec->type ? v->rec->type : "");
+        break;
+    default:
+        snprintf(buf, n, "nothing");
+        break;
+    }
+}
+
+static Pos arg_pos(const CallArgs *a, size_t i)
+{
+    return i < a->n && a->arg_pos ? a->arg_pos[i] : a->pos;
+}
+
+bool arg_number(CallCtx *cx, const CallArgs *a, size_t i, Dim want, const char *what, double *si)
+{
+    if (i >= a->n) {
+        diag_error(cx->diags, a->pos, "%s: missing argument %zu (%s)", a->name, i + 1, what);
+        return false;
+    }
+    const Value *v = &a->args[i];
+    if (v->kind != VAL_NUMBER || !dim_eq(v->q.dim, want)) {
+        char want_s[96], got_s[96];
+        dim_describe(want, TEMP_NONE, cx->units, want_s, sizeof want_s);
+        value_describe(v, cx->units, got_s, sizeof got_s);
+        diag_error(cx->diags, arg_pos(a, i), "%s: argument %zu (%s) must be %s, found %s",
+                   a->name, i + 1, what, want_s, got_s);
+        return false;
+    }
+    *si = v->q.si;
+    return true;
+}
+
+bool arg_dimensionless(CallCtx *cx, const CallArgs *a, size_t i, const char *what, double *x)
+{
+    return arg_number(cx, a, i, DIM_NONE, what, x);
+}
+
+bool arg_string(CallCtx *cx, const CallArgs *a, size_t i, const char *what, const char **s)
+{
+    if (i >= a->n) {
+        diag_error(cx->diags, a->pos, "%s: missing argument %zu (%s)", a->name, i + 1, what);
+        return false;
+    }
+    const Value *v = &a->args[i];
+    if (v->kind != VAL_STRING) {
+        char got_s[96];
+        value_describe(v, cx->units, got_s, sizeof got_s);
+        diag_error(cx->diags, arg_pos(a, i), "%s: argument %zu (%s) must be a string in \"...\", found %s",
+                   a->name, i + 1, what, got_s);
+        return false;
+    }
+    *s = v->str;
+    return true;
+}
+
+bool arg_record(CallCtx *cx, const CallArgs *a, size_t i, const char *type, const char *what,
+                const Record **r)
+{
+    if (i >= a->n) {
+        diag_error(cx->diags, a->pos, "%s: missing argument %zu (%s)", a->name, i + 1, what);
+        return false;
+    }
+    const Value *v = &a->args[i];
+    if (v->kind != VAL_RECORD || (type && strcmp(v->rec->type, type) != 0)) {
+        char got_s[96];
+        value_describe(v, cx->units, got_s, sizeof got_s);
+        diag_error(cx->diags, arg_pos(a, i), "%s: argument %zu (%s) must be a %s record, found %s",
+                   a->name, i + 1, what, type ? type : "", got_s);
+        return false;
+    }
+    *r = v->rec;
+    return true;
+}
+
+const Value *kw_get(const CallArgs *a, const char *name, Pos *pos)
+{
+    for (size_t i = 0; i < a->nkw; i++)
+        if (strcmp(a->kw_names[i], name) == 0) {
+            if (pos)
+                *pos = a->kw_pos ? a->kw_pos[i] : a->pos;
+            return &a->kw[i];
+        }
+    return NULL;
+}
+
+bool kw_check(CallCtx *cx, const CallArgs *a, const char *const *allowed)
+{
+    bool ok = true;
+    for (size_t i = 0; i < a->nkw; i++) {
+        bool found = false;
+        for (size_t j = 0; allowed && allowed[j]; j++)
+            if (strcmp(allowed[j], a->kw_names[i]) == 0)
+                found = true;
+        if (!found) {
+            char list[256] = "";
+            size_t len = 0;
+            for (size_t j = 0; allowed && allowed[j] && len < sizeof list - 40; j++)
+                len += (size_t)snprintf(list + len, sizeof list - len, "%s%s", j ? ", " : "", allowed[j]);
+            Pos p = a->kw_pos ? a->kw_pos[i] : a->pos;
+            if (len)
+                diag_error(cx->diags, p, "%s: unknown keyword '%s' (it takes: %s)", a->name,
+                           a->kw_names[i], list);
+            else
+                diag_error(cx->diags, p, "%s: takes no keyword arguments, found '%s'", a->name,
+                           a->kw_names[i]);
+            ok = false;
+        }
+    }
+    return ok;
+}
+
+/* ---- math ------------------------------------------------------------- */
+
+static bool finite_result(CallCtx *cx, const CallArgs *a, double y, Value *out, Dim d)
+{
+    if (!isfinite(y)) {
+        diag_error(cx->diags, a->pos, "%s: the result is not a finite number", a->name);
+        return false;
+    }
+    *out = value_number(qty(y, d));
+    return true;
+}
+
+static bool any_number(CallCtx *cx, const CallArgs *a, size_t i, const Value **v)
+{
+    if (i >= a->n || a->args[i].kind != VAL_NUMBER) {
+        char got_s[96] = "nothing";
+        if (i < a->n)
+            value_describe(&a->args[i], cx->units, got_s, sizeof got_s);
+        diag_error(cx->diags, arg_pos(a, i), "%s: argument %zu must be a number, found %s", a->name,
+                   i + 1, got_s);
+        return false;
+    }
+    *v = &a->args[i];
+    return true;
+}
+
+static bool not_offset_temperature(CallCtx *cx, const CallArgs *a, size_t i, const Value *v)
+{
+    if (v->q.temp == TEMP_ABSOLUTE_OFFSET) {
+        diag_error(cx->diags, arg_pos(a, i),
+                   "%s: cannot apply to an absolute temperature on the Celsius or Fahrenheit "
+                   "scale; subtract a reference temperature first, or use K",
+                   a->name);
+        return false;
+    }
+    return true;
+}
+
+bool fn_sqrt(CallCtx *cx, const CallArgs *a, Value *out)
+{
+    const Value *v;
+    if (!any_number(cx, a, 0, &v) || !not_offset_temperature(cx, a, 0, v))
+        return false;
+    if (v->q.si < 0) {
+        diag_error(cx->diags, arg_pos(a, 0), "sqrt: argument is negative (%g)", v->q.si);
+        return false;
+    }
+    return finite_result(cx, a, sqrt(v->q.si), out, dim_pow(v->q.dim, 0.5));
+}
+
+bool fn_abs(CallCtx *cx, const CallArgs *a, Value *out)
+{
+    const Value *v;
+    if (!any_number(cx, a, 0, &v))
+        return false;
+    *out = *v;
+    if (v->q.temp == TEMP_NONE)
+        out->q.si = fabs(v->q.si);
+    return true;
+}
+
+typedef double (*Unary)(double);
+
+static bool pure_unary(CallCtx *cx, const CallArgs *a, Value *out, Unary f, bool positive)
+{
+    double x;
+    if (!arg_dimensionless(cx, a, 0, "a pure number", &x))
+        return false;
+    if (positive && x <= 0) {
+        diag_error(cx->diags, arg_pos(a, 0), "%s: argument must be positive, found %g", a->name, x);
+        return false;
+    }
+    return finite_result(cx, a, f(x), out, DIM_NONE);
+}
+
+bool fn_exp(CallCtx *cx, const CallArgs *a, Value *out) { return pure_unary(cx, a, out, exp, false); }
+bool fn_ln(CallCtx *cx, const CallArgs *a, Value *out) { return pure_unary(cx, a, out, log, true); }
+bool fn_log10(CallCtx *cx, const CallArgs *a, Value *out) { return pure_unary(cx, a, out, log10, true); }
+bool fn_sin(CallCtx *cx, const CallArgs *a, Value *out) { return pure_unary(cx, a, out, sin, false); }
+bool fn_cos(CallCtx *cx, const CallArgs *a, Value *out) { return pure_unary(cx, a, out, cos, false); }
+bool fn_tan(CallCtx *cx, const CallArgs *a, Value *out) { return pure_unary(cx, a, out, tan, false); }
+
+bool fn_atan(CallCtx *cx, const CallArgs *a, Value *out)
+{
+    if (!pure_unary(cx, a, out, atan, false))
+        return false;
+    out->hint[UNITS_US] = out->hint[UNITS_SI] = "rad";
+    return true;
+}
+
+static bool extremum(CallCtx *cx, const CallArgs *a, Value *out, int sign)
+{
+    const Value *best;
+    if (!any_number(cx, a, 0, &best))
+        return false;
+    for (size_t i = 1; i < a->n; i++) {
+        const Value *v;
+        if (!any_number(cx, a, i, &v))
+            return false;
+        if (!dim_eq(v->q.dim, best->q.dim) || (v->q.temp == TEMP_NONE) != (best->q.temp == TEMP_NONE)) {
+            char d0[96], di[96];
+            value_describe(&a->args[0], cx->units, d0, sizeof d0);
+            value_describe(v, cx->units, di, sizeof di);
+            diag_error(cx->diags, arg_pos(a, i),
+                       "%s: arguments must have one dimension; argument 1 is %s, argument %zu is %s",
+                       a->name, d0, i + 1, di);
+            return false;
+        }
+        if ((sign > 0 && v->q.si > best->q.si) || (sign < 0 && v->q.si < best->q.si))
+            best = v;
+    }
+    *out = *best;
+    return true;
+}
+
+bool fn_max(CallCtx *cx, const CallArgs *a, Value *out) { return extremum(cx, a, out, +1); }
+bool fn_min(CallCtx *cx, const CallArgs *a, Value *out) { return extremum(cx, a, out, -1); }

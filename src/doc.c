@@ -1,0 +1,402 @@
+/* doc.c — loading a document and resolving its names.
+ *
+ * doc_load chains the reading stages: source bytes (checked and hashed) ->
+ * front matter -> Markdown with calc and sources fences -> name resolution.
+ * Resolution is where the language's two rules are enforced: a name is
+ * defined once, and only used after its definition. It also records, for
+ * each statement, the slots it reads, which the evaluator follows to
+ * re-evaluate dependents during `solve` and parametric cases. */
+#include "doc.h"
+
+#include <stdint.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "frontmatter.h"
+#include "library.h"
+#include "markdown.h"
+#include "source.h"
+
+/* ---- name table: open addressing, names -> slots ---------------------- */
+
+struct NameTable {
+    const char **keys;
+    int *slots;
+    size_t cap;
+    size_t len;
+};
+
+static uint64_t hash_name(const char *s)
+{
+    uint64_t h = 1469598103934665603u; /* FNV-1a */
+    for (; *s; s++) {
+        h ^= (unsigned char)*s;
+        h *= 1099511628211u;
+    }
+    return h;
+}
+
+static NameTable *names_new(Arena *a, size_t expected)
+{
+    NameTable *t = arena_alloc(a, sizeof *t);
+    size_t cap = 16;
+    while (cap < expected * 2 + 1)
+        cap *= 2;
+    t->cap = cap;
+    t->keys = arena_alloc(a, cap * sizeof *t->keys);
+    t->slots = arena_alloc(a, cap * sizeof *t->slots);
+    return t;
+}
+
+static size_t names_find(const NameTable *t, const char *name)
+{
+    size_t i = (size_t)hash_name(name) & (t->cap - 1);
+    while (t->keys[i] && strcmp(t->keys[i], name) != 0)
+        i = (i + 1) & (t->cap - 1);
+    return i;
+}
+
+int doc_lookup(const Document *doc, const char *name)
+{
+    if (!doc->names)
+        return -1;
+    size_t i = names_find(doc->names, name);
+    return doc->names->keys[i] ? doc->names->slots[i] : -1;
+}
+
+const char *doc_source_line(const Document *doc, int line, size_t *len)
+{
+    if (line < 1 || (size_t)line > doc->nlines)
+        return NULL;
+    const char *p = doc->text + doc->line_start[line - 1], *end = doc->text + doc->len;
+    const char *nl = memchr(p, '\n', (size_t)(end - p));
+    size_t n = (size_t)((nl ? nl : end) - p);
+    if (n && p[n - 1] == '\r')
+        n--;
+    *len = n;
+    return p;
+}
+
+/* ---- resolution --------------------------------------------------------- */
+
+typedef struct Resolver {
+    Document *doc;
+    DiagList *diags;
+    int current;             /* statement being resolved */
+    Vec deps;                /* slots read, as (void *)(intptr_t)(slot + 1) */
+} Resolver;
+
+static size_t edit_distance(const char *a, const char *b)
+{
+    size_t la = strlen(a), lb = strlen(b);
+    if (la > 40 || lb > 40)
+        return 99;
+    size_t d[41][41];
+    for (size_t i = 0; i <= la; i++)
+        d[i][0] = i;
+    for (size_t j = 0; j <= lb; j++)
+        d[0][j] = j;
+    for (size_t i = 1; i <= la; i++)
+        for (size_t j = 1; j <= lb; j++) {
+            size_t c = d[i - 1][j - 1] + (a[i - 1] != b[j - 1]);
+            if (d[i - 1][j] + 1 < c)
+                c = d[i - 1][j] + 1;
+            if (d[i][j - 1] + 1 < c)
+                c = d[i][j - 1] + 1;
+            d[i][j] = c;
+        }
+    return d[la][lb];
+}
+
+/* The closest name defined before `before`, for "did you mean". */
+static const char *closest_name(const Document *doc, const char *name, int before)
+{
+    const char *best = NULL;
+    size_t best_d = strlen(name) <= 3 ? 1 : 2;
+    best_d++;
+    for (int i = 0; i < before && i < (int)doc->nstmts; i++) {
+        const Stmt *s = doc->stmts[i];
+        if (!s->name || s->kind == STMT_CHECK)
+            continue;
+        size_t d = edit_distance(name, s->name);
+        if (d < best_d) {
+            best_d = d;
+            best = s->name;
+        }
+    }
+    return best;
+}
+
+static void note_dep(Resolver *r, int slot)
+{
+    if (slot >= 0)
+        vec_push(&r->deps, (void *)(intptr_t)(slot + 1));
+}
+
+static int resolve_name(Resolver *r, const char *name, Pos pos)
+{
+    if (strcmp(name, "pi") == 0)
+        return SLOT_PI;
+    if (strcmp(name, "g") == 0)
+        return SLOT_G;
+    int slot = doc_lookup(r->doc, name);
+    if (slot >= 0 && slot < r->current) {
+        note_dep(r, slot);
+        return slot;
+    }
+    if (slot >= 0) {
+        const Stmt *def = r->doc->stmts[slot];
+        if (slot == r->current)
+            diag_error(r->diags, pos, "'%s' is used in its own definition", name);
+        else
+            diag_error(r->diags, pos, "'%s' is used before its definition at %d:%d", name, def->name_pos.line,
+                       def->name_pos.col);
+        return SLOT_UNRESOLVED;
+    }
+    if (builtin_lookup(name)) {
+        diag_error(r->diags, pos, "'%s' is a function; call it as %s(...)", name, name);
+        return SLOT_UNRESOLVED;
+    }
+    const char *near = closest_name(r->doc, name, r->current);
+    if (near)
+        diag_error(r->diags, pos, "unknown name '%s'; did you mean %s?", name, near);
+    else
+        diag_error(r->diags, pos, "unknown name '%s'", name);
+    return SLOT_UNRESOLVED;
+}
+
+static int resolve_expr(Resolver *r, Expr *e)
+{
+    if (!e)
+        return 0;
+    int ok = 1;
+    switch (e->kind) {
+    case EXPR_NUMBER:
+    case EXPR_STRING:
+        break;
+    case EXPR_NAME:
+        e->slot = resolve_name(r, e->text, e->pos);
+        ok = e->slot != SLOT_UNRESOLVED;
+        break;
+    case EXPR_NEG:
+    case EXPR_PAREN:
+    case EXPR_FIELD:
+        ok = resolve_expr(r, e->lhs);
+        break;
+    case EXPR_BINARY:
+        ok = resolve_expr(r, e->lhs);
+        ok = resolve_expr(r, e->rhs) && ok;
+        break;
+    case EXPR_CALL:
+        if (!builtin_lookup(e->text)) {
+            int slot = doc_lookup(r->doc, e->text);
+            if (slot >= 0 && slot < r->current) {
+                e->callee_slot = slot;
+                note_dep(r, slot);
+            } else {
+                e->callee_slot = resolve_name(r, e->text, e->pos);
+                if (e->callee_slot < 0) {
+                    e->callee_slot = -1;
+                    ok = 0;
+                }
+            }
+        }
+        for (size_t i = 0; i < e->nargs; i++)
+            ok = resolve_expr(r, e->args[i]) && ok;
+        for (size_t i = 0; i < e->nkw; i++)
+            ok = resolve_expr(r, e->kw[i]) && ok;
+        break;
+    }
+    return ok;
+}
+
+static int cmp_int(const void *a, const void *b)
+{
+    int x = *(const int *)a, y = *(const int *)b;
+    return (x > y) - (x < y);
+}
+
+static void resolve_statements(Document *doc, DiagList *diags)
+{
+    doc->names = names_new(&doc->arena, doc->nstmts);
+    /* First pass: every definition, so "used before its definition" can name
+     * the later line. A name defined twice keeps its first definition. */
+    for (size_t i = 0; i < doc->nstmts; i++) {
+        Stmt *s = doc->stmts[i];
+        if ((s->kind != STMT_DEF && s->kind != STMT_SOLVE) || !s->name)
+            continue;
+        size_t k = names_find(doc->names, s->name);
+        if (doc->names->keys[k]) {
+            const Stmt *first = doc->stmts[doc->names->slots[k]];
+            diag_error(diags, s->name_pos, "'%s' is already defined at %d:%d; names are assigned once", s->name,
+                       first->name_pos.line, first->name_pos.col);
+            s->parse_failed = 1;
+            continue;
+        }
+        doc->names->keys[k] = s->name;
+        doc->names->slots[k] = (int)i;
+        doc->names->len++;
+    }
+    /* Check labels are unique: reviewers and diffs refer to them. */
+    NameTable *labels = names_new(&doc->arena, doc->nstmts);
+    for (size_t i = 0; i < doc->nstmts; i++) {
+        Stmt *s = doc->stmts[i];
+        if (s->kind != STMT_CHECK || !s->label)
+            continue;
+        size_t k = names_find(labels, s->label);
+        if (labels->keys[k]) {
+            const Stmt *first = doc->stmts[labels->slots[k]];
+            diag_error(diags, s->name_pos, "check '%s' is already defined at %d:%d", s->label, first->pos.line,
+                       first->pos.col);
+            continue;
+        }
+        labels->keys[k] = s->label;
+        labels->slots[k] = (int)i;
+    }
+
+    Resolver r = {doc, diags, 0, {0}};
+    for (size_t i = 0; i < doc->nstmts; i++) {
+        Stmt *s = doc->stmts[i];
+        r.current = (int)i;
+        r.deps.len = 0;
+        for (size_t c = 0; c < s->ncites; c++) {
+            Cite *ct = &s->cites[c];
+            for (size_t k = 0; k < doc->nsources; k++)
+                if (strcmp(doc->sources[k].key, ct->key) == 0) {
+                    ct->source = (int)k;
+                    doc->sources[k].cited = true;
+                }
+            if (ct->source < 0) {
+                if (doc->nsources)
+                    diag_error(diags, ct->pos, "unknown source key '%s' (define it in a ```sources block)", ct->key);
+                else
+                    diag_error(diags, ct->pos, "unknown source key '%s': the file has no ```sources block", ct->key);
+            }
+        }
+        if (s->parse_failed || s->kind == STMT_NOTE)
+            continue;
+        int ok = 1;
+        if (s->kind == STMT_DEF) {
+            ok = resolve_expr(&r, s->expr);
+        } else if (s->kind == STMT_CHECK) {
+            ok = resolve_expr(&r, s->lhs);
+            ok = resolve_expr(&r, s->rhs) && ok;
+        } else if (s->kind == STMT_SOLVE) {
+            s->var_slot = resolve_name(&r, s->var, s->var_pos);
+            ok = s->var_slot >= 0;
+            if (s->var_slot >= 0 && doc->stmts[s->var_slot]->kind == STMT_CHECK)
+                ok = 0;
+            ok = resolve_expr(&r, s->lhs) && ok;
+            ok = resolve_expr(&r, s->rhs) && ok;
+            if (s->lo)
+                ok = resolve_expr(&r, s->lo) && ok;
+            if (s->hi)
+                ok = resolve_expr(&r, s->hi) && ok;
+        }
+        if (!ok)
+            s->parse_failed = 1;
+        /* Sorted, unique slots. */
+        size_t n = r.deps.len;
+        int *deps = arena_alloc(&doc->arena, (n + 1) * sizeof *deps);
+        for (size_t k = 0; k < n; k++)
+            deps[k] = (int)(intptr_t)r.deps.items[k] - 1;
+        qsort(deps, n, sizeof *deps, cmp_int);
+        size_t u = 0;
+        for (size_t k = 0; k < n; k++)
+            if (u == 0 || deps[u - 1] != deps[k])
+                deps[u++] = deps[k];
+        s->deps = deps;
+        s->ndeps = u;
+    }
+    vec_free(&r.deps);
+}
+
+/* Inline {values} in prose may name anything defined in the calc. */
+static void resolve_inlines(Document *doc, Inline *in, DiagList *diags)
+{
+    for (; in; in = in->next) {
+        if (in->kind == INL_VALUE) {
+            in->slot = doc_lookup(doc, in->text);
+            if (in->slot < 0) {
+                const char *near = closest_name(doc, in->text, (int)doc->nstmts);
+                if (near)
+                    diag_error(diags, in->pos, "unknown name '%s' in an inline value; did you mean %s?", in->text, near);
+                else
+                    diag_error(diags, in->pos, "unknown name '%s' in an inline value", in->text);
+            }
+        }
+        if (in->children)
+            resolve_inlines(doc, in->children, diags);
+    }
+}
+
+static void resolve_blocks(Document *doc, Block *b, DiagList *diags)
+{
+    for (; b; b = b->next) {
+        resolve_inlines(doc, b->inlines, diags);
+        resolve_blocks(doc, b->children, diags);
+    }
+}
+
+/* ---- loading ------------------------------------------------------------ */
+
+Document *doc_from_text(const char *display_name, const char *text, size_t len, DiagList *diags)
+{
+    Document *doc = xcalloc(1, sizeof *doc);
+    arena_init(&doc->arena);
+    doc->file = arena_strdup(&doc->arena, display_name);
+    char *copy = arena_alloc(&doc->arena, len + 1);
+    memcpy(copy, text, len);
+    copy[len] = '\0';
+    doc->text = copy;
+    doc->len = len;
+    source_digest(text, len, doc->digest);
+    size_t nlines = 1;
+    for (size_t i = 0; i < len; i++)
+        nlines += text[i] == '\n';
+    doc->line_start = arena_alloc(&doc->arena, nlines * sizeof *doc->line_start);
+    doc->nlines = 0;
+    doc->line_start[doc->nlines++] = 0;
+    for (size_t i = 0; i < len; i++)
+        if (text[i] == '\n')
+            doc->line_start[doc->nlines++] = i + 1;
+    doc->meta.units = UNITS_US;
+    doc->meta.paper = PAPER_LETTER;
+    doc->meta.digits = 4;
+    if (len == 0) {
+        Pos p = {doc->file, 1, 1};
+        diag_error(diags, p, "the file is empty: a calc file needs at least one ```calc block");
+        return doc;
+    }
+    if (!source_check_text(text, len, doc->file, diags))
+        return doc;
+    size_t body = frontmatter_read(doc, diags);
+    markdown_read(doc, body, diags);
+    resolve_statements(doc, diags);
+    resolve_blocks(doc, doc->blocks, diags);
+    if (doc->nstmts == 0 && diags->errors == 0) {
+        Pos p = {doc->file, 1, 1};
+        diag_warning(diags, p, "the file has no calc statements (no ```calc block)");
+    }
+    return doc;
+}
+
+Document *doc_load(const char *path, DiagList *diags)
+{
+    const char *display = strcmp(path, "-") == 0 ? "<stdin>" : path;
+    size_t len = 0;
+    char *text = source_read(path, display, &len, diags);
+    if (!text)
+        return NULL;
+    Document *doc = doc_from_text(display, text, len, diags);
+    free(text);
+    return doc;
+}
+
+void doc_free(Document *doc)
+{
+    if (!doc)
+        return;
+    arena_free(&doc->arena);
+    free(doc);
+}

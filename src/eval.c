@@ -1,0 +1,736 @@
+/* eval.c — evaluating the statements of a document.
+ *
+ * Sequential and dimension-checked: every operation checks its operands'
+ * dimensions and temperature kinds and says, in the document's units, what
+ * it found. A statement whose inputs failed is marked not evaluated and not
+ * reported again. `solve` varies an earlier name and re-evaluates exactly the
+ * statements that depend on it (eval_recompute), which parametric cases use
+ * too. The evaluator never formats numbers for display: it picks display
+ * units and leaves the digits to the renderers. */
+#include "eval.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "numfmt.h"
+
+typedef struct Ctx {
+    Evaluated *ev;
+    Document *doc;
+    DiagList *diags;
+    CallCtx *call;           /* the statement's method list */
+    int upstream;            /* an input failed earlier: say nothing more */
+} Ctx;
+
+static const double STANDARD_GRAVITY = 9.80665; /* m/s^2, exact (CGPM 1901) */
+
+/* ---- describing operands in messages ----------------------------------- */
+
+/* "pressure (psi)": the dimension's word and the unit the operand was
+ * written or is shown in. */
+static void describe_operand(Ctx *c, const Expr *e, const Value *v, char *buf, size_t n)
+{
+    if (v->kind != VAL_NUMBER) {
+        value_describe(v, c->ev->units, buf, n);
+        return;
+    }
+    const char *unit = NULL;
+    const Expr *inner = e;
+    while (inner && inner->kind == EXPR_PAREN)
+        inner = inner->lhs;
+    Unit shown;
+    if (inner && inner->kind == EXPR_NUMBER && inner->has_unit) {
+        unit = inner->unit.text;
+    } else if (inner && inner->kind == EXPR_NAME && inner->slot >= 0) {
+        shown = c->ev->results[inner->slot].shown;
+        unit = shown.text[0] ? shown.text : NULL;
+    }
+    if (dim_is_none(v->q.dim)) {
+        snprintf(buf, n, "a pure number");
+        return;
+    }
+    const char *word = dim_name(v->q.dim);
+    if (!unit) {
+        shown = unit_default(v->q.dim, v->q.temp, c->ev->units);
+        unit = shown.text;
+    }
+    if (v->q.temp != TEMP_NONE)
+        snprintf(buf, n, "an absolute temperature (%s)", unit);
+    else if (word)
+        snprintf(buf, n, "%s (%s)", word, unit);
+    else
+        snprintf(buf, n, "a quantity in %s", unit);
+}
+
+static bool fail_upstream(Ctx *c)
+{
+    c->upstream = 1;
+    return false;
+}
+
+static bool finite_or_error(Ctx *c, Pos pos, double x, const char *what)
+{
+    if (isfinite(x))
+        return true;
+    diag_error(c->diags, pos, "%s: %s", what, isnan(x) ? "the result is not a number" : "the result overflows");
+    return false;
+}
+
+static bool eval_expr(Ctx *c, const Expr *e, Value *out);
+
+static bool need_number(Ctx *c, const Expr *e, const Value *v, const char *role)
+{
+    if (v->kind == VAL_NUMBER)
+        return true;
+    char got[96];
+    value_describe(v, c->ev->units, got, sizeof got);
+    diag_error(c->diags, e->pos, "%s must be a number, found %s", role, got);
+    return false;
+}
+
+static const char *op_verb(BinOp op)
+{
+    switch (op) {
+    case OP_ADD: return "add";
+    case OP_SUB: return "subtract";
+    case OP_MUL: return "multiply";
+    case OP_DIV: return "divide";
+    case OP_POW: return "raise";
+    }
+    return "combine";
+}
+
+/* Addition and subtraction with the temperature rules of DESIGN 2.3:
+ * absolute - absolute = difference; absolute ± difference = absolute;
+ * absolute + absolute and difference - absolute are errors. */
+static bool add_sub(Ctx *c, const Expr *e, const Value *a, const Value *b, Value *out)
+{
+    if (!dim_eq(a->q.dim, b->q.dim)) {
+        char da[128], db[128];
+        describe_operand(c, e->lhs, a, da, sizeof da);
+        describe_operand(c, e->rhs, b, db, sizeof db);
+        if (e->op == OP_ADD)
+            diag_error(c->diags, e->pos, "cannot add %s to %s", db, da);
+        else
+            diag_error(c->diags, e->pos, "cannot subtract %s from %s", db, da);
+        return false;
+    }
+    bool abs_a = a->q.temp != TEMP_NONE, abs_b = b->q.temp != TEMP_NONE;
+    TempKind kind = TEMP_NONE;
+    if (abs_a && abs_b) {
+        if (e->op == OP_ADD) {
+            diag_error(c->diags, e->pos,
+                       "cannot add two absolute temperatures; add a temperature difference "
+                       "(delta_degC, delta_degF) instead");
+            return false;
+        }
+        kind = TEMP_NONE; /* a difference */
+    } else if (abs_a) {
+        kind = a->q.temp;
+    } else if (abs_b) {
+        if (e->op == OP_SUB) {
+            diag_error(c->diags, e->pos, "cannot subtract an absolute temperature from a temperature difference");
+            return false;
+        }
+        kind = b->q.temp;
+    }
+    double x = e->op == OP_ADD ? a->q.si + b->q.si : a->q.si - b->q.si;
+    if (!finite_or_error(c, e->pos, x, e->op == OP_ADD ? "addition" : "subtraction"))
+        return false;
+    *out = value_number(qty(x, a->q.dim));
+    out->q.temp = kind;
+    return true;
+}
+
+static bool scalable(Ctx *c, const Expr *at, const Value *v, BinOp op)
+{
+    if (v->q.temp != TEMP_ABSOLUTE_OFFSET)
+        return true;
+    diag_error(c->diags, at->pos,
+               "cannot %s an absolute temperature on the Celsius or Fahrenheit scale; use a "
+               "difference (delta_degC, delta_degF) or kelvin", op_verb(op));
+    return false;
+}
+
+static bool eval_binary(Ctx *c, const Expr *e, Value *out)
+{
+    Value a, b;
+    bool ok_a = eval_expr(c, e->lhs, &a);
+    bool ok_b = eval_expr(c, e->rhs, &b);
+    if (!ok_a || !ok_b)
+        return false;
+    if (!need_number(c, e->lhs, &a, "the left operand") || !need_number(c, e->rhs, &b, "the right operand"))
+        return false;
+    switch (e->op) {
+    case OP_ADD:
+    case OP_SUB:
+        return add_sub(c, e, &a, &b, out);
+    case OP_MUL:
+    case OP_DIV: {
+        if (!scalable(c, e->lhs, &a, e->op) || !scalable(c, e->rhs, &b, e->op))
+            return false;
+        if (e->op == OP_DIV && b.q.si == 0) {
+            diag_error(c->diags, e->pos, "division by zero");
+            return false;
+        }
+        double x = e->op == OP_MUL ? a.q.si * b.q.si : a.q.si / b.q.si;
+        if (!finite_or_error(c, e->pos, x, e->op == OP_MUL ? "multiplication" : "division"))
+            return false;
+        Dim d = e->op == OP_MUL ? dim_mul(a.q.dim, b.q.dim) : dim_div(a.q.dim, b.q.dim);
+        *out = value_number(qty(x, d));
+        return true;
+    }
+    case OP_POW: {
+        if (!dim_is_none(b.q.dim)) {
+            char db[128];
+            describe_operand(c, e->rhs, &b, db, sizeof db);
+            diag_error(c->diags, e->rhs->pos, "an exponent must be a pure number, found %s", db);
+            return false;
+        }
+        if (!scalable(c, e->lhs, &a, e->op))
+            return false;
+        double p = b.q.si;
+        if (a.q.si < 0 && p != floor(p)) {
+            diag_error(c->diags, e->pos, "cannot raise a negative number to the fractional power %g", p);
+            return false;
+        }
+        if (a.q.si == 0 && p < 0) {
+            diag_error(c->diags, e->pos, "division by zero: zero raised to a negative power");
+            return false;
+        }
+        double x = pow(a.q.si, p);
+        if (!finite_or_error(c, e->pos, x, "power"))
+            return false;
+        *out = value_number(qty(x, dim_pow(a.q.dim, p)));
+        return true;
+    }
+    }
+    return false;
+}
+
+static bool eval_call(Ctx *c, const Expr *e, Value *out)
+{
+    size_t n = e->nargs, nk = e->nkw;
+    Value *args = arena_alloc(&c->doc->arena, (n + 1) * sizeof *args);
+    Pos *apos = arena_alloc(&c->doc->arena, (n + 1) * sizeof *apos);
+    Value *kw = arena_alloc(&c->doc->arena, (nk + 1) * sizeof *kw);
+    bool ok = true;
+    for (size_t i = 0; i < n; i++) {
+        ok = eval_expr(c, e->args[i], &args[i]) && ok;
+        apos[i] = e->args[i]->pos;
+    }
+    for (size_t i = 0; i < nk; i++)
+        ok = eval_expr(c, e->kw[i], &kw[i]) && ok;
+    if (!ok)
+        return false;
+    CallArgs ca = {n, args, apos, nk, e->kw_names, kw, e->kw_pos, e->pos, e->text};
+
+    if (e->callee_slot >= 0) {
+        const StmtResult *r = &c->ev->results[e->callee_slot];
+        if (r->state != RES_OK)
+            return fail_upstream(c);
+        if (r->value.kind != VAL_RECORD || !r->value.rec->call) {
+            char got[96];
+            value_describe(&r->value, c->ev->units, got, sizeof got);
+            diag_error(c->diags, e->pos, "'%s' is %s and cannot be called", e->text, got);
+            return false;
+        }
+        return r->value.rec->call(c->call, r->value.rec, &ca, out);
+    }
+    const Builtin *b = builtin_lookup(e->text);
+    if (!b) {
+        diag_error(c->diags, e->pos, "unknown function '%s'", e->text);
+        return false;
+    }
+    if ((int)n < b->min_args || (b->max_args >= 0 && (int)n > b->max_args)) {
+        if (b->min_args == b->max_args)
+            diag_error(c->diags, e->pos, "%s takes %d argument%s, found %zu", b->name, b->min_args,
+                       b->min_args == 1 ? "" : "s", n);
+        else if (b->max_args < 0)
+            diag_error(c->diags, e->pos, "%s takes at least %d argument%s, found %zu", b->name, b->min_args,
+                       b->min_args == 1 ? "" : "s", n);
+        else
+            diag_error(c->diags, e->pos, "%s takes %d to %d arguments, found %zu", b->name, b->min_args,
+                       b->max_args, n);
+        return false;
+    }
+    size_t before = c->diags->errors;
+    if (!b->fn(c->call, &ca, out)) {
+        if (c->diags->errors == before && c->diags->muted == 0)
+            diag_error(c->diags, e->pos, "%s: cannot be evaluated with these arguments", b->name);
+        return false;
+    }
+    if (out->kind == VAL_NUMBER && !finite_or_error(c, e->pos, out->q.si, b->name))
+        return false;
+    return true;
+}
+
+static bool eval_expr(Ctx *c, const Expr *e, Value *out)
+{
+    switch (e->kind) {
+    case EXPR_NUMBER:
+        if (!isfinite(e->number)) {
+            diag_error(c->diags, e->pos, "number '%s' is out of range", e->text);
+            return false;
+        }
+        *out = e->has_unit ? value_number(unit_to_qty(e->number, &e->unit)) : value_number(qty_number(e->number));
+        return finite_or_error(c, e->pos, out->q.si, "number");
+    case EXPR_STRING:
+        *out = value_string(e->text);
+        return true;
+    case EXPR_NAME:
+        if (e->slot == SLOT_PI) {
+            *out = value_number(qty_number(3.14159265358979323846));
+            return true;
+        }
+        if (e->slot == SLOT_G) {
+            *out = value_number(qty(STANDARD_GRAVITY, DIM_ACCEL));
+            return true;
+        }
+        if (e->slot < 0 || c->ev->results[e->slot].state != RES_OK)
+            return fail_upstream(c);
+        *out = c->ev->results[e->slot].value;
+        return true;
+    case EXPR_PAREN:
+        return eval_expr(c, e->lhs, out);
+    case EXPR_NEG: {
+        Value v;
+        if (!eval_expr(c, e->lhs, &v))
+            return false;
+        if (!need_number(c, e->lhs, &v, "the operand of '-'"))
+            return false;
+        if (v.q.temp != TEMP_NONE) {
+            diag_error(c->diags, e->pos, "cannot negate an absolute temperature");
+            return false;
+        }
+        v.q.si = -v.q.si;
+        *out = v;
+        return true;
+    }
+    case EXPR_BINARY:
+        return eval_binary(c, e, out);
+    case EXPR_FIELD: {
+        Value base;
+        if (!eval_expr(c, e->lhs, &base))
+            return false;
+        if (base.kind != VAL_RECORD) {
+            char got[96];
+            value_describe(&base, c->ev->units, got, sizeof got);
+            diag_error(c->diags, e->pos, "'.%s' reads a field of a record, but this is %s", e->text, got);
+            return false;
+        }
+        const Value *f = record_get(base.rec, e->text);
+        if (!f) {
+            char list[512] = "";
+            size_t len = 0;
+            for (size_t i = 0; i < base.rec->nfields && len < sizeof list - 40; i++)
+                len += (size_t)snprintf(list + len, sizeof list - len, "%s%s", i ? ", " : "", base.rec->fields[i].name);
+            diag_error(c->diags, e->pos, "a %s record has no field '%s' (it has: %s)", base.rec->type, e->text, list);
+            return false;
+        }
+        *out = *f;
+        return true;
+    }
+    case EXPR_CALL:
+        return eval_call(c, e, out);
+    }
+    return false;
+}
+
+/* ---- display units ------------------------------------------------------ */
+
+Unit eval_display_unit(const Evaluated *ev, const Value *v, const Unit *as_unit)
+{
+    if (as_unit)
+        return *as_unit;
+    const char *hint = v->hint[ev->units];
+    if (hint) {
+        Unit u;
+        size_t bo, bl;
+        if (unit_parse(hint, strlen(hint), &u, &bo, &bl) == UNIT_OK && dim_eq(u.dim, v->q.dim)) {
+            if (v->q.temp == TEMP_NONE && u.temp != TEMP_NONE)
+                return unit_default(v->q.dim, v->q.temp, ev->units);
+            return u;
+        }
+    }
+    return unit_default(v->q.dim, v->q.temp, ev->units);
+}
+
+/* `as UNIT` must fit the value: same dimension, and a point shown in a
+ * point unit, a difference in a difference unit. */
+static bool as_fits(Ctx *c, const Stmt *s, const Value *v)
+{
+    if (!s->has_as)
+        return true;
+    if (v->kind != VAL_NUMBER) {
+        diag_error(c->diags, s->as_pos, "'as %s' needs a number, but the value is %s", s->as_text,
+                   v->kind == VAL_STRING ? "a string" : "a record");
+        return false;
+    }
+    if (!dim_eq(v->q.dim, s->as_unit.dim)) {
+        char dv[128], du[128];
+        dim_describe(v->q.dim, v->q.temp, c->ev->units, dv, sizeof dv);
+        dim_describe(s->as_unit.dim, s->as_unit.temp, c->ev->units, du, sizeof du);
+        diag_error(c->diags, s->as_pos, "cannot show %s in %s, which is %s", dv, s->as_text, du);
+        return false;
+    }
+    if (v->q.temp != TEMP_NONE && s->as_unit.temp == TEMP_NONE && s->as_unit.offset == 0 &&
+        strncmp(s->as_unit.text, "delta_", 6) == 0) {
+        diag_error(c->diags, s->as_pos, "an absolute temperature is shown in degC, degF, K or degR, not %s", s->as_text);
+        return false;
+    }
+    if (v->q.temp == TEMP_NONE && s->as_unit.temp == TEMP_ABSOLUTE_OFFSET) {
+        diag_error(c->diags, s->as_pos,
+                   "this is a temperature difference; show it in delta_%s, not %s", s->as_text, s->as_text);
+        return false;
+    }
+    return true;
+}
+
+/* ---- statements --------------------------------------------------------- */
+
+static void eval_statement(Evaluated *ev, size_t i, DiagList *diags);
+
+typedef struct SolveCtx {
+    Evaluated *ev;
+    const Stmt *s;
+    DiagList *diags;
+    Dim dim;                 /* dimension of the equation's sides */
+} SolveCtx;
+
+static void set_var(Evaluated *ev, const Stmt *s, double x, DiagList *diags)
+{
+    StmtResult *v = &ev->results[s->var_slot];
+    v->value.q.si = x;
+    int changed = s->var_slot;
+    eval_recompute(ev, &changed, 1, (size_t)s->index, diags);
+}
+
+/* Evaluate both sides of the equation as they stand. */
+static bool equation_sides(Evaluated *ev, const Stmt *s, DiagList *diags, Value *l, Value *r)
+{
+    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0};
+    Ctx c = {ev, ev->doc, diags, &cc, 0};
+    bool ok = eval_expr(&c, s->lhs, l);
+    ok = eval_expr(&c, s->rhs, r) && ok;
+    return ok && l->kind == VAL_NUMBER && r->kind == VAL_NUMBER;
+}
+
+static bool residual_at(double x, void *vctx, double *fx)
+{
+    SolveCtx *sc = vctx;
+    sc->diags->muted++;
+    set_var(sc->ev, sc->s, x, sc->diags);
+    Value l, r;
+    bool ok = equation_sides(sc->ev, sc->s, sc->diags, &l, &r);
+    sc->diags->muted--;
+    if (!ok)
+        return false;
+    *fx = l.q.si - r.q.si;
+    return isfinite(*fx);
+}
+
+static void format_si(const Evaluated *ev, double si, Dim d, char *buf, size_t n)
+{
+    Unit u = unit_default(d, TEMP_NONE, ev->units);
+    char num[48];
+    num_sig(unit_from_si(si, &u, true), 4, num, sizeof num);
+    if (dim_is_none(d))
+        snprintf(buf, n, "%s", num);
+    else
+        snprintf(buf, n, "%s %s", num, u.text);
+}
+
+static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, DiagList *diags)
+{
+    Ctx c = {ev, ev->doc, diags, cc, 0};
+    StmtResult *var = &ev->results[s->var_slot];
+    if (var->state != RES_OK)
+        return;
+    if (var->value.kind != VAL_NUMBER) {
+        diag_error(diags, s->var_pos, "'%s' must be a number to be solved for", s->var);
+        res->state = RES_FAILED;
+        return;
+    }
+    Value trial = var->value;
+    /* Dimension check once, with errors shown, at the trial value. */
+    Value l, r;
+    bool ok = eval_expr(&c, s->lhs, &l);
+    ok = eval_expr(&c, s->rhs, &r) && ok;
+    if (!ok) {
+        res->state = c.upstream && diags->errors == 0 ? RES_NOT_EVALUATED : RES_FAILED;
+        return;
+    }
+    if (!need_number(&c, s->lhs, &l, "the left side of the equation") ||
+        !need_number(&c, s->rhs, &r, "the right side of the equation")) {
+        res->state = RES_FAILED;
+        return;
+    }
+    if (!dim_eq(l.q.dim, r.q.dim)) {
+        char dl[128], dr[128];
+        describe_operand(&c, s->lhs, &l, dl, sizeof dl);
+        describe_operand(&c, s->rhs, &r, dr, sizeof dr);
+        diag_error(diags, s->lhs->pos, "the two sides of the equation differ: %s on the left, %s on the right", dl, dr);
+        res->state = RES_FAILED;
+        return;
+    }
+    Value lo, hi;
+    bool bracket = s->lo && s->hi;
+    if (bracket) {
+        bool okb = eval_expr(&c, s->lo, &lo);
+        okb = eval_expr(&c, s->hi, &hi) && okb;
+        if (!okb) {
+            res->state = RES_FAILED;
+            return;
+        }
+        const Value *ends[2] = {&lo, &hi};
+        const Expr *ex[2] = {s->lo, s->hi};
+        for (int k = 0; k < 2; k++) {
+            if (ends[k]->kind != VAL_NUMBER || !dim_eq(ends[k]->q.dim, trial.q.dim)) {
+                char de[128], dv[128];
+                describe_operand(&c, ex[k], ends[k], de, sizeof de);
+                dim_describe(trial.q.dim, trial.q.temp, ev->units, dv, sizeof dv);
+                diag_error(diags, ex[k]->pos, "the bracket must have the dimension of '%s', %s; found %s", s->var, dv, de);
+                res->state = RES_FAILED;
+                return;
+            }
+        }
+    }
+    SolveCtx sc = {ev, s, diags, l.q.dim};
+    double scale = fabs(trial.q.si) > 0 ? fabs(trial.q.si) : 1.0;
+    SolveReport rep = bracket ? solve_brent(residual_at, &sc, lo.q.si, hi.q.si, 1e-15 * scale)
+                              : solve_expand(residual_at, &sc, trial.q.si, trial.q.si > 0, 1e-15 * scale);
+    /* At the root: record both sides, then put the varied name back. */
+    if (rep.status == SOLVE_OK) {
+        diags->muted++;
+        set_var(ev, s, rep.root, diags);
+        Value lr, rr;
+        bool okr = equation_sides(ev, s, diags, &lr, &rr);
+        diags->muted--;
+        if (okr) {
+            res->lhs = lr;
+            res->rhs = rr;
+            res->lhs_shown = eval_display_unit(ev, &lr, NULL);
+            res->rhs_shown = eval_display_unit(ev, &rr, NULL);
+        }
+    }
+    diags->muted++;
+    var->value = trial;
+    set_var(ev, s, trial.q.si, diags);
+    diags->muted--;
+    res->solve = rep;
+    if (rep.status != SOLVE_OK) {
+        char a[64], b[64], fa[64], fb[64];
+        Unit vu = var->shown;
+        Value va = value_number(qty(rep.start_lo, trial.q.dim)), vb = value_number(qty(rep.start_hi, trial.q.dim));
+        va.q.temp = vb.q.temp = trial.q.temp;
+        char na[40], nb[40];
+        num_sig(unit_from_si(va.q.si, &vu, trial.q.temp == TEMP_NONE), 4, na, sizeof na);
+        num_sig(unit_from_si(vb.q.si, &vu, trial.q.temp == TEMP_NONE), 4, nb, sizeof nb);
+        snprintf(a, sizeof a, "%s %s", na, vu.text);
+        snprintf(b, sizeof b, "%s %s", nb, vu.text);
+        format_si(ev, rep.f_lo, l.q.dim, fa, sizeof fa);
+        format_si(ev, rep.f_hi, l.q.dim, fb, sizeof fb);
+        Pos at = s->lo ? s->lo->pos : s->var_pos;
+        switch (rep.status) {
+        case SOLVE_NO_BRACKET:
+            diag_error(diags, at,
+                       "no root of the equation between %s and %s: the residual (left - right) is %s "
+                       "and %s there, of the same sign", a, b, fa, fb);
+            break;
+        case SOLVE_NOT_FINITE:
+            if (bracket)
+                diag_error(diags, at, "the equation cannot be evaluated everywhere between %s and %s "
+                                      "(a value is not finite or a function fails there)", a, b);
+            else
+                diag_error(diags, at, "no root found by expanding around the trial value of '%s' "
+                                      "(reached %s to %s); give a bracket with 'between LO and HI'", s->var, a, b);
+            break;
+        case SOLVE_MAX_ITER:
+            diag_error(diags, at, "the solver did not converge in %d iterations", SOLVE_MAX_ITERATIONS);
+            break;
+        default:
+            break;
+        }
+        res->state = RES_FAILED;
+        return;
+    }
+    Value v = value_number(qty(rep.root, trial.q.dim));
+    v.q.temp = trial.q.temp;
+    if (!as_fits(&c, s, &v)) {
+        res->state = RES_FAILED;
+        return;
+    }
+    res->value = v;
+    res->shown = s->has_as ? s->as_unit : var->shown;
+    res->state = RES_OK;
+}
+
+static void eval_check(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
+{
+    Value l, r;
+    bool ok = eval_expr(c, s->lhs, &l);
+    ok = eval_expr(c, s->rhs, &r) && ok;
+    if (!ok) {
+        res->state = c->upstream && !ok ? RES_NOT_EVALUATED : RES_FAILED;
+        return;
+    }
+    if (!need_number(c, s->lhs, &l, "the left side of a check") ||
+        !need_number(c, s->rhs, &r, "the right side of a check")) {
+        res->state = RES_FAILED;
+        return;
+    }
+    if (!dim_eq(l.q.dim, r.q.dim) || (l.q.temp == TEMP_NONE) != (r.q.temp == TEMP_NONE)) {
+        char dl[128], dr[128];
+        describe_operand(c, s->lhs, &l, dl, sizeof dl);
+        describe_operand(c, s->rhs, &r, dr, sizeof dr);
+        diag_error(c->diags, s->lhs->pos, "cannot compare %s with %s", dl, dr);
+        res->state = RES_FAILED;
+        return;
+    }
+    double a = l.q.si, b = r.q.si;
+    switch (s->cmp) {
+    case CMP_LE: res->holds = a <= b; break;
+    case CMP_LT: res->holds = a < b; break;
+    case CMP_GE: res->holds = a >= b; break;
+    case CMP_GT: res->holds = a > b; break;
+    }
+    double num = (s->cmp == CMP_LE || s->cmp == CMP_LT) ? a : b;
+    double den = (s->cmp == CMP_LE || s->cmp == CMP_LT) ? b : a;
+    res->utilization = den != 0 ? num / den : NAN;
+    res->lhs = l;
+    res->rhs = r;
+    res->lhs_shown = eval_display_unit(ev, &l, NULL);
+    res->rhs_shown = eval_display_unit(ev, &r, NULL);
+    /* Both sides in one unit, so a reviewer compares like with like: the
+     * limit's unit if it was written with one, else the left side's. */
+    if (dim_eq(l.q.dim, r.q.dim))
+        res->lhs_shown = res->rhs_shown;
+    res->state = RES_OK;
+}
+
+static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
+{
+    const Stmt *s = ev->doc->stmts[i];
+    StmtResult *res = &ev->results[i];
+    memset(res, 0, sizeof *res);
+    if (s->parse_failed || s->kind == STMT_NOTE)
+        return;
+    for (size_t k = 0; k < s->ndeps; k++)
+        if (ev->results[s->deps[k]].state != RES_OK)
+            return; /* not evaluated: an input failed */
+    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0};
+    Ctx c = {ev, ev->doc, diags, &cc, 0};
+    switch (s->kind) {
+    case STMT_DEF: {
+        Value v;
+        if (!eval_expr(&c, s->expr, &v)) {
+            res->state = c.upstream ? RES_NOT_EVALUATED : RES_FAILED;
+            break;
+        }
+        if (!as_fits(&c, s, &v)) {
+            res->state = RES_FAILED;
+            break;
+        }
+        res->value = v;
+        if (v.kind == VAL_NUMBER) {
+            /* A plain reference to another name keeps that name's unit. */
+            const Expr *e = s->expr;
+            while (e->kind == EXPR_PAREN)
+                e = e->lhs;
+            if (!s->has_as && e->kind == EXPR_NAME && e->slot >= 0)
+                res->shown = ev->results[e->slot].shown;
+            else
+                res->shown = eval_display_unit(ev, &v, s->has_as ? &s->as_unit : NULL);
+        }
+        res->state = RES_OK;
+        break;
+    }
+    case STMT_SOLVE:
+        eval_solve(ev, s, res, &cc, diags);
+        break;
+    case STMT_CHECK:
+        eval_check(ev, s, res, &c);
+        break;
+    case STMT_NOTE:
+        break;
+    }
+    memcpy(res->methods, cc.methods, sizeof res->methods);
+    res->nmethods = cc.nmethods;
+}
+
+void eval_recompute(Evaluated *ev, const int *changed, size_t nchanged, size_t upto, DiagList *diags)
+{
+    size_t n = ev->doc->nstmts;
+    if (upto > n)
+        upto = n;
+    if (nchanged == 0)
+        return;
+    int first = changed[0];
+    for (size_t k = 1; k < nchanged; k++)
+        if (changed[k] < first)
+            first = changed[k];
+    if (first < 0 || (size_t)first >= upto)
+        return;
+    /* dirty marks live for this call only */
+    unsigned char stack_marks[256];
+    unsigned char *dirty = n <= sizeof stack_marks ? stack_marks : xcalloc(n, 1);
+    memset(dirty, 0, n <= sizeof stack_marks ? n : 0);
+    for (size_t k = 0; k < nchanged; k++)
+        if (changed[k] >= 0 && (size_t)changed[k] < n)
+            dirty[changed[k]] = 1;
+    for (size_t i = (size_t)first + 1; i < upto; i++) {
+        const Stmt *s = ev->doc->stmts[i];
+        bool hit = false;
+        for (size_t k = 0; k < s->ndeps && !hit; k++)
+            hit = dirty[s->deps[k]] != 0;
+        if (s->kind == STMT_SOLVE && s->var_slot >= 0 && dirty[s->var_slot])
+            hit = true;
+        if (!hit)
+            continue;
+        eval_statement(ev, i, diags);
+        dirty[i] = 1;
+    }
+    if (dirty != stack_marks)
+        free(dirty);
+}
+
+static void note_methods(Evaluated *ev, const StmtResult *r, Vec *all)
+{
+    for (size_t k = 0; k < r->nmethods; k++) {
+        bool seen = false;
+        for (size_t j = 0; j < all->len && !seen; j++)
+            seen = all->items[j] == r->methods[k];
+        if (!seen)
+            vec_push(all, (void *)r->methods[k]);
+    }
+    (void)ev;
+}
+
+Evaluated *eval_document(Document *doc, DiagList *diags)
+{
+    Evaluated *ev = arena_alloc(&doc->arena, sizeof *ev);
+    ev->doc = doc;
+    ev->units = doc->meta.units;
+    ev->digits = doc->meta.digits;
+    ev->results = arena_alloc(&doc->arena, (doc->nstmts + 1) * sizeof *ev->results);
+    Vec all = {0};
+    for (size_t i = 0; i < doc->nstmts; i++) {
+        eval_statement(ev, i, diags);
+        const StmtResult *r = &ev->results[i];
+        note_methods(ev, r, &all);
+        if (doc->stmts[i]->kind == STMT_CHECK && r->state == RES_OK) {
+            ev->nchecks++;
+            if (!r->holds)
+                ev->nfailed++;
+        }
+    }
+    ev->nmethods = all.len;
+    ev->methods = arena_alloc(&doc->arena, (all.len + 1) * sizeof *ev->methods);
+    for (size_t i = 0; i < all.len; i++)
+        ev->methods[i] = all.items[i];
+    vec_free(&all);
+    return ev;
+}

@@ -1,0 +1,286 @@
+/* frontmatter.c — the YAML front matter, read with libyaml.
+ *
+ * The block is loaded as a YAML document (libyaml's node API keeps the line
+ * of every node), then walked against the list of known keys. Scalars are
+ * copied into the document's Arena. Defaults: US units, letter paper, four
+ * significant digits. */
+#include "frontmatter.h"
+
+#include <ctype.h>
+#include <stdlib.h>
+#include <string.h>
+#include <yaml.h>
+
+typedef struct FmCtx {
+    Document *doc;
+    DiagList *diags;
+    yaml_document_t *y;
+    int line0;           /* file line of the YAML text's first line, minus 1 */
+} FmCtx;
+
+static Pos node_pos(const FmCtx *c, const yaml_node_t *n)
+{
+    Pos p = {c->doc->file, (int)n->start_mark.line + 1 + c->line0, (int)n->start_mark.column + 1};
+    return p;
+}
+
+static const char *scalar(FmCtx *c, yaml_node_t *n, const char *key)
+{
+    if (!n || n->type != YAML_SCALAR_NODE) {
+        if (n)
+            diag_error(c->diags, node_pos(c, n), "front matter: '%s' must be a single value (text), not a list or mapping", key);
+        return NULL;
+    }
+    return arena_strndup(&c->doc->arena, (const char *)n->data.scalar.value, n->data.scalar.length);
+}
+
+/* YYYY-MM-DD with a real calendar day. */
+static int valid_date(const char *s)
+{
+    if (strlen(s) != 10 || s[4] != '-' || s[7] != '-')
+        return 0;
+    for (int i = 0; i < 10; i++)
+        if (i != 4 && i != 7 && !isdigit((unsigned char)s[i]))
+            return 0;
+    int y = atoi(s), m = atoi(s + 5), d = atoi(s + 8);
+    static const int days[] = {31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
+    if (m < 1 || m > 12 || d < 1)
+        return 0;
+    int leap = (y % 4 == 0 && y % 100 != 0) || y % 400 == 0;
+    return d <= days[m - 1] + (m == 2 && leap);
+}
+
+static const char *date_value(FmCtx *c, yaml_node_t *n, const char *key)
+{
+    const char *s = scalar(c, n, key);
+    if (s && !valid_date(s)) {
+        diag_error(c->diags, node_pos(c, n), "front matter: '%s' must be a date written YYYY-MM-DD, found '%s'", key, s);
+        return NULL;
+    }
+    return s;
+}
+
+/* `prepared: Name` or `prepared: {name: Name, date: 2026-11-20}` */
+static void person(FmCtx *c, yaml_node_t *n, const char *key, const char **name, const char **date)
+{
+    if (n->type == YAML_SCALAR_NODE) {
+        *name = scalar(c, n, key);
+        return;
+    }
+    if (n->type != YAML_MAPPING_NODE) {
+        diag_error(c->diags, node_pos(c, n), "front matter: '%s' must be a name or {name: ..., date: YYYY-MM-DD}", key);
+        return;
+    }
+    for (yaml_node_pair_t *pr = n->data.mapping.pairs.start; pr < n->data.mapping.pairs.top; pr++) {
+        yaml_node_t *k = yaml_document_get_node(c->y, pr->key);
+        yaml_node_t *v = yaml_document_get_node(c->y, pr->value);
+        const char *ks = k && k->type == YAML_SCALAR_NODE ? (const char *)k->data.scalar.value : "";
+        if (strcmp(ks, "name") == 0)
+            *name = scalar(c, v, key);
+        else if (strcmp(ks, "date") == 0)
+            *date = date_value(c, v, key);
+        else
+            diag_error(c->diags, node_pos(c, k), "front matter: unknown key '%s' in '%s' (expected name, date)", ks, key);
+    }
+}
+
+static void revisions(FmCtx *c, yaml_node_t *n)
+{
+    if (n->type != YAML_SEQUENCE_NODE) {
+        diag_error(c->diags, node_pos(c, n), "front matter: 'revisions' must be a list of {rev, date, by, note}");
+        return;
+    }
+    size_t count = (size_t)(n->data.sequence.items.top - n->data.sequence.items.start);
+    Meta *m = &c->doc->meta;
+    m->revisions = arena_alloc(&c->doc->arena, (count + 1) * sizeof *m->revisions);
+    for (yaml_node_item_t *it = n->data.sequence.items.start; it < n->data.sequence.items.top; it++) {
+        yaml_node_t *r = yaml_document_get_node(c->y, *it);
+        if (!r || r->type != YAML_MAPPING_NODE) {
+            if (r)
+                diag_error(c->diags, node_pos(c, r), "front matter: each revision must be {rev, date, by, note}");
+            continue;
+        }
+        Revision *rv = &m->revisions[m->nrevisions++];
+        for (yaml_node_pair_t *pr = r->data.mapping.pairs.start; pr < r->data.mapping.pairs.top; pr++) {
+            yaml_node_t *k = yaml_document_get_node(c->y, pr->key);
+            yaml_node_t *v = yaml_document_get_node(c->y, pr->value);
+            const char *ks = k && k->type == YAML_SCALAR_NODE ? (const char *)k->data.scalar.value : "";
+            if (strcmp(ks, "rev") == 0)
+                rv->rev = scalar(c, v, "rev");
+            else if (strcmp(ks, "date") == 0)
+                rv->date = date_value(c, v, "date");
+            else if (strcmp(ks, "by") == 0)
+                rv->by = scalar(c, v, "by");
+            else if (strcmp(ks, "note") == 0)
+                rv->note = scalar(c, v, "note");
+            else
+                diag_error(c->diags, node_pos(c, k), "front matter: unknown key '%s' in a revision (expected rev, date, by, note)", ks);
+        }
+        if (!rv->rev)
+            diag_error(c->diags, node_pos(c, r), "front matter: a revision needs 'rev'");
+    }
+}
+
+static int ieq(const char *a, const char *b)
+{
+    for (; *a && *b; a++, b++)
+        if (tolower((unsigned char)*a) != tolower((unsigned char)*b))
+            return 0;
+    return *a == *b;
+}
+
+static void one_key(FmCtx *c, const char *key, yaml_node_t *k, yaml_node_t *v)
+{
+    Meta *m = &c->doc->meta;
+    struct { const char *name; const char **slot; } texts[] = {
+        {"title", &m->title},     {"project", &m->project}, {"client", &m->client},
+        {"number", &m->number},   {"subject", &m->subject}, {"revision", &m->revision},
+        {"approved", &m->approved}, {"engineer", &m->engineer}, {"license", &m->license},
+        {"status", &m->status},
+    };
+    for (size_t i = 0; i < sizeof texts / sizeof texts[0]; i++)
+        if (strcmp(key, texts[i].name) == 0) {
+            *texts[i].slot = scalar(c, v, key);
+            return;
+        }
+    if (strcmp(key, "date") == 0) {
+        m->date = date_value(c, v, key);
+    } else if (strcmp(key, "prepared") == 0) {
+        person(c, v, key, &m->prepared, &m->prepared_date);
+    } else if (strcmp(key, "checked") == 0) {
+        person(c, v, key, &m->checked, &m->checked_date);
+    } else if (strcmp(key, "units") == 0) {
+        const char *s = scalar(c, v, key);
+        if (s && ieq(s, "US"))
+            m->units = UNITS_US;
+        else if (s && ieq(s, "SI"))
+            m->units = UNITS_SI;
+        else if (s)
+            diag_error(c->diags, node_pos(c, v), "front matter: 'units' must be US or SI, found '%s'", s);
+    } else if (strcmp(key, "paper") == 0) {
+        const char *s = scalar(c, v, key);
+        if (s && ieq(s, "letter"))
+            m->paper = PAPER_LETTER;
+        else if (s && ieq(s, "a4"))
+            m->paper = PAPER_A4;
+        else if (s)
+            diag_error(c->diags, node_pos(c, v), "front matter: 'paper' must be letter or a4, found '%s'", s);
+    } else if (strcmp(key, "digits") == 0) {
+        const char *s = scalar(c, v, key);
+        char *end = NULL;
+        long d = s ? strtol(s, &end, 10) : 0;
+        if (s && (*s == '\0' || *end != '\0' || d < 2 || d > 10))
+            diag_error(c->diags, node_pos(c, v), "front matter: 'digits' must be a whole number from 2 to 10, found '%s'", s);
+        else if (s)
+            m->digits = (int)d;
+    } else if (strcmp(key, "revisions") == 0) {
+        revisions(c, v);
+    } else {
+        diag_error(c->diags, node_pos(c, k),
+                   "front matter: unknown key '%s' (known: title, project, client, number, subject, "
+                   "revision, date, prepared, checked, approved, engineer, license, status, units, "
+                   "paper, digits, revisions)", key);
+    }
+}
+
+/* The line at `p` (without its newline) is exactly `mark` plus optional
+ * trailing spaces. */
+static int is_marker_line(const char *p, const char *end, const char *mark)
+{
+    size_t n = strlen(mark);
+    if ((size_t)(end - p) < n || memcmp(p, mark, n) != 0)
+        return 0;
+    p += n;
+    while (p < end && (*p == ' ' || *p == '\t' || *p == '\r'))
+        p++;
+    return p == end || *p == '\n';
+}
+
+size_t frontmatter_read(Document *doc, DiagList *diags)
+{
+    Meta *m = &doc->meta;
+    m->units = UNITS_US;
+    m->paper = PAPER_LETTER;
+    m->digits = 4;
+    const char *text = doc->text, *end = text + doc->len;
+    if (end - text >= 3 && memcmp(text, "\xEF\xBB\xBF", 3) == 0)
+        text += 3;
+    if (!is_marker_line(text, end, "---"))
+        return 0;
+    const char *body = memchr(text, '\n', (size_t)(end - text));
+    if (!body) {
+        Pos p = {doc->file, 1, 1};
+        diag_error(diags, p, "front matter opened with '---' is never closed (expected a closing '---' line)");
+        return doc->len;
+    }
+    body++;
+    const char *line = body, *close = NULL;
+    int closing_line = 2;
+    while (line < end) {
+        if (is_marker_line(line, end, "---") || is_marker_line(line, end, "...")) {
+            close = line;
+            break;
+        }
+        const char *nl = memchr(line, '\n', (size_t)(end - line));
+        if (!nl)
+            break;
+        line = nl + 1;
+        closing_line++;
+    }
+    if (!close) {
+        Pos p = {doc->file, 1, 1};
+        diag_error(diags, p, "front matter opened with '---' is never closed (expected a closing '---' line)");
+        return doc->len;
+    }
+    m->present = true;
+    const char *after = memchr(close, '\n', (size_t)(end - close));
+    size_t consumed = after ? (size_t)(after + 1 - doc->text) : doc->len;
+
+    yaml_parser_t parser;
+    yaml_document_t ydoc;
+    FmCtx c = {doc, diags, &ydoc, 1};
+    if (!yaml_parser_initialize(&parser)) {
+        Pos p = {doc->file, 1, 1};
+        diag_error(diags, p, "front matter: cannot start the YAML reader");
+        return consumed;
+    }
+    yaml_parser_set_input_string(&parser, (const unsigned char *)body, (size_t)(close - body));
+    if (!yaml_parser_load(&parser, &ydoc)) {
+        Pos p = {doc->file, (int)parser.problem_mark.line + 2, (int)parser.problem_mark.column + 1};
+        diag_error(diags, p, "front matter: %s%s%s", parser.problem ? parser.problem : "malformed YAML",
+                   parser.context ? " " : "", parser.context ? parser.context : "");
+        yaml_parser_delete(&parser);
+        return consumed;
+    }
+    yaml_node_t *root = yaml_document_get_root_node(&ydoc);
+    if (root && root->type == YAML_MAPPING_NODE) {
+        for (yaml_node_pair_t *pr = root->data.mapping.pairs.start; pr < root->data.mapping.pairs.top; pr++) {
+            yaml_node_t *k = yaml_document_get_node(&ydoc, pr->key);
+            yaml_node_t *v = yaml_document_get_node(&ydoc, pr->value);
+            if (!k || !v)
+                continue;
+            if (k->type != YAML_SCALAR_NODE) {
+                diag_error(diags, node_pos(&c, k), "front matter: keys must be plain words");
+                continue;
+            }
+            const char *key = (const char *)k->data.scalar.value;
+            /* A repeated key is an error too: YAML readers differ on which wins. */
+            for (yaml_node_pair_t *q = root->data.mapping.pairs.start; q < pr; q++) {
+                yaml_node_t *kq = yaml_document_get_node(&ydoc, q->key);
+                if (kq && kq->type == YAML_SCALAR_NODE && strcmp((const char *)kq->data.scalar.value, key) == 0) {
+                    diag_error(diags, node_pos(&c, k), "front matter: key '%s' is given twice", key);
+                    key = NULL;
+                    break;
+                }
+            }
+            if (key)
+                one_key(&c, key, k, v);
+        }
+    } else if (root && !(root->type == YAML_SCALAR_NODE && root->data.scalar.length == 0)) {
+        diag_error(diags, node_pos(&c, root), "front matter must be 'key: value' lines");
+    }
+    (void)closing_line;
+    yaml_document_delete(&ydoc);
+    yaml_parser_delete(&parser);
+    return consumed;
+}

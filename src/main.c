@@ -1,0 +1,389 @@
+/* main.c — the command line: check, build, convert.
+ *
+ * Each command chains the stages in one short function: load (source ->
+ * document tree) -> evaluate -> render. Diagnostics collected by every stage
+ * are printed here, and only here, with the source line and a caret. Reports
+ * are written to a temporary file beside the target and renamed into place,
+ * so a failed run never leaves a half-written report.
+ *
+ * Exit status: 0 done and every check holds; 1 a check fails (build: only
+ * with --strict); 2 the input has errors; 3 an I/O or internal failure. */
+#include <errno.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <unistd.h>
+
+#include "doc.h"
+#include "eval.h"
+#include "numfmt.h"
+#include "parse.h"
+#include "render.h"
+
+#ifndef HEADROOM_VERSION
+#define HEADROOM_VERSION "0.0.0"
+#endif
+
+enum { EXIT_HOLDS = 0, EXIT_CHECK_FAILS = 1, EXIT_INPUT = 2, EXIT_IO = 3 };
+
+static const char usage_text[] =
+    "usage: headroom COMMAND [ARGS]\n"
+    "\n"
+    "  headroom check FILE... [--json]\n"
+    "      evaluate; print diagnostics and a summary of the checks\n"
+    "  headroom build FILE [-o OUT] [--format pdf|text|json] [--strict]\n"
+    "      write the report (default: FILE without .md/.calc, plus .pdf)\n"
+    "  headroom convert \"VALUE UNIT\" UNIT\n"
+    "      convert a value between units (10 significant digits)\n"
+    "  headroom --help | --version\n"
+    "\n"
+    "Exit status: 0 every check holds; 1 a check fails (build: with --strict);\n"
+    "2 the input has errors (nothing is written); 3 an I/O or internal failure.\n"
+    "FILE may be '-' for standard input. NO_COLOR turns off colour.\n";
+
+static bool use_color(void)
+{
+    const char *nc = getenv("NO_COLOR");
+    return !(nc && nc[0]) && isatty(fileno(stderr));
+}
+
+static void print_diags(DiagList *dl, const Document *doc)
+{
+    diag_sort(dl);
+    diag_print(stderr, dl, doc ? doc->text : NULL, doc ? doc->len : 0, use_color());
+}
+
+/* Where `build` writes by default: riser.calc.md -> riser.pdf. */
+static char *default_output(const char *in, const char *ext)
+{
+    size_t n = strlen(in);
+    const char *suffixes[] = {".calc.md", ".md", ".calc"};
+    for (size_t i = 0; i < 3; i++) {
+        size_t k = strlen(suffixes[i]);
+        if (n > k && strcmp(in + n - k, suffixes[i]) == 0) {
+            n -= k;
+            break;
+        }
+    }
+    char *out = malloc(n + strlen(ext) + 1);
+    if (!out)
+        return NULL;
+    memcpy(out, in, n);
+    strcpy(out + n, ext);
+    return out;
+}
+
+/* ---- check ---------------------------------------------------------------- */
+
+static int cmd_check(int argc, char **argv)
+{
+    bool json = false;
+    size_t nfiles = 0;
+    char **files = calloc((size_t)argc + 1, sizeof *files);
+    for (int i = 0; i < argc; i++) {
+        if (strcmp(argv[i], "--json") == 0)
+            json = true;
+        else if (strcmp(argv[i], "--help") == 0) {
+            fputs("usage: headroom check FILE... [--json]\n"
+                  "Evaluate each calc file, print diagnostics and the checks.\n"
+                  "Exit 0 when every check holds, 1 when one fails, 2 on input errors.\n",
+                  stdout);
+            free(files);
+            return 0;
+        } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
+            fprintf(stderr, "headroom check: unknown option '%s'\n", argv[i]);
+            free(files);
+            return EXIT_INPUT;
+        } else
+            files[nfiles++] = argv[i];
+    }
+    if (nfiles == 0) {
+        fputs("headroom check: no FILE given\n", stderr);
+        free(files);
+        return EXIT_INPUT;
+    }
+    int status = EXIT_HOLDS;
+    DiagList all = {0};
+    Document **docs = calloc(nfiles, sizeof *docs);
+    Evaluated **evs = calloc(nfiles, sizeof *evs);
+    size_t nev = 0;
+    for (size_t f = 0; f < nfiles; f++) {
+        DiagList dl = {0};
+        Document *doc = doc_load(files[f], &dl);
+        docs[f] = doc;
+        if (!doc) {
+            print_diags(&dl, NULL);
+            diag_free(&dl);
+            status = EXIT_IO;
+            continue;
+        }
+        Evaluated *ev = eval_document(doc, &dl);
+        evs[nev++] = ev;
+        print_diags(&dl, doc);
+        if (dl.errors) {
+            if (status < EXIT_INPUT)
+                status = EXIT_INPUT;
+        } else if (ev->nfailed && status == EXIT_HOLDS) {
+            status = EXIT_CHECK_FAILS;
+        }
+        if (!json) {
+            printf("%s: %zu check%s, %zu hold%s, %zu fail%s%s\n", doc->file, ev->nchecks,
+                   ev->nchecks == 1 ? "" : "s", ev->nchecks - ev->nfailed,
+                   ev->nchecks - ev->nfailed == 1 ? "s" : "", ev->nfailed, ev->nfailed == 1 ? "s" : "",
+                   dl.errors ? " (input has errors)" : "");
+            for (size_t i = 0; i < doc->nstmts; i++) {
+                const Stmt *s = doc->stmts[i];
+                const StmtResult *r = &ev->results[i];
+                if (s->kind == STMT_CHECK && r->state == RES_OK) {
+                    char u[32];
+                    num_sig(r->utilization, 3, u, sizeof u);
+                    printf("  %-5s %s (utilisation %s)\n", r->holds ? "holds" : "FAILS", s->label, u);
+                }
+            }
+        }
+        /* Keep diagnostics for the JSON output. */
+        for (size_t i = 0; i < dl.len; i++)
+            diag_add(&all, dl.items[i].severity, dl.items[i].pos, "%s", dl.items[i].message);
+        diag_free(&dl);
+    }
+    if (json && nev > 0 && !ferror(stdout))
+        render_json((const Evaluated *const *)evs, &all, nev, stdout);
+    if (fflush(stdout) != 0 && status < EXIT_IO)
+        status = EXIT_IO;
+    diag_free(&all);
+    for (size_t f = 0; f < nfiles; f++)
+        doc_free(docs[f]);
+    free(docs);
+    free(evs);
+    free(files);
+    return status;
+}
+
+/* ---- build ---------------------------------------------------------------- */
+
+typedef enum Format { FMT_PDF, FMT_TEXT, FMT_JSON } Format;
+
+/* Render into a temporary file beside `out`, then rename it into place. */
+static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagList *dl)
+{
+    if (fmt != FMT_PDF && strcmp(out, "-") == 0) {
+        bool ok = fmt == FMT_TEXT ? render_text(ev, stdout) : render_json(&ev, dl, 1, stdout);
+        return ok && fflush(stdout) == 0 ? 0 : EXIT_IO;
+    }
+    size_t n = strlen(out);
+    char *tmp = malloc(n + 16);
+    if (!tmp)
+        return EXIT_IO;
+    snprintf(tmp, n + 16, "%s.tmp.XXXXXX", out);
+    int fd = mkstemp(tmp);
+    if (fd < 0) {
+        fprintf(stderr, "headroom: cannot write '%s': %s\n", out, strerror(errno));
+        free(tmp);
+        return EXIT_IO;
+    }
+    bool ok;
+    if (fmt == FMT_PDF) {
+        close(fd);
+        ok = render_pdf(ev, tmp, dl);
+    } else {
+        FILE *f = fdopen(fd, "wb");
+        if (!f) {
+            close(fd);
+            ok = false;
+        } else {
+            ok = fmt == FMT_TEXT ? render_text(ev, f) : render_json(&ev, dl, 1, f);
+            ok = (fclose(f) == 0) && ok;
+        }
+    }
+    if (ok && rename(tmp, out) != 0) {
+        fprintf(stderr, "headroom: cannot write '%s': %s\n", out, strerror(errno));
+        ok = false;
+    }
+    if (!ok) {
+        unlink(tmp);
+        if (dl->len)
+            print_diags(dl, ev->doc);
+        fprintf(stderr, "headroom: failed to write '%s'\n", out);
+    }
+    free(tmp);
+    return ok ? 0 : EXIT_IO;
+}
+
+static int cmd_build(int argc, char **argv)
+{
+    const char *file = NULL, *out = NULL;
+    Format fmt = FMT_PDF;
+    bool strict = false;
+    for (int i = 0; i < argc; i++) {
+        if (strcmp(argv[i], "-o") == 0 && i + 1 < argc) {
+            out = argv[++i];
+        } else if (strcmp(argv[i], "--format") == 0 && i + 1 < argc) {
+            const char *f = argv[++i];
+            if (strcmp(f, "pdf") == 0)
+                fmt = FMT_PDF;
+            else if (strcmp(f, "text") == 0)
+                fmt = FMT_TEXT;
+            else if (strcmp(f, "json") == 0)
+                fmt = FMT_JSON;
+            else {
+                fprintf(stderr, "headroom build: unknown format '%s' (pdf, text or json)\n", f);
+                return EXIT_INPUT;
+            }
+        } else if (strcmp(argv[i], "--strict") == 0) {
+            strict = true;
+        } else if (strcmp(argv[i], "--help") == 0) {
+            fputs("usage: headroom build FILE [-o OUT] [--format pdf|text|json] [--strict]\n"
+                  "Write the report. PDF goes to OUT or to FILE without .md/.calc plus .pdf;\n"
+                  "text and JSON go to OUT or standard output. Nothing is written when the\n"
+                  "input has errors (exit 2). A failing check is shown on the cover; the exit\n"
+                  "status is 0 unless --strict, then 1.\n",
+                  stdout);
+            return 0;
+        } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
+            fprintf(stderr, "headroom build: unknown or incomplete option '%s'\n", argv[i]);
+            return EXIT_INPUT;
+        } else if (!file) {
+            file = argv[i];
+        } else {
+            fprintf(stderr, "headroom build: one FILE at a time (found '%s' too)\n", argv[i]);
+            return EXIT_INPUT;
+        }
+    }
+    if (!file) {
+        fputs("headroom build: no FILE given\n", stderr);
+        return EXIT_INPUT;
+    }
+    DiagList dl = {0};
+    Document *doc = doc_load(file, &dl);
+    if (!doc) {
+        print_diags(&dl, NULL);
+        diag_free(&dl);
+        return EXIT_IO;
+    }
+    Evaluated *ev = eval_document(doc, &dl);
+    int status;
+    if (dl.errors) {
+        print_diags(&dl, doc);
+        status = EXIT_INPUT;
+    } else {
+        print_diags(&dl, doc); /* warnings */
+        char *def = NULL;
+        if (!out) {
+            if (fmt == FMT_PDF) {
+                def = default_output(strcmp(file, "-") == 0 ? "stdin" : file, ".pdf");
+                out = def;
+            } else {
+                out = "-";
+            }
+        }
+        DiagList wl = {0};
+        status = out ? write_report(ev, fmt, out, &wl) : EXIT_IO;
+        diag_free(&wl);
+        free(def);
+        if (status == 0 && strict && ev->nfailed)
+            status = EXIT_CHECK_FAILS;
+    }
+    diag_free(&dl);
+    doc_free(doc);
+    return status;
+}
+
+/* ---- convert -------------------------------------------------------------- */
+
+static int cmd_convert(int argc, char **argv)
+{
+    if (argc == 1 && strcmp(argv[0], "--help") == 0) {
+        fputs("usage: headroom convert \"VALUE UNIT\" UNIT\n"
+              "Print VALUE UNIT in UNIT with 10 significant digits, a space and the unit.\n"
+              "Example: headroom convert \"38 gal/min\" L/s\n",
+              stdout);
+        return 0;
+    }
+    if (argc != 2) {
+        fputs("usage: headroom convert \"VALUE UNIT\" UNIT\n", stderr);
+        return EXIT_INPUT;
+    }
+    DiagList dl = {0};
+    Pos p1 = {"value", 1, 1}, p2 = {"unit", 1, 1};
+    const char *s = argv[0];
+    size_t len = strlen(s);
+    size_t i = 0;
+    bool neg = false;
+    while (i < len && s[i] == ' ')
+        i++;
+    if (i < len && (s[i] == '-' || s[i] == '+')) {
+        neg = s[i] == '-';
+        i++;
+    }
+    double x;
+    size_t used = num_parse(s + i, len - i, &x);
+    int status = 0;
+    Unit from, to;
+    if (used == 0) {
+        p1.col = (int)i + 1;
+        diag_error(&dl, p1, "expected a number, found '%s'", s + i);
+        status = EXIT_INPUT;
+    } else {
+        i += used;
+        while (i < len && s[i] == ' ')
+            i++;
+        size_t end = len;
+        while (end > i && s[end - 1] == ' ')
+            end--;
+        p1.col = (int)i + 1;
+        if (end == i) {
+            diag_error(&dl, p1, "expected a unit after the number");
+            status = EXIT_INPUT;
+        } else if (!parse_unit(s + i, end - i, p1, &from, &dl)) {
+            status = EXIT_INPUT;
+        }
+        if (!parse_unit(argv[1], strlen(argv[1]), p2, &to, &dl))
+            status = EXIT_INPUT;
+    }
+    if (status == 0) {
+        if (neg)
+            x = -x;
+        Quantity q = unit_to_qty(x, &from);
+        if (!dim_eq(q.dim, to.dim)) {
+            char a[96], b[96];
+            dim_describe(from.dim, from.temp, UNITS_SI, a, sizeof a);
+            dim_describe(to.dim, to.temp, UNITS_SI, b, sizeof b);
+            diag_error(&dl, p2, "cannot convert %s to %s", a, b);
+            status = EXIT_INPUT;
+        } else {
+            /* A point converts to a point with offsets; a point into a
+             * difference unit (or back) converts as a difference. */
+            bool difference = q.temp == TEMP_NONE || to.temp == TEMP_NONE;
+            double y = unit_from_si(q.si, &to, difference);
+            char buf[64];
+            snprintf(buf, sizeof buf, "%.10g", y);
+            printf("%s %s\n", buf, argv[1]);
+        }
+    }
+    if (dl.len)
+        diag_print(stderr, &dl, NULL, 0, use_color());
+    diag_free(&dl);
+    return status;
+}
+
+int main(int argc, char **argv)
+{
+    if (argc < 2 || strcmp(argv[1], "--help") == 0 || strcmp(argv[1], "-h") == 0 ||
+        strcmp(argv[1], "help") == 0) {
+        fputs(usage_text, argc < 2 ? stderr : stdout);
+        return argc < 2 ? EXIT_INPUT : 0;
+    }
+    if (strcmp(argv[1], "--version") == 0) {
+        printf("headroom %s\n", HEADROOM_VERSION);
+        return 0;
+    }
+    const char *cmd = argv[1];
+    if (strcmp(cmd, "check") == 0)
+        return cmd_check(argc - 2, argv + 2);
+    if (strcmp(cmd, "build") == 0)
+        return cmd_build(argc - 2, argv + 2);
+    if (strcmp(cmd, "convert") == 0)
+        return cmd_convert(argc - 2, argv + 2);
+    fprintf(stderr, "headroom: unknown command '%s'\n%s", cmd, usage_text);
+    return EXIT_INPUT;
+}

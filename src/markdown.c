@@ -1,0 +1,538 @@
+/* markdown.c — from cmark-gfm's tree to the document model.
+ *
+ * Two details carry the design. Positions: calc lines are parsed from the
+ * original source lines (found by the code block's start line), so every
+ * column a diagnostic names is the column in the file, whatever container
+ * the fence sits in. Escapes: cmark turns `\{` into a plain `{`, which would
+ * make a literal brace look like an inline value; before parsing, `\{` is
+ * replaced by the same number of bytes (0x1A then `{`), a byte that cannot
+ * occur in a checked source, and restored afterwards. */
+#include "markdown.h"
+
+#include <cmark-gfm-core-extensions.h>
+#include <cmark-gfm.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "parse.h"
+#include "source.h"
+
+enum { ESCAPED_BRACE = 0x1A };
+
+typedef struct Md {
+    Document *doc;
+    DiagList *diags;
+    Vec stmts;
+    Vec sources;
+    int heading_count[6];
+    int too_deep;
+} Md;
+
+static Pos at(const Md *m, int line, int col)
+{
+    Pos p = {m->doc->file, line, col};
+    return p;
+}
+
+/* Restore the escape marker inside literal text (code keeps `\{`). */
+static char *literal_copy(Md *m, const char *s)
+{
+    size_t n = strlen(s);
+    char *d = arena_alloc(&m->doc->arena, n + 1);
+    for (size_t i = 0; i < n; i++)
+        d[i] = s[i] == ESCAPED_BRACE ? '\\' : s[i];
+    d[n] = '\0';
+    return d;
+}
+
+static Inline *new_inline(Md *m, InlineKind kind)
+{
+    Inline *in = arena_alloc(&m->doc->arena, sizeof *in);
+    in->kind = kind;
+    in->slot = SLOT_UNRESOLVED;
+    return in;
+}
+
+/* Split a text node into plain text and {value} pieces. `{name}`,
+ * `{rec.field}` and `{name as unit}`; anything else in braces is an error. */
+static Inline *split_text(Md *m, const char *s, int line, int col, Inline ***tail)
+{
+    Inline *first = NULL;
+    Inline **link = &first;
+    StrBuf plain = {0};
+    const char *orig_line = NULL;
+    size_t orig_len = 0;
+    orig_line = doc_source_line(m->doc, line, &orig_len);
+    size_t search_from = col > 0 ? (size_t)col - 1 : 0;
+    for (const char *p = s; *p;) {
+        if (*p == ESCAPED_BRACE && p[1] == '{') {
+            sb_putc(&plain, '{');
+            p += 2;
+            continue;
+        }
+        if (*p != '{') {
+            sb_putc(&plain, *p++);
+            continue;
+        }
+        const char *close = strchr(p, '}');
+        /* Locate the brace in the original line for an exact column. */
+        int vcol = col;
+        if (orig_line && search_from < orig_len) {
+            const char *hit = memchr(orig_line + search_from, '{', orig_len - search_from);
+            if (hit) {
+                vcol = (int)(hit - orig_line) + 1;
+                search_from = (size_t)(hit - orig_line) + 1;
+            }
+        }
+        if (!close) {
+            diag_error(m->diags, at(m, line, vcol), "'{' in prose opens an inline value but is never closed; write \\{ for a literal brace");
+            sb_puts(&plain, p);
+            break;
+        }
+        if (plain.len) {
+            Inline *t = new_inline(m, INL_TEXT);
+            t->text = arena_strdup(&m->doc->arena, sb_str(&plain));
+            *link = t;
+            link = &t->next;
+            sb_clear(&plain);
+        }
+        /* Inside: name[.field] [as unit] */
+        const char *q = p + 1;
+        while (q < close && *q == ' ')
+            q++;
+        const char *ns = q;
+        while (q < close && *q != ' ' && *q != '.')
+            q++;
+        Inline *v = new_inline(m, INL_VALUE);
+        v->pos = at(m, line, vcol + 1 + (int)(ns - p - 1));
+        v->text = arena_strndup(&m->doc->arena, ns, (size_t)(q - ns));
+        if (q < close && *q == '.') {
+            const char *fs = ++q;
+            while (q < close && *q != ' ')
+                q++;
+            v->field = arena_strndup(&m->doc->arena, fs, (size_t)(q - fs));
+        }
+        while (q < close && *q == ' ')
+            q++;
+        int bad = v->text[0] == '\0';
+        if (!bad && q < close) {
+            if ((size_t)(close - q) > 3 && memcmp(q, "as ", 3) == 0) {
+                const char *us = q + 3;
+                while (us < close && *us == ' ')
+                    us++;
+                const char *ue = close;
+                while (ue > us && ue[-1] == ' ')
+                    ue--;
+                Pos upos = at(m, line, vcol + 1 + (int)(us - p - 1));
+                if (ue > us && parse_unit(us, (size_t)(ue - us), upos, &v->as_unit, m->diags))
+                    v->has_as = 1;
+                else if (ue == us)
+                    bad = 1;
+            } else {
+                bad = 1;
+            }
+        }
+        if (bad)
+            diag_error(m->diags, at(m, line, vcol), "an inline value is written {name} or {name as unit}; write \\{ for a literal brace");
+        *link = v;
+        link = &v->next;
+        p = close + 1;
+    }
+    if (plain.len) {
+        Inline *t = new_inline(m, INL_TEXT);
+        t->text = arena_strdup(&m->doc->arena, sb_str(&plain));
+        *link = t;
+        link = &t->next;
+    }
+    sb_free(&plain);
+    *tail = link;
+    return first;
+}
+
+static Inline *convert_inlines(Md *m, cmark_node *parent, int depth);
+
+static void convert_one_inline(Md *m, cmark_node *n, Inline ***link, int depth)
+{
+    Inline *in = NULL;
+    switch (cmark_node_get_type(n)) {
+    case CMARK_NODE_TEXT: {
+        Inline **tail;
+        Inline *first = split_text(m, cmark_node_get_literal(n), cmark_node_get_start_line(n),
+                                   cmark_node_get_start_column(n), &tail);
+        if (first) {
+            **link = first;
+            *link = tail;
+        }
+        return;
+    }
+    case CMARK_NODE_CODE:
+        in = new_inline(m, INL_CODE);
+        in->text = literal_copy(m, cmark_node_get_literal(n));
+        break;
+    case CMARK_NODE_EMPH:
+        in = new_inline(m, INL_EMPH);
+        break;
+    case CMARK_NODE_STRONG:
+        in = new_inline(m, INL_STRONG);
+        break;
+    case CMARK_NODE_LINK:
+        in = new_inline(m, INL_LINK);
+        in->url = arena_strdup(&m->doc->arena, cmark_node_get_url(n) ? cmark_node_get_url(n) : "");
+        break;
+    case CMARK_NODE_SOFTBREAK:
+        in = new_inline(m, INL_SOFTBREAK);
+        break;
+    case CMARK_NODE_LINEBREAK:
+        in = new_inline(m, INL_LINEBREAK);
+        break;
+    case CMARK_NODE_HTML_INLINE:
+        in = new_inline(m, INL_CODE);
+        in->text = literal_copy(m, cmark_node_get_literal(n));
+        break;
+    case CMARK_NODE_IMAGE:
+        in = new_inline(m, INL_TEXT);
+        in->text = "[image]";
+        break;
+    default:
+        if (strcmp(cmark_node_get_type_string(n), "strikethrough") == 0)
+            in = new_inline(m, INL_STRIKE);
+        else {
+            in = new_inline(m, INL_TEXT);
+            in->text = literal_copy(m, cmark_node_get_literal(n) ? cmark_node_get_literal(n) : "");
+        }
+        break;
+    }
+    if (in->kind == INL_EMPH || in->kind == INL_STRONG || in->kind == INL_LINK || in->kind == INL_STRIKE)
+        in->children = convert_inlines(m, n, depth + 1);
+    **link = in;
+    *link = &in->next;
+}
+
+static Inline *convert_inlines(Md *m, cmark_node *parent, int depth)
+{
+    if (depth > MARKDOWN_MAX_DEPTH) {
+        if (!m->too_deep)
+            diag_error(m->diags, at(m, cmark_node_get_start_line(parent), cmark_node_get_start_column(parent)),
+                       "Markdown nested too deeply (more than %d levels)", MARKDOWN_MAX_DEPTH);
+        m->too_deep = 1;
+        return NULL;
+    }
+    Inline *first = NULL;
+    Inline **link = &first;
+    for (cmark_node *c = cmark_node_first_child(parent); c; c = cmark_node_next(c))
+        convert_one_inline(m, c, &link, depth);
+    return first;
+}
+
+/* Lines of a fenced block, each with its file line and the column of its
+ * first byte (the original line minus whatever prefix cmark removed). */
+static void each_fence_line(Md *m, cmark_node *n, void (*fn)(Md *, const char *, size_t, Pos, void *), void *ctx)
+{
+    const char *lit = cmark_node_get_literal(n);
+    if (!lit)
+        return;
+    int line = cmark_node_get_start_line(n) + 1;
+    for (const char *p = lit; *p; line++) {
+        const char *nl = strchr(p, '\n');
+        size_t len = nl ? (size_t)(nl - p) : strlen(p);
+        size_t olen = 0;
+        const char *orig = doc_source_line(m->doc, line, &olen);
+        int col = 1;
+        if (orig && olen >= len)
+            col = (int)(olen - len) + 1;
+        if (orig && olen >= len && len > 0 && memcmp(orig + olen - len, p, len) == 0) {
+            /* use the original bytes: same text, exact position */
+            fn(m, orig + olen - len, len, at(m, line, col), ctx);
+        } else {
+            fn(m, p, len, at(m, line, col), ctx);
+        }
+        if (!nl)
+            break;
+        p = nl + 1;
+    }
+}
+
+static void calc_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
+{
+    (void)ctx;
+    if (len > SOURCE_MAX_LINE) {
+        diag_error(m->diags, pos, "line is %zu bytes long; the limit inside a calc block is %d", len, SOURCE_MAX_LINE);
+        return;
+    }
+    /* Restore escape markers that the pre-pass put into the copy cmark saw
+     * (original bytes never contain them; this is for the fallback path). */
+    char *copy = NULL;
+    if (memchr(s, ESCAPED_BRACE, len)) {
+        copy = arena_strndup(&m->doc->arena, s, len);
+        for (size_t i = 0; i < len; i++)
+            if (copy[i] == ESCAPED_BRACE)
+                copy[i] = '\\';
+        s = copy;
+    }
+    Stmt *st = parse_statement(&m->doc->arena, s, len, pos, m->diags);
+    if (st)
+        vec_push(&m->stmts, st);
+}
+
+static void sources_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
+{
+    (void)ctx;
+    size_t i = 0;
+    while (i < len && (s[i] == ' ' || s[i] == '\t'))
+        i++;
+    if (i == len || s[i] == '#')
+        return;
+    const char *colon = memchr(s + i, ':', len - i);
+    Pos kp = pos;
+    kp.col += (int)i;
+    if (!colon) {
+        diag_error(m->diags, kp, "a sources line is 'key: citation text'");
+        return;
+    }
+    size_t ke = (size_t)(colon - s);
+    while (ke > i && (s[ke - 1] == ' ' || s[ke - 1] == '\t'))
+        ke--;
+    for (size_t k = i; k < ke; k++) {
+        char c = s[k];
+        if (!((c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || (c >= '0' && c <= '9') || c == '_' ||
+              c == '-' || c == '.')) {
+            diag_error(m->diags, kp, "a source key is letters, digits, '_', '-' or '.', found '%.*s'", (int)(ke - i), s + i);
+            return;
+        }
+    }
+    if (ke == i) {
+        diag_error(m->diags, kp, "a sources line is 'key: citation text'");
+        return;
+    }
+    size_t ts = (size_t)(colon - s) + 1;
+    while (ts < len && (s[ts] == ' ' || s[ts] == '\t'))
+        ts++;
+    size_t te = len;
+    while (te > ts && (s[te - 1] == ' ' || s[te - 1] == '\t' || s[te - 1] == '\r'))
+        te--;
+    if (te == ts) {
+        diag_error(m->diags, kp, "source '%.*s' has no citation text", (int)(ke - i), s + i);
+        return;
+    }
+    Source *src = arena_alloc(&m->doc->arena, sizeof *src);
+    src->key = arena_strndup(&m->doc->arena, s + i, ke - i);
+    src->text = arena_strndup(&m->doc->arena, s + ts, te - ts);
+    src->pos = kp;
+    for (size_t k = 0; k < m->sources.len; k++) {
+        Source *o = m->sources.items[k];
+        if (strcmp(o->key, src->key) == 0) {
+            diag_error(m->diags, kp, "source key '%s' is already defined at %d:%d", src->key, o->pos.line, o->pos.col);
+            return;
+        }
+    }
+    vec_push(&m->sources, src);
+}
+
+/* A fenced block must be closed: cmark closes an open fence at the end of
+ * its container, so look at the block's last line for a closing fence. */
+static int fence_closed(Md *m, cmark_node *n)
+{
+    int end_line = cmark_node_get_end_line(n);
+    int start_line = cmark_node_get_start_line(n);
+    if (end_line <= start_line)
+        return 0;
+    size_t len = 0;
+    const char *s = doc_source_line(m->doc, end_line, &len);
+    if (!s)
+        return 0;
+    int fence_len = 0, fence_off = 0;
+    char fence_char = 0;
+    cmark_node_get_fenced(n, &fence_len, &fence_off, &fence_char);
+    size_t i = 0;
+    while (i < len && (s[i] == ' ' || s[i] == '\t' || s[i] == '>'))
+        i++;
+    size_t run = 0;
+    char c = i < len ? s[i] : 0;
+    while (i + run < len && s[i + run] == c && c == fence_char)
+        run++;
+    if (run < 3 || run < (size_t)fence_len)
+        return 0;
+    for (size_t k = i + run; k < len; k++)
+        if (s[k] != ' ' && s[k] != '\t' && s[k] != '\r')
+            return 0;
+    return 1;
+}
+
+static Block *new_block(Md *m, BlockKind kind, cmark_node *n)
+{
+    Block *b = arena_alloc(&m->doc->arena, sizeof *b);
+    b->kind = kind;
+    b->pos = at(m, cmark_node_get_start_line(n), cmark_node_get_start_column(n));
+    return b;
+}
+
+static Block *convert_blocks(Md *m, cmark_node *parent, int depth);
+
+static Block *convert_block(Md *m, cmark_node *n, int depth)
+{
+    Block *b = NULL;
+    const char *type = cmark_node_get_type_string(n);
+    switch (cmark_node_get_type(n)) {
+    case CMARK_NODE_HEADING: {
+        b = new_block(m, BLK_HEADING, n);
+        int level = cmark_node_get_heading_level(n);
+        b->level = level;
+        m->heading_count[level - 1]++;
+        for (int i = level; i < 6; i++)
+            m->heading_count[i] = 0;
+        /* Numbered from the first level used: "2", "2.1", "2.1.3". */
+        size_t len = 0;
+        for (int i = 0; i < level; i++) {
+            if (m->heading_count[i] == 0 && len == 0)
+                continue;
+            len += (size_t)snprintf(b->number + len, sizeof b->number - len, "%s%d", len ? "." : "",
+                                    m->heading_count[i] ? m->heading_count[i] : 1);
+            if (len >= sizeof b->number)
+                break;
+        }
+        b->inlines = convert_inlines(m, n, 0);
+        break;
+    }
+    case CMARK_NODE_PARAGRAPH:
+        b = new_block(m, BLK_PARAGRAPH, n);
+        b->inlines = convert_inlines(m, n, 0);
+        break;
+    case CMARK_NODE_LIST:
+        b = new_block(m, BLK_LIST, n);
+        b->ordered = cmark_node_get_list_type(n) == CMARK_ORDERED_LIST;
+        b->start = cmark_node_get_list_start(n);
+        b->children = convert_blocks(m, n, depth + 1);
+        break;
+    case CMARK_NODE_ITEM:
+        b = new_block(m, BLK_ITEM, n);
+        b->children = convert_blocks(m, n, depth + 1);
+        break;
+    case CMARK_NODE_BLOCK_QUOTE:
+        b = new_block(m, BLK_QUOTE, n);
+        b->children = convert_blocks(m, n, depth + 1);
+        break;
+    case CMARK_NODE_THEMATIC_BREAK:
+        b = new_block(m, BLK_RULE, n);
+        break;
+    case CMARK_NODE_HTML_BLOCK:
+        b = new_block(m, BLK_HTML, n);
+        b->text = literal_copy(m, cmark_node_get_literal(n));
+        break;
+    case CMARK_NODE_CODE_BLOCK: {
+        const char *info = cmark_node_get_fence_info(n);
+        info = info ? info : "";
+        int fence_len = 0, fence_off = 0;
+        char fence_char = 0;
+        int fenced = cmark_node_get_fenced(n, &fence_len, &fence_off, &fence_char);
+        if (fenced && (strcmp(info, "calc") == 0 || strcmp(info, "sources") == 0)) {
+            if (!fence_closed(m, n)) {
+                diag_error(m->diags, at(m, cmark_node_get_start_line(n), cmark_node_get_start_column(n)),
+                           "unterminated ```%s fence: expected a closing ``` line", info);
+                return NULL;
+            }
+            if (strcmp(info, "calc") == 0) {
+                b = new_block(m, BLK_CALC, n);
+                b->first_stmt = m->stmts.len;
+                each_fence_line(m, n, calc_line, NULL);
+                b->nstmts = m->stmts.len - b->first_stmt;
+            } else {
+                b = new_block(m, BLK_SOURCES, n);
+                each_fence_line(m, n, sources_line, NULL);
+            }
+            break;
+        }
+        b = new_block(m, BLK_CODE, n);
+        b->text = literal_copy(m, cmark_node_get_literal(n));
+        b->info = arena_strdup(&m->doc->arena, info);
+        break;
+    }
+    default:
+        if (strcmp(type, "table") == 0) {
+            b = new_block(m, BLK_TABLE, n);
+            b->ncols = cmark_gfm_extensions_get_table_columns(n);
+            uint8_t *al = cmark_gfm_extensions_get_table_alignments(n);
+            b->align = arena_alloc(&m->doc->arena, ((size_t)b->ncols + 1) * sizeof *b->align);
+            for (int i = 0; i < b->ncols && al; i++)
+                b->align[i] = al[i] == 'l' ? ALIGN_LEFT : al[i] == 'c' ? ALIGN_CENTER : al[i] == 'r' ? ALIGN_RIGHT : ALIGN_NONE;
+            b->children = convert_blocks(m, n, depth + 1);
+        } else if (strcmp(type, "table_row") == 0 || strcmp(type, "table_header") == 0) {
+            b = new_block(m, BLK_TABLE_ROW, n);
+            b->header_row = strcmp(type, "table_header") == 0;
+            b->children = convert_blocks(m, n, depth + 1);
+        } else if (strcmp(type, "table_cell") == 0) {
+            b = new_block(m, BLK_TABLE_CELL, n);
+            b->inlines = convert_inlines(m, n, 0);
+        } else {
+            return NULL; /* footnotes and other extensions are not enabled */
+        }
+        break;
+    }
+    return b;
+}
+
+static Block *convert_blocks(Md *m, cmark_node *parent, int depth)
+{
+    if (depth > MARKDOWN_MAX_DEPTH) {
+        if (!m->too_deep)
+            diag_error(m->diags, at(m, cmark_node_get_start_line(parent), cmark_node_get_start_column(parent)),
+                       "Markdown nested too deeply (more than %d levels)", MARKDOWN_MAX_DEPTH);
+        m->too_deep = 1;
+        return NULL;
+    }
+    Block *first = NULL;
+    Block **link = &first;
+    for (cmark_node *c = cmark_node_first_child(parent); c; c = cmark_node_next(c)) {
+        Block *b = convert_block(m, c, depth);
+        if (b) {
+            *link = b;
+            link = &b->next;
+        }
+    }
+    return first;
+}
+
+void markdown_read(Document *doc, size_t body_start, DiagList *diags)
+{
+    Md m = {0};
+    m.doc = doc;
+    m.diags = diags;
+
+    /* The text cmark sees: front matter blanked to newlines (so line numbers
+     * hold), and `\{` marked. */
+    char *text = xmalloc(doc->len + 1);
+    memcpy(text, doc->text, doc->len + 1);
+    for (size_t i = 0; i < body_start && i < doc->len; i++)
+        if (text[i] != '\n')
+            text[i] = ' ';
+    for (size_t i = body_start; i + 1 < doc->len; i++)
+        if (text[i] == '\\' && text[i + 1] == '{')
+            text[i] = ESCAPED_BRACE;
+
+    cmark_gfm_core_extensions_ensure_registered();
+    cmark_parser *parser = cmark_parser_new(CMARK_OPT_SOURCEPOS);
+    cmark_syntax_extension *table = cmark_find_syntax_extension("table");
+    cmark_syntax_extension *strike = cmark_find_syntax_extension("strikethrough");
+    if (table)
+        cmark_parser_attach_syntax_extension(parser, table);
+    if (strike)
+        cmark_parser_attach_syntax_extension(parser, strike);
+    cmark_parser_feed(parser, text, doc->len);
+    cmark_node *root = cmark_parser_finish(parser);
+    doc->blocks = convert_blocks(&m, root, 0);
+    cmark_node_free(root);
+    cmark_parser_free(parser);
+    free(text);
+
+    doc->nstmts = m.stmts.len;
+    doc->stmts = arena_alloc(&doc->arena, (m.stmts.len + 1) * sizeof *doc->stmts);
+    for (size_t i = 0; i < m.stmts.len; i++) {
+        doc->stmts[i] = m.stmts.items[i];
+        doc->stmts[i]->index = (int)i;
+    }
+    doc->nsources = m.sources.len;
+    doc->sources = arena_alloc(&doc->arena, (m.sources.len + 1) * sizeof *doc->sources);
+    for (size_t i = 0; i < m.sources.len; i++)
+        doc->sources[i] = *(Source *)m.sources.items[i];
+    vec_free(&m.stmts);
+    vec_free(&m.sources);
+}

@@ -1,0 +1,119 @@
+/* numfmt.c — number literals in, numbers out, independent of the locale.
+ *
+ * Literals are validated here by hand (digits, optional fraction, optional
+ * exponent: no hex, no "inf", no leading '+') and then converted by strtod,
+ * which is exact and, since headroom never calls setlocale, reads '.' as the
+ * decimal point. Output goes through snprintf's %e/%f/%g for the same reason. */
+#include "numfmt.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+size_t num_parse(const char *s, size_t len, double *out)
+{
+    size_t i = 0, digits = 0;
+    while (i < len && s[i] >= '0' && s[i] <= '9')
+        i++, digits++;
+    if (i < len && s[i] == '.') {
+        i++;
+        while (i < len && s[i] >= '0' && s[i] <= '9')
+            i++, digits++;
+    }
+    if (digits == 0)
+        return 0;
+    if (i < len && (s[i] == 'e' || s[i] == 'E')) {
+        size_t j = i + 1;
+        if (j < len && (s[j] == '+' || s[j] == '-'))
+            j++;
+        size_t k = j;
+        while (k < len && s[k] >= '0' && s[k] <= '9')
+            k++;
+        if (k > j) /* "2e" without digits is a number followed by a name */
+            i = k;
+    }
+    char buf[512];
+    if (i >= sizeof buf) {
+        /* Absurdly long literals: convert from a heap copy. */
+        char *heap = malloc(i + 1);
+        if (!heap)
+            return 0;
+        memcpy(heap, s, i);
+        heap[i] = '\0';
+        *out = strtod(heap, NULL);
+        free(heap);
+        return i;
+    }
+    memcpy(buf, s, i);
+    buf[i] = '\0';
+    *out = strtod(buf, NULL);
+    return i;
+}
+
+void num_roundtrip(double x, char *buf, size_t n)
+{
+    if (!isfinite(x)) {
+        snprintf(buf, n, "%s", isnan(x) ? "nan" : x > 0 ? "inf" : "-inf");
+        return;
+    }
+    for (int prec = 15; prec <= 17; prec++) {
+        snprintf(buf, n, "%.*g", prec, x);
+        if (strtod(buf, NULL) == x)
+            return;
+    }
+}
+
+/* Strip a redundant leading zero and '+' from a C exponent: "e-05" -> -5. */
+static int exponent_of(const char *e)
+{
+    return atoi(e + 1);
+}
+
+NumParts num_parts(double x, int digits)
+{
+    NumParts p = {{0}, 0};
+    if (digits < 1)
+        digits = 1;
+    if (digits > 17)
+        digits = 17;
+    if (!isfinite(x)) {
+        snprintf(p.mantissa, sizeof p.mantissa, "%s", isnan(x) ? "NaN" : x > 0 ? "∞" : "−∞");
+        return p;
+    }
+    if (x == 0) {
+        snprintf(p.mantissa, sizeof p.mantissa, "0");
+        return p;
+    }
+    if (fabs(x) < 1e6 && x == floor(x)) {
+        snprintf(p.mantissa, sizeof p.mantissa, "%.0f", x);
+        return p;
+    }
+    char sci[40];
+    snprintf(sci, sizeof sci, "%.*e", digits - 1, x);
+    char *e = strchr(sci, 'e');
+    int ex = e ? exponent_of(e) : 0;
+    if (ex >= -3 && ex < 6) {
+        int decimals = digits - 1 - ex;
+        if (decimals < 0)
+            decimals = 0;
+        /* Print the value rounded to `digits` figures, so 136302 with four
+         * figures reads 136300, not 136302. */
+        snprintf(p.mantissa, sizeof p.mantissa, "%.*f", decimals, strtod(sci, NULL));
+        return p;
+    }
+    if (e)
+        *e = '\0';
+    snprintf(p.mantissa, sizeof p.mantissa, "%s", sci);
+    p.exp10 = ex;
+    return p;
+}
+
+void num_sig(double x, int digits, char *buf, size_t n)
+{
+    NumParts p = num_parts(x, digits);
+    if (p.exp10)
+        snprintf(buf, n, "%se%d", p.mantissa, p.exp10);
+    else
+        snprintf(buf, n, "%s", p.mantissa);
+}

@@ -1,0 +1,216 @@
+/* json.c — the JSON results of DESIGN 2.5, written with jansson.
+ *
+ * Other tools and the tests read this, so its shape is fixed: file, digest,
+ * meta, values (by name), checks (in source order), diagnostics. `si` holds
+ * the value in coherent SI base units at full precision (jansson prints
+ * reals with 17 significant digits, which round-trips); `shown` is the value
+ * in its display unit rounded to the document's significant digits, as the
+ * report prints it. Only this file includes jansson. */
+#include <jansson.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "numfmt.h"
+#include "render.h"
+
+static json_t *real_or_null(double x)
+{
+    return isfinite(x) ? json_real(x) : json_null();
+}
+
+static double rounded(double x, int digits)
+{
+    char buf[64];
+    NumParts p = num_parts(x, digits);
+    snprintf(buf, sizeof buf, "%se%d", p.mantissa, p.exp10);
+    return strtod(buf, NULL);
+}
+
+static json_t *number_json(const Evaluated *ev, const Value *v, const Unit *shown)
+{
+    json_t *o = json_object();
+    char si_unit[64];
+    dim_format_si(v->q.dim, si_unit, sizeof si_unit);
+    Unit u = shown && shown->text[0] ? *shown : eval_display_unit(ev, v, NULL);
+    json_object_set_new(o, "kind", json_string("number"));
+    json_object_set_new(o, "si", real_or_null(v->q.si));
+    json_object_set_new(o, "si_unit", json_string(si_unit));
+    json_object_set_new(o, "shown", real_or_null(rounded(unit_from_si(v->q.si, &u, v->q.temp == TEMP_NONE), ev->digits)));
+    json_object_set_new(o, "unit", json_string(strcmp(u.text, "1") == 0 ? "" : u.text));
+    if (v->q.temp != TEMP_NONE)
+        json_object_set_new(o, "temperature", json_string("absolute"));
+    return o;
+}
+
+static json_t *value_json(const Evaluated *ev, const Value *v, const Unit *shown)
+{
+    switch (v->kind) {
+    case VAL_NUMBER:
+        return number_json(ev, v, shown);
+    case VAL_STRING: {
+        json_t *o = json_object();
+        json_object_set_new(o, "kind", json_string("string"));
+        json_object_set_new(o, "text", json_string(v->str));
+        return o;
+    }
+    case VAL_RECORD: {
+        json_t *o = json_object();
+        json_object_set_new(o, "kind", json_string("record"));
+        json_object_set_new(o, "type", json_string(v->rec->type));
+        json_t *fields = json_object();
+        for (size_t i = 0; i < v->rec->nfields; i++)
+            json_object_set_new(fields, v->rec->fields[i].name, value_json(ev, &v->rec->fields[i].value, NULL));
+        json_object_set_new(o, "fields", fields);
+        return o;
+    }
+    default:
+        return json_null();
+    }
+}
+
+static void set_text(json_t *o, const char *key, const char *s)
+{
+    if (s)
+        json_object_set_new(o, key, json_string(s));
+}
+
+static json_t *meta_json(const Meta *m)
+{
+    json_t *o = json_object();
+    set_text(o, "title", m->title);
+    set_text(o, "project", m->project);
+    set_text(o, "client", m->client);
+    set_text(o, "number", m->number);
+    set_text(o, "subject", m->subject);
+    set_text(o, "revision", m->revision);
+    set_text(o, "date", m->date);
+    set_text(o, "prepared", m->prepared);
+    set_text(o, "checked", m->checked);
+    set_text(o, "approved", m->approved);
+    set_text(o, "engineer", m->engineer);
+    set_text(o, "license", m->license);
+    set_text(o, "status", m->status);
+    json_object_set_new(o, "units", json_string(m->units == UNITS_SI ? "SI" : "US"));
+    json_object_set_new(o, "paper", json_string(m->paper == PAPER_A4 ? "a4" : "letter"));
+    json_object_set_new(o, "digits", json_integer(m->digits));
+    if (m->nrevisions) {
+        json_t *revs = json_array();
+        for (size_t i = 0; i < m->nrevisions; i++) {
+            json_t *r = json_object();
+            set_text(r, "rev", m->revisions[i].rev);
+            set_text(r, "date", m->revisions[i].date);
+            set_text(r, "by", m->revisions[i].by);
+            set_text(r, "note", m->revisions[i].note);
+            json_array_append_new(revs, r);
+        }
+        json_object_set_new(o, "revisions", revs);
+    }
+    return o;
+}
+
+static const char *cmp_text(CmpOp op)
+{
+    switch (op) {
+    case CMP_LE: return "<=";
+    case CMP_LT: return "<";
+    case CMP_GE: return ">=";
+    case CMP_GT: return ">";
+    }
+    return "?";
+}
+
+static json_t *diagnostics_json(const DiagList *diags, const char *file)
+{
+    json_t *a = json_array();
+    for (size_t i = 0; diags && i < diags->len; i++) {
+        const Diag *d = &diags->items[i];
+        if (file && d->pos.file && strcmp(d->pos.file, file) != 0)
+            continue;
+        json_t *o = json_object();
+        json_object_set_new(o, "severity", json_string(d->severity == SEV_ERROR ? "error" : d->severity == SEV_WARNING ? "warning" : "note"));
+        json_object_set_new(o, "file", json_string(d->pos.file ? d->pos.file : ""));
+        json_object_set_new(o, "line", json_integer(d->pos.line));
+        json_object_set_new(o, "col", json_integer(d->pos.col));
+        json_object_set_new(o, "message", json_string(d->message));
+        json_array_append_new(a, o);
+    }
+    return a;
+}
+
+static json_t *document_json(const Evaluated *ev, const DiagList *diags)
+{
+    const Document *doc = ev->doc;
+    json_t *o = json_object();
+    json_object_set_new(o, "file", json_string(doc->file));
+    json_object_set_new(o, "digest", json_string(doc->digest));
+    json_object_set_new(o, "meta", meta_json(&doc->meta));
+    json_t *values = json_object();
+    json_t *checks = json_array();
+    json_t *methods = json_array();
+    for (size_t i = 0; i < doc->nstmts; i++) {
+        const Stmt *s = doc->stmts[i];
+        const StmtResult *r = &ev->results[i];
+        if ((s->kind == STMT_DEF || s->kind == STMT_SOLVE) && s->name) {
+            json_t *v;
+            if (r->state == RES_OK) {
+                v = value_json(ev, &r->value, &r->shown);
+            } else {
+                v = json_object();
+                json_object_set_new(v, "kind", json_string("not evaluated"));
+            }
+            json_object_set_new(v, "line", json_integer(s->pos.line));
+            if (s->kind == STMT_SOLVE && r->state == RES_OK) {
+                json_object_set_new(v, "residual", real_or_null(r->solve.residual));
+                json_object_set_new(v, "iterations", json_integer(r->solve.iterations));
+            }
+            json_object_set_new(values, s->name, v);
+        } else if (s->kind == STMT_CHECK && s->label) {
+            json_t *c = json_object();
+            json_object_set_new(c, "label", json_string(s->label));
+            json_object_set_new(c, "line", json_integer(s->pos.line));
+            json_object_set_new(c, "op", json_string(cmp_text(s->cmp)));
+            if (r->state == RES_OK) {
+                json_object_set_new(c, "holds", json_boolean(r->holds));
+                json_t *l = number_json(ev, &r->lhs, &r->lhs_shown);
+                json_t *rr = number_json(ev, &r->rhs, &r->rhs_shown);
+                json_object_del(l, "kind");
+                json_object_del(rr, "kind");
+                json_object_set_new(c, "lhs", l);
+                json_object_set_new(c, "rhs", rr);
+                json_object_set_new(c, "utilization", real_or_null(r->utilization));
+            } else {
+                json_object_set_new(c, "holds", json_null());
+            }
+            json_array_append_new(checks, c);
+        }
+    }
+    for (size_t k = 0; k < ev->nmethods; k++) {
+        json_t *m = json_object();
+        set_text(m, "key", ev->methods[k]->key);
+        set_text(m, "title", ev->methods[k]->title);
+        set_text(m, "reference", ev->methods[k]->reference);
+        json_array_append_new(methods, m);
+    }
+    json_object_set_new(o, "values", values);
+    json_object_set_new(o, "checks", checks);
+    json_object_set_new(o, "methods", methods);
+    json_object_set_new(o, "diagnostics", diagnostics_json(diags, doc->file));
+    return o;
+}
+
+bool render_json(const Evaluated *const *evs, const DiagList *diags, size_t nfiles, FILE *out)
+{
+    json_t *root;
+    if (nfiles == 1) {
+        root = document_json(evs[0], diags);
+    } else {
+        root = json_array();
+        for (size_t i = 0; i < nfiles; i++)
+            json_array_append_new(root, document_json(evs[i], diags));
+    }
+    int rc = json_dumpf(root, out, JSON_INDENT(2) | JSON_PRESERVE_ORDER | JSON_REAL_PRECISION(17));
+    fputc('\n', out);
+    json_decref(root);
+    return rc == 0;
+}

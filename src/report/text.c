@@ -1,0 +1,427 @@
+/* text.c — the plain text listing (`build --format text`).
+ *
+ * One line per statement, stable and diffable, so `git diff` of the listing
+ * shows what changed in meaning:
+ *   V = Q/A = (96 gal/min)/(0.05130 ft^2) = 4.160 ft/s   # velocity [key]
+ * Headings give the structure; prose paragraphs are left to the PDF. The
+ * linear expression printer here is shared with the other renderers' plain
+ * texts (check summaries, diagnostics of the diff). */
+#include <math.h>
+#include <string.h>
+
+#include "numfmt.h"
+#include "render.h"
+
+void render_quantity(const Evaluated *ev, const Value *v, const Unit *unit, char *buf, size_t n)
+{
+    char num[64];
+    bool diff = v->q.temp == TEMP_NONE;
+    double x = unit_from_si(v->q.si, unit, diff);
+    num_sig(x, ev->digits, num, sizeof num);
+    if (strcmp(unit->text, "1") == 0 || unit->text[0] == '\0')
+        snprintf(buf, n, "%s", num);
+    else
+        snprintf(buf, n, "%s %s", num, unit->text);
+}
+
+void render_value_text(const Evaluated *ev, const Value *v, const Unit *shown, StrBuf *out)
+{
+    char buf[128];
+    switch (v->kind) {
+    case VAL_NUMBER: {
+        Unit u = shown && shown->text[0] ? *shown : eval_display_unit(ev, v, NULL);
+        render_quantity(ev, v, &u, buf, sizeof buf);
+        sb_puts(out, buf);
+        break;
+    }
+    case VAL_STRING:
+        sb_printf(out, "\"%s\"", v->str);
+        break;
+    case VAL_RECORD:
+        sb_printf(out, "(%s record)", v->rec->type);
+        break;
+    default:
+        sb_puts(out, "?");
+        break;
+    }
+}
+
+static int precedence(const Expr *e)
+{
+    switch (e->kind) {
+    case EXPR_BINARY:
+        return e->op == OP_ADD || e->op == OP_SUB ? 1 : e->op == OP_POW ? 4 : 2;
+    case EXPR_NEG:
+        return 3;
+    default:
+        return 5;
+    }
+}
+
+/* Does a substituted value need parentheses as an operand of `parent`? */
+static bool value_needs_parens(const Value *v, const Unit *u, int parent_prec, bool is_lhs_of_pow)
+{
+    if (parent_prec <= 1 && !(v->kind == VAL_NUMBER && v->q.si < 0))
+        return false;
+    if (v->kind != VAL_NUMBER)
+        return false;
+    bool has_unit = u && u->text[0] && strcmp(u->text, "1") != 0;
+    if (has_unit)
+        return true;
+    if (v->q.si < 0)
+        return true;
+    return is_lhs_of_pow && v->q.si < 0;
+}
+
+static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, int parent_prec, bool lhs_of_pow)
+{
+    switch (e->kind) {
+    case EXPR_NUMBER:
+        if (e->has_unit && sub && parent_prec >= 2) {
+            sb_printf(out, "(%s)", e->text);
+        } else {
+            sb_puts(out, e->text);
+        }
+        break;
+    case EXPR_STRING:
+        sb_printf(out, "\"%s\"", e->text);
+        break;
+    case EXPR_NAME:
+        if (sub && e->slot >= 0 && ev->results[e->slot].state == RES_OK &&
+            ev->results[e->slot].value.kind == VAL_NUMBER) {
+            const StmtResult *r = &ev->results[e->slot];
+            bool paren = value_needs_parens(&r->value, &r->shown, parent_prec, lhs_of_pow);
+            if (paren)
+                sb_putc(out, '(');
+            render_value_text(ev, &r->value, &r->shown, out);
+            if (paren)
+                sb_putc(out, ')');
+        } else if (sub && e->slot == SLOT_PI) {
+            sb_puts(out, "3.142");
+        } else if (sub && e->slot == SLOT_G) {
+            Value gv = value_number(qty(9.80665, DIM_ACCEL));
+            Unit u = eval_display_unit(ev, &gv, NULL);
+            if (parent_prec >= 2)
+                sb_putc(out, '(');
+            render_value_text(ev, &gv, &u, out);
+            if (parent_prec >= 2)
+                sb_putc(out, ')');
+        } else {
+            sb_puts(out, e->text);
+        }
+        break;
+    case EXPR_PAREN:
+        sb_putc(out, '(');
+        put_expr(ev, e->lhs, sub, out, 0, false);
+        sb_putc(out, ')');
+        break;
+    case EXPR_NEG:
+        sb_putc(out, '-');
+        put_expr(ev, e->lhs, sub, out, 3, false);
+        break;
+    case EXPR_BINARY: {
+        int p = precedence(e);
+        bool wrap = p < parent_prec;
+        if (wrap)
+            sb_putc(out, '(');
+        put_expr(ev, e->lhs, sub, out, e->op == OP_POW ? 5 : p, e->op == OP_POW);
+        switch (e->op) {
+        case OP_ADD: sb_puts(out, " + "); break;
+        case OP_SUB: sb_puts(out, " - "); break;
+        case OP_MUL: sb_puts(out, e->middle_dot ? "·" : "*"); break;
+        case OP_DIV: sb_puts(out, "/"); break;
+        case OP_POW: sb_puts(out, "^"); break;
+        }
+        put_expr(ev, e->rhs, sub, out, e->op == OP_POW ? 3 : p + (e->op == OP_SUB || e->op == OP_DIV), false);
+        if (wrap)
+            sb_putc(out, ')');
+        break;
+    }
+    case EXPR_FIELD:
+        if (sub) {
+            /* Substitute the field's value when the base is a plain name. */
+            const Expr *b = e->lhs;
+            if (b->kind == EXPR_NAME && b->slot >= 0 && ev->results[b->slot].state == RES_OK &&
+                ev->results[b->slot].value.kind == VAL_RECORD) {
+                const Value *f = record_get(ev->results[b->slot].value.rec, e->text);
+                if (f && f->kind == VAL_NUMBER) {
+                    Unit u = eval_display_unit(ev, f, NULL);
+                    bool paren = value_needs_parens(f, &u, parent_prec, lhs_of_pow);
+                    if (paren)
+                        sb_putc(out, '(');
+                    render_value_text(ev, f, &u, out);
+                    if (paren)
+                        sb_putc(out, ')');
+                    break;
+                }
+            }
+        }
+        put_expr(ev, e->lhs, false, out, 5, false);
+        sb_printf(out, ".%s", e->text);
+        break;
+    case EXPR_CALL:
+        sb_puts(out, e->text);
+        sb_putc(out, '(');
+        for (size_t i = 0; i < e->nargs; i++) {
+            if (i)
+                sb_puts(out, ", ");
+            put_expr(ev, e->args[i], sub, out, 0, false);
+        }
+        for (size_t i = 0; i < e->nkw; i++) {
+            if (i || e->nargs)
+                sb_puts(out, ", ");
+            sb_printf(out, "%s=", e->kw_names[i]);
+            put_expr(ev, e->kw[i], sub, out, 0, false);
+        }
+        sb_putc(out, ')');
+        break;
+    }
+}
+
+void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBuf *out)
+{
+    put_expr(ev, e, substitute, out, 0, false);
+}
+
+/* An expression worth substituting: it reads at least one name. */
+static bool reads_names(const Expr *e)
+{
+    if (!e)
+        return false;
+    switch (e->kind) {
+    case EXPR_NAME:
+        return true;
+    case EXPR_NUMBER:
+    case EXPR_STRING:
+        return false;
+    case EXPR_CALL:
+        for (size_t i = 0; i < e->nargs; i++)
+            if (reads_names(e->args[i]))
+                return true;
+        for (size_t i = 0; i < e->nkw; i++)
+            if (reads_names(e->kw[i]))
+                return true;
+        return false;
+    default:
+        return reads_names(e->lhs) || reads_names(e->rhs);
+    }
+}
+
+static const char *cmp_text(CmpOp op)
+{
+    switch (op) {
+    case CMP_LE: return "<=";
+    case CMP_LT: return "<";
+    case CMP_GE: return ">=";
+    case CMP_GT: return ">";
+    }
+    return "?";
+}
+
+static void put_comment(const Stmt *s, StrBuf *out)
+{
+    if (!s->description && !s->ncites)
+        return;
+    sb_puts(out, "   #");
+    if (s->description)
+        sb_printf(out, " %s", s->description);
+    for (size_t i = 0; i < s->ncites; i++)
+        sb_printf(out, " [%s]", s->cites[i].key);
+}
+
+static void put_methods(const StmtResult *r, StrBuf *out)
+{
+    for (size_t k = 0; k < r->nmethods; k++)
+        sb_printf(out, "\n      method: %s%s%s", r->methods[k]->title,
+                  r->methods[k]->formula ? ": " : "", r->methods[k]->formula ? r->methods[k]->formula : "");
+}
+
+static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
+{
+    const StmtResult *r = &ev->results[s->index];
+    switch (s->kind) {
+    case STMT_NOTE:
+        sb_printf(out, "  note: %s\n", s->description ? s->description : "");
+        return;
+    case STMT_DEF: {
+        sb_printf(out, "%s = ", s->name);
+        StrBuf f = {0}, v = {0};
+        render_expr_text(ev, s->expr, false, &f);
+        sb_puts(out, sb_str(&f));
+        const Expr *bare = s->expr;
+        while (bare->kind == EXPR_PAREN)
+            bare = bare->lhs;
+        bool reference = bare->kind == EXPR_NAME || bare->kind == EXPR_FIELD;
+        if (r->state == RES_OK) {
+            if (!reference && reads_names(s->expr)) {
+                render_expr_text(ev, s->expr, true, &v);
+                if (strcmp(sb_str(&v), sb_str(&f)) != 0)
+                    sb_printf(out, " = %s", sb_str(&v));
+            }
+            StrBuf res = {0};
+            render_value_text(ev, &r->value, &r->shown, &res);
+            /* An input shown in the unit it was written in needs no result. */
+            bool literal = bare->kind == EXPR_STRING ||
+                           (bare->kind == EXPR_NUMBER && (!bare->has_unit || strcmp(bare->unit.text, r->shown.text) == 0) &&
+                            (bare->has_unit || strcmp(r->shown.text, "1") == 0));
+            if (!literal && r->value.kind != VAL_RECORD)
+                sb_printf(out, " = %s", sb_str(&res));
+            sb_free(&res);
+        } else {
+            sb_puts(out, " = (not evaluated)");
+        }
+        sb_free(&f);
+        sb_free(&v);
+        put_comment(s, out);
+        if (r->state == RES_OK && r->value.kind == VAL_RECORD) {
+            const Record *rec = r->value.rec;
+            for (size_t i = 0; i < rec->nfields; i++) {
+                sb_printf(out, "\n      %s.%s = ", s->name, rec->fields[i].name);
+                const Value *fv = &rec->fields[i].value;
+                Unit u = fv->kind == VAL_NUMBER ? eval_display_unit(ev, fv, NULL) : (Unit){0};
+                render_value_text(ev, fv, &u, out);
+            }
+        }
+        if (r->state == RES_OK)
+            put_methods(r, out);
+        sb_putc(out, '\n');
+        return;
+    }
+    case STMT_SOLVE: {
+        StrBuf l = {0}, rr = {0};
+        render_expr_text(ev, s->lhs, false, &l);
+        render_expr_text(ev, s->rhs, false, &rr);
+        sb_printf(out, "%s = solve %s where %s = %s", s->name, s->var, sb_str(&l), sb_str(&rr));
+        if (s->lo && s->hi) {
+            StrBuf lo = {0}, hi = {0};
+            render_expr_text(ev, s->lo, false, &lo);
+            render_expr_text(ev, s->hi, false, &hi);
+            sb_printf(out, " between %s and %s", sb_str(&lo), sb_str(&hi));
+            sb_free(&lo);
+            sb_free(&hi);
+        }
+        if (r->state == RES_OK) {
+            sb_puts(out, " = ");
+            render_value_text(ev, &r->value, &r->shown, out);
+            put_comment(s, out);
+            sb_printf(out, "\n      at %s = ", s->var);
+            render_value_text(ev, &r->value, &r->shown, out);
+            sb_puts(out, ": ");
+            render_value_text(ev, &r->lhs, &r->lhs_shown, out);
+            sb_puts(out, " = ");
+            render_value_text(ev, &r->rhs, &r->lhs_shown, out);
+            char res[64];
+            Value resid = value_number(qty(r->solve.residual, r->lhs.q.dim));
+            render_quantity(ev, &resid, &r->lhs_shown, res, sizeof res);
+            sb_printf(out, "; residual %s after %d iterations", res, r->solve.iterations);
+        } else {
+            sb_puts(out, " = (not evaluated)");
+            put_comment(s, out);
+        }
+        sb_putc(out, '\n');
+        sb_free(&l);
+        sb_free(&rr);
+        return;
+    }
+    case STMT_CHECK: {
+        StrBuf l = {0}, rr = {0};
+        render_expr_text(ev, s->lhs, false, &l);
+        render_expr_text(ev, s->rhs, false, &rr);
+        sb_printf(out, "check %s: %s %s %s", s->label, sb_str(&l), cmp_text(s->cmp), sb_str(&rr));
+        if (r->state == RES_OK) {
+            sb_puts(out, " : ");
+            render_value_text(ev, &r->lhs, &r->lhs_shown, out);
+            sb_printf(out, " %s ", cmp_text(s->cmp));
+            render_value_text(ev, &r->rhs, &r->rhs_shown, out);
+            char u[32];
+            if (isfinite(r->utilization))
+                num_sig(r->utilization, 3, u, sizeof u);
+            else
+                snprintf(u, sizeof u, "n/a");
+            sb_printf(out, " : %s (utilisation %s)", r->holds ? "HOLDS" : "FAILS", u);
+        } else {
+            sb_puts(out, " : (not evaluated)");
+        }
+        put_comment(s, out);
+        sb_putc(out, '\n');
+        sb_free(&l);
+        sb_free(&rr);
+        return;
+    }
+    }
+}
+
+static void put_inlines_plain(const Evaluated *ev, const Inline *in, StrBuf *out)
+{
+    for (; in; in = in->next) {
+        switch (in->kind) {
+        case INL_TEXT:
+        case INL_CODE:
+            sb_puts(out, in->text);
+            break;
+        case INL_SOFTBREAK:
+        case INL_LINEBREAK:
+            sb_putc(out, ' ');
+            break;
+        case INL_VALUE:
+            if (in->slot >= 0 && ev->results[in->slot].state == RES_OK) {
+                const Value *v = &ev->results[in->slot].value;
+                if (in->field && v->kind == VAL_RECORD)
+                    v = record_get(v->rec, in->field);
+                if (v) {
+                    Unit u = in->has_as ? in->as_unit : (in->field ? eval_display_unit(ev, v, NULL) : ev->results[in->slot].shown);
+                    render_value_text(ev, v, &u, out);
+                    break;
+                }
+            }
+            sb_printf(out, "{%s}", in->text);
+            break;
+        default:
+            put_inlines_plain(ev, in->children, out);
+            break;
+        }
+    }
+}
+
+static void put_blocks(const Evaluated *ev, const Block *b, StrBuf *out)
+{
+    for (; b; b = b->next) {
+        switch (b->kind) {
+        case BLK_HEADING:
+            sb_printf(out, "\n%s ", b->number);
+            put_inlines_plain(ev, b->inlines, out);
+            sb_puts(out, "\n\n");
+            break;
+        case BLK_CALC:
+            for (size_t i = 0; i < b->nstmts; i++)
+                put_statement(ev, ev->doc->stmts[b->first_stmt + i], out);
+            break;
+        case BLK_LIST:
+        case BLK_ITEM:
+        case BLK_QUOTE:
+            put_blocks(ev, b->children, out);
+            break;
+        default:
+            break;
+        }
+    }
+}
+
+bool render_text(const Evaluated *ev, FILE *out)
+{
+    const Document *doc = ev->doc;
+    const Meta *m = &doc->meta;
+    StrBuf sb = {0};
+    sb_printf(&sb, "%s\n", m->title ? m->title : doc->file);
+    if (m->project)
+        sb_printf(&sb, "project: %s\n", m->project);
+    if (m->number || m->revision)
+        sb_printf(&sb, "calc: %s  revision: %s\n", m->number ? m->number : "-", m->revision ? m->revision : "-");
+    sb_printf(&sb, "source: %s  sha256: %s\n", doc->file, doc->digest);
+    put_blocks(ev, doc->blocks, &sb);
+    size_t holds = ev->nchecks - ev->nfailed;
+    sb_printf(&sb, "\nchecks: %zu hold, %zu fail\n", holds, ev->nfailed);
+    bool ok = fwrite(sb.data ? sb.data : "", 1, sb.len, out) == sb.len;
+    sb_free(&sb);
+    return ok;
+}

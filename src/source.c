@@ -1,0 +1,138 @@
+/* source.c — reading, checking and hashing the bytes of a calc file.
+ *
+ * The checks happen before any parsing so later stages can assume clean
+ * UTF-8 text with a bounded size. SHA-256 comes from nettle. */
+#include "source.h"
+
+#include <errno.h>
+#include <nettle/sha2.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "arena.h"
+
+char *source_read(const char *path, const char *display, size_t *len, DiagList *diags)
+{
+    Pos nowhere = {display, 0, 0};
+    FILE *f = strcmp(path, "-") == 0 ? stdin : fopen(path, "rb");
+    if (!f) {
+        diag_error(diags, nowhere, "cannot open: %s", strerror(errno));
+        return NULL;
+    }
+    size_t cap = 64 * 1024, n = 0;
+    char *buf = xmalloc(cap + 1);
+    for (;;) {
+        if (n == cap) {
+            if (cap > SOURCE_MAX_BYTES) {
+                diag_error(diags, nowhere, "file is larger than the limit of %d bytes", SOURCE_MAX_BYTES);
+                free(buf);
+                if (f != stdin)
+                    fclose(f);
+                return NULL;
+            }
+            cap *= 2;
+            buf = xrealloc(buf, cap + 1);
+        }
+        size_t got = fread(buf + n, 1, cap - n, f);
+        n += got;
+        if (got == 0)
+            break;
+    }
+    int err = ferror(f);
+    if (f != stdin)
+        fclose(f);
+    if (err) {
+        diag_error(diags, nowhere, "read error");
+        free(buf);
+        return NULL;
+    }
+    if (n > SOURCE_MAX_BYTES) {
+        diag_error(diags, nowhere, "file is larger than the limit of %d bytes", SOURCE_MAX_BYTES);
+        free(buf);
+        return NULL;
+    }
+    buf[n] = '\0';
+    *len = n;
+    return buf;
+}
+
+/* Length of the UTF-8 sequence at s (1..4), or 0 if it is not well formed
+ * (overlong forms, surrogates and code points above U+10FFFF are rejected). */
+static size_t utf8_len(const unsigned char *s, size_t left)
+{
+    unsigned char c = s[0];
+    if (c < 0x80)
+        return 1;
+    size_t n;
+    unsigned cp;
+    if (c >= 0xC2 && c <= 0xDF) {
+        n = 2;
+        cp = c & 0x1Fu;
+    } else if (c >= 0xE0 && c <= 0xEF) {
+        n = 3;
+        cp = c & 0x0Fu;
+    } else if (c >= 0xF0 && c <= 0xF4) {
+        n = 4;
+        cp = c & 0x07u;
+    } else {
+        return 0;
+    }
+    if (left < n)
+        return 0;
+    for (size_t i = 1; i < n; i++) {
+        if ((s[i] & 0xC0) != 0x80)
+            return 0;
+        cp = (cp << 6) | (s[i] & 0x3Fu);
+    }
+    if ((n == 3 && cp < 0x800) || (n == 4 && (cp < 0x10000 || cp > 0x10FFFF)) ||
+        (cp >= 0xD800 && cp <= 0xDFFF))
+        return 0;
+    return n;
+}
+
+bool source_check_text(const char *text, size_t len, const char *display, DiagList *diags)
+{
+    const unsigned char *s = (const unsigned char *)text;
+    int line = 1, col = 1;
+    size_t i = 0;
+    /* A byte-order mark at the start is allowed and ignored by later stages. */
+    while (i < len) {
+        unsigned char c = s[i];
+        if (c == '\n') {
+            line++;
+            col = 1;
+            i++;
+            continue;
+        }
+        if ((c < 0x20 && c != '\t' && c != '\r' && c != '\f') || c == 0x7F) {
+            Pos p = {display, line, col};
+            diag_error(diags, p, "control character (byte 0x%02X) in the source", c);
+            return false;
+        }
+        size_t n = utf8_len(s + i, len - i);
+        if (n == 0) {
+            Pos p = {display, line, col};
+            diag_error(diags, p, "invalid UTF-8 (byte 0x%02X); save the file as UTF-8", c);
+            return false;
+        }
+        i += n;
+        col += (int)n;
+    }
+    return true;
+}
+
+void source_digest(const char *text, size_t len, char out[65])
+{
+    struct sha256_ctx ctx;
+    uint8_t d[SHA256_DIGEST_SIZE];
+    sha256_init(&ctx);
+    sha256_update(&ctx, len, (const uint8_t *)text);
+    sha256_digest(&ctx, sizeof d, d);
+    static const char hex[] = "0123456789abcdef";
+    for (size_t i = 0; i < sizeof d; i++) {
+        out[2 * i] = hex[d[i] >> 4];
+        out[2 * i + 1] = hex[d[i] & 15];
+    }
+    out[64] = '\0';
+}
