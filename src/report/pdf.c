@@ -1,0 +1,517 @@
+/* pdf.c — the sealed-style PDF report: libharu behind one adapter.
+ *
+ * render_pdf() collects the report as a list of items (cover, body, end
+ * matter), measures every item, lets pagelayout.c assign them to sheets,
+ * creates all sheets at once (so "Sheet N of M" and links to any sheet are
+ * known), then draws the frames and the items. Fonts are DejaVu TrueType
+ * files embedded as subsets with UTF-8 encoding. Output is byte-identical
+ * for identical input: no clock time enters the file (the info dates come
+ * from the front matter or SOURCE_DATE_EPOCH), and libharu's file ID is a
+ * hash of the document information, which carries the source digest. */
+#include "report/pdf_internal.h"
+
+#include <errno.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <time.h>
+#include <unistd.h>
+
+#ifndef HEADROOM_VERSION
+#define HEADROOM_VERSION "0.0.0"
+#endif
+
+const Rgb INK = {0.08, 0.08, 0.10};
+const Rgb GREY = {0.40, 0.40, 0.43};
+const Rgb RULE = {0.55, 0.55, 0.58};
+const Rgb FAIL = {0.70, 0.05, 0.05};
+const Rgb PASS = {0.05, 0.38, 0.15};
+const Rgb SHADE = {0.93, 0.93, 0.90};
+const Rgb LINK = {0.05, 0.20, 0.50};
+
+/* fonts/README.md names the same files. */
+static const char *const FONT_FILE[FONT_ROLE_COUNT] = {
+    [FONT_SERIF] = "DejaVuSerif.ttf",
+    [FONT_SERIF_BOLD] = "DejaVuSerif-Bold.ttf",
+    [FONT_SERIF_ITALIC] = "DejaVuSerif-Italic.ttf",
+    [FONT_SERIF_BOLD_ITALIC] = "DejaVuSerif-BoldItalic.ttf",
+    [FONT_MONO] = "DejaVuSansMono.ttf",
+    [FONT_SANS] = "DejaVuSansCondensed.ttf",
+    [FONT_SANS_BOLD] = "DejaVuSansCondensed-Bold.ttf",
+};
+static const char *const FONT_DIR = "/usr/share/fonts/truetype/dejavu";
+
+static void on_error(HPDF_STATUS error, HPDF_STATUS detail, void *user)
+{
+    Pdf *P = user;
+    if (!P->error) {
+        P->error = error;
+        P->error_detail = detail;
+    }
+}
+
+/* ---- primitives ---------------------------------------------------------- */
+
+double pdf_width(Pdf *P, FontRole f, double size, const char *s)
+{
+    if (!s || !*s)
+        return 0;
+    HPDF_TextWidth tw = HPDF_Font_TextWidth(P->font[f], (const HPDF_BYTE *)s, (HPDF_UINT)strlen(s));
+    return (double)tw.width * size / 1000.0;
+}
+
+static double metric_width(void *ctx, FontRole f, double size, const char *s)
+{
+    return pdf_width(ctx, f, size, s);
+}
+
+void pdf_text_color(Pdf *P, FontRole f, double size, double x, double y, const char *s, Rgb c)
+{
+    if (!P->page || !s || !*s)
+        return;
+    HPDF_Page pg = P->page;
+    HPDF_Page_SetRGBFill(pg, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+    HPDF_Page_BeginText(pg);
+    HPDF_Page_SetFontAndSize(pg, P->font[f], (HPDF_REAL)size);
+    HPDF_Page_TextOut(pg, (HPDF_REAL)x, (HPDF_REAL)y, s);
+    HPDF_Page_EndText(pg);
+}
+
+void pdf_text(Pdf *P, FontRole f, double size, double x, double y, const char *s)
+{
+    pdf_text_color(P, f, size, x, y, s, INK);
+}
+
+void pdf_line(Pdf *P, double x0, double y0, double x1, double y1, double w)
+{
+    if (!P->page)
+        return;
+    HPDF_Page pg = P->page;
+    HPDF_Page_SetLineWidth(pg, (HPDF_REAL)w);
+    HPDF_Page_MoveTo(pg, (HPDF_REAL)x0, (HPDF_REAL)y0);
+    HPDF_Page_LineTo(pg, (HPDF_REAL)x1, (HPDF_REAL)y1);
+    HPDF_Page_Stroke(pg);
+}
+
+void pdf_rect(Pdf *P, double x, double y, double w, double h, double lw)
+{
+    if (!P->page)
+        return;
+    HPDF_Page_SetLineWidth(P->page, (HPDF_REAL)lw);
+    HPDF_Page_Rectangle(P->page, (HPDF_REAL)x, (HPDF_REAL)y, (HPDF_REAL)w, (HPDF_REAL)h);
+    HPDF_Page_Stroke(P->page);
+}
+
+void pdf_fill(Pdf *P, double x, double y, double w, double h, Rgb c)
+{
+    if (!P->page)
+        return;
+    HPDF_Page_SetRGBFill(P->page, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+    HPDF_Page_Rectangle(P->page, (HPDF_REAL)x, (HPDF_REAL)y, (HPDF_REAL)w, (HPDF_REAL)h);
+    HPDF_Page_Fill(P->page);
+    HPDF_Page_SetRGBFill(P->page, (HPDF_REAL)INK.r, (HPDF_REAL)INK.g, (HPDF_REAL)INK.b);
+}
+
+static void no_border(HPDF_Annotation a)
+{
+    HPDF_LinkAnnot_SetBorderStyle(a, 0, 0, 0);
+    HPDF_LinkAnnot_SetHighlightMode(a, HPDF_ANNOT_INVERT_BOX);
+}
+
+/* A link to reference number `ref`, whose sheet and height are known from
+ * the layout. */
+void pdf_link(Pdf *P, double x, double y, double w, double h, int ref)
+{
+    if (!P->page || ref < 1 || ref > P->nrefs || P->ref_page[ref] < 0)
+        return;
+    HPDF_Destination dst = HPDF_Page_CreateDestination(P->pages[P->ref_page[ref]]);
+    HPDF_Destination_SetFitH(dst, (HPDF_REAL)P->ref_y[ref]);
+    HPDF_Rect r = {(HPDF_REAL)x, (HPDF_REAL)y, (HPDF_REAL)(x + w), (HPDF_REAL)(y + h)};
+    no_border(HPDF_Page_CreateLinkAnnot(P->page, r, dst));
+}
+
+void pdf_uri(Pdf *P, double x, double y, double w, double h, const char *url)
+{
+    if (!P->page || !url || !*url)
+        return;
+    HPDF_Rect r = {(HPDF_REAL)x, (HPDF_REAL)y, (HPDF_REAL)(x + w), (HPDF_REAL)(y + h)};
+    HPDF_Annotation a = HPDF_Page_CreateURILinkAnnot(P->page, r, url);
+    HPDF_LinkAnnot_SetBorderStyle(a, 0, 0, 0);
+}
+
+/* Plain text wrapped at spaces (a word longer than the line is cut); a
+ * blank line in the text adds half a line. Returns the height used. */
+double pdf_wrap(Pdf *P, FontRole f, double size, double lead, double x, double top, double width,
+                const char *s)
+{
+    double y = top - size * 0.85, used = 0;
+    const char *p = s ? s : "";
+    char buf[1024];
+    while (*p) {
+        size_t best = 0, i = 0, len = strlen(p);
+        while (i < len) {
+            size_t j = i;
+            while (j < len && p[j] != ' ' && p[j] != '\n')
+                j++;
+            if (j >= sizeof buf)
+                j = sizeof buf - 1;
+            memcpy(buf, p, j);
+            buf[j] = '\0';
+            if (best > 0 && pdf_width(P, f, size, buf) > width)
+                break;
+            best = j;
+            if (j >= len || p[j] == '\n')
+                break;
+            i = j + 1;
+        }
+        if (best == 0)
+            best = len < 60 ? len : 60;
+        while (best < len && ((unsigned char)p[best] & 0xC0) == 0x80)
+            best++;
+        memcpy(buf, p, best);
+        buf[best] = '\0';
+        pdf_text(P, f, size, x, y, buf);
+        p += best;
+        y -= lead;
+        used += lead;
+        if (*p == '\n' && p[1] == '\n')
+            used += lead * 0.5, y -= lead * 0.5;
+        while (*p == ' ' || *p == '\n')
+            p++;
+    }
+    return used;
+}
+
+static void paint_text(void *ctx, FontRole f, double size, double x, double y, const char *s)
+{
+    pdf_text(ctx, f, size, x, y, s);
+}
+
+static void paint_line(void *ctx, double x0, double y0, double x1, double y1, double w)
+{
+    Pdf *P = ctx;
+    if (!P->page)
+        return;
+    HPDF_Page_SetLineCap(P->page, HPDF_ROUND_END);
+    pdf_line(P, x0, y0, x1, y1, w);
+    HPDF_Page_SetLineCap(P->page, HPDF_BUTT_END);
+}
+
+static void paint_curve(void *ctx, double x0, double y0, double x1, double y1, double x2, double y2,
+                        double x3, double y3, double w)
+{
+    Pdf *P = ctx;
+    if (!P->page)
+        return;
+    HPDF_Page pg = P->page;
+    HPDF_Page_SetLineWidth(pg, (HPDF_REAL)w);
+    HPDF_Page_MoveTo(pg, (HPDF_REAL)x0, (HPDF_REAL)y0);
+    HPDF_Page_CurveTo(pg, (HPDF_REAL)x1, (HPDF_REAL)y1, (HPDF_REAL)x2, (HPDF_REAL)y2,
+                      (HPDF_REAL)x3, (HPDF_REAL)y3);
+    HPDF_Page_Stroke(pg);
+}
+
+void item_add(Vec *items, Pdf *P, ItemFn fn, const void *p, int aux, double space_before)
+{
+    Item *it = arena_alloc(&P->arena, sizeof *it);
+    it->fn = fn;
+    it->p = p;
+    it->aux = aux;
+    it->layout.space_before = space_before;
+    vec_push(items, it);
+}
+
+/* ---- fonts, dates, information ------------------------------------------- */
+
+static bool load_fonts(Pdf *P)
+{
+    const char *dir = getenv("HEADROOM_FONT_DIR");
+    if (!dir || !*dir)
+        dir = FONT_DIR;
+    Pos nowhere = {NULL, 0, 0};
+    for (int i = 0; i < FONT_ROLE_COUNT; i++) {
+        char path[4096];
+        snprintf(path, sizeof path, "%s/%s", dir, FONT_FILE[i]);
+        FILE *f = fopen(path, "rb");
+        if (!f) {
+            diag_error(P->diags, nowhere,
+                       "cannot open font '%s': %s (install fonts-dejavu-core or set "
+                       "HEADROOM_FONT_DIR)",
+                       path, strerror(errno));
+            return false;
+        }
+        fclose(f);
+        const char *name = HPDF_LoadTTFontFromFile(P->doc, path, HPDF_TRUE);
+        if (!name) {
+            diag_error(P->diags, nowhere, "cannot load font '%s' (libharu error 0x%04X)", path,
+                       (unsigned)P->error);
+            return false;
+        }
+        P->font[i] = HPDF_GetFont(P->doc, name, "UTF-8");
+        if (!P->font[i])
+            return false;
+    }
+    return true;
+}
+
+/* The report date: the front matter's, else SOURCE_DATE_EPOCH, else none. */
+static void report_date(Pdf *P, HPDF_Date *out, bool *has)
+{
+    const Meta *m = &P->d->meta;
+    int y = 0, mo = 0, da = 0;
+    *has = false;
+    P->date[0] = '\0';
+    if (m->date && sscanf(m->date, "%4d-%2d-%2d", &y, &mo, &da) == 3) {
+        *has = true;
+    } else {
+        const char *sde = getenv("SOURCE_DATE_EPOCH");
+        char *end = NULL;
+        long long t = sde ? strtoll(sde, &end, 10) : 0;
+        if (sde && *sde && end && !*end && t >= 0) {
+            time_t tt = (time_t)t;
+            struct tm tmv;
+            if (gmtime_r(&tt, &tmv)) {
+                y = tmv.tm_year + 1900;
+                mo = tmv.tm_mon + 1;
+                da = tmv.tm_mday;
+                *has = true;
+            }
+        }
+    }
+    if (!*has)
+        return;
+    if (mo < 1 || mo > 12 || da < 1 || da > 31 || y < 1000 || y > 9999) {
+        *has = false;
+        return;
+    }
+    snprintf(P->date, sizeof P->date, "%04d-%02d-%02d", y, mo, da);
+    memset(out, 0, sizeof *out);
+    out->year = y;
+    out->month = mo;
+    out->day = da;
+    out->ind = 'Z';
+}
+
+/* Info strings with non-ASCII text are written as UTF-16BE with a byte order
+ * mark (libharu would write the UTF-8 bytes as PDFDocEncoding). */
+static void set_info(Pdf *P, HPDF_InfoType type, const char *s)
+{
+    if (!s || !*s)
+        return;
+    bool ascii = true;
+    for (const char *c = s; *c; c++)
+        if ((unsigned char)*c >= 0x80)
+            ascii = false;
+    if (ascii) {
+        HPDF_SetInfoAttr(P->doc, type, s);
+        return;
+    }
+    /* keep what PDFDocEncoding shares with Latin-1; replace the rest */
+    char buf[512];
+    size_t n = 0;
+    for (const unsigned char *c = (const unsigned char *)s; *c && n + 2 < sizeof buf;) {
+        unsigned cp = *c;
+        int len = 1;
+        if (cp >= 0xF0) {
+            cp = 0xFFFD;
+            len = 4;
+        } else if (cp >= 0xE0) {
+            cp = ((c[0] & 0x0Fu) << 12) | ((c[1] & 0x3Fu) << 6) | (c[2] & 0x3Fu);
+            len = 3;
+        } else if (cp >= 0xC0) {
+            cp = ((c[0] & 0x1Fu) << 6) | (c[1] & 0x3Fu);
+            len = 2;
+        }
+        if (cp == 0x2014 || cp == 0x2013)
+            buf[n++] = '-';
+        else if (cp < 0x100 && (cp < 0x80 || cp >= 0xA0))
+            buf[n++] = (char)cp;
+        else
+            buf[n++] = '?';
+        for (int k = 0; k < len && *c; k++)
+            c++;
+    }
+    buf[n] = '\0';
+    HPDF_SetInfoAttr(P->doc, type, buf);
+}
+
+static const char *base_name(const char *path)
+{
+    const char *s = strrchr(path, '/');
+    return s ? s + 1 : path;
+}
+
+/* The source file as an attachment. libharu reads attachments from a file
+ * and names them by the path it was given, so the exact source bytes are
+ * written to a private temporary file and the file specification is renamed
+ * to the source's own name. */
+static void attach_source(Pdf *P)
+{
+    const Document *d = P->d;
+    char tmpl[] = "/tmp/headroom-src-XXXXXX";
+    int fd = mkstemp(tmpl);
+    if (fd < 0)
+        return;
+    FILE *f = fdopen(fd, "wb");
+    if (!f) {
+        unlink(tmpl);
+        return;
+    }
+    bool ok = fwrite(d->text, 1, d->len, f) == d->len;
+    ok = fclose(f) == 0 && ok;
+    if (ok) {
+        HPDF_EmbeddedFile ef = HPDF_AttachFile(P->doc, tmpl);
+        if (ef) {
+            const char *name = strcmp(d->file, "-") == 0 ? "stdin.calc.md" : base_name(d->file);
+            HPDF_Dict_Add(ef, "F", HPDF_String_New(P->doc->mmgr, name, NULL));
+        }
+    }
+    unlink(tmpl);
+}
+
+/* ---- outline ------------------------------------------------------------- */
+
+static void outline_add(Pdf *P, const Item *it, int sheet, double top)
+{
+    int lv = it->outline_level < 1 ? 1 : it->outline_level > 6 ? 6 : it->outline_level;
+    HPDF_Outline parent = P->root;
+    for (int l = lv - 1; l >= 1; l--)
+        if (P->outline[l]) {
+            parent = P->outline[l];
+            break;
+        }
+    HPDF_Outline o = HPDF_CreateOutline(P->doc, parent, it->outline,
+                                        HPDF_GetEncoder(P->doc, "UTF-8"));
+    if (!o)
+        return;
+    HPDF_Destination dst = HPDF_Page_CreateDestination(P->pages[sheet]);
+    HPDF_Destination_SetFitH(dst, (HPDF_REAL)(top + 12));
+    HPDF_Outline_SetDestination(o, dst);
+    HPDF_Outline_SetOpened(o, lv < 2);
+    P->outline[lv] = o;
+    for (int l = lv + 1; l <= 6; l++)
+        P->outline[l] = NULL;
+}
+
+/* ---- the report ----------------------------------------------------------- */
+
+static bool build(Pdf *P, const char *path)
+{
+    const Document *d = P->d;
+    if (!load_fonts(P))
+        return false;
+    pdf_sheet_geometry(P);
+    P->metrics = (MathMetrics){metric_width, P, 0.72, 0.22, 0.26};
+    P->env = (MathEnv){&P->arena, &P->metrics, P->ev, P->ev->digits > 0 ? P->ev->digits : 4};
+    P->painter = (MathPainter){paint_text, paint_line, paint_curve, P};
+    pdf_number_references(P);
+
+    /* collect and measure */
+    Vec items = {0};
+    pdf_cover_items(P, &items);
+    pdf_body_items(P, &items);
+    pdf_end_items(P, &items);
+    size_t n = items.len;
+    PageItem *pi = xcalloc(n ? n : 1, sizeof *pi);
+    PagePlace *place = xcalloc(n ? n : 1, sizeof *place);
+    P->page = NULL;
+    for (size_t i = 0; i < n; i++) {
+        Item *it = items.items[i];
+        it->layout.height = it->fn(P, it, 0);
+        pi[i] = it->layout;
+    }
+    double body_h = P->sheet.body_top - P->sheet.body_bottom;
+    P->npages = pagelayout_assign(pi, n, body_h, place);
+    for (size_t i = 0; i < n; i++) {
+        Item *it = items.items[i];
+        if (it->ref > 0 && it->ref <= P->nrefs) {
+            P->ref_page[it->ref] = place[i].page;
+            P->ref_y[it->ref] = P->sheet.body_top - place[i].y + 12;
+        }
+    }
+
+    /* create every sheet, then draw */
+    P->pages = xcalloc((size_t)P->npages, sizeof *P->pages);
+    HPDF_PageSizes size = d->meta.paper == PAPER_A4 ? HPDF_PAGE_SIZE_A4 : HPDF_PAGE_SIZE_LETTER;
+    for (int s = 0; s < P->npages; s++) {
+        P->pages[s] = HPDF_AddPage(P->doc);
+        if (!P->pages[s])
+            break;
+        HPDF_Page_SetSize(P->pages[s], size, HPDF_PAGE_PORTRAIT);
+    }
+    if (!P->error) {
+        for (int s = 0; s < P->npages; s++) {
+            P->page = P->pages[s];
+            pdf_sheet_frame(P, s);
+        }
+        P->root = NULL;
+        for (size_t i = 0; i < n; i++) {
+            Item *it = items.items[i];
+            P->page = P->pages[place[i].page];
+            double top = P->sheet.body_top - place[i].y;
+            if (it->outline)
+                outline_add(P, it, place[i].page, top);
+            it->fn(P, it, top);
+        }
+        P->page = NULL;
+    }
+    free(pi);
+    free(place);
+    vec_free(&items);
+
+    /* labels, information, attachment */
+    HPDF_AddPageLabel(P->doc, 0, HPDF_PAGE_NUM_STYLE_DECIMAL, 1, "Sheet ");
+    HPDF_SetPageMode(P->doc, HPDF_PAGE_MODE_USE_OUTLINE);
+    const Meta *m = &d->meta;
+    set_info(P, HPDF_INFO_TITLE, m->title ? m->title : base_name(d->file));
+    set_info(P, HPDF_INFO_AUTHOR, m->prepared);
+    set_info(P, HPDF_INFO_SUBJECT, m->subject ? m->subject : m->project);
+    char kw[512];
+    snprintf(kw, sizeof kw, "calculation %s; revision %s; %s; sha256 %s", m->number ? m->number : "",
+             m->revision ? m->revision : "", m->status ? m->status : "", d->digest);
+    set_info(P, HPDF_INFO_KEYWORDS, kw);
+    HPDF_SetInfoAttr(P->doc, HPDF_INFO_CREATOR, "headroom " HEADROOM_VERSION);
+    HPDF_Date date;
+    bool has_date;
+    report_date(P, &date, &has_date);
+    if (has_date) {
+        HPDF_SetInfoDateAttr(P->doc, HPDF_INFO_CREATION_DATE, date);
+        HPDF_SetInfoDateAttr(P->doc, HPDF_INFO_MOD_DATE, date);
+    }
+    attach_source(P);
+    if (P->error)
+        return false;
+    if (HPDF_SaveToFile(P->doc, path) != HPDF_OK || P->error) {
+        diag_error(P->diags, ((Pos){NULL, 0, 0}), "cannot write '%s' (libharu error 0x%04X)",
+                   path, (unsigned)P->error);
+        return false;
+    }
+    return true;
+}
+
+bool render_pdf(const Evaluated *ev, const char *path, DiagList *diags)
+{
+    Pdf *P = xcalloc(1, sizeof *P);
+    P->ev = ev;
+    P->d = ev->doc;
+    P->diags = diags;
+    P->governing = -1;
+    arena_init(&P->arena);
+    P->doc = HPDF_New(on_error, P);
+    bool ok = false;
+    if (!P->doc) {
+        diag_error(diags, ((Pos){NULL, 0, 0}), "cannot start the PDF library");
+    } else {
+        HPDF_SetCompressionMode(P->doc, HPDF_COMP_ALL);
+        HPDF_UseUTFEncodings(P->doc);
+        ok = build(P, path);
+        if (!ok && P->error && diags->errors == 0)
+            diag_error(diags, ((Pos){NULL, 0, 0}), "PDF library error 0x%04X (detail %u)",
+                       (unsigned)P->error, (unsigned)P->error_detail);
+        HPDF_Free(P->doc);
+    }
+    free(P->pages);
+    arena_free(&P->arena);
+    free(P);
+    return ok;
+}

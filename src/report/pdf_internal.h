@@ -1,0 +1,111 @@
+/* pdf_internal.h — what the PDF renderer's files share.
+ *
+ * The report is built in two passes over one list of items (cover blocks,
+ * headings, paragraphs, calc rows, tables, reference entries, listing
+ * lines). Each item has one function that both measures and draws it: with
+ * no current page it only returns its height; with a page it draws at the
+ * given top and returns the same height. pagelayout.c assigns the measured
+ * items to sheets, so the sheet count is known before the first sheet is
+ * drawn. Only the pdf*.c files include libharu. The Pdf context owns an
+ * Arena for boxes and items, freed when rendering ends. */
+#ifndef HEADROOM_PDF_INTERNAL_H
+#define HEADROOM_PDF_INTERNAL_H
+
+#include <hpdf.h>
+
+#include "mathbox.h"
+#include "pagelayout.h"
+#include "render.h"
+
+typedef struct Pdf Pdf;
+typedef struct Item Item;
+
+/* Measure (P->page == NULL) or draw an item with its top at y; returns its height. */
+typedef double (*ItemFn)(Pdf *P, const Item *it, double top);
+
+struct Item {
+    ItemFn fn;
+    const void *p;           /* the block, statement or text it shows */
+    int aux;                 /* a number the item needs (list index, line, ...) */
+    int depth;               /* list nesting */
+    PageItem layout;
+    /* an outline entry for the item (headings and sections) */
+    const char *outline;
+    int outline_level;       /* 1..6 */
+    int ref;                 /* references: the entry's number, else 0 */
+};
+
+typedef struct Rgb {
+    double r, g, b;
+} Rgb;
+
+/* The geometry of a sheet, in points, y upwards. */
+typedef struct Sheet {
+    double w, h;
+    double frame_l, frame_r, frame_b, frame_t;   /* the drawn border */
+    double body_l, body_r, body_top, body_bottom;
+    double margin_w;         /* the right-hand column for keys and verdicts */
+} Sheet;
+
+struct Pdf {
+    HPDF_Doc doc;
+    HPDF_Font font[FONT_ROLE_COUNT];
+    HPDF_Page page;          /* NULL while measuring */
+    HPDF_Page *pages;
+    int npages;
+    const Evaluated *ev;
+    const Document *d;
+    DiagList *diags;
+    Arena arena;
+    MathMetrics metrics;
+    MathEnv env;
+    MathPainter painter;
+    Sheet sheet;
+    char date[32];           /* the report date, "" when none */
+    bool preliminary;        /* status not issued */
+    int governing;           /* statement index of the governing check, -1 */
+    /* references: numbers per source and per used method, and where they sit */
+    int *source_ref;
+    int *method_ref;
+    int nrefs;
+    int *ref_page;           /* by reference number */
+    double *ref_y;
+    /* the outline: the latest entry per level */
+    HPDF_Outline outline[7];
+    HPDF_Outline root;
+    HPDF_STATUS error;       /* first libharu error */
+    HPDF_STATUS error_detail;
+};
+
+/* ---- primitives (pdf.c) -------------------------------------------------- */
+double pdf_width(Pdf *P, FontRole f, double size, const char *s);
+void pdf_text(Pdf *P, FontRole f, double size, double x, double y, const char *s);
+void pdf_text_color(Pdf *P, FontRole f, double size, double x, double y, const char *s, Rgb c);
+void pdf_line(Pdf *P, double x0, double y0, double x1, double y1, double w);
+void pdf_rect(Pdf *P, double x, double y, double w, double h, double lw);
+void pdf_fill(Pdf *P, double x, double y, double w, double h, Rgb c);
+void pdf_link(Pdf *P, double x, double y, double w, double h, int ref);
+void pdf_uri(Pdf *P, double x, double y, double w, double h, const char *url);
+/* Text wrapped to `width`; returns the height used. */
+double pdf_wrap(Pdf *P, FontRole f, double size, double lead, double x, double top, double width,
+                const char *s);
+void item_add(Vec *items, Pdf *P, ItemFn fn, const void *p, int aux, double space_before);
+
+extern const Rgb INK, GREY, RULE, FAIL, PASS, SHADE, LINK;
+
+/* ---- the body (pdf_body.c) ----------------------------------------------- */
+/* Add the items of the document's blocks. */
+void pdf_body_items(Pdf *P, Vec *items);
+/* Rich text: inline nodes wrapped at `width`; draws when P->page. */
+double pdf_inlines(Pdf *P, const Inline *in, FontRole base, double size, double lead, double x,
+                   double top, double width);
+
+/* ---- sheets, cover and end matter (pdf_sheet.c) -------------------------- */
+void pdf_sheet_geometry(Pdf *P);
+void pdf_sheet_frame(Pdf *P, int sheet);
+void pdf_cover_items(Pdf *P, Vec *items);
+void pdf_end_items(Pdf *P, Vec *items);
+void pdf_number_references(Pdf *P);
+bool pdf_status_issued(const char *status);
+
+#endif
