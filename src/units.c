@@ -965,5 +965,10 @@ const char *unit_suggest(const char *name, size_t len)
     size_t i = 0, w;
     while (i < len && (w = name_char(name, len, i, i == 0)) > 0)
         i += w;
-    return i < len ? suggest_expr(name, len) : suggest_name(name, len);
+    const char *sug = i < len ? suggest_expr(name, len) : suggest_name(name, len);
+    /* Never suggest what would not parse ("deg2212" -> "deg^2212" underflows). */
+    Unit u;
+    if (sug && unit_parse(sug, strlen(sug), &u, NULL, NULL) != UNIT_OK)
+        return NULL;
+    return sug;
 }
