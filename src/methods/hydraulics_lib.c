@@ -922,8 +922,8 @@ bool fn_pump_curve(CallCtx *cx, const CallArgs *a, Value *out)
     Dim db = dim_div(DIM_L, DIM_FLOW), dc = dim_div(DIM_L, dim_flow2());
     Record *r = record_new(cx->arena, "pump", 9);
     record_set(r, 0, "a", head_value(pc->a));
-    record_set(r, 1, "b", value_number(qty(pc->b, db)));
-    record_set(r, 2, "c", value_number(qty(pc->c, dc)));
+    record_set(r, 1, "b", value_hinted(qty(pc->b, db), "ft/gpm", "m/(L/s)"));
+    record_set(r, 2, "c", value_hinted(qty(pc->c, dc), "ft/gpm^2", "m/(L/s)^2"));
     static const char *const qf[3] = {"Q1", "Q2", "Q3"}, *const hf[3] = {"H1", "H2", "H3"};
     for (size_t i = 0; i < 3; i++) {
         record_set(r, 3 + 2 * i, qf[i], flow_value(Q[i]));
