@@ -437,7 +437,7 @@ static void format_si(const Evaluated *ev, double si, Dim d, char *buf, size_t n
     Unit u = unit_default(d, TEMP_NONE, ev->units);
     char num[48];
     num_sig(unit_from_si(si, &u, true), 4, num, sizeof num);
-    if (dim_is_none(d))
+    if (dim_is_none(d) || strcmp(u.text, "1") == 0)
         snprintf(buf, n, "%s", num);
     else
         snprintf(buf, n, "%s %s", num, u.text);
@@ -522,15 +522,16 @@ static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *c
     diags->muted--;
     res->solve = rep;
     if (rep.status != SOLVE_OK) {
-        char a[64], b[64], fa[64], fb[64];
+        char a[128], b[128], fa[96], fb[96];
         Unit vu = var->shown;
         Value va = value_number(qty(rep.start_lo, trial.q.dim)), vb = value_number(qty(rep.start_hi, trial.q.dim));
         va.q.temp = vb.q.temp = trial.q.temp;
         char na[40], nb[40];
         num_sig(unit_from_si(va.q.si, &vu, trial.q.temp == TEMP_NONE), 4, na, sizeof na);
         num_sig(unit_from_si(vb.q.si, &vu, trial.q.temp == TEMP_NONE), 4, nb, sizeof nb);
-        snprintf(a, sizeof a, "%s %s", na, vu.text);
-        snprintf(b, sizeof b, "%s %s", nb, vu.text);
+        bool plain = vu.text[0] == '\0' || strcmp(vu.text, "1") == 0;
+        snprintf(a, sizeof a, "%s%s%s", na, plain ? "" : " ", plain ? "" : vu.text);
+        snprintf(b, sizeof b, "%s%s%s", nb, plain ? "" : " ", plain ? "" : vu.text);
         format_si(ev, rep.f_lo, l.q.dim, fa, sizeof fa);
         format_si(ev, rep.f_hi, l.q.dim, fb, sizeof fb);
         Pos at = s->lo ? s->lo->pos : s->var_pos;

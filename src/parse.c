@@ -143,7 +143,8 @@ static void parse_args(Parser *p, Expr *call, Pos open)
         advance(p);
     call->nargs = args.len;
     call->args = arena_alloc(p->arena, (args.len + 1) * sizeof *call->args);
-    memcpy(call->args, args.items, args.len * sizeof *call->args);
+    for (size_t i = 0; i < args.len; i++)
+        call->args[i] = args.items[i];
     call->nkw = kws.len;
     call->kw = arena_alloc(p->arena, (kws.len + 1) * sizeof *call->kw);
     call->kw_names = arena_alloc(p->arena, (kws.len + 1) * sizeof *call->kw_names);

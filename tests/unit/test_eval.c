@@ -1,0 +1,260 @@
+/* test_eval.c — the evaluator on whole calc texts: values in SI with
+ * tolerances, the temperature rules, dimension errors worded as the user
+ * sees them, solve with re-evaluation of dependents, checks and utilisation.
+ *
+ * Reference values: unit factors are exact by definition (NIST SP 811:
+ * 1 gal = 231 in^3 = 3.785411784e-3 m^3, 1 ft = 0.3048 m, 1 lbf =
+ * 4.4482216152605 N, 1 in = 0.0254 m); the temperature scales by their
+ * definitions (degF = K*9/5 - 459.67). */
+#include <setjmp.h>
+#include <stdarg.h>
+#include <stddef.h>
+#include <stdint.h>
+#include <cmocka.h>
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "eval.h"
+
+static DiagList dl;
+static Document *doc;
+static Evaluated *ev;
+
+static void load(const char *calc)
+{
+    doc_free(doc);
+    diag_free(&dl);
+    char text[8192];
+    snprintf(text, sizeof text, "# t\n\n```calc\n%s\n```\n", calc);
+    doc = doc_from_text("t.calc.md", text, strlen(text), &dl);
+    ev = eval_document(doc, &dl);
+}
+
+static double si(const char *name)
+{
+    int slot = doc_lookup(doc, name);
+    assert_true(slot >= 0);
+    assert_int_equal(ev->results[slot].state, RES_OK);
+    return ev->results[slot].value.q.si;
+}
+
+static void assert_close(double got, double want, double rel)
+{
+    if (!(fabs(got - want) <= rel * fabs(want)))
+        fail_msg("got %.17g, want %.17g (rel %g)", got, want, rel);
+}
+
+/* The first error's line (in the calc block: line 4 is its first line) and
+ * a fragment of its message. */
+static void assert_error(int line, int col, const char *fragment)
+{
+    for (size_t i = 0; i < dl.len; i++)
+        if (dl.items[i].severity == SEV_ERROR && dl.items[i].pos.line == line &&
+            dl.items[i].pos.col == col && strstr(dl.items[i].message, fragment))
+            return;
+    for (size_t i = 0; i < dl.len; i++)
+        print_message("  have %d:%d %s\n", dl.items[i].pos.line, dl.items[i].pos.col, dl.items[i].message);
+    fail_msg("no error at %d:%d containing '%s'", line, col, fragment);
+}
+
+static void test_arithmetic_and_units(void **state)
+{
+    (void)state;
+    load("Q = 38 gal/min\n"
+         "A = 0.05 ft^2\n"
+         "V = Q/A\n"
+         "L = 2*3 ft + 6 in\n"
+         "p = 10 psi + 1 kPa\n"
+         "x = -2^2\n"
+         "y = 2^-1\n"
+         "z = 12/3/2\n"
+         "r = sqrt(4 m^2)\n"
+         "h = sqrt(2 m)^2\n"
+         "n = 3 ft/(1 in)\n");
+    assert_int_equal(dl.errors, 0);
+    assert_close(si("Q"), 38 * 3.785411784e-3 / 60, 1e-15);
+    assert_close(si("V"), 38 * 3.785411784e-3 / 60 / (0.05 * 0.3048 * 0.3048), 1e-15);
+    assert_close(si("L"), 6 * 0.3048 + 6 * 0.0254, 1e-15);
+    assert_close(si("p"), 10 * 4.4482216152605 / (0.0254 * 0.0254) + 1000, 1e-15);
+    assert_close(si("x"), -4, 0);
+    assert_close(si("y"), 0.5, 0);
+    assert_close(si("z"), 2, 0);
+    assert_close(si("r"), 2, 1e-15);
+    assert_true(dim_eq(ev->results[doc_lookup(doc, "r")].value.q.dim, DIM_L));
+    assert_true(dim_eq(ev->results[doc_lookup(doc, "h")].value.q.dim, DIM_L));
+    assert_close(si("n"), 36, 1e-15);
+    assert_true(dim_is_none(ev->results[doc_lookup(doc, "n")].value.q.dim));
+}
+
+static void test_temperatures(void **state)
+{
+    (void)state;
+    load("T1 = 68 degF\n"
+         "T2 = 50 degF\n"
+         "dT = T1 - T2\n"
+         "T3 = 20 degC + 5 delta_degC\n"
+         "T4 = T2 + dT\n"
+         "T5 = 300 K * 2\n");
+    assert_int_equal(dl.errors, 0);
+    assert_close(si("T1"), 293.15, 1e-15);
+    assert_close(si("dT"), 10, 1e-13);
+    assert_int_equal(ev->results[doc_lookup(doc, "dT")].value.q.temp, TEMP_NONE);
+    assert_close(si("T3"), 298.15, 1e-15);
+    assert_int_equal(ev->results[doc_lookup(doc, "T3")].value.q.temp, TEMP_ABSOLUTE_OFFSET);
+    assert_close(si("T4"), 293.15, 1e-15);
+    assert_close(si("T5"), 600, 1e-15);
+
+    load("a = 2*(20 degC)\n"
+         "b = 20 degC + 30 degC\n"
+         "c = 5 delta_degC - 20 degC\n");
+    assert_error(4, 7, "cannot multiply an absolute temperature");
+    assert_error(5, 13, "cannot add two absolute temperatures");
+    assert_error(6, 18, "cannot subtract an absolute temperature");
+}
+
+static void test_dimension_errors(void **state)
+{
+    (void)state;
+    load("L = 3 ft\n"
+         "p = 2 psi\n"
+         "s = L + p\n"
+         "t = sqrt(L) + 1\n"
+         "u = L^(2 ft)\n"
+         "v = exp(L)\n"
+         "check c: L <= p\n"
+         "w = L as psi\n");
+    assert_error(6, 7, "cannot add pressure (psi) to length (ft)");
+    assert_error(7, 13, "cannot add a pure number to");
+    assert_error(8, 7, "exponent must be a pure number");
+    assert_error(9, 9, "exp: argument 1 (a pure number) must be a pure number, found length (ft)");
+    assert_error(10, 10, "cannot compare length (ft) with pressure (psi)");
+    assert_error(11, 10, "cannot show length");
+}
+
+static void test_math_errors(void **state)
+{
+    (void)state;
+    load("a = sqrt(-4)\n"
+         "b = log10(0)\n"
+         "c = 1/0\n"
+         "d = 1e308*10\n"
+         "e = (-8)^(1/3)\n"
+         "f = 0^-1\n");
+    assert_error(4, 10, "sqrt: argument is negative");
+    assert_error(5, 11, "must be positive");
+    assert_error(6, 6, "division by zero");
+    assert_error(7, 10, "overflows");
+    assert_error(8, 9, "negative number to the fractional power");
+    assert_error(9, 6, "zero raised to a negative power");
+}
+
+static void test_failure_does_not_cascade(void **state)
+{
+    (void)state;
+    load("a = 1 ft + 1 psi\n"
+         "b = a*2\n"
+         "c = b + 1 ft\n"
+         "d = 3 m\n"
+         "e = d + 1 furlong\n");
+    /* One error for a, none for b and c (not evaluated), one for e. */
+    assert_int_equal(dl.errors, 2);
+    assert_int_equal(ev->results[doc_lookup(doc, "b")].state, RES_NOT_EVALUATED);
+    assert_int_equal(ev->results[doc_lookup(doc, "c")].state, RES_NOT_EVALUATED);
+    assert_close(si("d"), 3, 0);
+}
+
+static void test_names(void **state)
+{
+    (void)state;
+    load("a = 1\n"
+         "a = 2\n"
+         "b = c + 1\n"
+         "c = 3\n"
+         "d = d + 1\n"
+         "e = alpha + 1\n"
+         "alpha2 = 1\n");
+    assert_error(5, 1, "'a' is already defined at 4:1");
+    assert_error(6, 5, "'c' is used before its definition at 7:1");
+    assert_error(8, 5, "'d' is used in its own definition");
+    assert_error(9, 5, "unknown name 'alpha'");
+}
+
+static void test_solve_reevaluates_dependents(void **state)
+{
+    (void)state;
+    load("x = 2 m\n"
+         "y = x^2\n"
+         "z = y + 1 m^2\n"
+         "r = solve x where z = 10 m^2 between 0 m and 10 m\n"
+         "s = solve x where z = 10 m^2\n"
+         "check after: y <= 5 m^2\n");
+    assert_int_equal(dl.errors, 0);
+    assert_close(si("r"), 3, 1e-14);
+    assert_close(si("s"), 3, 1e-14);
+    /* The varied name and its dependents are put back afterwards. */
+    assert_close(si("x"), 2, 0);
+    assert_close(si("y"), 4, 1e-15);
+    const StmtResult *r = &ev->results[doc_lookup(doc, "r")];
+    assert_true(fabs(r->solve.residual) < 1e-12);
+    assert_close(r->lhs.q.si, 10, 1e-14);
+
+    load("x = 2\n"
+         "r = solve x where x^2 = -1 between 0 and 10\n");
+    assert_error(5, 36, "no root of the equation between 0 and 10");
+    load("x = 2 m\n"
+         "r = solve x where x = 3 m between 0 s and 10 m\n");
+    assert_error(5, 35, "the bracket must have the dimension of 'x'");
+}
+
+static void test_checks(void **state)
+{
+    (void)state;
+    load("V = 4 ft/s\n"
+         "p = 40 psi\n"
+         "check velocity: V <= 8 ft/s\n"
+         "check pressure: p >= 20 psi\n"
+         "check strict: V < 2 ft/s\n");
+    assert_int_equal(dl.errors, 0);
+    assert_int_equal(ev->nchecks, 3);
+    assert_int_equal(ev->nfailed, 1);
+    const StmtResult *c = &ev->results[2];
+    assert_true(c->holds);
+    assert_close(c->utilization, 0.5, 1e-15);
+    c = &ev->results[3];
+    assert_true(c->holds);
+    assert_close(c->utilization, 0.5, 1e-15);
+    c = &ev->results[4];
+    assert_false(c->holds);
+    assert_close(c->utilization, 2, 1e-15);
+}
+
+static void test_display_units(void **state)
+{
+    (void)state;
+    load("Q = 10 L/s\n"
+         "p = 100 kPa\n"
+         "q = Q as gal/min\n");
+    assert_string_equal(ev->results[0].shown.text, "gal/min"); /* US default */
+    assert_string_equal(ev->results[1].shown.text, "psi");
+    assert_string_equal(ev->results[2].shown.text, "gal/min");
+}
+
+int main(void)
+{
+    const struct CMUnitTest tests[] = {
+        cmocka_unit_test(test_arithmetic_and_units),
+        cmocka_unit_test(test_temperatures),
+        cmocka_unit_test(test_dimension_errors),
+        cmocka_unit_test(test_math_errors),
+        cmocka_unit_test(test_failure_does_not_cascade),
+        cmocka_unit_test(test_names),
+        cmocka_unit_test(test_solve_reevaluates_dependents),
+        cmocka_unit_test(test_checks),
+        cmocka_unit_test(test_display_units),
+    };
+    int rc = cmocka_run_group_tests(tests, NULL, NULL);
+    doc_free(doc);
+    diag_free(&dl);
+    return rc;
+}
