@@ -157,7 +157,7 @@ MathBox *mbox_fence(const MathEnv *env, MathBox *inner, double size, const char 
     b->open = open;
     b->close = close;
     b->a = inner;
-    if (ht <= line * 1.12) {
+    if (ht <= line * 1.3) {
         MathBox *o = mbox_text(env, FONT_SERIF, size, open);
         MathBox *c = mbox_text(env, FONT_SERIF, size, close);
         b->kids = arena_alloc(env->arena, 2 * sizeof *b->kids);
@@ -604,9 +604,18 @@ static MathBox *expr_box(const MathEnv *env, const Expr *e, double size, bool su
         return mbox_text(env, FONT_SERIF, size, "?");
     switch (e->kind) {
     case EXPR_NUMBER: {
-        MathBox *b = literal_box(env, e->text ? e->text : "0", size);
+        /* the literal as written: the number, then the unit as spelled */
+        const char *t = e->text ? e->text : "0";
+        double ignored;
+        size_t nlen = num_parse(t, strlen(t), &ignored);
+        if (nlen == 0)
+            nlen = strlen(t);
+        MathBox *b = literal_box(env, arena_strndup(env->arena, t, nlen), size);
         if (e->has_unit) {
-            b = with_unit(env, b, e->unit.text, size, false);
+            const char *u = t + nlen;
+            while (*u == ' ')
+                u++;
+            b = with_unit(env, b, *u ? u : e->unit.text, size, false);
             if (ctx == CTX_POW_BASE)
                 b = paren(env, b, size);
         }
@@ -637,8 +646,8 @@ static MathBox *expr_box(const MathEnv *env, const Expr *e, double size, bool su
                 return value_box(env, v, &u, size, ctx);
         }
         MathBox *base = expr_box(env, e->lhs, size, false, CTX_FACTOR);
-        return hl2(env, base, mbox_text(env, FONT_SERIF_ITALIC, size,
-                                        arena_printf(env->arena, ".%s", e->text)));
+        return hl3(env, base, mbox_text(env, FONT_SERIF_ITALIC, size, "."),
+                   mbox_symbol(env, e->text ? e->text : "?", size));
     }
     case EXPR_NEG: {
         MathBox *b = hl2(env, mbox_text(env, FONT_SERIF, size, "−"),
@@ -659,7 +668,8 @@ static MathBox *expr_box(const MathEnv *env, const Expr *e, double size, bool su
             return hl3(env, l, op_box(env, e->op == OP_ADD ? "+" : "−", size, 0.2), r);
         }
         case OP_MUL: {
-            MathBox *l = expr_box(env, e->lhs, size, sub, CTX_FACTOR);
+            /* the leading factor of a product needs no parentheses for its sign */
+            MathBox *l = expr_box(env, e->lhs, size, sub, ctx == CTX_TOP ? CTX_TOP : CTX_FACTOR);
             MathBox *r = expr_box(env, e->rhs, size, sub, CTX_FACTOR);
             bool cross = sub && !e->middle_dot;
             return hl3(env, l, op_box(env, cross ? "×" : "·", size, cross ? 0.15 : 0.08), r);
@@ -792,10 +802,9 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row
         bool literal = is_literal(st->expr);
         if (!literal && reads_names(st->expr) && strip(st->expr)->kind != EXPR_NAME)
             row_add(row, rel(env, "=", mbox_expr(env, st->expr, size, true), size), false);
-        const Expr *ex = strip(st->expr);
-        bool same_unit = literal && ex->kind == EXPR_NUMBER && ex->has_unit && !st->has_as &&
-                         strcmp(ex->unit.text, r->shown.text) == 0;
-        if (!same_unit || ex->kind != EXPR_NUMBER)
+        /* an input shown as written is its own result, unless `as` converts it */
+        bool input = literal && !st->has_as;
+        if (!input)
             row_add(row, rel(env, "=", mbox_quantity(env, &r->value, &r->shown, size, true), size),
                     false);
         break;
@@ -819,9 +828,12 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row
         if (!ok)
             return;
         if (reads_names(st->lhs) || reads_names(st->rhs)) {
-            bool lname = strip(st->lhs)->kind == EXPR_NAME || strip(st->lhs)->kind == EXPR_FIELD;
-            bool rname = strip(st->rhs)->kind == EXPR_NAME || strip(st->rhs)->kind == EXPR_FIELD;
-            if (!(lname && rname)) {
+            /* a name or a literal substitutes to its value: no middle line needed */
+            bool lsimple = strip(st->lhs)->kind == EXPR_NAME || strip(st->lhs)->kind == EXPR_FIELD ||
+                           is_literal(st->lhs);
+            bool rsimple = strip(st->rhs)->kind == EXPR_NAME || strip(st->rhs)->kind == EXPR_FIELD ||
+                           is_literal(st->rhs);
+            if (!(lsimple && rsimple)) {
                 row_add(row, mbox_expr(env, st->lhs, size, true), true);
                 row_add(row, rel(env, op, mbox_expr(env, st->rhs, size, true), size), false);
             }

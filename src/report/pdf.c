@@ -10,12 +10,14 @@
  * hash of the document information, which carries the source digest. */
 #include "report/pdf_internal.h"
 
+#include <hpdf_catalog.h>
+#include <hpdf_namedict.h>
+
 #include <errno.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 #include <time.h>
-#include <unistd.h>
 
 #ifndef HEADROOM_VERSION
 #define HEADROOM_VERSION "0.0.0"
@@ -144,6 +146,12 @@ void pdf_uri(Pdf *P, double x, double y, double w, double h, const char *url)
 double pdf_wrap(Pdf *P, FontRole f, double size, double lead, double x, double top, double width,
                 const char *s)
 {
+    return pdf_wrap_color(P, f, size, lead, x, top, width, s, INK);
+}
+
+double pdf_wrap_color(Pdf *P, FontRole f, double size, double lead, double x, double top,
+                      double width, const char *s, Rgb color)
+{
     double y = top - size * 0.85, used = 0;
     const char *p = s ? s : "";
     char buf[1024];
@@ -170,7 +178,7 @@ double pdf_wrap(Pdf *P, FontRole f, double size, double lead, double x, double t
             best++;
         memcpy(buf, p, best);
         buf[best] = '\0';
-        pdf_text(P, f, size, x, y, buf);
+        pdf_text_color(P, f, size, x, y, buf, color);
         p += best;
         y -= lead;
         used += lead;
@@ -341,32 +349,58 @@ static const char *base_name(const char *path)
     return s ? s + 1 : path;
 }
 
-/* The source file as an attachment. libharu reads attachments from a file
- * and names them by the path it was given, so the exact source bytes are
- * written to a private temporary file and the file specification is renamed
- * to the source's own name. */
+/* The source file as an attachment, under its own name. libharu's
+ * HPDF_AttachFile reads a file and files it under the path it was given
+ * (without /Type /Filespec), so the embedded-file stream, its file
+ * specification and the name-tree entry are made here from libharu's
+ * object layer, straight from the source bytes in memory. */
 static void attach_source(Pdf *P)
 {
     const Document *d = P->d;
-    char tmpl[] = "/tmp/headroom-src-XXXXXX";
-    int fd = mkstemp(tmpl);
-    if (fd < 0)
-        return;
-    FILE *f = fdopen(fd, "wb");
-    if (!f) {
-        unlink(tmpl);
-        return;
+    HPDF_Doc pdf = P->doc;
+    HPDF_MMgr mm = pdf->mmgr;
+    HPDF_Xref xref = pdf->xref;
+    HPDF_NameDict names = HPDF_Catalog_GetNames(pdf->catalog);
+    if (!names) {
+        names = HPDF_NameDict_New(mm, xref);
+        if (!names || HPDF_Catalog_SetNames(pdf->catalog, names) != HPDF_OK)
+            return;
     }
-    bool ok = fwrite(d->text, 1, d->len, f) == d->len;
-    ok = fclose(f) == 0 && ok;
-    if (ok) {
-        HPDF_EmbeddedFile ef = HPDF_AttachFile(P->doc, tmpl);
-        if (ef) {
-            const char *name = strcmp(d->file, "-") == 0 ? "stdin.calc.md" : base_name(d->file);
-            HPDF_Dict_Add(ef, "F", HPDF_String_New(P->doc->mmgr, name, NULL));
-        }
+    HPDF_NameTree tree = HPDF_NameDict_GetNameTree(names, HPDF_NAME_EMBEDDED_FILES);
+    if (!tree) {
+        tree = HPDF_NameTree_New(mm, xref);
+        if (!tree || HPDF_NameDict_SetNameTree(names, HPDF_NAME_EMBEDDED_FILES, tree) != HPDF_OK)
+            return;
     }
-    unlink(tmpl);
+    HPDF_Dict file = HPDF_DictStream_New(mm, xref);
+    HPDF_Dict params = HPDF_Dict_New(mm);
+    HPDF_Dict spec = HPDF_Dict_New(mm);
+    HPDF_Dict ef = HPDF_Dict_New(mm);
+    if (!file || !params || !spec || !ef || HPDF_Xref_Add(xref, spec) != HPDF_OK)
+        return;
+    file->filter = HPDF_STREAM_FILTER_FLATE_DECODE;
+    HPDF_Dict_AddName(file, "Type", "EmbeddedFile");
+    HPDF_Dict_AddName(file, "Subtype", "text/markdown");
+    HPDF_Dict_AddNumber(params, "Size", (HPDF_INT32)d->len);
+    HPDF_Dict_Add(file, "Params", params);
+    HPDF_Stream_Write(file->stream, (const HPDF_BYTE *)d->text, (HPDF_UINT)d->len);
+
+    /* an ASCII file name: the source's, with anything else replaced */
+    const char *base = strcmp(d->file, "-") == 0 ? "stdin.calc.md" : base_name(d->file);
+    char name[256];
+    size_t n = 0;
+    for (const char *c = base; *c && n + 1 < sizeof name; c++)
+        name[n++] = ((unsigned char)*c < 0x80 && (unsigned char)*c >= 0x20) ? *c : '_';
+    name[n] = '\0';
+    char desc[160];
+    snprintf(desc, sizeof desc, "calc source, SHA-256 %s", d->digest);
+    HPDF_Dict_AddName(spec, "Type", "Filespec");
+    HPDF_Dict_Add(spec, "F", HPDF_String_New(mm, name, NULL));
+    HPDF_Dict_Add(spec, "UF", HPDF_String_New(mm, name, NULL));
+    HPDF_Dict_Add(spec, "Desc", HPDF_String_New(mm, desc, NULL));
+    HPDF_Dict_Add(ef, "F", file);
+    HPDF_Dict_Add(spec, "EF", ef);
+    HPDF_NameTree_Add(tree, HPDF_String_New(mm, name, NULL), spec);
 }
 
 /* ---- outline ------------------------------------------------------------- */

@@ -531,12 +531,19 @@ static double row_margin(Pdf *P, const Stmt *st, double top)
             pdf_link(P, x, y - 9, kw, 9, P->source_ref[si]);
         y -= 9;
     }
+    double room = s->body_r - x + 8;
     for (size_t m = 0; m < r->nmethods; m++) {
         for (size_t j = 0; j < P->ev->nmethods; j++)
             if (P->ev->methods[j] == r->methods[m]) {
                 char *k = arena_printf(&P->arena, "[%d] %s", P->method_ref[j], r->methods[m]->key);
-                pdf_text_color(P, FONT_MONO, 6.8, x, y - 7, k, LINK);
-                pdf_link(P, x, y - 9, pdf_width(P, FONT_MONO, 6.8, k), 9, P->method_ref[j]);
+                double ks = 6.8;
+                while (ks > 5 && pdf_width(P, FONT_MONO, ks, k) > room)
+                    ks -= 0.2;
+                /* still too long: the number alone */
+                if (pdf_width(P, FONT_MONO, ks, k) > room)
+                    k = arena_printf(&P->arena, "[%d]", P->method_ref[j]);
+                pdf_text_color(P, FONT_MONO, ks, x, y - 7, k, LINK);
+                pdf_link(P, x, y - 9, pdf_width(P, FONT_MONO, ks, k), 9, P->method_ref[j]);
                 y -= 9;
             }
     }
@@ -572,8 +579,11 @@ static double method_line(Pdf *P, const Method *m, int ref, double x, double top
     }
     double y = top;
     if (!f) {
-        return pdf_wrap(P, FONT_SERIF_ITALIC, size, size * 1.25, x, top, width,
-                        m->formula ? arena_printf(&P->arena, "%s %s", head, m->formula) : head);
+        double h = pdf_wrap_color(P, FONT_SERIF_ITALIC, size, size * 1.25, x, top, width,
+                                  m->formula ? arena_printf(&P->arena, "%s %s", head, m->formula)
+                                             : head,
+                                  GREY);
+        return h + 1;
     }
     bool same_line = hw + 8 + f->w <= width;
     double asc = f->h > size * 0.8 ? f->h : size * 0.8;
@@ -588,6 +598,28 @@ static double method_line(Pdf *P, const Method *m, int ref, double x, double top
         y -= f->h + f->d + 2;
     }
     return top - y;
+}
+
+/* A number for running text: "−4.22×10⁻¹⁵". */
+static void sci_text(double x, int digits, char *buf, size_t n)
+{
+    static const char *const sup[] = {"⁰", "¹", "²", "³", "⁴", "⁵", "⁶", "⁷", "⁸", "⁹"};
+    NumParts p = num_parts(x, digits);
+    StrBuf sb = {0};
+    for (const char *c = p.mantissa; *c; c++)
+        if (*c == '-')
+            sb_puts(&sb, "−");
+        else
+            sb_putc(&sb, *c);
+    if (p.exp10) {
+        char e[16];
+        snprintf(e, sizeof e, "%d", p.exp10);
+        sb_puts(&sb, "×10");
+        for (const char *c = e; *c; c++)
+            sb_puts(&sb, *c == '-' ? "⁻" : sup[*c - '0']);
+    }
+    snprintf(buf, n, "%s", sb_str(&sb));
+    sb_free(&sb);
 }
 
 static double fn_stmt(Pdf *P, const Item *it, double top)
@@ -656,7 +688,7 @@ static double fn_stmt(Pdf *P, const Item *it, double top)
         const SolveReport *sr = &r->solve;
         char res[48], lo[48], hi[48];
         Unit vu = r->shown;
-        num_sig(unit_from_si(sr->residual, &r->lhs_shown, true), 3, res, sizeof res);
+        sci_text(unit_from_si(sr->residual, &r->lhs_shown, true), 3, res, sizeof res);
         num_sig(unit_from_si(sr->start_lo, &vu, false), 4, lo, sizeof lo);
         num_sig(unit_from_si(sr->start_hi, &vu, false), 4, hi, sizeof hi);
         char ut[64];

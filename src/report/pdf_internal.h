@@ -89,6 +89,8 @@ void pdf_uri(Pdf *P, double x, double y, double w, double h, const char *url);
 /* Text wrapped to `width`; returns the height used. */
 double pdf_wrap(Pdf *P, FontRole f, double size, double lead, double x, double top, double width,
                 const char *s);
+double pdf_wrap_color(Pdf *P, FontRole f, double size, double lead, double x, double top,
+                      double width, const char *s, Rgb color);
 void item_add(Vec *items, Pdf *P, ItemFn fn, const void *p, int aux, double space_before);
 
 extern const Rgb INK, GREY, RULE, FAIL, PASS, SHADE, LINK;

@@ -622,6 +622,12 @@ static double fn_ref_method(Pdf *P, const Item *it, double top)
 
 /* ---- design criteria --------------------------------------------------------------- */
 
+static bool ends_with_period(const char *s)
+{
+    size_t n = strlen(s);
+    return n && s[n - 1] == '.';
+}
+
 static const double CRIT_COL[] = {0.26, 0.30, 0.44};
 
 static double fn_crit_head(Pdf *P, const Item *it, double top)
@@ -665,11 +671,11 @@ static double fn_crit_row(Pdf *P, const Item *it, double top)
     /* the basis: the description and the cited sources' text */
     StrBuf sb = {0};
     if (st->description && *st->description)
-        sb_printf(&sb, "%s. ", st->description);
+        sb_printf(&sb, "%s%s ", st->description, ends_with_period(st->description) ? "" : ".");
     for (size_t i = 0; i < st->ncites; i++) {
         int si = st->cites[i].source;
         if (si >= 0 && (size_t)si < d->nsources)
-            sb_printf(&sb, "[%d] %s. ", P->source_ref[si], d->sources[si].text);
+            sb_printf(&sb, "[%d] %s%s ", P->source_ref[si], d->sources[si].text, ends_with_period(d->sources[si].text) ? "" : ".");
     }
     if (st->ncites == 0)
         sb_puts(&sb, "No source cited: common practice or the author's criterion; confirm.");
