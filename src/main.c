@@ -12,6 +12,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/stat.h>
 #include <unistd.h>
 
 #include "doc.h"
@@ -195,6 +196,11 @@ static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagLi
             ok = (fclose(f) == 0) && ok;
         }
     }
+    /* mkstemp creates 0600; a report gets the usual mode under the umask. */
+    mode_t mask = umask(0);
+    umask(mask);
+    if (ok && chmod(tmp, 0666 & ~mask) != 0)
+        ok = false;
     if (ok && rename(tmp, out) != 0) {
         fprintf(stderr, "headroom: cannot write '%s': %s\n", out, strerror(errno));
         ok = false;
