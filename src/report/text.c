@@ -46,42 +46,53 @@ void render_value_text(const Evaluated *ev, const Value *v, const Unit *shown, S
     }
 }
 
+/* Binding strengths, spaced so the right operand of '-' and '/' can bind a
+ * little tighter than the left (a - (b - c), a/(b*c)). */
+enum { PREC_TOP = 0, PREC_ADD = 10, PREC_MUL = 20, PREC_NEG = 30, PREC_POW = 40, PREC_ATOM = 50 };
+
 static int precedence(const Expr *e)
 {
     switch (e->kind) {
     case EXPR_BINARY:
-        return e->op == OP_ADD || e->op == OP_SUB ? 1 : e->op == OP_POW ? 4 : 2;
+        return e->op == OP_ADD || e->op == OP_SUB ? PREC_ADD : e->op == OP_POW ? PREC_POW : PREC_MUL;
     case EXPR_NEG:
-        return 3;
+        return PREC_NEG;
     default:
-        return 5;
+        return PREC_ATOM;
     }
 }
 
-/* Does a substituted value need parentheses as an operand of `parent`? */
-static bool value_needs_parens(const Value *v, const Unit *u, int parent_prec, bool is_lhs_of_pow)
+/* Does a substituted value need parentheses where it stands? A value with a
+ * unit does inside a product or power (so the unit is not read as part of
+ * the next factor); a negative value does anywhere but at the top. */
+static bool value_needs_parens(const Value *v, const Unit *u, int parent_prec)
 {
-    if (parent_prec <= 1 && !(v->kind == VAL_NUMBER && v->q.si < 0))
+    if (v->kind != VAL_NUMBER || parent_prec == PREC_TOP)
         return false;
-    if (v->kind != VAL_NUMBER)
-        return false;
-    bool has_unit = u && u->text[0] && strcmp(u->text, "1") != 0;
-    if (has_unit)
-        return true;
     if (v->q.si < 0)
         return true;
-    return is_lhs_of_pow && v->q.si < 0;
+    bool has_unit = u && u->text[0] && strcmp(u->text, "1") != 0;
+    return has_unit && parent_prec >= PREC_MUL;
 }
 
-static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, int parent_prec, bool lhs_of_pow)
+static void put_value(const Evaluated *ev, const Value *v, const Unit *u, int parent_prec, StrBuf *out)
+{
+    bool paren = value_needs_parens(v, u, parent_prec);
+    if (paren)
+        sb_putc(out, '(');
+    render_value_text(ev, v, u, out);
+    if (paren)
+        sb_putc(out, ')');
+}
+
+static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, int parent_prec)
 {
     switch (e->kind) {
     case EXPR_NUMBER:
-        if (e->has_unit && sub && parent_prec >= 2) {
+        if (e->has_unit && sub && parent_prec >= PREC_MUL)
             sb_printf(out, "(%s)", e->text);
-        } else {
+        else
             sb_puts(out, e->text);
-        }
         break;
     case EXPR_STRING:
         sb_printf(out, "\"%s\"", e->text);
@@ -90,41 +101,32 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
         if (sub && e->slot >= 0 && ev->results[e->slot].state == RES_OK &&
             ev->results[e->slot].value.kind == VAL_NUMBER) {
             const StmtResult *r = &ev->results[e->slot];
-            bool paren = value_needs_parens(&r->value, &r->shown, parent_prec, lhs_of_pow);
-            if (paren)
-                sb_putc(out, '(');
-            render_value_text(ev, &r->value, &r->shown, out);
-            if (paren)
-                sb_putc(out, ')');
+            put_value(ev, &r->value, &r->shown, parent_prec, out);
         } else if (sub && e->slot == SLOT_PI) {
             sb_puts(out, "3.142");
         } else if (sub && e->slot == SLOT_G) {
             Value gv = value_number(qty(9.80665, DIM_ACCEL));
             Unit u = eval_display_unit(ev, &gv, NULL);
-            if (parent_prec >= 2)
-                sb_putc(out, '(');
-            render_value_text(ev, &gv, &u, out);
-            if (parent_prec >= 2)
-                sb_putc(out, ')');
+            put_value(ev, &gv, &u, parent_prec, out);
         } else {
             sb_puts(out, e->text);
         }
         break;
     case EXPR_PAREN:
         sb_putc(out, '(');
-        put_expr(ev, e->lhs, sub, out, 0, false);
+        put_expr(ev, e->lhs, sub, out, PREC_TOP);
         sb_putc(out, ')');
         break;
     case EXPR_NEG:
         sb_putc(out, '-');
-        put_expr(ev, e->lhs, sub, out, 3, false);
+        put_expr(ev, e->lhs, sub, out, PREC_NEG);
         break;
     case EXPR_BINARY: {
         int p = precedence(e);
         bool wrap = p < parent_prec;
         if (wrap)
             sb_putc(out, '(');
-        put_expr(ev, e->lhs, sub, out, e->op == OP_POW ? 5 : p, e->op == OP_POW);
+        put_expr(ev, e->lhs, sub, out, e->op == OP_POW ? PREC_ATOM : p);
         switch (e->op) {
         case OP_ADD: sb_puts(out, " + "); break;
         case OP_SUB: sb_puts(out, " - "); break;
@@ -132,7 +134,8 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
         case OP_DIV: sb_puts(out, "/"); break;
         case OP_POW: sb_puts(out, "^"); break;
         }
-        put_expr(ev, e->rhs, sub, out, e->op == OP_POW ? 3 : p + (e->op == OP_SUB || e->op == OP_DIV), false);
+        put_expr(ev, e->rhs, sub, out,
+                 e->op == OP_POW ? PREC_NEG : p + (e->op == OP_SUB || e->op == OP_DIV));
         if (wrap)
             sb_putc(out, ')');
         break;
@@ -146,17 +149,12 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
                 const Value *f = record_get(ev->results[b->slot].value.rec, e->text);
                 if (f && f->kind == VAL_NUMBER) {
                     Unit u = eval_display_unit(ev, f, NULL);
-                    bool paren = value_needs_parens(f, &u, parent_prec, lhs_of_pow);
-                    if (paren)
-                        sb_putc(out, '(');
-                    render_value_text(ev, f, &u, out);
-                    if (paren)
-                        sb_putc(out, ')');
+                    put_value(ev, f, &u, parent_prec, out);
                     break;
                 }
             }
         }
-        put_expr(ev, e->lhs, false, out, 5, false);
+        put_expr(ev, e->lhs, false, out, PREC_ATOM);
         sb_printf(out, ".%s", e->text);
         break;
     case EXPR_CALL:
@@ -165,13 +163,13 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
         for (size_t i = 0; i < e->nargs; i++) {
             if (i)
                 sb_puts(out, ", ");
-            put_expr(ev, e->args[i], sub, out, 0, false);
+            put_expr(ev, e->args[i], sub, out, PREC_TOP);
         }
         for (size_t i = 0; i < e->nkw; i++) {
             if (i || e->nargs)
                 sb_puts(out, ", ");
             sb_printf(out, "%s=", e->kw_names[i]);
-            put_expr(ev, e->kw[i], sub, out, 0, false);
+            put_expr(ev, e->kw[i], sub, out, PREC_TOP);
         }
         sb_putc(out, ')');
         break;
@@ -180,7 +178,7 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
 
 void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBuf *out)
 {
-    put_expr(ev, e, substitute, out, 0, false);
+    put_expr(ev, e, substitute, out, PREC_TOP);
 }
 
 /* An expression worth substituting: it reads at least one name. */
