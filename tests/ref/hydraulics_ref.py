@@ -35,7 +35,7 @@ def run_calc(statements, title="reference check"):
         proc = subprocess.run([headroom(), "check", path, "--json"], stdout=subprocess.PIPE,
                               stderr=subprocess.PIPE, timeout=600)
     if proc.returncode not in (0, 1):
-        sys.stderr.write(proc.stderr.decode("utf-8", "replace")[-4000:])
+        sys.stderr.write(proc.stderr.decode("utf-8", "replace")[-1500:])
         sys.stderr.write("reference check: headroom exited with %d\n" % proc.returncode)
     try:
         doc = json.loads(proc.stdout.decode("utf-8"))
