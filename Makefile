@@ -75,13 +75,19 @@ $(BUILD)/tests/%: tests/unit/%.c $(SAN_LIB_OBJ)
 unit-tests: $(UNIT_TESTS)
 	@set -e; for t in $(UNIT_TESTS); do echo "== $$t"; $$t; done
 
+# Each example: the text listing, the PDF report and PNG previews of its
+# sheets (pdftoppm), all under build/demo/.
 demo: $(BUILD)/headroom
 	@mkdir -p $(BUILD)/demo
 	@set -e; for f in examples/*.calc.md; do \
 	  base=$$(basename $$f .calc.md); \
 	  echo "== $$f"; \
+	  $(BUILD)/headroom check $$f || [ $$? -eq 1 ]; \
 	  $(BUILD)/headroom build $$f --format text -o $(BUILD)/demo/$$base.txt; \
-	  cat $(BUILD)/demo/$$base.txt; \
+	  $(BUILD)/headroom build $$f -o $(BUILD)/demo/$$base.pdf; \
+	  rm -f $(BUILD)/demo/$$base-*.png; \
+	  pdftoppm -png -r 80 $(BUILD)/demo/$$base.pdf $(BUILD)/demo/$$base 2>/dev/null; \
+	  echo "   $(BUILD)/demo/$$base.txt, $(BUILD)/demo/$$base.pdf ($$(ls $(BUILD)/demo/$$base-*.png | wc -l) page previews)"; \
 	done
 
 check: $(BUILD)/headroom $(BUILD)/san/headroom $(UNIT_TESTS)
