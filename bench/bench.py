@@ -1,0 +1,126 @@
+"""bench.py — time headroom on generated calcs and print one table.
+
+Each command runs in a fresh process; the best wall time of several runs is
+reported (the machine has other load), and peak resident memory comes from
+wait4's rusage of that process. Inputs are generated here into BUILD/bench/.
+"""
+import os
+import subprocess
+import sys
+import time
+
+BUILD = sys.argv[1] if len(sys.argv) > 1 else "build"
+HEADROOM = os.path.join(BUILD, "headroom")
+OUT = os.path.join(BUILD, "bench")
+
+
+def run(argv, repeat=5):
+    best, peak = float("inf"), 0
+    for _ in range(repeat):
+        start = time.perf_counter()
+        proc = subprocess.Popen(argv, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE)
+        _, status, usage = os.wait4(proc.pid, 0)
+        wall = time.perf_counter() - start
+        err = proc.stderr.read().decode(errors="replace")
+        proc.stderr.close()
+        code = os.waitstatus_to_exitcode(status)
+        if code not in (0, 1):
+            sys.exit(f"bench: {' '.join(argv)} exited {code}\n{err[:2000]}")
+        best = min(best, wall)
+        peak = max(peak, usage.ru_maxrss)  # KiB on Linux
+    return best, peak / 1024.0
+
+
+def calc_5000():
+    """5,000 statements in 50 calc blocks: inputs, arithmetic with units,
+    water properties, friction factors, a solve every block, and checks."""
+    lines = ["---", "title: Benchmark, 5000 statements", "units: US", "---", ""]
+    n = 0
+    for b in range(50):
+        lines += [f"# Block {b}", "", "```calc"]
+        lines.append(f"Q_{b} = {50 + b} gal/min  # flow")
+        lines.append(f"D_{b} = {2 + (b % 5) * 0.5} in")
+        lines.append(f"T_{b} = {50 + b % 30} degF")
+        lines.append(f"w_{b} = water(T_{b})")
+        lines.append(f"A_{b} = pi*D_{b}^2/4")
+        lines.append(f"V_{b} = Q_{b}/A_{b} as ft/s")
+        lines.append(f"Re_{b} = w_{b}.rho*V_{b}*D_{b}/w_{b}.mu")
+        lines.append(f"f_{b} = friction_factor(Re_{b}, 0.00005 in/D_{b})")
+        lines.append(f"L_{b} = 100 ft")
+        lines.append(f"h_{b} = f_{b}*(L_{b}/D_{b})*V_{b}^2/(2*g) as ft")
+        lines.append(f"Ls_{b} = solve L_{b} where f_{b}*(L_{b}/D_{b})*V_{b}^2/(2*g) = 20 ft")
+        n += 11
+        for k in range(87):
+            lines.append(f"x_{b}_{k} = h_{b}*{k + 1} + {k} ft  # derived value {k}")
+            n += 1
+        lines.append(f"check head {b}: h_{b} <= 100 ft")
+        lines.append(f"check velocity {b}: V_{b} <= 10 ft/s")
+        n += 2
+        lines += ["```", ""]
+    path = os.path.join(OUT, "check5000.calc.md")
+    with open(path, "w") as f:
+        f.write("\n".join(lines) + "\n")
+    return path, n
+
+
+def calc_100_sheets():
+    """Prose, a table and calc rows enough for about a hundred sheets."""
+    lines = ["---", "title: Benchmark, a long report", "units: SI", "paper: a4", "---", ""]
+    for s in range(60):
+        lines += [f"# Section {s}", "",
+                  "This section carries a paragraph of prose that wraps over several lines so "
+                  "that the layout has real text to break, with *emphasis*, **strong words** "
+                  "and `code` in it, and an inline value {Q_%d}." % s, "",
+                  "| item | value |", "|---|---|", "| one | 1 |", "| two | 2 |", "", "```calc"]
+        lines.append(f"Q_{s} = {5 + s} L/s  # flow in line {s}")
+        lines.append(f"D_{s} = 80 mm")
+        lines.append(f"V_{s} = Q_{s}/(pi*D_{s}^2/4) as m/s  # velocity")
+        lines.append(f"Re_{s} = 998 kg/m^3*V_{s}*D_{s}/(1.0 cP)")
+        lines.append(f"f_{s} = friction_factor(Re_{s}, 0.045 mm/D_{s})")
+        for k in range(12):
+            lines.append(f"h_{s}_{k} = f_{s}*({10 + k} m/D_{s})*V_{s}^2/(2*g) as m  # friction over run {k}")
+        lines.append(f"check velocity {s}: V_{s} <= 3 m/s")
+        lines += ["```", ""]
+    path = os.path.join(OUT, "sheets100.calc.md")
+    with open(path, "w") as f:
+        f.write("\n".join(lines) + "\n")
+    return path
+
+
+def pdf_pages(path):
+    try:
+        out = subprocess.run(["pdfinfo", path], capture_output=True, text=True).stdout
+        for line in out.splitlines():
+            if line.startswith("Pages:"):
+                return int(line.split()[1])
+    except OSError:
+        pass
+    return 0
+
+
+def main():
+    os.makedirs(OUT, exist_ok=True)
+    rows = []
+    path, n = calc_5000()
+    t, m = run([HEADROOM, "check", path])
+    rows.append((f"check, {n} statements", f"{t * 1000:.1f} ms", f"{m:.1f} MB", "< 100 ms, < 64 MB"))
+
+    long_calc = calc_100_sheets()
+    pdf = os.path.join(OUT, "sheets100.pdf")
+    t, m = run([HEADROOM, "build", long_calc, "-o", pdf], repeat=3)
+    pages = pdf_pages(pdf)
+    size = os.path.getsize(pdf) / 1024.0 if os.path.exists(pdf) else 0
+    rows.append((f"build, {pages} sheets ({size:.0f} KB)", f"{t * 1000:.1f} ms", f"{m:.1f} MB", "< 1 s, < 64 MB"))
+
+    out = subprocess.run([os.path.join(OUT, "colebrook")], capture_output=True, text=True).stdout.strip()
+    rows.append(("1e6 Colebrook solves", out.splitlines()[-1] if out else "?", "", "< 0.2 us each"))
+
+    w = [max(len(r[i]) for r in rows + [("job", "time", "peak memory", "target")]) for i in range(4)]
+    fmt = "  ".join("{:<%d}" % x for x in w)
+    print(fmt.format("job", "time", "peak memory", "target"))
+    print(fmt.format(*("-" * x for x in w)))
+    for r in rows:
+        print(fmt.format(*r))
+
+
+main()
