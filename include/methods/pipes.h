@@ -60,7 +60,9 @@ typedef struct PipeDims {
     const PipeRow *row;
     double od, id, wall;       /* m */
     double area;               /* flow area pi/4 id^2, m^2 */
-    double sdr;                /* od/wall: nominal SDR for SDR classes, else computed */
+    double sdr;                /* the nominal SDR of an SDR class; otherwise od/wall
+                                * computed from the listed wall (minimum wall for
+                                * plastics, nominal for steel and copper) */
     bool sdr_nominal;          /* true when the class is an SDR */
     double roughness;          /* m, from the roughness table */
     double E;                  /* Pa */

@@ -59,9 +59,9 @@ static const double CRANE_LD[FIT_KIND_COUNT] = {
     [FIT_ELBOW45_STD] = 16,          /* standard elbow, 45 deg */
     [FIT_ELBOW45_LONG] = 0,
     [FIT_TEE_RUN] = 20,              /* standard tee, flow through run */
-    [FIT_TEE_RUN_FLANGED] = 20,
+    [FIT_TEE_RUN_FLANGED] = 20,      /* Crane gives one value per standard tee, */
     [FIT_TEE_BRANCH] = 60,           /* standard tee, flow through branch */
-    [FIT_TEE_BRANCH_FLANGED] = 60,
+    [FIT_TEE_BRANCH_FLANGED] = 60,   /* threaded or flanged alike */
     [FIT_GATE] = 8,                  /* gate valve, wedge disc, beta = 1 */
     [FIT_GLOBE] = 340,               /* globe valve, beta = 1 */
     [FIT_BALL] = 3,                  /* ball valve, beta = 1 */

@@ -178,6 +178,11 @@ static const char *size_text_of(const PipeStandard *s, double nps)
     return NULL;
 }
 
+/* pipe("ASME B36.10M", "1-1/2", "40") -> record "pipe" with od, id, wall,
+ * area (pi/4 id^2), roughness, E, sdr (plastics only: the nominal SDR of
+ * D2241 and F876; od/minimum wall, as computed, for schedule plastic pipe),
+ * material, standard, nps, class. SIZE and CLASS may be strings or pure
+ * numbers (1.5, 40; 21 means SDR 21 for an SDR standard). */
 bool fn_pipe(CallCtx *cx, const CallArgs *a, Value *out)
 {
     const char *std_text;
@@ -299,6 +304,10 @@ static bool kw_length(CallCtx *cx, const CallArgs *a, const char *name, double *
     return true;
 }
 
+/* k_fitting(KIND, D, Re, method="crane"|"hooper"|"darby", D2=, r=) -> K,
+ * referred to the velocity in D. D2 is the larger bore of "expansion" (D
+ * upstream) and "contraction" (D downstream); r the rounding radius of
+ * "entrance rounded" (without it, a well rounded entrance, r/d >= 0.15). */
 bool fn_k_fitting(CallCtx *cx, const CallArgs *a, Value *out)
 {
     static const char *const allowed[] = {"method", "D2", "r", NULL};
