@@ -72,6 +72,10 @@ $(BUILD)/tests/%: tests/unit/%.c $(SAN_LIB_OBJ)
 	@mkdir -p $(dir $@)
 	$(CC) $(ALL_CFLAGS) -O1 $(SAN) $< $(SAN_LIB_OBJ) -o $@ $(LIBS) -lcmocka
 
+# The report's fixed texts, compiled in from templates/ (the output is committed).
+src/report/pdf_texts.inc: templates/cautions.md templates/gen-texts.sh
+	sh templates/gen-texts.sh > $@
+
 unit-tests: $(UNIT_TESTS)
 	@set -e; for t in $(UNIT_TESTS); do echo "== $$t"; $$t; done
 

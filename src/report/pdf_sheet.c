@@ -22,6 +22,13 @@
 #define HEADROOM_VERSION "0.0.0"
 #endif
 
+/* The file's own name: the sheets must not depend on where it was built. */
+static const char *base_of(const char *path)
+{
+    const char *s = strrchr(path, '/');
+    return s ? s + 1 : path;
+}
+
 static const char *or_blank(const char *s)
 {
     return s && *s ? s : "";
@@ -291,7 +298,7 @@ static double fn_cover(Pdf *P, const Item *it, double top)
     double x = s->body_l, W = s->body_r - s->body_l, y = top;
     pdf_text_color(P, FONT_SANS_BOLD, 8, x, y - 8, "CALCULATION PACKAGE", GREY);
     y -= 14;
-    const char *title = m->title ? m->title : P->d->file;
+    const char *title = m->title ? m->title : base_of(P->d->file);
     y -= pdf_wrap(P, FONT_SERIF_BOLD, 19, 23, x, y, W, title) + 8;
     double lw = 64;
     y -= kv(P, x, y - 10, lw, "Project", or_blank(m->project));
@@ -337,14 +344,14 @@ static double fn_cover(Pdf *P, const Item *it, double top)
     snprintf(buf, sizeof buf,
              "Computed and typeset by headroom %s from %s; the source file is attached "
              "to this PDF and listed in the appendix. SHA-256 of the source: %s.",
-             HEADROOM_VERSION, P->d->file, P->d->digest);
+             HEADROOM_VERSION, base_of(P->d->file), P->d->digest);
     y -= pdf_wrap(P, FONT_SERIF_ITALIC, 7.5, 9.5, x, y, W - sw - gap, buf);
     return top - y;
 }
 
 /* ---- the check summary ------------------------------------------------------ */
 
-static const double SUMMARY_COL[] = {0.05, 0.33, 0.40, 0.11, 0.11}; /* no, label, sides, util, verdict */
+static const double SUMMARY_COL[] = {0.05, 0.31, 0.38, 0.15, 0.11}; /* no, label, sides, util, verdict */
 
 static double fn_summary_head(Pdf *P, const Item *it, double top)
 {
@@ -716,7 +723,7 @@ static double fn_listing_intro(Pdf *P, const Item *it, double top)
                            "The calc source %s, %zu lines, %zu bytes, SHA-256 %s. The same bytes "
                            "are attached to this PDF file; headroom %s rebuilds this report from "
                            "them.",
-                           d->file, lines, d->len, d->digest, HEADROOM_VERSION);
+                           base_of(d->file), lines, d->len, d->digest, HEADROOM_VERSION);
     return pdf_wrap(P, FONT_SERIF, 8.5, 10.5, s->body_l, top, s->body_r - s->body_l, t) + 6;
 }
 
