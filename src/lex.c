@@ -136,6 +136,17 @@ static size_t unit_length(const char *s, size_t left)
         if (s[i] == ')' && depth > 0) {
             depth--;
             i++;
+            /* A group may carry an exponent: ft/(gal/min)^2. */
+            if (i < left && s[i] == '^') {
+                size_t j = i + 1;
+                if (j < left && s[j] == '-')
+                    j++;
+                size_t k = j;
+                while (k < left && (is_digit((unsigned char)s[k]) || s[k] == '.'))
+                    k++;
+                if (k > j)
+                    i = k;
+            }
             continue;
         }
         size_t op = 0;

@@ -57,7 +57,10 @@ static Expr *new_expr(Parser *p, ExprKind kind, Pos pos)
     return e;
 }
 
-int parse_unit(const char *text, size_t len, Pos pos, Unit *out, DiagList *diags)
+/* `number` (may be NULL) is the literal the unit follows, for the hint
+ * that `2 ft/D` reads ft/D as one unit. */
+static int resolve_unit(const char *text, size_t len, Pos pos, Unit *out, DiagList *diags, const char *number,
+                        size_t number_len)
 {
     size_t bad_off = 0, bad_len = 0;
     UnitStatus st = unit_parse(text, len, out, &bad_off, &bad_len);
@@ -70,11 +73,16 @@ int parse_unit(const char *text, size_t len, Pos pos, Unit *out, DiagList *diags
         bool compound = bad_off > 0 && (text[bad_off - 1] == '/' || text[bad_off - 1] == '*');
         if (hint)
             diag_error(diags, at, "unknown unit '%.*s'; did you mean %s?", (int)bad_len, text + bad_off, hint);
+        else if (compound && number)
+            diag_error(diags, at,
+                       "unknown unit '%.*s'; '%.*s' reads as one unit, so to divide or multiply by "
+                       "a name put the quantity in parentheses: (%.*s %.*s)%c%.*s",
+                       (int)bad_len, text + bad_off, (int)len, text, (int)number_len, number,
+                       (int)(bad_off - 1), text, text[bad_off - 1], (int)(len - bad_off), text + bad_off);
         else if (compound)
             diag_error(diags, at,
-                       "unknown unit '%.*s'; a unit is written without spaces, so to divide or "
-                       "multiply by a name put the number in parentheses: (%.*s)%c%.*s",
-                       (int)bad_len, text + bad_off, (int)(bad_off - 1), text, text[bad_off - 1],
+                       "unknown unit '%.*s'; to divide or multiply a quantity by a name, put the "
+                       "quantity in parentheses, as in (2 ft)/D",
                        (int)bad_len, text + bad_off);
         else
             diag_error(diags, at, "unknown unit '%.*s'", (int)bad_len, text + bad_off);
@@ -84,6 +92,11 @@ int parse_unit(const char *text, size_t len, Pos pos, Unit *out, DiagList *diags
         diag_error(diags, pos, "malformed unit '%.*s'", (int)(len < 60 ? len : 60), text);
     }
     return 0;
+}
+
+int parse_unit(const char *text, size_t len, Pos pos, Unit *out, DiagList *diags)
+{
+    return resolve_unit(text, len, pos, out, diags, NULL, 0);
 }
 
 static Expr *parse_expr(Parser *p);
@@ -185,7 +198,7 @@ static Expr *parse_primary(Parser *p)
         if (t.unit) {
             e->text = arena_strndup(p->arena, t.text, (size_t)(t.unit + t.unit_len - t.text));
             e->has_unit = 1;
-            if (!parse_unit(t.unit, t.unit_len, t.unit_pos, &e->unit, p->diags))
+            if (!resolve_unit(t.unit, t.unit_len, t.unit_pos, &e->unit, p->diags, t.text, t.len))
                 p->failed = 1;
         } else {
             e->text = arena_strndup(p->arena, t.text, t.len);

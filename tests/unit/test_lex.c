@@ -63,6 +63,7 @@ static void test_compound_units(void **state)
         {"5 kPa·s", "kPa·s"},
         {"55 degF and", "degF"},
         {"10 ft*", "ft"},
+        {"0.002 ft/(gal/min)^2 +", "ft/(gal/min)^2"},
     };
     for (size_t i = 0; i < sizeof cases / sizeof cases[0]; i++) {
         start(cases[i].line);

@@ -151,7 +151,7 @@ static void test_errors(void **state)
         {"x = (a + b", 11, "')' to close '(' opened at 3:5"},
         {"x = a +", 8, "expected a number, a name"},
         {"x = 3 furlongs", 7, "unknown unit 'furlongs'"},
-        {"x = 3 ft/D", 10, "put the number in parentheses"},
+        {"x = 3 ft/D", 10, "put the quantity in parentheses: (3 ft)/D"},
         {"x == 3", 3, "'==' is not an operator"},
         {"x 3", 3, "expected '=' after the name"},
         {"check : a <= b", 1, "expected 'check LABEL: A <= B'"},
