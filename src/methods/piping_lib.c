@@ -85,7 +85,7 @@ static const Method METHOD_CONTRACTION = {
     "contraction)."};
 
 static const Method METHOD_HOOPER = {
-    "hooper_2k", "Hooper 2-K method", "K = K_1/Re + K_inf*(1 + 1 in/D)",
+    "hooper_2k", "Hooper 2-K method", "K = K_1/Re + K_inf*(1 + (1 in)/D)",
     "all Reynolds numbers; D the bore; fittings of line size, valves fully open",
     "Hooper, W. B. (1981). The two-K method predicts head losses in pipe fittings. Chemical "
     "Engineering 88(17), 96-100."};

@@ -15,6 +15,7 @@
 
 #include "library.h"
 #include "methods/fittings.h"
+#include "parse.h"
 
 #include <math.h>
 #include <string.h>
@@ -349,6 +350,45 @@ static void test_fn_k_fitting_errors(void **state)
     expect_error(&h, 50, "unknown keyword 'angle'");
 }
 
+/* Every display formula a k_fitting() call names parses as a calc
+ * equation, so the report can typeset it. */
+static void test_formulas_parse(void **state)
+{
+    (void)state;
+    size_t parsed = 0;
+    for (int m = 0; m < FIT_METHOD_COUNT; m++)
+        for (int k = 0; k < FIT_KIND_COUNT; k++) {
+            if (!fitting_method_has((FittingMethod)m, (FittingKind)k))
+                continue;
+            Harness h;
+            Value out;
+            harness_init(&h, fitting_kind_name((FittingKind)k), len_in(2), num(1e5));
+            harness_kw(&h, "method", value_string(fitting_method_name((FittingMethod)m)));
+            if (k == FIT_EXPANSION || k == FIT_CONTRACTION)
+                harness_kw(&h, "D2", len_in(3));
+            assert_true(fn_k_fitting(&h.cx, &h.a, &out));
+            assert_true(h.cx.nmethods >= 1);
+            for (size_t i = 0; i < h.cx.nmethods; i++) {
+                const Method *me = h.cx.methods[i];
+                assert_non_null(me->reference);
+                if (!me->formula)
+                    continue;
+                Expr *lhs = NULL, *rhs = NULL;
+                DiagList dl = {0};
+                int ok = parse_equation_text(&h.arena, me->formula, &dl, &lhs, &rhs);
+                if (!ok || dl.errors) {
+                    print_error("formula of %s does not parse: %s\n", me->key, me->formula);
+                    fail();
+                }
+                assert_non_null(rhs);
+                diag_free(&dl);
+                parsed++;
+            }
+            harness_free(&h);
+        }
+    assert_true(parsed > 40);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -356,7 +396,7 @@ int main(void)
         cmocka_unit_test(test_crane_k),       cmocka_unit_test(test_crane_direct),
         cmocka_unit_test(test_hooper),        cmocka_unit_test(test_darby),
         cmocka_unit_test(test_not_tabulated), cmocka_unit_test(test_fn_k_fitting),
-        cmocka_unit_test(test_fn_k_fitting_errors),
+        cmocka_unit_test(test_fn_k_fitting_errors), cmocka_unit_test(test_formulas_parse),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }

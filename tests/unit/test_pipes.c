@@ -15,6 +15,7 @@
 #include <cmocka.h>
 
 #include "library.h"
+#include "parse.h"
 #include "methods/pipes.h"
 #include "methods/roughness.h"
 
@@ -433,6 +434,13 @@ static void test_fn_pipe(void **state)
     assert_null(record_get(out.rec, "sdr"));
     assert_true(h.cx.nmethods >= 1);
     assert_string_equal(h.cx.methods[0]->key, "asme_b36_10m");
+    /* the display formula parses as a calc equation (for the report) */
+    Expr *lhs = NULL, *rhs = NULL;
+    DiagList dl = {0};
+    assert_true(parse_equation_text(&h.arena, h.cx.methods[0]->formula, &dl, &lhs, &rhs));
+    assert_int_equal(dl.errors, 0);
+    assert_non_null(rhs);
+    diag_free(&dl);
     harness_free(&h);
 
     /* numbers for SIZE and CLASS; SDR standard */
