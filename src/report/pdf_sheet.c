@@ -90,7 +90,7 @@ static void draw_watermark(Pdf *P, const char *text)
     double a = atan2(P->sheet.h - 240, P->sheet.w - 120);
     double c = cos(a), s = sin(a);
     double cx = P->sheet.w / 2, cy = P->sheet.h / 2 - 40;
-    HPDF_Page_SetRGBFill(pg, 0.86f, 0.80f, 0.80f);
+    HPDF_Page_SetRGBFill(pg, 0.93f, 0.88f, 0.88f);
     HPDF_Page_BeginText(pg);
     HPDF_Page_SetFontAndSize(pg, P->font[FONT_SANS_BOLD], (HPDF_REAL)size);
     HPDF_Page_SetTextMatrix(pg, (HPDF_REAL)c, (HPDF_REAL)s, (HPDF_REAL)-s, (HPDF_REAL)c,
