@@ -8,7 +8,8 @@
 # tabulates, each asked in four spellings; tolerances (0.05 mm od and
 # 0.005 mm wall for steel, where fluids keeps the standard's rounded metric
 # columns; 1e-9 m for the plastics) and what fluids lacks (ASTM B88, F876)
-# are in pipes_fluids.py beside this script. The real program evaluates
+# are in pipes_fluids.py beside this script. Bad input (unknown size, class,
+# standard) must exit 2 with `file:line:col: error:` at the argument. The real program evaluates
 # generated calc files (`$HEADROOM check FILE --json`); while it cannot, the
 # numeric core is driven through fittings_probe.c and the output says so.
 #

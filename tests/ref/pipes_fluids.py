@@ -39,11 +39,19 @@ against the same reference):
                 rows fluids also lists (its values are Moody's feet figures
                 rounded to three digits in metres): tolerance 0.5 %.
 
+Bad input (the real program only): a calc file with one unknown size, class
+or standard must stop with exit status 2 and a `file:line:col: error:`
+line at the offending argument that lists what the standard has.
+
     pipes_fluids.py run HEADROOM
 """
 
 import math
+import os
+import re
+import subprocess
 import sys
+import tempfile
 
 import fluids
 import fluids.friction as fr
@@ -133,6 +141,33 @@ ROUGH = {"galvanised steel": "Galvanized iron", "cast iron": "Cast iron",
          "drawn tubing": "Brass", "copper": "Brass"}
 
 
+# (statement, column of the offending argument, words the message must hold)
+BAD = [
+    ('a = pipe("ASTM B88", "7", "L")', 22, "ASTM B88 has no size 7; its sizes are 1/4, 3/8, 1/2"),
+    ('a = pipe("ASTM D1785", "2", "120")', 29, 'has no class "120"; its classes are "40", "80"'),
+    ('a = pipe("ASTM D9", "2", "40")', 10, 'unknown standard "ASTM D9"; known standards: "ASME B36.10M"'),
+    ('a = pipe("ASME B36.10M", "3-1/2", "160")', 35, 'lists no "160" at size 3-1/2'),
+]
+
+
+def bad_input(headroom):
+    """Run each bad statement through the program; return failures."""
+    fails = []
+    with tempfile.TemporaryDirectory() as tmp:
+        for stmt, col, words in BAD:
+            path = os.path.join(tmp, "bad.calc.md")
+            with open(path, "w", encoding="utf-8") as f:
+                f.write("# bad\n\n```calc\n%s\n```\n" % stmt)
+            r = subprocess.run([headroom, "check", path], capture_output=True, text=True,
+                               timeout=600)
+            want = "%s:4:%d: error: pipe: " % (path, col)
+            out = r.stdout + r.stderr
+            if r.returncode != 2 or want not in out or words not in out:
+                fails.append("%s: exit %d, expected 2 and '%s...%s' in: %s" %
+                             (stmt, r.returncode, want, words, out.strip()[:400]))
+    return fails
+
+
 def main(argv):
     if len(argv) != 3 or argv[1] != "run":
         sys.stderr.write("usage: pipes_fluids.py run HEADROOM\n")
@@ -193,6 +228,12 @@ def main(argv):
         else:
             failed += 1
             print("FAIL roughness(\"%s\") = %r, fluids %s %r" % (m, v, fid, ref))
+    if route == "cli":
+        bad_fails = bad_input(headroom)
+        for f in bad_fails:
+            print("FAIL bad input " + f)
+        failed += len(bad_fails)
+        passed += len(BAD) - len(bad_fails)
     if problems and failed == 0:
         failed += len(problems)
     print("pipes-fluids: %d passed, %d failed" % (passed, failed))
