@@ -5,13 +5,14 @@
 # Reference: python3-fluids 1.0.22 (Debian package python3-fluids, modules
 # fluids.piping and fluids.friction), run by Debian's /usr/bin/python3.
 # Every row of ASME B36.10M, ASTM D1785, F441 and D2241 that fluids also
-# tabulates, each asked in four spellings; tolerances (0.05 mm od and
-# 0.005 mm wall for steel, where fluids keeps the standard's rounded metric
-# columns; 1e-9 m for the plastics) and what fluids lacks (ASTM B88, F876)
-# are in pipes_fluids.py beside this script. Bad input (unknown size, class,
-# standard) must exit 2 with `file:line:col: error:` at the argument. The real program evaluates
-# generated calc files (`$HEADROOM check FILE --json`); while it cannot, the
-# numeric core is driven through fittings_probe.c and the output says so.
+# tabulates, each asked in four spellings; tolerances (steel: wall 0.005 mm,
+# od 0.05 mm, 0.5 mm above NPS 16, where fluids keeps the standard's rounded
+# metric columns; 1e-9 m for the plastics) and what fluids lacks (ASTM B88,
+# F876) are in pipes_fluids.py beside this script. Bad input (unknown size,
+# class, standard) must exit 2 with `file:line:col: error:` at the argument.
+# The real program evaluates generated calc files (`$HEADROOM check FILE
+# --json`); while it cannot, the numeric core is driven through
+# fittings_probe.c and the output says so.
 #
 #   HEADROOM=build/san/headroom tests/ref/pipes-fluids.sh
 #
