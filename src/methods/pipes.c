@@ -28,22 +28,23 @@ static const PipeStandard STANDARDS[PIPE_STANDARD_COUNT] = {
      "(from memory); ASME B31.3 Appendix C tabulates 29.5e6 psi at 70 F for C <= 0.30 % "
      "(from memory)"},
     {PIPE_ASTM_D1785, "ASTM D1785", "Poly(Vinyl Chloride) (PVC) Plastic Pipe, Schedules 40, 80, and 120",
-     "PVC", "minimum wall", "PVC", 400000.0 * PSI,
+     "PVC", "minimum wall", "plastic", 400000.0 * PSI,
      "ASTM D1784 cell class 12454 (PVC 1120): tensile modulus at least 400,000 psi (2758 MPa) "
      "(from memory)"},
     {PIPE_ASTM_F441, "ASTM F441", "Chlorinated Poly(Vinyl Chloride) (CPVC) Plastic Pipe, Schedules 40 and 80",
-     "CPVC", "minimum wall", "PVC", 423000.0 * PSI,
+     "CPVC", "minimum wall", "plastic", 423000.0 * PSI,
      "CPVC 4120, 423,000 psi (2.92 GPa), a typical compound value (from memory); ASTM D1784 "
      "cell class 23447 requires at least 360,000 psi (from memory)"},
     {PIPE_ASTM_D2241, "ASTM D2241", "Poly(Vinyl Chloride) (PVC) Pressure-Rated Pipe (SDR Series)", "PVC",
-     "minimum wall", "PVC", 400000.0 * PSI,
+     "minimum wall", "plastic", 400000.0 * PSI,
      "ASTM D1784 cell class 12454 (PVC 1120): tensile modulus at least 400,000 psi (2758 MPa) "
      "(from memory)"},
     {PIPE_ASTM_B88, "ASTM B88", "Seamless Copper Water Tube", "copper", "nominal wall", "copper",
      17.0e6 * PSI,
      "annealed to drawn copper tube, 17e6 psi (117 GPa), Copper Development Association, "
      "Copper Tube Handbook (from memory)"},
-    {PIPE_ASTM_F876, "ASTM F876", "Crosslinked Polyethylene (PEX) Tubing", "PEX", "minimum wall", "PVC",
+    {PIPE_ASTM_F876, "ASTM F876", "Crosslinked Polyethylene (PEX) Tubing", "PEX", "minimum wall",
+     "plastic",
      100000.0 * PSI,
      "PEX at 73 F, about 100,000 psi (0.69 GPa); published values range 0.6-0.9 GPa "
      "(from memory)"},

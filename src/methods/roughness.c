@@ -20,7 +20,7 @@ static const RoughnessRow ROWS[] = {
     {"drawn tubing", "drawn", 0.000005 * FT, MOODY " (drawn tubing, 0.000005 ft)"},
     {"copper", "drawn copper|brass|copper tube", 0.000005 * FT,
      MOODY " (drawn tubing, 0.000005 ft; copper tube is drawn tubing)"},
-    {"PVC", "plastic|plastics|CPVC|PEX|PE|HDPE|polyethylene", 0.000005 * FT,
+    {"plastic", "PVC|plastics|CPVC|PEX|PE|HDPE|polyethylene", 0.000005 * FT,
      "smooth, taken equal to Moody's drawn tubing, 0.000005 ft (common practice, no source)"},
     {"commercial steel", "steel|wrought iron|carbon steel|black steel", 0.00015 * FT,
      MOODY " (commercial steel or wrought iron, 0.00015 ft)"},

@@ -330,6 +330,14 @@ static void test_material_data(void **state)
     assert_close(d.sdr, 4.5 / 0.237, 1e-12);
     assert_string_equal(d.std->material, "PVC");
     assert_string_equal(d.std->wall_basis, "minimum wall");
+    /* every standard names a roughness row by its canonical name */
+    for (int i = 0; i < PIPE_STANDARD_COUNT; i++) {
+        const RoughnessRow *row = NULL;
+        const PipeStandard *s = pipe_standard((PipeStandardId)i);
+        assert_int_equal(roughness_lookup(s->roughness_of, &row), ROUGHNESS_OK);
+        assert_string_equal(row->name, s->roughness_of);
+        assert_true(s->E > 1e8 && strlen(s->E_source) > 20);
+    }
 }
 
 static void test_nps_from_bore(void **state)
