@@ -300,47 +300,13 @@ static void report_date(Pdf *P, HPDF_Date *out, bool *has)
     out->ind = 'Z';
 }
 
-/* Info strings with non-ASCII text are written as UTF-16BE with a byte order
- * mark (libharu would write the UTF-8 bytes as PDFDocEncoding). */
+/* Info strings: with UTF-8 as the document's current encoder libharu
+ * writes text strings as UTF-16BE with a byte order mark, so Greek and
+ * dashes survive in the document information. */
 static void set_info(Pdf *P, HPDF_InfoType type, const char *s)
 {
-    if (!s || !*s)
-        return;
-    bool ascii = true;
-    for (const char *c = s; *c; c++)
-        if ((unsigned char)*c >= 0x80)
-            ascii = false;
-    if (ascii) {
+    if (s && *s)
         HPDF_SetInfoAttr(P->doc, type, s);
-        return;
-    }
-    /* keep what PDFDocEncoding shares with Latin-1; replace the rest */
-    char buf[512];
-    size_t n = 0;
-    for (const unsigned char *c = (const unsigned char *)s; *c && n + 2 < sizeof buf;) {
-        unsigned cp = *c;
-        int len = 1;
-        if (cp >= 0xF0) {
-            cp = 0xFFFD;
-            len = 4;
-        } else if (cp >= 0xE0) {
-            cp = ((c[0] & 0x0Fu) << 12) | ((c[1] & 0x3Fu) << 6) | (c[2] & 0x3Fu);
-            len = 3;
-        } else if (cp >= 0xC0) {
-            cp = ((c[0] & 0x1Fu) << 6) | (c[1] & 0x3Fu);
-            len = 2;
-        }
-        if (cp == 0x2014 || cp == 0x2013)
-            buf[n++] = '-';
-        else if (cp < 0x100 && (cp < 0x80 || cp >= 0xA0))
-            buf[n++] = (char)cp;
-        else
-            buf[n++] = '?';
-        for (int k = 0; k < len && *c; k++)
-            c++;
-    }
-    buf[n] = '\0';
-    HPDF_SetInfoAttr(P->doc, type, buf);
 }
 
 static const char *base_name(const char *path)
@@ -497,6 +463,7 @@ static bool build(Pdf *P, const char *path)
     HPDF_AddPageLabel(P->doc, 0, HPDF_PAGE_NUM_STYLE_DECIMAL, 1, "Sheet ");
     HPDF_SetPageMode(P->doc, HPDF_PAGE_MODE_USE_OUTLINE);
     const Meta *m = &d->meta;
+    HPDF_SetCurrentEncoder(P->doc, "UTF-8");
     set_info(P, HPDF_INFO_TITLE, m->title ? m->title : base_name(d->file));
     set_info(P, HPDF_INFO_AUTHOR, m->prepared);
     set_info(P, HPDF_INFO_SUBJECT, m->subject ? m->subject : m->project);

@@ -448,6 +448,8 @@ static double render_block(Pdf *P, const Block *b, double x, double top, double 
     case BLK_TABLE_CELL:
     case BLK_CALC:
     case BLK_SOURCES:
+    case BLK_PATH:
+    case BLK_CASES:
         return 0;
     }
     return 0;
