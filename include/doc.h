@@ -65,8 +65,40 @@ typedef enum StmtKind {
     STMT_DEF,    /* NAME = EXPR [as UNIT]                          */
     STMT_SOLVE,  /* NAME = solve VAR where A = B [between LO and HI] */
     STMT_CHECK,  /* check LABEL: A OP B                            */
-    STMT_NOTE    /* a whole-line comment                           */
+    STMT_NOTE,   /* a whole-line comment                           */
+    STMT_PATH,   /* a ```path NAME block: binds the record NAME    */
+    STMT_FIGURE  /* figure KIND(args)  # caption                   */
 } StmtKind;
+
+/* One entry of a path's fittings cell: "2 elbow 90 std". */
+typedef struct FittingItem {
+    int count;
+    const char *kind;        /* the words as written */
+    Pos pos;
+} FittingItem;
+
+/* One row of a path table. Optional cells are NULL. */
+typedef struct PathSegment {
+    const char *id;          /* as written ("S-1") */
+    const char *field;       /* its record field name ("S_1") */
+    Pos pos;
+    Expr *flow, *pipe, *length, *rise, *K, *C;
+    FittingItem *fittings;
+    size_t nfittings;
+} PathSegment;
+
+typedef enum PathLoss { LOSS_DARCY, LOSS_HAZEN_WILLIAMS } PathLoss;
+
+/* A ```path NAME block (DESIGN 2.2a): options, then a pipe table. */
+typedef struct PathSpec {
+    Expr *fluid;             /* a water record */
+    Expr *start;             /* static pressure at the first inlet */
+    PathLoss loss;
+    const char *friction;    /* friction_factor method, NULL: default */
+    const char *fittings;    /* k_fitting method, NULL: default */
+    PathSegment *segs;
+    size_t nsegs;
+} PathSpec;
 
 typedef enum CmpOp { CMP_LE, CMP_LT, CMP_GE, CMP_GT } CmpOp;
 
@@ -98,6 +130,10 @@ typedef struct Stmt {
     const char *description; /* trailing comment, citations removed; NOTE: its text */
     Cite *cites;
     size_t ncites;
+    PathSpec *path;          /* PATH */
+    const char *figure;      /* FIGURE: hgl, moody or pump */
+    Expr **args;             /* FIGURE: its arguments */
+    size_t nargs;
     int *deps;               /* slots this statement reads directly, ascending */
     size_t ndeps;
     bool parse_failed;       /* nothing to evaluate: errors were reported */
@@ -144,6 +180,8 @@ typedef enum BlockKind {
     BLK_RULE,
     BLK_HTML,
     BLK_CALC,                /* ```calc: statements [first_stmt, first_stmt + nstmts) */
+    BLK_PATH,                /* ```path NAME: one statement, first_stmt */
+    BLK_CASES,               /* ```cases: Document.cases[first_stmt] */
     BLK_SOURCES              /* ```sources */
 } BlockKind;
 
@@ -195,6 +233,25 @@ typedef struct Source {
     bool cited;
 } Source;
 
+/* ---- parametric cases -------------------------------------------------- */
+
+/* A ```cases block: columns name inputs, rows give them other values, and
+ * `show:` names the results to tabulate per row. */
+typedef struct CaseTable {
+    Pos pos;
+    const char **inputs;     /* column names */
+    Pos *input_pos;
+    int *input_slots;        /* resolved: statements that define them */
+    size_t ninputs;
+    Expr **cells;            /* nrows * ninputs, row-major */
+    Pos *row_pos;
+    size_t nrows;
+    const char **show;       /* as written */
+    Pos *show_pos;
+    Expr **show_exprs;       /* each a name or a field: V, riser.p_end */
+    size_t nshow;
+} CaseTable;
+
 /* ---- the document ------------------------------------------------------ */
 
 typedef struct NameTable NameTable;
@@ -211,6 +268,8 @@ typedef struct Document {
     size_t nstmts;
     Source *sources;
     size_t nsources;
+    CaseTable **cases;
+    size_t ncases;
     NameTable *names;        /* name -> statement slot */
     size_t *line_start;      /* byte offset of each line (index 0 = line 1) */
     size_t nlines;

@@ -20,6 +20,53 @@ typedef enum ResultState {
     RES_OK
 } ResultState;
 
+/* One segment of an evaluated path, in SI units. Elevations and distances
+ * are measured from the first inlet. */
+typedef struct SegmentResult {
+    const char *id;
+    double Q, D, A, L, rise;
+    double V, Re, f, K;      /* K: fittings plus the K column */
+    double h_f, h_m;         /* friction and fitting head loss */
+    double dp_static;        /* rho*g*rise */
+    double p_in, p_out;
+    double x_in, x_out;      /* distance along the path */
+    double z_in, z_out;      /* elevation */
+} SegmentResult;
+
+typedef struct PathResult {
+    SegmentResult *segs;
+    size_t nsegs;
+    double rho;
+    double p_end, p_min, V_max, loss;
+    size_t p_min_seg;        /* the segment whose outlet (or first inlet) is lowest */
+    bool p_min_at_inlet;
+} PathResult;
+
+/* A figure's data, in SI; the renderers convert with x_unit / y_unit. */
+typedef struct Series {
+    const char *name;
+    double *x, *y;
+    size_t n;
+    int style;               /* 0 solid, 1 dashed, 2 dotted, 3 thin */
+} Series;
+
+typedef struct Marker {
+    double x, y;
+    const char *label;
+} Marker;
+
+typedef struct FigureData {
+    const char *kind;        /* "hgl", "moody", "pump" */
+    const char *x_title, *y_title;
+    Unit x_unit, y_unit;
+    bool log_x, log_y;
+    Series *series;
+    size_t nseries;
+    Marker *markers;
+    size_t nmarkers;
+    double band_lo, band_hi; /* a shaded band along x (NAN when none) */
+} FigureData;
+
 typedef struct StmtResult {
     ResultState state;
     Value value;             /* DEF, SOLVE: the bound value */
@@ -30,9 +77,31 @@ typedef struct StmtResult {
     bool holds;              /* CHECK */
     double utilization;      /* CHECK: lhs/rhs for <, <=; rhs/lhs for >, >= */
     SolveReport solve;       /* SOLVE */
+    const PathResult *path;  /* PATH */
+    const FigureData *figure;/* FIGURE */
     const Method *methods[CALL_MAX_METHODS];  /* published methods the line used */
     size_t nmethods;
 } StmtResult;
+
+/* A parametric case table, evaluated: per row, the shown values and every
+ * check's verdict. */
+typedef struct CaseRow {
+    Value *shown;            /* table->nshow */
+    Unit *shown_unit;
+    bool *shown_ok;
+    bool *holds;             /* nchecks */
+    double *utilization;
+    bool *check_ok;          /* the check could be evaluated in this case */
+    size_t nfailed;          /* checks that fail or cannot be evaluated */
+} CaseRow;
+
+typedef struct CaseResult {
+    const CaseTable *table;
+    int *check_slots;        /* every check of the calc, in order */
+    size_t nchecks;
+    CaseRow *rows;           /* table->nrows */
+    size_t rows_failing;
+} CaseResult;
 
 typedef struct Evaluated {
     Document *doc;
@@ -42,6 +111,8 @@ typedef struct Evaluated {
     const Method **methods;  /* every method used, in order of first use */
     size_t nmethods;
     size_t nchecks, nfailed; /* checks evaluated, checks that fail */
+    CaseResult *cases;       /* doc->ncases */
+    size_t ncases;
 } Evaluated;
 
 /* Evaluate every statement. Errors and validity warnings go to `diags`. */

@@ -21,8 +21,8 @@ void num_roundtrip(double x, char *buf, size_t n);
 /* A number split for display with `digits` significant figures: mantissa text
  * and a power of ten (exp10 == 0 when no ×10^n is needed). Plain notation is
  * used for 1e-3 <= |x| < 1e6 (and for 0); otherwise scientific. Trailing
- * zeros are kept to show the significance ("4.000"), except for integers
- * shown exactly. */
+ * zeros are kept to show the significance ("4.000", "80.00"); a number of
+ * more digits than `digits` is rounded to them ("136300"). */
 typedef struct NumParts {
     char mantissa[40];
     int exp10;

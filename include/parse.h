@@ -22,6 +22,10 @@ Stmt *parse_statement(Arena *a, const char *line, size_t len, Pos start, DiagLis
  * inside of an inline {value}); NULL after reporting on error. */
 Expr *parse_expression_text(Arena *a, const char *text, DiagList *diags);
 
+/* Parse an expression that is all of text[0..len) (a table cell), with
+ * positions counted from `start`; NULL after reporting on error. */
+Expr *parse_expression_at(Arena *a, const char *text, size_t len, Pos start, DiagList *diags);
+
 /* Parse "A = B" (or just "A"; then *rhs is NULL), as library formulas are
  * written. Returns 0 after reporting on error. */
 int parse_equation_text(Arena *a, const char *text, DiagList *diags, Expr **lhs, Expr **rhs);

@@ -195,6 +195,8 @@ static int resolve_expr(Resolver *r, Expr *e)
                 note_dep(r, slot);
             } else {
                 e->callee_slot = resolve_name(r, e->text, e->pos);
+                if (e->callee_slot == SLOT_PI || e->callee_slot == SLOT_G)
+                    diag_error(r->diags, e->pos, "'%s' is a constant (a number) and cannot be called", e->text);
                 if (e->callee_slot < 0) {
                     e->callee_slot = -1;
                     ok = 0;
@@ -223,7 +225,7 @@ static void resolve_statements(Document *doc, DiagList *diags)
      * the later line. A name defined twice keeps its first definition. */
     for (size_t i = 0; i < doc->nstmts; i++) {
         Stmt *s = doc->stmts[i];
-        if ((s->kind != STMT_DEF && s->kind != STMT_SOLVE) || !s->name)
+        if ((s->kind != STMT_DEF && s->kind != STMT_SOLVE && s->kind != STMT_PATH) || !s->name)
             continue;
         size_t k = names_find(doc->names, s->name);
         if (doc->names->keys[k]) {
@@ -281,6 +283,20 @@ static void resolve_statements(Document *doc, DiagList *diags)
         } else if (s->kind == STMT_CHECK) {
             ok = resolve_expr(&r, s->lhs);
             ok = resolve_expr(&r, s->rhs) && ok;
+        } else if (s->kind == STMT_PATH) {
+            PathSpec *ps = s->path;
+            ok = resolve_expr(&r, ps->fluid);
+            ok = resolve_expr(&r, ps->start) && ok;
+            for (size_t k = 0; k < ps->nsegs; k++) {
+                PathSegment *g = &ps->segs[k];
+                Expr *cells[] = {g->flow, g->pipe, g->length, g->rise, g->K, g->C};
+                for (size_t c = 0; c < sizeof cells / sizeof cells[0]; c++)
+                    if (cells[c])
+                        ok = resolve_expr(&r, cells[c]) && ok;
+            }
+        } else if (s->kind == STMT_FIGURE) {
+            for (size_t k = 0; k < s->nargs; k++)
+                ok = resolve_expr(&r, s->args[k]) && ok;
         } else if (s->kind == STMT_SOLVE) {
             s->var_slot = resolve_name(&r, s->var, s->var_pos);
             ok = s->var_slot >= 0;
@@ -330,6 +346,45 @@ static void resolve_inlines(Document *doc, Inline *in, DiagList *diags)
     }
 }
 
+/* Cases: the columns must name plain inputs (definitions, not solves or
+ * paths), the shown names anything defined, and the cells may read any name
+ * (they are evaluated after the whole calc). */
+static void resolve_cases(Document *doc, DiagList *diags)
+{
+    Resolver r = {doc, diags, (int)doc->nstmts, {0}};
+    for (size_t c = 0; c < doc->ncases; c++) {
+        CaseTable *ct = doc->cases[c];
+        for (size_t k = 0; k < ct->ninputs; k++) {
+            int slot = doc_lookup(doc, ct->inputs[k]);
+            if (slot < 0) {
+                const char *near = closest_name(doc, ct->inputs[k], (int)doc->nstmts);
+                if (near)
+                    diag_error(diags, ct->input_pos[k], "cases column '%s' is not an input of the calc; did you mean %s?",
+                               ct->inputs[k], near);
+                else
+                    diag_error(diags, ct->input_pos[k], "cases column '%s' is not an input of the calc", ct->inputs[k]);
+            } else if (doc->stmts[slot]->kind != STMT_DEF) {
+                diag_error(diags, ct->input_pos[k], "cases column '%s' must name a definition, not a %s", ct->inputs[k],
+                           doc->stmts[slot]->kind == STMT_SOLVE ? "solve" : "path");
+                slot = SLOT_UNRESOLVED;
+            }
+            for (size_t j = 0; j < k; j++)
+                if (strcmp(ct->inputs[j], ct->inputs[k]) == 0) {
+                    diag_error(diags, ct->input_pos[k], "cases column '%s' appears twice", ct->inputs[k]);
+                    slot = SLOT_UNRESOLVED;
+                }
+            ct->input_slots[k] = slot < 0 ? SLOT_UNRESOLVED : slot;
+        }
+        for (size_t k = 0; k < ct->nshow; k++)
+            if (ct->show_exprs[k])
+                resolve_expr(&r, ct->show_exprs[k]);
+        for (size_t k = 0; k < ct->nrows * ct->ninputs; k++)
+            if (ct->cells[k])
+                resolve_expr(&r, ct->cells[k]);
+    }
+    vec_free(&r.deps);
+}
+
 static void resolve_blocks(Document *doc, Block *b, DiagList *diags)
 {
     for (; b; b = b->next) {
@@ -373,6 +428,7 @@ Document *doc_from_text(const char *display_name, const char *text, size_t len, 
     size_t body = frontmatter_read(doc, diags);
     markdown_read(doc, body, diags);
     resolve_statements(doc, diags);
+    resolve_cases(doc, diags);
     resolve_blocks(doc, doc->blocks, diags);
     if (doc->nstmts == 0 && diags->errors == 0) {
         Pos p = {doc->file, 1, 1};
@@ -386,6 +442,14 @@ Document *doc_load(const char *path, DiagList *diags)
     const char *display = strcmp(path, "-") == 0 ? "<stdin>" : path;
     size_t len = 0;
     char *text = source_read(path, display, &len, diags);
+    if (!text && len > SOURCE_MAX_BYTES) {
+        /* Too large is an input error (exit 2), already reported at 1:1:
+         * give the caller an empty document to carry it. */
+        DiagList ignored = {0};
+        Document *doc = doc_from_text(display, "", 0, &ignored);
+        diag_free(&ignored);
+        return doc;
+    }
     if (!text)
         return NULL;
     Document *doc = doc_from_text(display, text, len, diags);

@@ -14,6 +14,7 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "flow.h"
 #include "numfmt.h"
 
 typedef struct Ctx {
@@ -359,34 +360,78 @@ Unit eval_display_unit(const Evaluated *ev, const Value *v, const Unit *as_unit)
 }
 
 /* `as UNIT` must fit the value: same dimension, and a point shown in a
- * point unit, a difference in a difference unit. */
+ * point unit, a difference in a difference unit. Shared by statements and
+ * inline {name as unit} values. */
+static bool unit_fits(DiagList *diags, UnitSystem sys, Pos at, const char *as_text, const Unit *u, const Value *v)
+{
+    if (v->kind != VAL_NUMBER) {
+        diag_error(diags, at, "'as %s' needs a number, but the value is %s", as_text,
+                   v->kind == VAL_STRING ? "a string" : "a record");
+        return false;
+    }
+    if (!dim_eq(v->q.dim, u->dim)) {
+        char dv[128], du[128];
+        dim_describe(v->q.dim, v->q.temp, sys, dv, sizeof dv);
+        dim_describe(u->dim, u->temp, sys, du, sizeof du);
+        diag_error(diags, at, "cannot show %s in %s, which is %s", dv, as_text, du);
+        return false;
+    }
+    if (v->q.temp != TEMP_NONE && u->temp == TEMP_NONE && u->offset == 0 &&
+        strncmp(u->text, "delta_", 6) == 0) {
+        diag_error(diags, at, "an absolute temperature is shown in degC, degF, K or degR, not %s", as_text);
+        return false;
+    }
+    if (v->q.temp == TEMP_NONE && u->temp == TEMP_ABSOLUTE_OFFSET) {
+        diag_error(diags, at, "this is a temperature difference; show it in delta_%s, not %s", as_text, as_text);
+        return false;
+    }
+    return true;
+}
+
 static bool as_fits(Ctx *c, const Stmt *s, const Value *v)
 {
     if (!s->has_as)
         return true;
-    if (v->kind != VAL_NUMBER) {
-        diag_error(c->diags, s->as_pos, "'as %s' needs a number, but the value is %s", s->as_text,
-                   v->kind == VAL_STRING ? "a string" : "a record");
-        return false;
+    return unit_fits(c->diags, c->ev->units, s->as_pos, s->as_text, &s->as_unit, v);
+}
+
+/* Inline {name}, {name.field} and {name as unit} in prose: the field must
+ * exist and the unit must fit, or the prose would show a wrong number. */
+static void check_inlines(Evaluated *ev, const Inline *in, DiagList *diags)
+{
+    for (; in; in = in->next) {
+        if (in->children)
+            check_inlines(ev, in->children, diags);
+        if (in->kind != INL_VALUE || in->slot < 0 || ev->results[in->slot].state != RES_OK)
+            continue;
+        const Value *v = &ev->results[in->slot].value;
+        if (in->field) {
+            Pos fp = in->pos;
+            fp.col += (int)strlen(in->text) + 1;
+            if (v->kind != VAL_RECORD) {
+                char got[96];
+                value_describe(v, ev->units, got, sizeof got);
+                diag_error(diags, fp, "'.%s' reads a field of a record, but '%s' is %s", in->field, in->text, got);
+                continue;
+            }
+            const Value *f = record_get(v->rec, in->field);
+            if (!f) {
+                diag_error(diags, fp, "a %s record has no field '%s'", v->rec->type, in->field);
+                continue;
+            }
+            v = f;
+        }
+        if (in->has_as)
+            unit_fits(diags, ev->units, in->pos, in->as_unit.text, &in->as_unit, v);
     }
-    if (!dim_eq(v->q.dim, s->as_unit.dim)) {
-        char dv[128], du[128];
-        dim_describe(v->q.dim, v->q.temp, c->ev->units, dv, sizeof dv);
-        dim_describe(s->as_unit.dim, s->as_unit.temp, c->ev->units, du, sizeof du);
-        diag_error(c->diags, s->as_pos, "cannot show %s in %s, which is %s", dv, s->as_text, du);
-        return false;
+}
+
+static void check_block_inlines(Evaluated *ev, const Block *b, DiagList *diags)
+{
+    for (; b; b = b->next) {
+        check_inlines(ev, b->inlines, diags);
+        check_block_inlines(ev, b->children, diags);
     }
-    if (v->q.temp != TEMP_NONE && s->as_unit.temp == TEMP_NONE && s->as_unit.offset == 0 &&
-        strncmp(s->as_unit.text, "delta_", 6) == 0) {
-        diag_error(c->diags, s->as_pos, "an absolute temperature is shown in degC, degF, K or degR, not %s", s->as_text);
-        return false;
-    }
-    if (v->q.temp == TEMP_NONE && s->as_unit.temp == TEMP_ABSOLUTE_OFFSET) {
-        diag_error(c->diags, s->as_pos,
-                   "this is a temperature difference; show it in delta_%s, not %s", s->as_text, s->as_text);
-        return false;
-    }
-    return true;
 }
 
 /* ---- statements --------------------------------------------------------- */
@@ -612,6 +657,61 @@ static void eval_check(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
     res->state = RES_OK;
 }
 
+/* A path: evaluate every cell, then the hydraulics (flow.c). */
+static void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
+{
+    const PathSpec *ps = s->path;
+    Value fluid, start;
+    bool ok = eval_expr(c, ps->fluid, &fluid);
+    ok = eval_expr(c, ps->start, &start) && ok;
+    SegmentInput *in = arena_alloc(&ev->doc->arena, (ps->nsegs + 1) * sizeof *in);
+    for (size_t i = 0; i < ps->nsegs; i++) {
+        const PathSegment *g = &ps->segs[i];
+        ok = eval_expr(c, g->flow, &in[i].flow) && ok;
+        ok = eval_expr(c, g->pipe, &in[i].pipe) && ok;
+        ok = eval_expr(c, g->length, &in[i].length) && ok;
+        ok = eval_expr(c, g->rise, &in[i].rise) && ok;
+        if (g->K) {
+            in[i].has_K = true;
+            ok = eval_expr(c, g->K, &in[i].K) && ok;
+        }
+        if (g->C) {
+            in[i].has_C = true;
+            ok = eval_expr(c, g->C, &in[i].C) && ok;
+        }
+    }
+    if (!ok) {
+        res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
+        return;
+    }
+    const PathResult *pr = NULL;
+    if (!flow_path(c->call, s, &fluid, &start, in, &res->value, &pr)) {
+        res->state = RES_FAILED;
+        return;
+    }
+    res->path = pr;
+    res->state = RES_OK;
+}
+
+static void eval_figure(const Stmt *s, StmtResult *res, Ctx *c)
+{
+    Value *args = arena_alloc(&c->doc->arena, (s->nargs + 1) * sizeof *args);
+    bool ok = true;
+    for (size_t i = 0; i < s->nargs; i++)
+        ok = eval_expr(c, s->args[i], &args[i]) && ok;
+    if (!ok) {
+        res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
+        return;
+    }
+    FigureData *fd = NULL;
+    if (!flow_figure(c->call, s, args, &fd)) {
+        res->state = RES_FAILED;
+        return;
+    }
+    res->figure = fd;
+    res->state = RES_OK;
+}
+
 static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
 {
     const Stmt *s = ev->doc->stmts[i];
@@ -654,6 +754,12 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
         break;
     case STMT_CHECK:
         eval_check(ev, s, res, &c);
+        break;
+    case STMT_PATH:
+        eval_path(ev, s, res, &c);
+        break;
+    case STMT_FIGURE:
+        eval_figure(s, res, &c);
         break;
     case STMT_NOTE:
         break;
@@ -710,6 +816,101 @@ static void note_methods(Evaluated *ev, const StmtResult *r, Vec *all)
     (void)ev;
 }
 
+/* ---- parametric cases ---------------------------------------------------- */
+
+/* Evaluate one table: per row, give the inputs the row's values, re-evaluate
+ * what depends on them (eval_recompute, as solve does), record the shown
+ * values and every check, then put the inputs back. Diagnostics inside a
+ * case are muted: a failure shows as "not evaluated" in that row. */
+static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagList *diags)
+{
+    Document *doc = ev->doc;
+    Arena *a = &doc->arena;
+    cr->table = ct;
+    for (size_t i = 0; i < doc->nstmts; i++)
+        cr->nchecks += doc->stmts[i]->kind == STMT_CHECK;
+    cr->check_slots = arena_alloc(a, (cr->nchecks + 1) * sizeof *cr->check_slots);
+    for (size_t i = 0, k = 0; i < doc->nstmts; i++)
+        if (doc->stmts[i]->kind == STMT_CHECK)
+            cr->check_slots[k++] = (int)i;
+    cr->rows = arena_alloc(a, (ct->nrows + 1) * sizeof *cr->rows);
+
+    size_t ni = ct->ninputs;
+    Value *base = arena_alloc(a, (ni + 1) * sizeof *base);
+    int *slots = arena_alloc(a, (ni + 1) * sizeof *slots);
+    for (size_t k = 0; k < ni; k++) {
+        slots[k] = ct->input_slots[k];
+        if (slots[k] < 0 || ev->results[slots[k]].state != RES_OK)
+            return; /* reported already, or the input itself failed */
+        base[k] = ev->results[slots[k]].value;
+    }
+    CallCtx cc = {a, diags, ev->units, {0}, 0};
+    Ctx c = {ev, doc, diags, &cc, 0};
+    for (size_t r = 0; r < ct->nrows; r++) {
+        CaseRow *row = &cr->rows[r];
+        bool ok = true;
+        for (size_t k = 0; k < ni; k++) {
+            const Expr *e = ct->cells[r * ni + k];
+            Value v;
+            if (!e || !eval_expr(&c, e, &v)) {
+                ok = false;
+                continue;
+            }
+            const Value *b = &base[k];
+            if (v.kind != b->kind || (v.kind == VAL_NUMBER && (!dim_eq(v.q.dim, b->q.dim) || (v.q.temp == TEMP_NONE) != (b->q.temp == TEMP_NONE)))) {
+                char dv[128], db[128];
+                describe_operand(&c, e, &v, dv, sizeof dv);
+                value_describe(b, ev->units, db, sizeof db);
+                diag_error(diags, e->pos, "case value for '%s' must be %s like the input, found %s", ct->inputs[k], db, dv);
+                ok = false;
+                continue;
+            }
+            ev->results[slots[k]].value = v;
+        }
+        if (!ok) {
+            for (size_t k = 0; k < ni; k++)
+                ev->results[slots[k]].value = base[k];
+            return; /* errors reported; the table is not evaluated */
+        }
+        diags->muted++;
+        eval_recompute(ev, slots, ni, doc->nstmts, diags);
+        row->shown = arena_alloc(a, (ct->nshow + 1) * sizeof *row->shown);
+        row->shown_unit = arena_alloc(a, (ct->nshow + 1) * sizeof *row->shown_unit);
+        row->shown_ok = arena_alloc(a, (ct->nshow + 1) * sizeof *row->shown_ok);
+        for (size_t k = 0; k < ct->nshow; k++) {
+            const Expr *e = ct->show_exprs[k];
+            Value v;
+            c.upstream = 0;
+            if (e && eval_expr(&c, e, &v)) {
+                row->shown[k] = v;
+                /* a plain name keeps its display unit */
+                if (e->kind == EXPR_NAME && e->slot >= 0)
+                    row->shown_unit[k] = ev->results[e->slot].shown;
+                else if (v.kind == VAL_NUMBER)
+                    row->shown_unit[k] = eval_display_unit(ev, &v, NULL);
+                row->shown_ok[k] = true;
+            }
+        }
+        row->holds = arena_alloc(a, (cr->nchecks + 1) * sizeof *row->holds);
+        row->utilization = arena_alloc(a, (cr->nchecks + 1) * sizeof *row->utilization);
+        row->check_ok = arena_alloc(a, (cr->nchecks + 1) * sizeof *row->check_ok);
+        for (size_t k = 0; k < cr->nchecks; k++) {
+            const StmtResult *res = &ev->results[cr->check_slots[k]];
+            row->check_ok[k] = res->state == RES_OK;
+            row->holds[k] = res->state == RES_OK && res->holds;
+            row->utilization[k] = res->state == RES_OK ? res->utilization : NAN;
+            if (!row->holds[k])
+                row->nfailed++;
+        }
+        if (row->nfailed)
+            cr->rows_failing++;
+        for (size_t k = 0; k < ni; k++)
+            ev->results[slots[k]].value = base[k];
+        eval_recompute(ev, slots, ni, doc->nstmts, diags);
+        diags->muted--;
+    }
+}
+
 Evaluated *eval_document(Document *doc, DiagList *diags)
 {
     Evaluated *ev = arena_alloc(&doc->arena, sizeof *ev);
@@ -728,6 +929,11 @@ Evaluated *eval_document(Document *doc, DiagList *diags)
                 ev->nfailed++;
         }
     }
+    check_block_inlines(ev, doc->blocks, diags);
+    ev->ncases = doc->ncases;
+    ev->cases = arena_alloc(&doc->arena, (doc->ncases + 1) * sizeof *ev->cases);
+    for (size_t i = 0; i < doc->ncases; i++)
+        eval_cases(ev, doc->cases[i], &ev->cases[i], diags);
     ev->nmethods = all.len;
     ev->methods = arena_alloc(&doc->arena, (all.len + 1) * sizeof *ev->methods);
     for (size_t i = 0; i < all.len; i++)

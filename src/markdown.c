@@ -16,6 +16,7 @@
 
 #include "parse.h"
 #include "source.h"
+#include "tables.h"
 
 enum { ESCAPED_BRACE = 0x1A };
 
@@ -24,6 +25,7 @@ typedef struct Md {
     DiagList *diags;
     Vec stmts;
     Vec sources;
+    Vec cases;
     int heading_count[6];
     int too_deep;
 } Md;
@@ -274,6 +276,43 @@ static void calc_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
         vec_push(&m->stmts, st);
 }
 
+typedef struct LineList {
+    FenceLine *items;
+    size_t len, cap;
+} LineList;
+
+static void collect_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
+{
+    (void)m;
+    LineList *ll = ctx;
+    if (ll->len == ll->cap) {
+        ll->cap = ll->cap ? ll->cap * 2 : 16;
+        ll->items = xrealloc(ll->items, ll->cap * sizeof *ll->items);
+    }
+    ll->items[ll->len++] = (FenceLine){s, len, pos};
+}
+
+/* "path NAME": the name is an identifier, like any defined name. */
+static const char *path_name(Md *m, const char *info, Pos at)
+{
+    const char *p = info + 4;
+    while (*p == ' ' || *p == '\t')
+        p++;
+    size_t n = strlen(p);
+    while (n && (p[n - 1] == ' ' || p[n - 1] == '\t'))
+        n--;
+    bool ok = n > 0 && !(p[0] >= '0' && p[0] <= '9');
+    for (size_t i = 0; i < n && ok; i++) {
+        unsigned char c = (unsigned char)p[i];
+        ok = c == '_' || c >= 0x80 || (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || (c >= '0' && c <= '9');
+    }
+    if (!ok) {
+        diag_error(m->diags, at, "a path block is opened with ```path NAME, NAME a plain name such as riser_cw2");
+        return NULL;
+    }
+    return arena_strndup(&m->doc->arena, p, n);
+}
+
 static void sources_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
 {
     (void)ctx;
@@ -424,6 +463,35 @@ static Block *convert_block(Md *m, cmark_node *n, int depth)
         int fence_len = 0, fence_off = 0;
         char fence_char = 0;
         int fenced = cmark_node_get_fenced(n, &fence_len, &fence_off, &fence_char);
+        bool is_path = strncmp(info, "path", 4) == 0 && (info[4] == ' ' || info[4] == '\t' || info[4] == '\0');
+        bool is_cases = strcmp(info, "cases") == 0;
+        if (fenced && (is_path || is_cases)) {
+            Pos at_fence = at(m, cmark_node_get_start_line(n), cmark_node_get_start_column(n));
+            if (!fence_closed(m, n)) {
+                diag_error(m->diags, at_fence, "unterminated ```%s fence: expected a closing ``` line", info);
+                return NULL;
+            }
+            LineList ll = {0};
+            each_fence_line(m, n, collect_line, &ll);
+            if (is_path) {
+                const char *name = path_name(m, info, at_fence);
+                if (name) {
+                    b = new_block(m, BLK_PATH, n);
+                    b->first_stmt = m->stmts.len;
+                    b->nstmts = 1;
+                    vec_push(&m->stmts, tables_parse_path(&m->doc->arena, name, at_fence, ll.items, ll.len, m->diags));
+                }
+            } else {
+                CaseTable *ct = tables_parse_cases(&m->doc->arena, at_fence, ll.items, ll.len, m->diags);
+                if (ct) {
+                    b = new_block(m, BLK_CASES, n);
+                    b->first_stmt = m->cases.len;
+                    vec_push(&m->cases, ct);
+                }
+            }
+            free(ll.items);
+            break;
+        }
         if (fenced && (strcmp(info, "calc") == 0 || strcmp(info, "sources") == 0)) {
             if (!fence_closed(m, n)) {
                 diag_error(m->diags, at(m, cmark_node_get_start_line(n), cmark_node_get_start_column(n)),
@@ -533,6 +601,11 @@ void markdown_read(Document *doc, size_t body_start, DiagList *diags)
     doc->sources = arena_alloc(&doc->arena, (m.sources.len + 1) * sizeof *doc->sources);
     for (size_t i = 0; i < m.sources.len; i++)
         doc->sources[i] = *(Source *)m.sources.items[i];
+    doc->ncases = m.cases.len;
+    doc->cases = arena_alloc(&doc->arena, (m.cases.len + 1) * sizeof *doc->cases);
+    for (size_t i = 0; i < m.cases.len; i++)
+        doc->cases[i] = m.cases.items[i];
     vec_free(&m.stmts);
     vec_free(&m.sources);
+    vec_free(&m.cases);
 }

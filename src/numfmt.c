@@ -85,10 +85,6 @@ NumParts num_parts(double x, int digits)
         snprintf(p.mantissa, sizeof p.mantissa, "0");
         return p;
     }
-    if (fabs(x) < 1e6 && x == floor(x)) {
-        snprintf(p.mantissa, sizeof p.mantissa, "%.0f", x);
-        return p;
-    }
     char sci[40];
     snprintf(sci, sizeof sci, "%.*e", digits - 1, x);
     char *e = strchr(sci, 'e');

@@ -548,6 +548,33 @@ Stmt *parse_statement(Arena *a, const char *line, size_t len, Pos start, DiagLis
         return st;
     }
 
+    /* figure KIND(args) */
+    if (tok_is_word(&p.tok, "figure")) {
+        Lexer save = p.lx;
+        Token fig = p.tok;
+        advance(&p);
+        if (p.tok.kind == TOK_NAME) {
+            st->kind = STMT_FIGURE;
+            Expr *call = parse_postfix(&p);
+            if (call && call->kind == EXPR_CALL) {
+                st->figure = call->text;
+                st->name_pos = call->pos;
+                st->args = call->args;
+                st->nargs = call->nargs;
+                if (call->nkw) {
+                    fail(&p, call->kw_pos[0], "%s", "a figure takes no keyword arguments");
+                }
+            } else if (!p.failed) {
+                fail(&p, fig.pos, "%s", "expected 'figure KIND(arguments)', e.g. figure hgl(riser)");
+            }
+            if (p.failed || !expect_eol(&p))
+                st->parse_failed = 1;
+            return st;
+        }
+        p.lx = save; /* a name called figure */
+        p.tok = fig;
+    }
+
     if (p.tok.kind != TOK_NAME) {
         expected(&p, "a definition 'NAME = ...' or 'check LABEL: ...'");
         st->parse_failed = 1;
@@ -626,6 +653,20 @@ Expr *parse_expression_text(Arena *a, const char *text, DiagList *diags)
     p.diags = diags;
     Pos start = {"(formula)", 1, 1};
     lex_init(&p.lx, text, strlen(text), start, diags);
+    advance(&p);
+    Expr *e = parse_expr(&p);
+    if (!e || !expect_eol(&p))
+        return NULL;
+    return e;
+}
+
+Expr *parse_expression_at(Arena *a, const char *text, size_t len, Pos start, DiagList *diags)
+{
+    Parser p = {0};
+    p.arena = a;
+    p.diags = diags;
+    lex_init(&p.lx, text, len, start, diags);
+    p.lx.comment_at = len; /* a '#' in a cell is not a comment */
     advance(&p);
     Expr *e = parse_expr(&p);
     if (!e || !expect_eol(&p))

@@ -138,6 +138,94 @@ static json_t *diagnostics_json(const DiagList *diags, const char *file)
     return a;
 }
 
+static json_t *array_of(const double *v, size_t n, const Unit *u, bool shown)
+{
+    json_t *a = json_array();
+    for (size_t i = 0; i < n; i++)
+        json_array_append_new(a, real_or_null(shown ? unit_from_si(v[i], u, true) : v[i]));
+    return a;
+}
+
+/* A figure's data: each series in display units and in SI. */
+static json_t *figure_json(const Stmt *s, const FigureData *fd)
+{
+    json_t *o = json_object();
+    json_object_set_new(o, "kind", json_string(fd->kind));
+    json_object_set_new(o, "line", json_integer(s->pos.line));
+    set_text(o, "caption", s->description);
+    json_object_set_new(o, "x_title", json_string(fd->x_title));
+    json_object_set_new(o, "y_title", json_string(fd->y_title));
+    json_object_set_new(o, "x_unit", json_string(strcmp(fd->x_unit.text, "1") == 0 ? "" : fd->x_unit.text));
+    json_object_set_new(o, "y_unit", json_string(strcmp(fd->y_unit.text, "1") == 0 ? "" : fd->y_unit.text));
+    json_object_set_new(o, "log_x", json_boolean(fd->log_x));
+    json_object_set_new(o, "log_y", json_boolean(fd->log_y));
+    json_t *series = json_array();
+    for (size_t k = 0; k < fd->nseries; k++) {
+        const Series *se = &fd->series[k];
+        json_t *so = json_object();
+        json_object_set_new(so, "name", json_string(se->name));
+        json_object_set_new(so, "x", array_of(se->x, se->n, &fd->x_unit, true));
+        json_object_set_new(so, "y", array_of(se->y, se->n, &fd->y_unit, true));
+        json_object_set_new(so, "x_si", array_of(se->x, se->n, NULL, false));
+        json_object_set_new(so, "y_si", array_of(se->y, se->n, NULL, false));
+        json_array_append_new(series, so);
+    }
+    json_object_set_new(o, "series", series);
+    json_t *markers = json_array();
+    for (size_t k = 0; k < fd->nmarkers; k++) {
+        json_t *m = json_object();
+        json_object_set_new(m, "label", json_string(fd->markers[k].label));
+        json_object_set_new(m, "x", real_or_null(unit_from_si(fd->markers[k].x, &fd->x_unit, true)));
+        json_object_set_new(m, "y", real_or_null(unit_from_si(fd->markers[k].y, &fd->y_unit, true)));
+        json_array_append_new(markers, m);
+    }
+    json_object_set_new(o, "markers", markers);
+    return o;
+}
+
+/* A case table: per row, the inputs, the shown results and every check. */
+static json_t *cases_json(const Evaluated *ev, size_t which)
+{
+    const CaseTable *ct = ev->doc->cases[which];
+    const CaseResult *cr = &ev->cases[which];
+    json_t *o = json_object();
+    json_object_set_new(o, "line", json_integer(ct->pos.line));
+    json_t *inputs = json_array(), *show = json_array(), *rows = json_array();
+    for (size_t k = 0; k < ct->ninputs; k++)
+        json_array_append_new(inputs, json_string(ct->inputs[k]));
+    for (size_t k = 0; k < ct->nshow; k++)
+        json_array_append_new(show, json_string(ct->show[k]));
+    for (size_t r = 0; cr->table && r < ct->nrows; r++) {
+        const CaseRow *row = &cr->rows[r];
+        json_t *ro = json_object();
+        json_object_set_new(ro, "line", json_integer(ct->row_pos[r].line));
+        json_t *sv = json_object();
+        for (size_t k = 0; k < ct->nshow; k++) {
+            if (row->shown && row->shown_ok[k])
+                json_object_set_new(sv, ct->show[k], value_json(ev, &row->shown[k], &row->shown_unit[k]));
+            else
+                json_object_set_new(sv, ct->show[k], json_null());
+        }
+        json_object_set_new(ro, "shown", sv);
+        json_t *checks = json_array();
+        for (size_t k = 0; row->holds && k < cr->nchecks; k++) {
+            json_t *c = json_object();
+            json_object_set_new(c, "label", json_string(ev->doc->stmts[cr->check_slots[k]]->label));
+            json_object_set_new(c, "holds", row->check_ok[k] ? json_boolean(row->holds[k]) : json_null());
+            json_object_set_new(c, "utilization", real_or_null(row->utilization[k]));
+            json_array_append_new(checks, c);
+        }
+        json_object_set_new(ro, "checks", checks);
+        json_object_set_new(ro, "failing", json_integer((json_int_t)row->nfailed));
+        json_array_append_new(rows, ro);
+    }
+    json_object_set_new(o, "inputs", inputs);
+    json_object_set_new(o, "show", show);
+    json_object_set_new(o, "rows", rows);
+    json_object_set_new(o, "rows_failing", json_integer((json_int_t)cr->rows_failing));
+    return o;
+}
+
 static json_t *document_json(const Evaluated *ev, const DiagList *diags)
 {
     const Document *doc = ev->doc;
@@ -148,10 +236,16 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
     json_t *values = json_object();
     json_t *checks = json_array();
     json_t *methods = json_array();
+    json_t *figures = json_array();
     for (size_t i = 0; i < doc->nstmts; i++) {
         const Stmt *s = doc->stmts[i];
         const StmtResult *r = &ev->results[i];
-        if ((s->kind == STMT_DEF || s->kind == STMT_SOLVE) && s->name) {
+        if (s->kind == STMT_FIGURE) {
+            if (r->state == RES_OK && r->figure)
+                json_array_append_new(figures, figure_json(s, r->figure));
+            continue;
+        }
+        if ((s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH) && s->name) {
             json_t *v;
             if (r->state == RES_OK) {
                 v = value_json(ev, &r->value, &r->shown);
@@ -160,6 +254,12 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
                 json_object_set_new(v, "kind", json_string("not evaluated"));
             }
             json_object_set_new(v, "line", json_integer(s->pos.line));
+            if (s->kind == STMT_PATH && r->state == RES_OK && r->path) {
+                json_t *order = json_array();
+                for (size_t k = 0; k < s->path->nsegs; k++)
+                    json_array_append_new(order, json_string(s->path->segs[k].field));
+                json_object_set_new(v, "segments", order);
+            }
             if (s->kind == STMT_SOLVE && r->state == RES_OK) {
                 json_object_set_new(v, "residual", real_or_null(r->solve.residual));
                 json_object_set_new(v, "iterations", json_integer(r->solve.iterations));
@@ -195,6 +295,11 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
     json_object_set_new(o, "values", values);
     json_object_set_new(o, "checks", checks);
     json_object_set_new(o, "methods", methods);
+    json_object_set_new(o, "figures", figures);
+    json_t *cases = json_array();
+    for (size_t k = 0; k < ev->ncases; k++)
+        json_array_append_new(cases, cases_json(ev, k));
+    json_object_set_new(o, "cases", cases);
     json_object_set_new(o, "diagnostics", diagnostics_json(diags, doc->file));
     return o;
 }

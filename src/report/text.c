@@ -234,10 +234,158 @@ static void put_methods(const StmtResult *r, StrBuf *out)
                   r->methods[k]->formula ? ": " : "", r->methods[k]->formula ? r->methods[k]->formula : "");
 }
 
+/* A number in a unit, for table cells: just the digits. */
+static void put_cell(const Evaluated *ev, double si, const Unit *u, bool difference, StrBuf *out)
+{
+    char num[48];
+    num_sig(unit_from_si(si, u, difference), ev->digits, num, sizeof num);
+    sb_printf(out, " %10s", num);
+}
+
+/* The segment table of a path, one row per segment, in display units. */
+static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, StrBuf *out)
+{
+    sb_printf(out, "path %s", s->name);
+    if (r->state != RES_OK || !r->path) {
+        sb_puts(out, " = (not evaluated)\n");
+        return;
+    }
+    const PathResult *pr = r->path;
+    UnitSystem us = ev->units;
+    Unit uQ = unit_default(DIM_FLOW, TEMP_NONE, us), uL = unit_default(DIM_L, TEMP_NONE, us);
+    Unit uV = unit_default(DIM_VELOCITY, TEMP_NONE, us), uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
+    Unit uD, one = unit_default(DIM_NONE, TEMP_NONE, us);
+    size_t bo, bl;
+    unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
+    sb_printf(out, ": %zu segments, %s loss\n", pr->nsegs,
+              s->path->loss == LOSS_DARCY ? "Darcy-Weisbach" : "Hazen-Williams");
+    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "segment", "Q", "D", "L",
+              "rise", "V", "Re", "f", "K", "h_f", "h_m", "p_in", "p_out");
+    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "", uQ.text, uD.text,
+              uL.text, uL.text, uV.text, "", "", "", uL.text, uL.text, uP.text, uP.text);
+    for (size_t i = 0; i < pr->nsegs; i++) {
+        const SegmentResult *g = &pr->segs[i];
+        sb_printf(out, "  %-10s", g->id);
+        put_cell(ev, g->Q, &uQ, true, out);
+        put_cell(ev, g->D, &uD, true, out);
+        put_cell(ev, g->L, &uL, true, out);
+        put_cell(ev, g->rise, &uL, true, out);
+        put_cell(ev, g->V, &uV, true, out);
+        put_cell(ev, g->Re, &one, true, out);
+        if (isnan(g->f))
+            sb_printf(out, " %10s", "-");
+        else
+            put_cell(ev, g->f, &one, true, out);
+        put_cell(ev, g->K, &one, true, out);
+        put_cell(ev, g->h_f, &uL, true, out);
+        put_cell(ev, g->h_m, &uL, true, out);
+        put_cell(ev, g->p_in, &uP, true, out);
+        put_cell(ev, g->p_out, &uP, true, out);
+        sb_putc(out, '\n');
+    }
+    const Record *rec = r->value.rec;
+    static const char *const summary[] = {"p_end", "p_min", "p_min_at", "V_max", "loss"};
+    for (size_t k = 0; k < sizeof summary / sizeof summary[0]; k++) {
+        const Value *v = record_get(rec, summary[k]);
+        if (!v)
+            continue;
+        sb_printf(out, "  %s.%s = ", s->name, summary[k]);
+        Unit u = v->kind == VAL_NUMBER ? eval_display_unit(ev, v, NULL) : (Unit){0};
+        render_value_text(ev, v, &u, out);
+        sb_putc(out, '\n');
+    }
+    for (size_t k = 0; k < r->nmethods; k++)
+        sb_printf(out, "      method: %s\n", r->methods[k]->title);
+}
+
+/* A figure in the listing is its data, a small table per series. */
+static void put_figure(const Evaluated *ev, const Stmt *s, const StmtResult *r, StrBuf *out)
+{
+    sb_printf(out, "figure %s", s->figure);
+    if (s->description)
+        sb_printf(out, ": %s", s->description);
+    if (r->state != RES_OK || !r->figure) {
+        sb_puts(out, " (not evaluated)\n");
+        return;
+    }
+    const FigureData *fd = r->figure;
+    bool xd = fd->x_unit.text[0] && strcmp(fd->x_unit.text, "1") != 0;
+    bool yd = fd->y_unit.text[0] && strcmp(fd->y_unit.text, "1") != 0;
+    sb_printf(out, "\n  x: %s%s%s%s, y: %s%s%s%s%s\n", fd->x_title, xd ? " (" : "", xd ? fd->x_unit.text : "", xd ? ")" : "",
+              fd->y_title, yd ? " (" : "", yd ? fd->y_unit.text : "", yd ? ")" : "",
+              fd->log_x ? ", log axes" : "");
+    for (size_t k = 0; k < fd->nseries; k++) {
+        const Series *se = &fd->series[k];
+        sb_printf(out, "  series %s:", se->name);
+        size_t step = se->n > 12 ? (se->n + 11) / 12 : 1; /* a sample, not every point */
+        for (size_t i = 0; i < se->n; i += step) {
+            char x[40], y[40];
+            num_sig(unit_from_si(se->x[i], &fd->x_unit, true), 4, x, sizeof x);
+            num_sig(unit_from_si(se->y[i], &fd->y_unit, true), 4, y, sizeof y);
+            sb_printf(out, " (%s, %s)", x, y);
+        }
+        sb_putc(out, '\n');
+    }
+    for (size_t k = 0; k < fd->nmarkers; k++) {
+        char x[40], y[40];
+        num_sig(unit_from_si(fd->markers[k].x, &fd->x_unit, true), ev->digits, x, sizeof x);
+        num_sig(unit_from_si(fd->markers[k].y, &fd->y_unit, true), ev->digits, y, sizeof y);
+        sb_printf(out, "  point %s: (%s, %s)\n", fd->markers[k].label, x, y);
+    }
+}
+
+static void put_cases(const Evaluated *ev, size_t which, StrBuf *out)
+{
+    const CaseResult *cr = &ev->cases[which];
+    const CaseTable *ct = ev->doc->cases[which];
+    if (!cr->table) {
+        sb_puts(out, "cases: (not evaluated)\n");
+        return;
+    }
+    sb_printf(out, "cases: %zu rows, %zu with a failing check\n", ct->nrows, cr->rows_failing);
+    for (size_t r = 0; r < ct->nrows; r++) {
+        const CaseRow *row = &cr->rows[r];
+        sb_printf(out, "  case %zu:", r + 1);
+        for (size_t k = 0; k < ct->ninputs; k++) {
+            sb_printf(out, " %s = ", ct->inputs[k]);
+            render_expr_text(ev, ct->cells[r * ct->ninputs + k], false, out);
+            sb_putc(out, ';');
+        }
+        for (size_t k = 0; k < ct->nshow; k++) {
+            sb_printf(out, " %s = ", ct->show[k]);
+            if (row->shown && row->shown_ok[k])
+                render_value_text(ev, &row->shown[k], &row->shown_unit[k], out);
+            else
+                sb_puts(out, "(not evaluated)");
+            sb_putc(out, ';');
+        }
+        if (!row->holds) {
+            sb_puts(out, " (not evaluated)\n");
+            continue;
+        }
+        if (row->nfailed == 0) {
+            sb_puts(out, " all checks hold\n");
+            continue;
+        }
+        sb_puts(out, " FAILS:");
+        for (size_t k = 0; k < cr->nchecks; k++)
+            if (!row->holds[k])
+                sb_printf(out, " [%s]%s", ev->doc->stmts[cr->check_slots[k]]->label,
+                          row->check_ok[k] ? "" : " (not evaluated)");
+        sb_putc(out, '\n');
+    }
+}
+
 static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
 {
     const StmtResult *r = &ev->results[s->index];
     switch (s->kind) {
+    case STMT_PATH:
+        put_path(ev, s, r, out);
+        return;
+    case STMT_FIGURE:
+        put_figure(ev, s, r, out);
+        return;
     case STMT_NOTE:
         sb_printf(out, "  note: %s\n", s->description ? s->description : "");
         return;
@@ -391,8 +539,12 @@ static void put_blocks(const Evaluated *ev, const Block *b, StrBuf *out)
             sb_puts(out, "\n\n");
             break;
         case BLK_CALC:
+        case BLK_PATH:
             for (size_t i = 0; i < b->nstmts; i++)
                 put_statement(ev, ev->doc->stmts[b->first_stmt + i], out);
+            break;
+        case BLK_CASES:
+            put_cases(ev, b->first_stmt, out);
             break;
         case BLK_LIST:
         case BLK_ITEM:
