@@ -23,6 +23,10 @@ typedef enum SurgeStatus {
 
 double surge_support_c1(SurgeSupport s, double poisson);
 
+/* The thick-walled factor (Wylie and Streeter 1993, 2.6), for D/e below
+ * SURGE_THIN_WALL_RATIO; D the bore, e the wall. */
+double surge_support_c1_thick(SurgeSupport s, double poisson, double D, double e);
+
 /* Poisson's ratio for a pipe material ("steel", "copper", "PVC", ...), or a
  * negative number when the material is not tabulated. */
 double surge_poisson(const char *material);

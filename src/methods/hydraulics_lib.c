@@ -164,6 +164,16 @@ static const Method METHOD_KORTEWEG = {
     "Streeter, V. L. (1993), Fluid Transients in Systems, Prentice Hall, section 2.6.",
 };
 
+static const Method METHOD_KORTEWEG_THICK = {
+    "korteweg_thick",
+    "Pressure-wave speed in a thick-walled elastic pipe",
+    "c_1 = 2*e/D*(1 + nu) + D*(1 - nu/2)/(D + e)",
+    "D/e below 25; linear-elastic pipe; shown for a pipe anchored upstream: with expansion "
+    "joints the last term is D/(D + e), anchored throughout D*(1 - nu^2)/(D + e)",
+    "Wylie, E. B. and Streeter, V. L. (1993), Fluid Transients in Systems, Prentice Hall, "
+    "section 2.6, thick-walled elastic conduits.",
+};
+
 static const Method METHOD_JOUKOWSKY = {
     "joukowsky",
     "Joukowsky pressure rise",
@@ -767,7 +777,10 @@ bool fn_wave_speed(CallCtx *cx, const CallArgs *a, Value *out)
                    a->name);
         return false;
     }
-    double c1 = surge_support_c1(support, nu);
+    /* A thick wall (D/e below 25) needs the thick-walled c1, which needs
+     * Poisson's ratio whatever the support. */
+    bool thick = D / e < SURGE_THIN_WALL_RATIO && nu >= 0.0;
+    double c1 = thick ? surge_support_c1_thick(support, nu, D, e) : surge_support_c1(support, nu);
     double speed;
     if (surge_wave_speed(K, rho, D, e, E, c1, &speed) != SURGE_OK) {
         diag_error(cx->diags, a->pos,
@@ -776,10 +789,13 @@ bool fn_wave_speed(CallCtx *cx, const CallArgs *a, Value *out)
         return false;
     }
     call_use_method(cx, &METHOD_KORTEWEG);
-    if (D / e < SURGE_THIN_WALL_RATIO)
+    if (thick)
+        call_use_method(cx, &METHOD_KORTEWEG_THICK);
+    else if (D / e < SURGE_THIN_WALL_RATIO)
         diag_warning(cx->diags, a->pos,
-                     "%s: D/e = %s is below 25, outside the thin-wall Korteweg form "
-                     "(D/e > 25); a thick-wall c_1 is needed",
+                     "%s: D/e = %s is below 25 and no Poisson's ratio is known for this "
+                     "material, so the thin-wall factor was used; give poisson=... for the "
+                     "thick-walled form",
                      a->name, show_num(D / e, b1, sizeof b1));
     *out = value_hinted(qty(speed, DIM_VELOCITY), "ft/s", "m/s");
     return true;

@@ -26,6 +26,18 @@ double surge_support_c1(SurgeSupport s, double poisson)
     return 1.0;
 }
 
+/* Thick-walled elastic pipe (D/e below about 25), Wylie and Streeter
+ * (1993), section 2.6 (from memory):
+ *   expansion joints throughout:   c1 = 2e/D*(1 + nu) + D/(D + e)
+ *   anchored at the upstream end:  c1 = 2e/D*(1 + nu) + D*(1 - nu/2)/(D + e)
+ *   anchored throughout:           c1 = 2e/D*(1 + nu) + D*(1 - nu^2)/(D + e)
+ * Each tends to the thin-wall factor as e/D -> 0. */
+double surge_support_c1_thick(SurgeSupport s, double poisson, double D, double e)
+{
+    double shell = 2.0 * e / D * (1.0 + poisson);
+    return shell + D * surge_support_c1(s, poisson) / (D + e);
+}
+
 /* Poisson's ratios of pipe materials as tabulated in transient-flow texts
  * (Wylie and Streeter 1993, Table 2.1) (from memory). */
 static const struct { const char *word; double nu; } POISSON[] = {

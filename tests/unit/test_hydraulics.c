@@ -327,22 +327,36 @@ static void test_fn_surge(void **state)
     Harness h;
     harness_init(&h);
     Value args[3] = {make_pipe(&h, "steel", 4.5, 0.237, 29e6 * PSI, 0), water_record(&h)}, out;
+    /* 4 in schedule 40: D/e = 4.026/0.237 = 17.0, below the thin-wall bound
+     * 25, so the thick-walled factor of Wylie and Streeter (1993) 2.6 is
+     * used, with steel's nu = 0.30 (hand-worked):
+     *   joints:    c1 = 2*0.237/4.026*1.3 + 4.026/4.263        = 1.097460
+     *   anchored:  c1 = 0.153055 + 0.944405*(1 - 0.09)          = 1.012463
+     *   a = 1484.576418/sqrt(1 + c1*0.186909392)                                */
     assert_true(call_kw(&h, fn_wave_speed, "wave_speed", args, 2, 0, NULL, NULL, &out));
-    assert_rel(out.q.si, 1362.680, 1e-6);
+    double cj = 2 * 0.237 / 4.026 * 1.3 + 4.026 / 4.263;
+    assert_rel(cj, 1.097460, 1e-6);
+    assert_rel(out.q.si, 1484.576418 / sqrt(1.0 + cj * 0.186909392), 1e-8);
     assert_true(dim_eq(out.q.dim, DIM_VELOCITY));
-    /* D/e = 4.026/0.237 = 17 is below the thin-wall bound 25: a warning */
-    assert_int_equal(h.diags.warnings, 1);
-    assert_non_null(strstr(last_message(&h), "D/e = 16.99 is below 25"));
-    /* 12 in schedule 10 (od 12.75 in, wall 0.180 in): D/e = 68.8, no warning */
+    assert_int_equal(h.diags.warnings, 0);
+    assert_rel(surge_support_c1_thick(SURGE_SUPPORT_JOINTS, 0.3, 1.0, 1e-9), 1.0, 1e-8); /* thin limit */
+    /* 12 in schedule 10 (od 12.75 in, wall 0.180 in): D/e = 68.8, thin wall */
     args[0] = make_pipe(&h, "steel", 12.75, 0.180, 29e6 * PSI, 0);
     assert_true(call_kw(&h, fn_wave_speed, "wave_speed", args, 2, 0, NULL, NULL, &out));
+    assert_int_equal(h.diags.warnings, 0);
+    /* a material with no tabulated nu and a thick wall: thin factor, warned */
+    args[0] = make_pipe(&h, "unobtainium", 4.5, 0.237, 29e6 * PSI, 0);
+    assert_true(call_kw(&h, fn_wave_speed, "wave_speed", args, 2, 0, NULL, NULL, &out));
+    assert_rel(out.q.si, 1362.680, 1e-6);
     assert_int_equal(h.diags.warnings, 1);
-    /* anchored throughout: c1 = 1 - 0.3^2 with steel's tabulated nu */
+    assert_non_null(strstr(last_message(&h), "D/e = 16.99 is below 25"));
+    /* anchored throughout, thick wall */
     static const char *const sup[1] = {"support"};
     Value kw = value_string("anchored");
     args[0] = make_pipe(&h, "steel", 4.5, 0.237, 29e6 * PSI, 0);
     assert_true(call_kw(&h, fn_wave_speed, "wave_speed", args, 2, 1, sup, &kw, &out));
-    assert_rel(out.q.si, 1484.576418 / sqrt(1.0 + 0.91 * 0.186909392), 1e-8);
+    double ca = 2 * 0.237 / 4.026 * 1.3 + 4.026 / 4.263 * 0.91;
+    assert_rel(out.q.si, 1484.576418 / sqrt(1.0 + ca * 0.186909392), 1e-8);
     kw = value_string("welded");
     assert_false(call_kw(&h, fn_wave_speed, "wave_speed", args, 2, 1, sup, &kw, &out));
     assert_int_equal(last_pos(&h).col, 70);
