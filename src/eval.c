@@ -645,7 +645,10 @@ static void eval_check(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
     }
     double num = (s->cmp == CMP_LE || s->cmp == CMP_LT) ? a : b;
     double den = (s->cmp == CMP_LE || s->cmp == CMP_LT) ? b : a;
-    res->utilization = den != 0 ? num / den : NAN;
+    /* A ratio of demand to limit means something only when both are
+     * positive (a limit of zero or below, a gauge pressure below
+     * atmospheric): otherwise there is no utilisation to report. */
+    res->utilization = den > 0 && num >= 0 ? num / den : NAN;
     res->lhs = l;
     res->rhs = r;
     res->lhs_shown = eval_display_unit(ev, &l, NULL);

@@ -9,6 +9,7 @@
  * Exit status: 0 done and every check holds; 1 a check fails (build: only
  * with --strict); 2 the input has errors; 3 an I/O or internal failure. */
 #include <errno.h>
+#include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -136,8 +137,9 @@ static int cmd_check(int argc, char **argv)
                 const Stmt *s = doc->stmts[i];
                 const StmtResult *r = &ev->results[i];
                 if (s->kind == STMT_CHECK && r->state == RES_OK) {
-                    char u[32];
-                    num_sig(r->utilization, 3, u, sizeof u);
+                    char u[32] = "n/a";
+                    if (isfinite(r->utilization))
+                        num_sig(r->utilization, 3, u, sizeof u);
                     printf("  %-5s %s (utilisation %s)\n", r->holds ? "holds" : "FAILS", s->label, u);
                 }
             }
