@@ -4,6 +4,7 @@
 #   make demo     build and render the demo calc packages in examples/
 #   make check    build with AddressSanitizer + UBSan and run every test
 #   make bench    benchmarks (not tests): timing and peak memory
+#   make fuzz     libFuzzer targets, FUZZ_SECONDS (300) each; fuzz-short: 30 s
 #   make install  PREFIX=/usr/local DESTDIR=
 
 PREFIX  ?= /usr/local
@@ -14,7 +15,8 @@ BUILD   := build
 # Debian packages the build, the tests and the reference checks need.
 DEB_PACKAGES := libcmark-gfm-dev libcmark-gfm-extensions-dev libhpdf-dev libyaml-dev \
                 libjansson-dev nettle-dev fonts-dejavu-core libcmocka-dev pkg-config \
-                units python3-fluids python3-iapws poppler-utils qpdf
+                units python3-fluids python3-iapws poppler-utils qpdf \
+                clang libclang-rt-14-dev
 
 PKGS    := libcmark-gfm jansson nettle yaml-0.1
 WARN    := -std=c11 -Wall -Wextra -Wshadow -Wconversion -Wstrict-prototypes \
@@ -32,6 +34,14 @@ OBJ      := $(SRC:%.c=$(BUILD)/obj/%.o)
 SAN_OBJ  := $(SRC:%.c=$(BUILD)/san/%.o)
 SAN_LIB_OBJ := $(LIB_SRC:%.c=$(BUILD)/san/%.o)
 UNIT_TESTS := $(patsubst tests/unit/%.c,$(BUILD)/tests/%,$(wildcard tests/unit/test_*.c))
+
+# libFuzzer targets (fuzz/fuzz_NAME.c -> build/fuzz/fuzz_NAME), built with clang.
+FUZZ_CC      ?= clang
+FUZZ_SECONDS ?= 300
+FUZZ_SAN     := -fsanitize=address,undefined -fno-sanitize-recover=undefined -fno-omit-frame-pointer
+FUZZ_OBJ     := $(LIB_SRC:%.c=$(BUILD)/fuzz/obj/%.o)
+FUZZ_NAMES   := $(patsubst fuzz/fuzz_%.c,%,$(wildcard fuzz/fuzz_*.c))
+FUZZ_BINS    := $(FUZZ_NAMES:%=$(BUILD)/fuzz/fuzz_%)
 
 .PHONY: all deps demo check unit-tests bench install clean
 all: $(BUILD)/headroom
@@ -73,6 +83,9 @@ $(BUILD)/tests/%: tests/unit/%.c $(SAN_LIB_OBJ)
 	$(CC) $(ALL_CFLAGS) -O1 $(SAN) $< $(SAN_LIB_OBJ) -o $@ $(LIBS) -lcmocka
 
 # The report's fixed texts, compiled in from templates/ (the output is committed).
+src/starters.inc: $(wildcard templates/starters/*.calc.md) templates/gen-starters.sh
+	templates/gen-starters.sh > $@
+
 src/report/pdf_texts.inc: templates/cautions.md templates/gen-texts.sh
 	sh templates/gen-texts.sh > $@
 
@@ -94,7 +107,7 @@ demo: $(BUILD)/headroom
 	  echo "   $(BUILD)/demo/$$base.txt, $(BUILD)/demo/$$base.pdf ($$(ls $(BUILD)/demo/$$base-*.png | wc -l) page previews)"; \
 	done
 
-check: $(BUILD)/headroom $(BUILD)/san/headroom $(UNIT_TESTS)
+check: $(BUILD)/headroom $(BUILD)/san/headroom $(UNIT_TESTS) $(FUZZ_BINS)
 	@HEADROOM=$(BUILD)/san/headroom HEADROOM_FAST=$(BUILD)/headroom BUILD=$(BUILD) tests/run-all
 
 bench: $(BUILD)/headroom
@@ -106,5 +119,28 @@ install: $(BUILD)/headroom
 
 clean:
 	rm -rf $(BUILD)
+
+# ---- fuzzing (fuzz/): libFuzzer targets built with clang ---------------------
+# The library sources are compiled again with clang into build/fuzz/obj with
+# coverage for libFuzzer, AddressSanitizer and UBSan; each target links them.
+# tests/fuzz/run seeds build/fuzz/corpus-NAME from the examples and the test
+# corpora, runs each target and replays tests/fuzz-regress/.
+
+$(BUILD)/fuzz/obj/%.o: %.c | $(BUILD)/.deps
+	@mkdir -p $(dir $@)
+	$(FUZZ_CC) $(ALL_CFLAGS) -O1 -g $(FUZZ_SAN) -fsanitize=fuzzer-no-link -MMD -MP -c $< -o $@
+
+$(BUILD)/fuzz/fuzz_%: fuzz/fuzz_%.c $(FUZZ_OBJ)
+	$(FUZZ_CC) $(ALL_CFLAGS) -O1 -g $(FUZZ_SAN) -fsanitize=fuzzer $< $(FUZZ_OBJ) -o $@ $(LIBS)
+
+.PHONY: fuzz fuzz-short fuzz-build
+.SECONDARY: $(FUZZ_OBJ)
+fuzz-build: $(FUZZ_BINS)
+fuzz: $(FUZZ_BINS) $(BUILD)/san/headroom
+	@FUZZ_SECONDS=$(FUZZ_SECONDS) BUILD=$(BUILD) HEADROOM=$(BUILD)/san/headroom tests/fuzz/run
+fuzz-short: $(FUZZ_BINS) $(BUILD)/san/headroom
+	@FUZZ_SECONDS=30 BUILD=$(BUILD) HEADROOM=$(BUILD)/san/headroom tests/fuzz/run
+
+-include $(FUZZ_OBJ:.o=.d)
 
 -include $(OBJ:.o=.d) $(SAN_OBJ:.o=.d)

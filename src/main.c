@@ -9,6 +9,7 @@
  * Exit status: 0 done and every check holds; 1 a check fails (build: only
  * with --strict); 2 the input has errors; 3 an I/O or internal failure. */
 #include <errno.h>
+#include <fcntl.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -35,6 +36,8 @@ static const char usage_text[] =
     "      evaluate; print diagnostics and a summary of the checks\n"
     "  headroom build FILE [-o OUT] [--format pdf|text|json] [--strict]\n"
     "      write the report (default: FILE without .md/.calc, plus .pdf)\n"
+    "  headroom new KIND [FILE]\n"
+    "      write a commented starter calc (riser, pump-line, pipe-rating)\n"
     "  headroom convert \"VALUE UNIT\" UNIT\n"
     "      convert a value between units (10 significant digits)\n"
     "  headroom --help | --version\n"
@@ -296,6 +299,68 @@ static int cmd_build(int argc, char **argv)
     return status;
 }
 
+/* ---- new ------------------------------------------------------------------ */
+
+/* Starter calcs, generated from templates/starters/ (see gen-starters.sh). */
+static const struct {
+    const char *kind;
+    const char *text;
+} starters[] = {
+#define STARTER(kind, text) {kind, text},
+#include "starters.inc"
+#undef STARTER
+};
+
+static int cmd_new(int argc, char **argv)
+{
+    size_t n = sizeof starters / sizeof starters[0];
+    if (argc == 0 || strcmp(argv[0], "--help") == 0 || argc > 2) {
+        FILE *out = argc == 0 || argc > 2 ? stderr : stdout;
+        fputs("usage: headroom new KIND [FILE]\n"
+              "Write a commented starter calc of KIND to FILE (default KIND.calc.md).\n"
+              "An existing file is never overwritten. Kinds:",
+              out);
+        for (size_t i = 0; i < n; i++)
+            fprintf(out, " %s", starters[i].kind);
+        fputc('\n', out);
+        return out == stdout ? 0 : EXIT_INPUT;
+    }
+    const char *text = NULL;
+    for (size_t i = 0; i < n; i++)
+        if (strcmp(starters[i].kind, argv[0]) == 0)
+            text = starters[i].text;
+    if (!text) {
+        fprintf(stderr, "headroom new: unknown kind '%s' (kinds:", argv[0]);
+        for (size_t i = 0; i < n; i++)
+            fprintf(stderr, " %s", starters[i].kind);
+        fputs(")\n", stderr);
+        return EXIT_INPUT;
+    }
+    char def[256];
+    snprintf(def, sizeof def, "%s.calc.md", argv[0]);
+    const char *path = argc == 2 ? argv[1] : def;
+    if (strcmp(path, "-") == 0) {
+        fputs(text, stdout);
+        return fflush(stdout) == 0 ? 0 : EXIT_IO;
+    }
+    /* O_EXCL: never overwrite somebody's calc. */
+    int fd = open(path, O_WRONLY | O_CREAT | O_EXCL, 0666);
+    if (fd < 0) {
+        fprintf(stderr, "headroom new: cannot create '%s': %s\n", path, strerror(errno));
+        return errno == EEXIST ? EXIT_INPUT : EXIT_IO;
+    }
+    size_t len = strlen(text);
+    bool ok = write(fd, text, len) == (ssize_t)len;
+    ok = close(fd) == 0 && ok;
+    if (!ok) {
+        unlink(path);
+        fprintf(stderr, "headroom new: failed to write '%s'\n", path);
+        return EXIT_IO;
+    }
+    printf("wrote %s; build it with: headroom build %s\n", path, path);
+    return 0;
+}
+
 /* ---- convert -------------------------------------------------------------- */
 
 static int cmd_convert(int argc, char **argv)
@@ -392,6 +457,8 @@ int main(int argc, char **argv)
         return cmd_build(argc - 2, argv + 2);
     if (strcmp(cmd, "convert") == 0)
         return cmd_convert(argc - 2, argv + 2);
+    if (strcmp(cmd, "new") == 0)
+        return cmd_new(argc - 2, argv + 2);
     fprintf(stderr, "headroom: unknown command '%s'\n%s", cmd, usage_text);
     return EXIT_INPUT;
 }

@@ -1,0 +1,14 @@
+#!/bin/sh
+# gen-starters.sh — turn the starter calcs (templates/starters/*.calc.md) into
+# C string literals for `headroom new`, so the installed program needs no data
+# files. Run by the Makefile; its output, src/starters.inc, is committed.
+set -e
+cd "$(dirname "$0")/starters"
+esc() { sed -e 's/\\/\\\\/g' -e 's/"/\\"/g' -e 's/^/    "/' -e 's/$/\\n"/' "$1"; }
+echo "/* starters.inc — generated from templates/starters/ by templates/gen-starters.sh; edit those. */"
+for f in *.calc.md; do
+    kind=${f%.calc.md}
+    echo "STARTER(\"$kind\","
+    esc "$f"
+    echo ")"
+done
