@@ -116,6 +116,8 @@ bench: $(BUILD)/headroom
 install: $(BUILD)/headroom
 	install -d $(DESTDIR)$(PREFIX)/bin
 	install -m 755 $(BUILD)/headroom $(DESTDIR)$(PREFIX)/bin/headroom
+	install -d $(DESTDIR)$(PREFIX)/share/man/man1
+	install -m 644 doc/headroom.1 $(DESTDIR)$(PREFIX)/share/man/man1/headroom.1
 
 clean:
 	rm -rf $(BUILD)
