@@ -18,7 +18,9 @@ enum {
 };
 
 /* Read a file ("-": standard input). NULL on an I/O error or an oversize
- * file, reported in diags. The buffer is NUL-terminated. */
+ * file, reported in diags (an oversize file sets *len above SOURCE_MAX_BYTES,
+ * so callers can treat it as bad input, not an I/O failure). The buffer is
+ * NUL-terminated. */
 char *source_read(const char *path, const char *display, size_t *len, DiagList *diags);
 
 /* Report the first byte that is not valid UTF-8, or a forbidden control

@@ -75,18 +75,28 @@ void diag_sort(DiagList *dl)
     }
 }
 
-/* Find line `line` (1-based) in text; returns its start and sets *len. */
-static const char *find_line(const char *text, size_t text_len, int line, size_t *len)
+/* Find line `line` (1-based) in text; returns its start and sets *len.
+ * The cursor (*at, *at_line) remembers the last line found, so printing a
+ * sorted list walks the text once instead of once per diagnostic. */
+static const char *find_line(const char *text, size_t text_len, int line, size_t *len,
+                             const char **at, int *at_line)
 {
     if (!text || line < 1)
         return NULL;
     const char *p = text, *end = text + text_len;
-    for (int l = 1; l < line; l++) {
+    int l = 1;
+    if (*at && *at_line <= line) {
+        p = *at;
+        l = *at_line;
+    }
+    for (; l < line; l++) {
         const char *nl = memchr(p, '\n', (size_t)(end - p));
         if (!nl)
             return NULL;
         p = nl + 1;
     }
+    *at = p;
+    *at_line = line;
     const char *nl = memchr(p, '\n', (size_t)(end - p));
     *len = (size_t)((nl ? nl : end) - p);
     if (*len && p[*len - 1] == '\r')
@@ -98,6 +108,8 @@ void diag_print(FILE *out, const DiagList *dl, const char *text, size_t text_len
 {
     static const char *const word[] = {"error", "warning", "note"};
     static const char *const hue[] = {"\033[1;31m", "\033[1;35m", "\033[1;36m"};
+    const char *at = NULL;
+    int at_line = 0;
     for (size_t i = 0; i < dl->len; i++) {
         const Diag *d = &dl->items[i];
         const char *file = d->pos.file ? d->pos.file : "headroom";
@@ -109,7 +121,7 @@ void diag_print(FILE *out, const DiagList *dl, const char *text, size_t text_len
         fprintf(out, "%s%s:%s %s\n", color ? hue[d->severity] : "", word[d->severity],
                 color ? "\033[0m" : "", d->message);
         size_t len = 0;
-        const char *line = find_line(text, text_len, d->pos.line, &len);
+        const char *line = find_line(text, text_len, d->pos.line, &len, &at, &at_line);
         if (!line)
             continue;
         /* Long lines are shown around the column so a 1 MB line stays readable. */

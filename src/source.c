@@ -25,7 +25,9 @@ char *source_read(const char *path, const char *display, size_t *len, DiagList *
     for (;;) {
         if (n == cap) {
             if (cap > SOURCE_MAX_BYTES) {
-                diag_error(diags, nowhere, "file is larger than the limit of %d bytes", SOURCE_MAX_BYTES);
+                Pos start = {display, 1, 1};
+                diag_error(diags, start, "file is larger than the limit of %d bytes", SOURCE_MAX_BYTES);
+                *len = n; /* > SOURCE_MAX_BYTES: tells an oversize file from an I/O error */
                 free(buf);
                 if (f != stdin)
                     fclose(f);
@@ -48,7 +50,9 @@ char *source_read(const char *path, const char *display, size_t *len, DiagList *
         return NULL;
     }
     if (n > SOURCE_MAX_BYTES) {
-        diag_error(diags, nowhere, "file is larger than the limit of %d bytes", SOURCE_MAX_BYTES);
+        Pos start = {display, 1, 1};
+        diag_error(diags, start, "file is larger than the limit of %d bytes", SOURCE_MAX_BYTES);
+        *len = n;
         free(buf);
         return NULL;
     }
