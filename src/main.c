@@ -1,4 +1,4 @@
-/* main.c — the command line: check, build, convert.
+/* main.c — the command line: check, build, diff, convert.
  *
  * Each command chains the stages in one short function: load (source ->
  * document tree) -> evaluate -> render. Diagnostics collected by every stage
@@ -17,11 +17,13 @@
 #include <sys/stat.h>
 #include <unistd.h>
 
+#include "diff.h"
 #include "doc.h"
 #include "eval.h"
 #include "numfmt.h"
 #include "parse.h"
 #include "render.h"
+#include "revision.h"
 
 #ifndef HEADROOM_VERSION
 #define HEADROOM_VERSION "0.0.0"
@@ -38,6 +40,8 @@ static const char usage_text[] =
     "      write the report (default: FILE without .md/.calc, plus .pdf)\n"
     "  headroom new KIND [FILE]\n"
     "      write a commented starter calc (riser, pump-line, pipe-rating)\n"
+    "  headroom diff OLD NEW [--json] [--rel-tol X]\n"
+    "      what changed in meaning between two revisions (a file or REV:path)\n"
     "  headroom convert \"VALUE UNIT\" UNIT\n"
     "      convert a value between units (10 significant digits)\n"
     "  headroom --help | --version\n"
@@ -361,6 +365,80 @@ static int cmd_new(int argc, char **argv)
     return 0;
 }
 
+/* ---- diff ----------------------------------------------------------------- */
+
+static const char diff_help[] =
+    "usage: headroom diff OLD NEW [--json] [--rel-tol X]\n"
+    "Evaluate two revisions of a calc and print what changed in meaning: front\n"
+    "matter, inputs, results (beyond the relative tolerance X, default 1e-9, with\n"
+    "the changed inputs they depend on), check verdicts and utilisations,\n"
+    "statements added, removed or renamed, citations and prose sections.\n"
+    "OLD and NEW are files or REV:path (read from git; a path is relative to the\n"
+    "repository root, REV:./path to the current directory). A name that exists\n"
+    "as a file is read as the file.\n"
+    "Exit 0 when nothing changed in meaning, 1 when something did, 2 on input\n"
+    "errors in either side, 3 on an output failure.\n";
+
+static int cmd_diff(int argc, char **argv)
+{
+    const char *side[2] = {NULL, NULL};
+    int nside = 0;
+    bool json = false;
+    DiffOptions opt = diff_options_default();
+    for (int i = 0; i < argc; i++) {
+        if (strcmp(argv[i], "--json") == 0) {
+            json = true;
+        } else if (strcmp(argv[i], "--rel-tol") == 0 && i + 1 < argc) {
+            const char *t = argv[++i];
+            double x;
+            size_t n = strlen(t);
+            if (n == 0 || num_parse(t, n, &x) != n || !(x >= 0 && x < 1)) {
+                fprintf(stderr, "headroom diff: --rel-tol expects a number from 0 up to 1, found '%s'\n", t);
+                return EXIT_INPUT;
+            }
+            opt.rel_tol = x;
+        } else if (strcmp(argv[i], "--help") == 0) {
+            fputs(diff_help, stdout);
+            return 0;
+        } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
+            fprintf(stderr, "headroom diff: unknown or incomplete option '%s'\n", argv[i]);
+            return EXIT_INPUT;
+        } else if (nside < 2) {
+            side[nside++] = argv[i];
+        } else {
+            fprintf(stderr, "headroom diff: two revisions, OLD and NEW (found '%s' too)\n", argv[i]);
+            return EXIT_INPUT;
+        }
+    }
+    if (nside != 2) {
+        fputs("usage: headroom diff OLD NEW [--json] [--rel-tol X]\n", stderr);
+        return EXIT_INPUT;
+    }
+    DiagList dl[2] = {{0}, {0}};
+    Document *doc[2] = {NULL, NULL};
+    Evaluated *ev[2] = {NULL, NULL};
+    int status = 0;
+    for (int k = 0; k < 2; k++) {
+        doc[k] = revision_load(side[k], &dl[k]);
+        if (doc[k])
+            ev[k] = eval_document(doc[k], &dl[k]);
+        print_diags(&dl[k], doc[k]);
+        if (!doc[k] || dl[k].errors)
+            status = EXIT_INPUT;
+    }
+    if (status == 0) {
+        Diff *d = diff_compute(ev[0], ev[1], &opt);
+        bool ok = json ? render_diff_json(d, stdout) : render_diff_text(d, stdout);
+        status = ok && fflush(stdout) == 0 ? (d->changed ? 1 : 0) : EXIT_IO;
+        diff_free(d);
+    }
+    for (int k = 0; k < 2; k++) {
+        diag_free(&dl[k]);
+        doc_free(doc[k]);
+    }
+    return status;
+}
+
 /* ---- convert -------------------------------------------------------------- */
 
 static int cmd_convert(int argc, char **argv)
@@ -455,6 +533,8 @@ int main(int argc, char **argv)
         return cmd_check(argc - 2, argv + 2);
     if (strcmp(cmd, "build") == 0)
         return cmd_build(argc - 2, argv + 2);
+    if (strcmp(cmd, "diff") == 0)
+        return cmd_diff(argc - 2, argv + 2);
     if (strcmp(cmd, "convert") == 0)
         return cmd_convert(argc - 2, argv + 2);
     if (strcmp(cmd, "new") == 0)

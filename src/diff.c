@@ -1,0 +1,930 @@
+/* diff.c — the semantic diff of two evaluated revisions (`headroom diff`).
+ *
+ * The comparison is of meaning, not of text. Statements are matched by name
+ * (checks by label), so moving a line changes nothing; literals and values
+ * are compared in coherent SI within a relative tolerance, so writing
+ * `2.397427463 L/s` for `38 gal/min` or adding `as psi` changes nothing. A
+ * name present only in OLD and one present only in NEW whose formulas are
+ * the same tree (names matched or renamed earlier taken as equal) are one
+ * renamed statement; renames are decided in source order, so a rename of Q
+ * lets `V = Q/A` and `V = Q_d/A` compare as equal. Which changed inputs a
+ * result depends on is a bitset per statement, propagated once along
+ * Stmt.deps in source order (every dependency precedes its reader), so the
+ * whole diff is linear in the size of the documents. */
+#include "diff.h"
+
+#include <math.h>
+#include <stdint.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "numfmt.h"
+
+DiffOptions diff_options_default(void)
+{
+    return (DiffOptions){.rel_tol = 1e-9, .abs_floor = 1e-15};
+}
+
+bool diff_numbers_differ(double a, double b, const DiffOptions *opt)
+{
+    if (isnan(a) || isnan(b))
+        return isnan(a) != isnan(b);
+    if (a == b)
+        return false;
+    if (isinf(a) || isinf(b))
+        return true;
+    double d = fabs(a - b);
+    double scale = fmax(fabs(a), fabs(b));
+    return d > opt->rel_tol * scale && d > opt->abs_floor;
+}
+
+static bool str_same(const char *a, const char *b)
+{
+    return strcmp(a ? a : "", b ? b : "") == 0;
+}
+
+/* ---- growable arrays of change records --------------------------------- */
+
+#define PUSH(arr, n, cap, item)                                             \
+    do {                                                                    \
+        if ((n) == (cap)) {                                                 \
+            (cap) = (cap) ? 2 * (cap) : 8;                                  \
+            (arr) = xrealloc((arr), (cap) * sizeof *(arr));                 \
+        }                                                                   \
+        (arr)[(n)++] = (item);                                              \
+    } while (0)
+
+typedef struct Builder {
+    Diff *d;
+    const Document *od, *nd;
+    size_t cap_meta, cap_inputs, cap_results, cap_checks, cap_stmts, cap_cites, cap_prose;
+    bool *formula_changed;   /* per NEW slot, matched statements only */
+} Builder;
+
+/* Move a heap array into the diff's arena so diff_free releases it all. */
+static void *to_arena(Diff *d, void *heap, size_t n, size_t size)
+{
+    if (n == 0) {
+        free(heap);
+        return NULL;
+    }
+    void *p = arena_alloc(&d->arena, n * size);
+    memcpy(p, heap, n * size);
+    free(heap);
+    return p;
+}
+
+/* ---- front matter ------------------------------------------------------- */
+
+static void meta_text(Builder *b, const char *key, const char *o, const char *n, bool display_only)
+{
+    if (str_same(o, n))
+        return;
+    MetaChange m = {key, o ? o : "", n ? n : "", display_only};
+    PUSH(b->d->meta, b->d->nmeta, b->cap_meta, m);
+}
+
+static const char *revision_text(Arena *a, const Meta *m)
+{
+    StrBuf sb = {0};
+    for (size_t i = 0; i < m->nrevisions; i++) {
+        const Revision *r = &m->revisions[i];
+        sb_printf(&sb, "%s%s %s %s: %s", i ? "; " : "", r->rev ? r->rev : "-", r->date ? r->date : "-",
+                  r->by ? r->by : "-", r->note ? r->note : "");
+    }
+    const char *s = arena_strdup(a, sb_str(&sb));
+    sb_free(&sb);
+    return s;
+}
+
+static void compare_meta(Builder *b)
+{
+    const Meta *o = &b->od->meta, *n = &b->nd->meta;
+    Arena *a = &b->d->arena;
+    meta_text(b, "title", o->title, n->title, false);
+    meta_text(b, "project", o->project, n->project, false);
+    meta_text(b, "client", o->client, n->client, false);
+    meta_text(b, "number", o->number, n->number, false);
+    meta_text(b, "subject", o->subject, n->subject, false);
+    meta_text(b, "revision", o->revision, n->revision, false);
+    meta_text(b, "date", o->date, n->date, false);
+    meta_text(b, "status", o->status, n->status, false);
+    meta_text(b, "prepared", o->prepared, n->prepared, false);
+    meta_text(b, "prepared date", o->prepared_date, n->prepared_date, false);
+    meta_text(b, "checked", o->checked, n->checked, false);
+    meta_text(b, "checked date", o->checked_date, n->checked_date, false);
+    meta_text(b, "approved", o->approved, n->approved, false);
+    meta_text(b, "engineer", o->engineer, n->engineer, false);
+    meta_text(b, "license", o->license, n->license, false);
+    meta_text(b, "revisions", revision_text(a, o), revision_text(a, n), false);
+    meta_text(b, "units", o->units == UNITS_SI ? "SI" : "US", n->units == UNITS_SI ? "SI" : "US", true);
+    meta_text(b, "paper", o->paper == PAPER_A4 ? "a4" : "letter", n->paper == PAPER_A4 ? "a4" : "letter", true);
+    meta_text(b, "digits", arena_printf(a, "%d", o->digits), arena_printf(a, "%d", n->digits), true);
+}
+
+/* ---- formulas as trees -------------------------------------------------- */
+
+static const Expr *bare(const Expr *e)
+{
+    while (e && e->kind == EXPR_PAREN)
+        e = e->lhs;
+    return e;
+}
+
+static Quantity literal_qty(const Expr *e)
+{
+    return e->has_unit ? unit_to_qty(e->number, &e->unit) : qty_number(e->number);
+}
+
+static bool slot_same(const Diff *d, int o, int n)
+{
+    if (o < 0 || n < 0)
+        return o == n && o != SLOT_UNRESOLVED;
+    return d->old_to_new[o] == n;
+}
+
+/* Same formula: the same tree, literals equal in SI within the tolerance,
+ * names equal when matched (by name or by rename). Parentheses kept only for
+ * display do not count. */
+static bool expr_same(const Diff *d, const Expr *a, const Expr *b)
+{
+    a = bare(a);
+    b = bare(b);
+    if (!a || !b)
+        return a == b;
+    if (a->kind != b->kind)
+        return false;
+    switch (a->kind) {
+    case EXPR_NUMBER: {
+        Quantity qa = literal_qty(a), qb = literal_qty(b);
+        return dim_eq(qa.dim, qb.dim) && qa.temp == qb.temp && !diff_numbers_differ(qa.si, qb.si, &d->opt);
+    }
+    case EXPR_STRING:
+        return str_same(a->text, b->text);
+    case EXPR_NAME:
+        return slot_same(d, a->slot, b->slot);
+    case EXPR_NEG:
+    case EXPR_PAREN:
+        return expr_same(d, a->lhs, b->lhs);
+    case EXPR_BINARY:
+        return a->op == b->op && expr_same(d, a->lhs, b->lhs) && expr_same(d, a->rhs, b->rhs);
+    case EXPR_FIELD:
+        return str_same(a->text, b->text) && expr_same(d, a->lhs, b->lhs);
+    case EXPR_CALL:
+        if (a->callee_slot >= 0 || b->callee_slot >= 0) {
+            if (!slot_same(d, a->callee_slot, b->callee_slot))
+                return false;
+        } else if (!str_same(a->text, b->text)) {
+            return false;
+        }
+        if (a->nargs != b->nargs || a->nkw != b->nkw)
+            return false;
+        for (size_t i = 0; i < a->nargs; i++)
+            if (!expr_same(d, a->args[i], b->args[i]))
+                return false;
+        for (size_t i = 0; i < a->nkw; i++)
+            if (!str_same(a->kw_names[i], b->kw_names[i]) || !expr_same(d, a->kw[i], b->kw[i]))
+                return false;
+        return true;
+    }
+    return false;
+}
+
+static bool path_same(const Diff *d, const PathSpec *a, const PathSpec *b)
+{
+    if (!a || !b)
+        return a == b;
+    if (a->loss != b->loss || !str_same(a->friction, b->friction) || !str_same(a->fittings, b->fittings) ||
+        a->nsegs != b->nsegs || !expr_same(d, a->fluid, b->fluid) || !expr_same(d, a->start, b->start))
+        return false;
+    for (size_t i = 0; i < a->nsegs; i++) {
+        const PathSegment *x = &a->segs[i], *y = &b->segs[i];
+        if (!str_same(x->id, y->id) || x->nfittings != y->nfittings || !expr_same(d, x->flow, y->flow) ||
+            !expr_same(d, x->pipe, y->pipe) || !expr_same(d, x->length, y->length) ||
+            !expr_same(d, x->rise, y->rise) || !expr_same(d, x->K, y->K) || !expr_same(d, x->C, y->C))
+            return false;
+        for (size_t k = 0; k < x->nfittings; k++)
+            if (x->fittings[k].count != y->fittings[k].count || !str_same(x->fittings[k].kind, y->fittings[k].kind))
+                return false;
+    }
+    return true;
+}
+
+/* The formula of a statement (not its name, display unit or comment). */
+static bool stmt_same(const Diff *d, const Stmt *a, const Stmt *b)
+{
+    if (a->kind != b->kind)
+        return false;
+    switch (a->kind) {
+    case STMT_DEF:
+        return expr_same(d, a->expr, b->expr);
+    case STMT_SOLVE:
+        return slot_same(d, a->var_slot, b->var_slot) && expr_same(d, a->lhs, b->lhs) && expr_same(d, a->rhs, b->rhs);
+    case STMT_CHECK:
+        return a->cmp == b->cmp && expr_same(d, a->lhs, b->lhs) && expr_same(d, a->rhs, b->rhs);
+    case STMT_PATH:
+        return path_same(d, a->path, b->path);
+    default:
+        return true;
+    }
+}
+
+static bool is_named(const Stmt *s)
+{
+    return (s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH) && s->name && !s->parse_failed;
+}
+
+static bool is_check(const Stmt *s)
+{
+    return s->kind == STMT_CHECK && s->label && !s->parse_failed;
+}
+
+/* An input: a definition that reads no names (a literal, maybe negated). */
+static bool is_input(const Stmt *s)
+{
+    if (s->kind != STMT_DEF || !s->expr)
+        return false;
+    const Expr *e = bare(s->expr);
+    while (e && e->kind == EXPR_NEG)
+        e = bare(e->lhs);
+    return e && (e->kind == EXPR_NUMBER || e->kind == EXPR_STRING);
+}
+
+/* ---- matching ----------------------------------------------------------- */
+
+/* Checks are matched by label through a sorted index. */
+typedef struct LabelSlot {
+    const char *label;
+    int slot;
+} LabelSlot;
+
+static int cmp_label(const void *a, const void *b)
+{
+    const LabelSlot *x = a, *y = b;
+    int c = strcmp(x->label, y->label);
+    return c ? c : (x->slot > y->slot) - (x->slot < y->slot);
+}
+
+static LabelSlot *label_index(const Document *doc, size_t *n)
+{
+    LabelSlot *ix = xmalloc((doc->nstmts + 1) * sizeof *ix);
+    *n = 0;
+    for (size_t i = 0; i < doc->nstmts; i++)
+        if (is_check(doc->stmts[i]))
+            ix[(*n)++] = (LabelSlot){doc->stmts[i]->label, (int)i};
+    qsort(ix, *n, sizeof *ix, cmp_label);
+    return ix;
+}
+
+/* The first OLD check with this label not yet matched. */
+static int label_find(const LabelSlot *ix, size_t n, const char *label, const int *old_to_new)
+{
+    size_t lo = 0, hi = n;
+    while (lo < hi) {
+        size_t mid = (lo + hi) / 2;
+        if (strcmp(ix[mid].label, label) < 0)
+            lo = mid + 1;
+        else
+            hi = mid;
+    }
+    for (; lo < n && strcmp(ix[lo].label, label) == 0; lo++)
+        if (old_to_new[ix[lo].slot] < 0)
+            return ix[lo].slot;
+    return -1;
+}
+
+static void match_statements(Builder *b)
+{
+    Diff *d = b->d;
+    const Document *od = b->od, *nd = b->nd;
+    size_t nlab;
+    LabelSlot *labels = label_index(od, &nlab);
+    for (size_t i = 0; i < nd->nstmts; i++) {
+        const Stmt *s = nd->stmts[i];
+        int o = -1;
+        if (is_named(s)) {
+            o = doc_lookup(od, s->name);
+            if (o >= 0 && (!is_named(od->stmts[o]) || d->old_to_new[o] >= 0))
+                o = -1;
+        } else if (is_check(s)) {
+            o = label_find(labels, nlab, s->label, d->old_to_new);
+        }
+        if (o >= 0) {
+            d->old_to_new[o] = (int)i;
+            d->new_to_old[i] = o;
+        }
+    }
+    free(labels);
+
+    /* Renames, in the source order of NEW: an unmatched statement takes the
+     * first unmatched OLD statement of the same kind with the same formula. */
+    int *orphans = xmalloc((od->nstmts + 1) * sizeof *orphans);
+    size_t norphans = 0;
+    for (size_t i = 0; i < od->nstmts; i++)
+        if (d->old_to_new[i] < 0 && (is_named(od->stmts[i]) || is_check(od->stmts[i])))
+            orphans[norphans++] = (int)i;
+    for (size_t i = 0; i < nd->nstmts && norphans; i++) {
+        const Stmt *s = nd->stmts[i];
+        if (d->new_to_old[i] >= 0 || !(is_named(s) || is_check(s)))
+            continue;
+        for (size_t k = 0; k < norphans; k++) {
+            const Stmt *os = od->stmts[orphans[k]];
+            if (d->old_to_new[orphans[k]] < 0 && is_check(os) == is_check(s) && stmt_same(d, os, s)) {
+                d->old_to_new[orphans[k]] = (int)i;
+                d->new_to_old[i] = orphans[k];
+                StmtChange c = {STMT_RENAMED, orphans[k], (int)i};
+                PUSH(d->stmts, d->nstmts, b->cap_stmts, c);
+                break;
+            }
+        }
+    }
+    for (size_t i = 0; i < nd->nstmts; i++) {
+        const Stmt *s = nd->stmts[i];
+        if (d->new_to_old[i] < 0 && (is_named(s) || is_check(s))) {
+            StmtChange c = {STMT_ADDED, -1, (int)i};
+            PUSH(d->stmts, d->nstmts, b->cap_stmts, c);
+            d->stmt_marks[i] = MARK_ADDED;
+        }
+    }
+    for (size_t k = 0; k < norphans; k++)
+        if (d->old_to_new[orphans[k]] < 0) {
+            StmtChange c = {STMT_REMOVED, orphans[k], -1};
+            PUSH(d->stmts, d->nstmts, b->cap_stmts, c);
+        }
+    free(orphans);
+    for (size_t i = 0; i < nd->nstmts; i++) {
+        int o = d->new_to_old[i];
+        if (o >= 0 && !stmt_same(d, od->stmts[o], nd->stmts[i])) {
+            b->formula_changed[i] = true;
+            d->stmt_marks[i] = MARK_CHANGED;
+        }
+    }
+    for (size_t k = 0; k < d->nstmts; k++)
+        if (d->stmts[k].kind == STMT_RENAMED)
+            d->stmt_marks[d->stmts[k].new_slot] = MARK_CHANGED;
+}
+
+/* ---- values ------------------------------------------------------------- */
+
+static bool values_differ(const Value *a, const Value *b, const DiffOptions *opt, bool *dim_changed)
+{
+    *dim_changed = false;
+    if (a->kind != b->kind) {
+        *dim_changed = true;
+        return true;
+    }
+    switch (a->kind) {
+    case VAL_NUMBER:
+        if (!dim_eq(a->q.dim, b->q.dim) || a->q.temp != b->q.temp) {
+            *dim_changed = true;
+            return true;
+        }
+        return diff_numbers_differ(a->q.si, b->q.si, opt);
+    case VAL_STRING:
+        return !str_same(a->str, b->str);
+    default:
+        return false;
+    }
+}
+
+static double relative(const Value *a, const Value *b, bool dim_changed)
+{
+    if (dim_changed || a->kind != VAL_NUMBER || a->q.si == 0 || !isfinite(a->q.si) || !isfinite(b->q.si))
+        return NAN;
+    return (b->q.si - a->q.si) / fabs(a->q.si);
+}
+
+static Unit shown_unit(const Evaluated *ev, const Value *v, const Unit *shown)
+{
+    if (v->kind != VAL_NUMBER)
+        return (Unit){0};
+    return shown && shown->text[0] ? *shown : eval_display_unit(ev, v, NULL);
+}
+
+static void add_value_change(Builder *b, bool input, const char *name, int o, int n, const Value *ov,
+                             const Value *nv, const Unit *ou, const Unit *nu, bool dim_changed)
+{
+    Diff *d = b->d;
+    ValueChange c = {0};
+    c.name = name;
+    c.old_slot = o;
+    c.new_slot = n;
+    c.old_value = *ov;
+    c.new_value = *nv;
+    c.old_unit = shown_unit(d->old_ev, ov, ou);
+    c.new_unit = shown_unit(d->new_ev, nv, nu);
+    c.dim_changed = dim_changed;
+    c.rel = relative(ov, nv, dim_changed);
+    c.formula_changed = !input && n >= 0 && b->formula_changed[n];
+    if (input)
+        PUSH(d->inputs, d->ninputs, b->cap_inputs, c);
+    else
+        PUSH(d->results, d->nresults, b->cap_results, c);
+    if (n >= 0)
+        d->stmt_marks[n] = MARK_CHANGED;
+}
+
+/* Records (water properties, pipes, paths and their segments) are compared
+ * field by field, each field a result named base.field. */
+static size_t compare_record(Builder *b, const char *name, int o, int n, const Record *ra, const Record *rb,
+                             bool nested)
+{
+    size_t first = b->d->nresults;
+    size_t found = 0;
+    Arena *a = &b->d->arena;
+    static const Value none = {0};
+    for (size_t i = 0; i < rb->nfields; i++) {
+        const RecordField *f = &rb->fields[i];
+        const Value *ov = record_get(ra, f->name);
+        const char *fname = arena_printf(a, "%s.%s", name, f->name);
+        if (!ov) {
+            add_value_change(b, false, fname, o, n, &none, &f->value, NULL, NULL, true);
+            found++;
+            continue;
+        }
+        if (ov->kind == VAL_RECORD && f->value.kind == VAL_RECORD) {
+            found += compare_record(b, fname, o, n, ov->rec, f->value.rec, true);
+            continue;
+        }
+        bool dim_changed;
+        if (values_differ(ov, &f->value, &b->d->opt, &dim_changed)) {
+            add_value_change(b, false, fname, o, n, ov, &f->value, NULL, NULL, dim_changed);
+            found++;
+        }
+    }
+    for (size_t i = 0; i < ra->nfields; i++)
+        if (!record_get(rb, ra->fields[i].name)) {
+            const char *fname = arena_printf(a, "%s.%s", name, ra->fields[i].name);
+            add_value_change(b, false, fname, o, n, &ra->fields[i].value, &none, NULL, NULL, true);
+            found++;
+        }
+    if (nested)
+        for (size_t i = first; i < b->d->nresults; i++)
+            if (!b->d->results[i].record) {
+                b->d->results[i].record = name;
+                b->d->results[i].field = b->d->results[i].name + strlen(name) + 1;
+            }
+    return found;
+}
+
+static void compare_values(Builder *b)
+{
+    Diff *d = b->d;
+    const Document *od = b->od, *nd = b->nd;
+    for (size_t i = 0; i < nd->nstmts; i++) {
+        int o = d->new_to_old[i];
+        const Stmt *ns = nd->stmts[i];
+        if (o < 0 || !is_named(ns) || !is_named(od->stmts[o]))
+            continue;
+        const StmtResult *ro = &d->old_ev->results[o], *rn = &d->new_ev->results[i];
+        if (ro->state != RES_OK || rn->state != RES_OK)
+            continue;
+        bool input = is_input(ns) && is_input(od->stmts[o]);
+        const Value *ov = &ro->value, *nv = &rn->value;
+        size_t found = 0;
+        bool dim_changed = false;
+        if (ov->kind == VAL_RECORD && nv->kind == VAL_RECORD) {
+            found = compare_record(b, ns->name, o, (int)i, ov->rec, nv->rec, false);
+        } else if (values_differ(ov, nv, &d->opt, &dim_changed)) {
+            add_value_change(b, input, ns->name, o, (int)i, ov, nv, &ro->shown, &rn->shown, dim_changed);
+            found = 1;
+        }
+        if (!found && b->formula_changed[i])
+            add_value_change(b, false, ns->name, o, (int)i, ov, nv, &ro->shown, &rn->shown, false);
+    }
+}
+
+/* Each result lists the changed inputs it depends on: a bitset per NEW
+ * statement over the changed inputs, ORed along Stmt.deps in slot order. */
+static void trace_inputs(Builder *b)
+{
+    Diff *d = b->d;
+    const Document *nd = b->nd;
+    size_t k = d->ninputs;
+    if (k == 0 || d->nresults == 0)
+        return;
+    size_t words = (k + 63) / 64;
+    uint64_t *bits = xcalloc(nd->nstmts * words, sizeof *bits);
+    for (size_t j = 0; j < k; j++) {
+        int n = d->inputs[j].new_slot;
+        bits[(size_t)n * words + j / 64] |= (uint64_t)1 << (j % 64);
+    }
+    for (size_t i = 0; i < nd->nstmts; i++) {
+        const Stmt *s = nd->stmts[i];
+        uint64_t *mine = bits + i * words;
+        for (size_t q = 0; q < s->ndeps; q++) {
+            int dep = s->deps[q];
+            if (dep < 0 || (size_t)dep >= i)
+                continue;
+            const uint64_t *theirs = bits + (size_t)dep * words;
+            for (size_t w = 0; w < words; w++)
+                mine[w] |= theirs[w];
+        }
+    }
+    for (size_t r = 0; r < d->nresults; r++) {
+        ValueChange *c = &d->results[r];
+        if (c->new_slot < 0)
+            continue;
+        const uint64_t *mine = bits + (size_t)c->new_slot * words;
+        size_t count = 0;
+        for (size_t j = 0; j < k; j++)
+            count += (mine[j / 64] >> (j % 64)) & 1;
+        if (!count)
+            continue;
+        size_t *list = arena_alloc(&d->arena, count * sizeof *list);
+        size_t m = 0;
+        for (size_t j = 0; j < k; j++)
+            if ((mine[j / 64] >> (j % 64)) & 1)
+                list[m++] = j;
+        c->inputs = list;
+        c->ninputs = count;
+    }
+    free(bits);
+}
+
+/* ---- checks ------------------------------------------------------------- */
+
+static void compare_checks(Builder *b)
+{
+    Diff *d = b->d;
+    const Document *nd = b->nd;
+    /* Three passes keep the order: now fails, now holds, then the rest. */
+    for (int pass = 0; pass < 3; pass++) {
+        for (size_t i = 0; i < nd->nstmts; i++) {
+            int o = d->new_to_old[i];
+            if (o < 0 || !is_check(nd->stmts[i]))
+                continue;
+            const StmtResult *ro = &d->old_ev->results[o], *rn = &d->new_ev->results[i];
+            if (ro->state != RES_OK || rn->state != RES_OK)
+                continue;
+            CheckChange c = {0};
+            c.old_slot = o;
+            c.new_slot = (int)i;
+            c.old_util = ro->utilization;
+            c.new_util = rn->utilization;
+            c.condition_changed = b->formula_changed[i];
+            if (ro->holds && !rn->holds)
+                c.kind = CHECK_NOW_FAILS;
+            else if (!ro->holds && rn->holds)
+                c.kind = CHECK_NOW_HOLDS;
+            else if (diff_numbers_differ(ro->utilization, rn->utilization, &d->opt))
+                c.kind = CHECK_UTILISATION;
+            else if (c.condition_changed)
+                c.kind = CHECK_CONDITION;
+            else
+                continue;
+            int want = c.kind == CHECK_NOW_FAILS ? 0 : c.kind == CHECK_NOW_HOLDS ? 1 : 2;
+            if (want != pass)
+                continue;
+            PUSH(d->checks, d->nchecks, b->cap_checks, c);
+            d->stmt_marks[i] = MARK_CHANGED;
+        }
+    }
+}
+
+/* ---- citations ---------------------------------------------------------- */
+
+static int source_find(const Document *doc, const char *key)
+{
+    for (size_t i = 0; i < doc->nsources; i++)
+        if (str_same(doc->sources[i].key, key))
+            return (int)i;
+    return -1;
+}
+
+static bool cites_contain(const Stmt *s, const char *key)
+{
+    for (size_t i = 0; i < s->ncites; i++)
+        if (str_same(s->cites[i].key, key))
+            return true;
+    return false;
+}
+
+static void compare_citations(Builder *b)
+{
+    Diff *d = b->d;
+    const Document *od = b->od, *nd = b->nd;
+    for (size_t i = 0; i < nd->nsources; i++) {
+        int o = source_find(od, nd->sources[i].key);
+        if (o >= 0 && str_same(od->sources[o].text, nd->sources[i].text))
+            continue;
+        CiteChange c = {o >= 0 ? CITE_SOURCE_CHANGED : CITE_SOURCE_ADDED, o, (int)i, -1, -1};
+        PUSH(d->cites, d->ncites, b->cap_cites, c);
+    }
+    for (size_t i = 0; i < od->nsources; i++)
+        if (source_find(nd, od->sources[i].key) < 0) {
+            CiteChange c = {CITE_SOURCE_REMOVED, (int)i, -1, -1, -1};
+            PUSH(d->cites, d->ncites, b->cap_cites, c);
+        }
+    for (size_t i = 0; i < nd->nstmts; i++) {
+        int o = d->new_to_old[i];
+        if (o < 0)
+            continue;
+        const Stmt *os = od->stmts[o], *ns = nd->stmts[i];
+        bool same = os->ncites == ns->ncites;
+        for (size_t k = 0; same && k < ns->ncites; k++)
+            same = cites_contain(os, ns->cites[k].key) && cites_contain(ns, os->cites[k].key);
+        if (same)
+            continue;
+        CiteChange c = {CITE_STMT_CITES, -1, -1, o, (int)i};
+        PUSH(d->cites, d->ncites, b->cap_cites, c);
+        d->stmt_marks[i] = MARK_CHANGED;
+    }
+}
+
+/* ---- prose -------------------------------------------------------------- */
+
+static void inline_text(const Inline *in, StrBuf *out)
+{
+    for (; in; in = in->next) {
+        switch (in->kind) {
+        case INL_TEXT:
+        case INL_CODE:
+            sb_puts(out, in->text ? in->text : "");
+            break;
+        case INL_SOFTBREAK:
+        case INL_LINEBREAK:
+            sb_putc(out, ' ');
+            break;
+        case INL_VALUE:
+            sb_printf(out, "{%s%s%s%s%s}", in->text ? in->text : "", in->field ? "." : "", in->field ? in->field : "",
+                      in->has_as ? " as " : "", in->has_as ? in->as_unit.text : "");
+            break;
+        case INL_LINK:
+            inline_text(in->children, out);
+            sb_printf(out, " <%s>", in->url ? in->url : "");
+            break;
+        default:
+            inline_text(in->children, out);
+            break;
+        }
+    }
+}
+
+static void block_text(const Block *b, StrBuf *out)
+{
+    for (; b; b = b->next) {
+        switch (b->kind) {
+        case BLK_PARAGRAPH:
+        case BLK_HEADING:
+        case BLK_TABLE_CELL:
+            inline_text(b->inlines, out);
+            sb_putc(out, b->kind == BLK_TABLE_CELL ? '|' : '\n');
+            break;
+        case BLK_CODE:
+        case BLK_HTML:
+            sb_puts(out, b->text ? b->text : "");
+            sb_putc(out, '\n');
+            break;
+        case BLK_ITEM:
+            sb_puts(out, "- ");
+            block_text(b->children, out);
+            break;
+        case BLK_TABLE_ROW:
+            block_text(b->children, out);
+            sb_putc(out, '\n');
+            break;
+        case BLK_LIST:
+        case BLK_QUOTE:
+        case BLK_TABLE:
+            block_text(b->children, out);
+            break;
+        default:
+            break;
+        }
+    }
+}
+
+/* One paragraph of a section: a prose block or a calc note. */
+typedef struct Para {
+    const char *text;
+    const Block *block;      /* NULL for a note */
+    int note_slot;
+    bool matched;
+} Para;
+
+typedef struct Section {
+    const Block *heading;    /* NULL: before the first heading */
+    const char *title;       /* plain heading text */
+    int line;
+    Para *paras;
+    size_t npara, cap;
+    int other;               /* the matching section on the other side, -1 */
+} Section;
+
+static Section *sections_of(Arena *a, const Document *doc, size_t *count)
+{
+    size_t n = 1, cap = 8;
+    Section *secs = xcalloc(cap, sizeof *secs);
+    secs[0].other = -1;
+    secs[0].title = "";
+    StrBuf sb = {0};
+    for (const Block *b = doc->blocks; b; b = b->next) {
+        if (b->kind == BLK_HEADING) {
+            sb_clear(&sb);
+            inline_text(b->inlines, &sb);
+            Section s = {b, arena_strdup(a, sb_str(&sb)), b->pos.line, NULL, 0, 0, -1};
+            PUSH(secs, n, cap, s);
+            continue;
+        }
+        Section *cur = &secs[n - 1];
+        if (b->kind == BLK_CALC) {
+            for (size_t i = 0; i < b->nstmts; i++) {
+                const Stmt *s = doc->stmts[b->first_stmt + i];
+                if (s->kind != STMT_NOTE)
+                    continue;
+                Para p = {arena_printf(a, "note: %s", s->description ? s->description : ""), NULL, s->index, false};
+                PUSH(cur->paras, cur->npara, cur->cap, p);
+            }
+            continue;
+        }
+        if (b->kind == BLK_PATH || b->kind == BLK_CASES || b->kind == BLK_SOURCES || b->kind == BLK_RULE)
+            continue;
+        sb_clear(&sb);
+        const Block one = {.kind = b->kind, .inlines = b->inlines, .text = b->text, .children = b->children};
+        block_text(&one, &sb);
+        Para p = {arena_strdup(a, sb_str(&sb)), b, -1, false};
+        PUSH(cur->paras, cur->npara, cur->cap, p);
+    }
+    sb_free(&sb);
+    *count = n;
+    return secs;
+}
+
+static void free_sections(Section *secs, size_t n)
+{
+    for (size_t i = 0; i < n; i++)
+        free(secs[i].paras);
+    free(secs);
+}
+
+static void mark_para(Builder *b, const Para *p, DiffMark m, BlockMark *marks, size_t *nmarks)
+{
+    if (p->block)
+        marks[(*nmarks)++] = (BlockMark){p->block, m};
+    else if (p->note_slot >= 0 && b->d->stmt_marks[p->note_slot] == MARK_SAME)
+        b->d->stmt_marks[p->note_slot] = m;
+}
+
+static int cmp_block_mark(const void *a, const void *b)
+{
+    uintptr_t x = (uintptr_t)((const BlockMark *)a)->block, y = (uintptr_t)((const BlockMark *)b)->block;
+    return (x > y) - (x < y);
+}
+
+static void compare_prose(Builder *b)
+{
+    Diff *d = b->d;
+    size_t no, nn;
+    Section *os = sections_of(&d->arena, b->od, &no);
+    Section *ns = sections_of(&d->arena, b->nd, &nn);
+    size_t total = 0;
+    for (size_t i = 0; i < nn; i++)
+        total += ns[i].npara + 1;
+    BlockMark *marks = xmalloc((total + 1) * sizeof *marks);
+    size_t nmarks = 0;
+
+    /* Sections match by heading text, in order among equal headings; the
+     * part before the first heading matches its counterpart. */
+    os[0].other = 0;
+    ns[0].other = 0;
+    for (size_t i = 1; i < nn; i++)
+        for (size_t k = 1; k < no; k++)
+            if (os[k].other < 0 && strcmp(os[k].title, ns[i].title) == 0) {
+                os[k].other = (int)i;
+                ns[i].other = (int)k;
+                break;
+            }
+    for (size_t i = 0; i < nn; i++) {
+        Section *s = &ns[i];
+        ProseChange c = {PROSE_CHANGED, s->heading ? s->heading->number : "", s->heading ? s->title : NULL,
+                         s->line, 0, 0, 0};
+        if (s->other < 0) {
+            c.kind = PROSE_ADDED;
+            c.added = s->npara;
+            marks[nmarks++] = (BlockMark){s->heading, MARK_ADDED};
+            for (size_t p = 0; p < s->npara; p++)
+                mark_para(b, &s->paras[p], MARK_ADDED, marks, &nmarks);
+            PUSH(d->prose, d->nprose, b->cap_prose, c);
+            continue;
+        }
+        Section *o = &os[s->other];
+        for (size_t p = 0; p < s->npara; p++)
+            for (size_t q = 0; q < o->npara; q++)
+                if (!o->paras[q].matched && strcmp(o->paras[q].text, s->paras[p].text) == 0) {
+                    o->paras[q].matched = s->paras[p].matched = true;
+                    break;
+                }
+        size_t un = 0, uo = 0;
+        for (size_t p = 0; p < s->npara; p++)
+            un += !s->paras[p].matched;
+        for (size_t q = 0; q < o->npara; q++)
+            uo += !o->paras[q].matched;
+        if (!un && !uo)
+            continue;
+        c.changed = un < uo ? un : uo;
+        c.added = un - c.changed;
+        c.removed = uo - c.changed;
+        size_t seen = 0;
+        for (size_t p = 0; p < s->npara; p++)
+            if (!s->paras[p].matched)
+                mark_para(b, &s->paras[p], seen++ < c.changed ? MARK_CHANGED : MARK_ADDED, marks, &nmarks);
+        PUSH(d->prose, d->nprose, b->cap_prose, c);
+    }
+    for (size_t k = 1; k < no; k++)
+        if (os[k].other < 0) {
+            ProseChange c = {PROSE_REMOVED, os[k].heading->number, os[k].title, os[k].line, 0, 0, os[k].npara};
+            PUSH(d->prose, d->nprose, b->cap_prose, c);
+        }
+    qsort(marks, nmarks, sizeof *marks, cmp_block_mark);
+    d->block_marks = to_arena(d, marks, nmarks, sizeof *marks);
+    d->nblock_marks = nmarks;
+    free_sections(os, no);
+    free_sections(ns, nn);
+}
+
+/* ---- the whole diff ----------------------------------------------------- */
+
+/* A figure changes when anything it reads does. */
+static void mark_readers(Diff *d, const Document *nd)
+{
+    for (size_t i = 0; i < nd->nstmts; i++) {
+        const Stmt *s = nd->stmts[i];
+        if (s->kind != STMT_FIGURE || d->stmt_marks[i] != MARK_SAME)
+            continue;
+        for (size_t q = 0; q < s->ndeps; q++)
+            if (s->deps[q] >= 0 && (size_t)s->deps[q] < i && d->stmt_marks[s->deps[q]] != MARK_SAME)
+                d->stmt_marks[i] = MARK_CHANGED;
+    }
+}
+
+Diff *diff_compute(const Evaluated *old_ev, const Evaluated *new_ev, const DiffOptions *opt)
+{
+    Diff *d = xcalloc(1, sizeof *d);
+    arena_init(&d->arena);
+    d->old_ev = old_ev;
+    d->new_ev = new_ev;
+    d->opt = opt ? *opt : diff_options_default();
+    Builder b = {0};
+    b.d = d;
+    b.od = old_ev->doc;
+    b.nd = new_ev->doc;
+    d->old_to_new = arena_alloc(&d->arena, (b.od->nstmts + 1) * sizeof *d->old_to_new);
+    d->new_to_old = arena_alloc(&d->arena, (b.nd->nstmts + 1) * sizeof *d->new_to_old);
+    for (size_t i = 0; i < b.od->nstmts; i++)
+        d->old_to_new[i] = -1;
+    for (size_t i = 0; i < b.nd->nstmts; i++)
+        d->new_to_old[i] = -1;
+    d->stmt_marks = arena_alloc(&d->arena, (b.nd->nstmts + 1) * sizeof *d->stmt_marks);
+    b.formula_changed = xcalloc(b.nd->nstmts + 1, sizeof *b.formula_changed);
+
+    compare_meta(&b);
+    match_statements(&b);
+    compare_values(&b);
+    trace_inputs(&b);
+    compare_checks(&b);
+    compare_citations(&b);
+    compare_prose(&b);
+    mark_readers(d, b.nd);
+    free(b.formula_changed);
+
+    d->meta = to_arena(d, d->meta, d->nmeta, sizeof *d->meta);
+    d->inputs = to_arena(d, d->inputs, d->ninputs, sizeof *d->inputs);
+    d->results = to_arena(d, d->results, d->nresults, sizeof *d->results);
+    d->checks = to_arena(d, d->checks, d->nchecks, sizeof *d->checks);
+    d->stmts = to_arena(d, d->stmts, d->nstmts, sizeof *d->stmts);
+    d->cites = to_arena(d, d->cites, d->ncites, sizeof *d->cites);
+    d->prose = to_arena(d, d->prose, d->nprose, sizeof *d->prose);
+
+    bool meta_changed = false;
+    for (size_t i = 0; i < d->nmeta; i++)
+        meta_changed |= !d->meta[i].display_only;
+    d->changed = meta_changed || d->ninputs || d->nresults || d->nchecks || d->nstmts || d->ncites || d->nprose;
+    return d;
+}
+
+void diff_free(Diff *d)
+{
+    if (!d)
+        return;
+    arena_free(&d->arena);
+    free(d);
+}
+
+DiffMark diff_stmt_mark(const Diff *d, size_t slot)
+{
+    return slot < d->new_ev->doc->nstmts ? d->stmt_marks[slot] : MARK_SAME;
+}
+
+DiffMark diff_block_mark(const Diff *d, const Block *b)
+{
+    size_t lo = 0, hi = d->nblock_marks;
+    while (lo < hi) {
+        size_t mid = (lo + hi) / 2;
+        if ((uintptr_t)d->block_marks[mid].block < (uintptr_t)b)
+            lo = mid + 1;
+        else
+            hi = mid;
+    }
+    return lo < d->nblock_marks && d->block_marks[lo].block == b ? d->block_marks[lo].mark : MARK_SAME;
+}

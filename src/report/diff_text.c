@@ -1,0 +1,393 @@
+/* diff_text.c — `headroom diff` as grouped plain text.
+ *
+ * The groups come in the order a reviewer reads them: front matter, inputs,
+ * results (each with the changed inputs it depends on), checks (now failing
+ * first), statements added, removed or renamed, citations, prose sections,
+ * then a one-line summary. Values are printed with the document's
+ * significant digits, and with more when the rounded old and new texts
+ * would otherwise look the same, so every line shows its change. Nothing is
+ * computed here: the Diff holds the classification, the Evaluated documents
+ * the values. */
+#include <math.h>
+#include <string.h>
+
+#include "diff.h"
+#include "numfmt.h"
+#include "render.h"
+
+/* Old and new values as text, with digits added until they differ. */
+static void value_pair(const Diff *d, const Value *ov, const Unit *ou, const Value *nv, const Unit *nu,
+                       StrBuf *a, StrBuf *b)
+{
+    Evaluated oe = *d->old_ev, ne = *d->new_ev;
+    for (int digits = d->new_ev->digits; digits <= 17; digits += 2) {
+        sb_clear(a);
+        sb_clear(b);
+        oe.digits = ne.digits = digits;
+        if (ov->kind == VAL_NONE)
+            sb_puts(a, "(none)");
+        else
+            render_value_text(&oe, ov, ou, a);
+        if (nv->kind == VAL_NONE)
+            sb_puts(b, "(none)");
+        else
+            render_value_text(&ne, nv, nu, b);
+        if (strcmp(sb_str(a), sb_str(b)) != 0 || ov->kind != VAL_NUMBER || nv->kind != VAL_NUMBER)
+            break;
+    }
+}
+
+static void put_rel(const ValueChange *c, StrBuf *out)
+{
+    if (c->dim_changed) {
+        sb_puts(out, " (a different kind of value)");
+    } else if (c->old_value.kind == VAL_NUMBER && !isnan(c->rel)) {
+        char buf[48];
+        num_sig(fabs(c->rel) * 100, 3, buf, sizeof buf);
+        sb_printf(out, " (%s%s %%)", c->rel < 0 ? "-" : "+", buf);
+    } else if (c->old_value.kind == VAL_NUMBER && c->old_value.q.si == 0) {
+        sb_puts(out, " (from zero)");
+    }
+}
+
+static void put_line(const Diff *d, int new_slot, int old_slot, StrBuf *out)
+{
+    if (new_slot >= 0)
+        sb_printf(out, "  [line %d]", d->new_ev->doc->stmts[new_slot]->pos.line);
+    else if (old_slot >= 0)
+        sb_printf(out, "  [old line %d]", d->old_ev->doc->stmts[old_slot]->pos.line);
+}
+
+static void put_inputs(const Diff *d, StrBuf *out)
+{
+    sb_printf(out, "\ninputs (%zu):\n", d->ninputs);
+    for (size_t i = 0; i < d->ninputs; i++) {
+        const ValueChange *c = &d->inputs[i];
+        const Stmt *os = d->old_ev->doc->stmts[c->old_slot], *ns = d->new_ev->doc->stmts[c->new_slot];
+        StrBuf a = {0}, b = {0};
+        render_expr_text(d->old_ev, os->expr, false, &a);
+        render_expr_text(d->new_ev, ns->expr, false, &b);
+        sb_printf(out, "  %s = %s → %s", c->name, sb_str(&a), sb_str(&b));
+        put_rel(c, out);
+        put_line(d, c->new_slot, c->old_slot, out);
+        sb_putc(out, '\n');
+        sb_free(&a);
+        sb_free(&b);
+    }
+}
+
+/* The fields of a nested record (a path's segment) on one line, each with
+ * its relative change. Returns the index after the group. */
+static size_t put_record_group(const Diff *d, size_t i, StrBuf *out)
+{
+    const ValueChange *c0 = &d->results[i];
+    sb_printf(out, "  %s:", c0->record);
+    size_t j = i;
+    for (; j < d->nresults && d->results[j].record && strcmp(d->results[j].record, c0->record) == 0; j++) {
+        sb_printf(out, "%s %s", j > i ? "," : "", d->results[j].field);
+        put_rel(&d->results[j], out);
+    }
+    for (size_t k = 0; k < c0->ninputs; k++)
+        sb_printf(out, "%s%s", k ? ", " : "; from ", d->inputs[c0->inputs[k]].name);
+    put_line(d, c0->new_slot, c0->old_slot, out);
+    sb_putc(out, '\n');
+    return j;
+}
+
+static void put_results(const Diff *d, StrBuf *out)
+{
+    sb_printf(out, "\nresults (%zu):\n", d->nresults);
+    for (size_t i = 0; i < d->nresults; i++) {
+        const ValueChange *c = &d->results[i];
+        if (c->record) {
+            i = put_record_group(d, i, out) - 1;
+            continue;
+        }
+        StrBuf a = {0}, b = {0};
+        value_pair(d, &c->old_value, &c->old_unit, &c->new_value, &c->new_unit, &a, &b);
+        bool same = !c->dim_changed && strcmp(sb_str(&a), sb_str(&b)) == 0 &&
+                    (c->new_value.kind == VAL_RECORD || !c->ninputs);
+        if (c->formula_changed && (same || c->new_value.kind == VAL_RECORD))
+            sb_printf(out, "  %s: formula changed, value unchanged", c->name);
+        else {
+            sb_printf(out, "  %s = %s → %s", c->name, sb_str(&a), sb_str(&b));
+            put_rel(c, out);
+            if (c->formula_changed)
+                sb_puts(out, "; formula changed");
+        }
+        for (size_t k = 0; k < c->ninputs; k++)
+            sb_printf(out, "%s%s", k ? ", " : "; from ", d->inputs[c->inputs[k]].name);
+        put_line(d, c->new_slot, c->old_slot, out);
+        sb_putc(out, '\n');
+        sb_free(&a);
+        sb_free(&b);
+    }
+}
+
+static void util_text(double u, int digits, char *buf, size_t n)
+{
+    if (isfinite(u))
+        num_sig(u, digits, buf, n);
+    else
+        snprintf(buf, n, "n/a");
+}
+
+static void put_checks(const Diff *d, StrBuf *out)
+{
+    size_t flips = 0;
+    for (size_t i = 0; i < d->nchecks; i++)
+        flips += d->checks[i].kind == CHECK_NOW_FAILS || d->checks[i].kind == CHECK_NOW_HOLDS;
+    sb_printf(out, "\nchecks (%zu flipped, %zu changed):\n", flips, d->nchecks - flips);
+    for (size_t i = 0; i < d->nchecks; i++) {
+        const CheckChange *c = &d->checks[i];
+        const char *label = d->new_ev->doc->stmts[c->new_slot]->label;
+        char u0[48] = "", u1[48] = "";
+        for (int digits = 3; digits <= 17; digits += 2) {
+            util_text(c->old_util, digits, u0, sizeof u0);
+            util_text(c->new_util, digits, u1, sizeof u1);
+            if (strcmp(u0, u1) != 0)
+                break;
+        }
+        switch (c->kind) {
+        case CHECK_NOW_FAILS:
+            sb_printf(out, "  holds → FAILS  %s: utilisation %s → %s", label, u0, u1);
+            break;
+        case CHECK_NOW_HOLDS:
+            sb_printf(out, "  FAILS → holds  %s: utilisation %s → %s", label, u0, u1);
+            break;
+        case CHECK_UTILISATION:
+            sb_printf(out, "  %-15s %s: utilisation %s → %s", d->new_ev->results[c->new_slot].holds ? "holds" : "FAILS",
+                      label, u0, u1);
+            break;
+        case CHECK_CONDITION:
+            sb_printf(out, "  %-15s %s: condition rewritten, utilisation %s unchanged",
+                      d->new_ev->results[c->new_slot].holds ? "holds" : "FAILS", label, u1);
+            break;
+        }
+        if (c->condition_changed && c->kind != CHECK_CONDITION)
+            sb_puts(out, "; condition rewritten");
+        put_line(d, c->new_slot, c->old_slot, out);
+        sb_putc(out, '\n');
+    }
+}
+
+static const char *cmp_text(CmpOp op)
+{
+    switch (op) {
+    case CMP_LE: return "<=";
+    case CMP_LT: return "<";
+    case CMP_GE: return ">=";
+    case CMP_GT: return ">";
+    }
+    return "?";
+}
+
+/* A statement in one line, as written: "V = Q/A", "check velocity: V <= 8 ft/s". */
+static void stmt_text(const Evaluated *ev, const Stmt *s, StrBuf *out)
+{
+    switch (s->kind) {
+    case STMT_DEF:
+        sb_printf(out, "%s = ", s->name);
+        render_expr_text(ev, s->expr, false, out);
+        break;
+    case STMT_SOLVE:
+        sb_printf(out, "%s = solve %s where ", s->name, s->var);
+        render_expr_text(ev, s->lhs, false, out);
+        sb_puts(out, " = ");
+        render_expr_text(ev, s->rhs, false, out);
+        break;
+    case STMT_CHECK:
+        sb_printf(out, "check %s: ", s->label);
+        render_expr_text(ev, s->lhs, false, out);
+        sb_printf(out, " %s ", cmp_text(s->cmp));
+        render_expr_text(ev, s->rhs, false, out);
+        break;
+    case STMT_PATH:
+        sb_printf(out, "path %s (%zu segments)", s->name, s->path ? s->path->nsegs : (size_t)0);
+        break;
+    default:
+        break;
+    }
+}
+
+static const char *stmt_title(const Stmt *s)
+{
+    return s->kind == STMT_CHECK ? s->label : s->name;
+}
+
+static void put_stmts(const Diff *d, StrBuf *out)
+{
+    sb_printf(out, "\nstatements (%zu):\n", d->nstmts);
+    for (size_t i = 0; i < d->nstmts; i++) {
+        const StmtChange *c = &d->stmts[i];
+        const Stmt *os = c->old_slot >= 0 ? d->old_ev->doc->stmts[c->old_slot] : NULL;
+        const Stmt *ns = c->new_slot >= 0 ? d->new_ev->doc->stmts[c->new_slot] : NULL;
+        switch (c->kind) {
+        case STMT_RENAMED:
+            sb_printf(out, "  renamed  %s%s → %s", ns->kind == STMT_CHECK ? "check " : "", stmt_title(os), stmt_title(ns));
+            break;
+        case STMT_ADDED:
+            sb_puts(out, "  added    ");
+            stmt_text(d->new_ev, ns, out);
+            break;
+        case STMT_REMOVED:
+            sb_puts(out, "  removed  ");
+            stmt_text(d->old_ev, os, out);
+            break;
+        }
+        put_line(d, c->new_slot, c->old_slot, out);
+        sb_putc(out, '\n');
+    }
+}
+
+static void put_cites(const Stmt *s, StrBuf *out)
+{
+    if (!s->ncites)
+        sb_puts(out, "(none)");
+    for (size_t k = 0; k < s->ncites; k++)
+        sb_printf(out, "%s[%s]", k ? " " : "", s->cites[k].key);
+}
+
+static void put_citations(const Diff *d, StrBuf *out)
+{
+    const Document *od = d->old_ev->doc, *nd = d->new_ev->doc;
+    sb_printf(out, "\ncitations (%zu):\n", d->ncites);
+    for (size_t i = 0; i < d->ncites; i++) {
+        const CiteChange *c = &d->cites[i];
+        switch (c->kind) {
+        case CITE_SOURCE_CHANGED:
+            sb_printf(out, "  source [%s]: \"%s\" → \"%s\"  [line %d]\n", nd->sources[c->new_source].key,
+                      od->sources[c->old_source].text, nd->sources[c->new_source].text,
+                      nd->sources[c->new_source].pos.line);
+            break;
+        case CITE_SOURCE_ADDED:
+            sb_printf(out, "  source added [%s]: \"%s\"  [line %d]\n", nd->sources[c->new_source].key,
+                      nd->sources[c->new_source].text, nd->sources[c->new_source].pos.line);
+            break;
+        case CITE_SOURCE_REMOVED:
+            sb_printf(out, "  source removed [%s]: \"%s\"  [old line %d]\n", od->sources[c->old_source].key,
+                      od->sources[c->old_source].text, od->sources[c->old_source].pos.line);
+            break;
+        case CITE_STMT_CITES: {
+            const Stmt *os = od->stmts[c->old_slot], *ns = nd->stmts[c->new_slot];
+            sb_printf(out, "  %s%s cites ", ns->kind == STMT_CHECK ? "check " : "", stmt_title(ns));
+            put_cites(os, out);
+            sb_puts(out, " → ");
+            put_cites(ns, out);
+            put_line(d, c->new_slot, c->old_slot, out);
+            sb_putc(out, '\n');
+            break;
+        }
+        }
+    }
+}
+
+static const char *plural(size_t n, const char *one, const char *many)
+{
+    return n == 1 ? one : many;
+}
+
+static void put_prose(const Diff *d, StrBuf *out)
+{
+    sb_printf(out, "\nprose (%zu %s):\n", d->nprose, plural(d->nprose, "section", "sections"));
+    for (size_t i = 0; i < d->nprose; i++) {
+        const ProseChange *c = &d->prose[i];
+        if (c->heading)
+            sb_printf(out, "  section %s%s%s: ", c->number, c->number[0] ? " " : "", c->heading);
+        else
+            sb_puts(out, "  before the first heading: ");
+        switch (c->kind) {
+        case PROSE_ADDED:
+            sb_printf(out, "section added (%zu %s)", c->added, plural(c->added, "paragraph", "paragraphs"));
+            break;
+        case PROSE_REMOVED:
+            sb_printf(out, "section removed (%zu %s)", c->removed, plural(c->removed, "paragraph", "paragraphs"));
+            break;
+        case PROSE_CHANGED: {
+            sb_puts(out, "prose changed (");
+            const char *sep = "";
+            if (c->changed) {
+                sb_printf(out, "%zu %s changed", c->changed, plural(c->changed, "paragraph", "paragraphs"));
+                sep = ", ";
+            }
+            if (c->added) {
+                sb_printf(out, "%s%zu %s", sep, c->added, c->changed ? "added" : plural(c->added, "paragraph added", "paragraphs added"));
+                sep = ", ";
+            }
+            if (c->removed)
+                sb_printf(out, "%s%zu %s", sep, c->removed,
+                          (c->changed || c->added) ? "removed" : plural(c->removed, "paragraph removed", "paragraphs removed"));
+            sb_putc(out, ')');
+            break;
+        }
+        }
+        sb_printf(out, "  [%sline %d]\n", c->kind == PROSE_REMOVED ? "old " : "", c->line);
+    }
+}
+
+static void put_side(const char *which, const Document *doc, StrBuf *out)
+{
+    sb_printf(out, "%s: %s", which, doc->file);
+    if (doc->meta.revision)
+        sb_printf(out, "  revision %s", doc->meta.revision);
+    sb_printf(out, "  sha256 %.12s\n", doc->digest);
+}
+
+static void count(StrBuf *out, const char **sep, size_t n, const char *one, const char *many)
+{
+    if (!n)
+        return;
+    sb_printf(out, "%s%zu %s", *sep, n, plural(n, one, many));
+    *sep = ", ";
+}
+
+bool render_diff_text(const Diff *d, FILE *out)
+{
+    StrBuf sb = {0};
+    put_side("old", d->old_ev->doc, &sb);
+    put_side("new", d->new_ev->doc, &sb);
+    size_t nmeta = 0;
+    if (d->nmeta) {
+        sb_puts(&sb, "\nfront matter:\n");
+        for (size_t i = 0; i < d->nmeta; i++) {
+            const MetaChange *m = &d->meta[i];
+            sb_printf(&sb, "  %s: \"%s\" → \"%s\"%s\n", m->key, m->old_text, m->new_text,
+                      m->display_only ? " (display only)" : "");
+            nmeta += !m->display_only;
+        }
+    }
+    if (d->ninputs)
+        put_inputs(d, &sb);
+    if (d->nresults)
+        put_results(d, &sb);
+    if (d->nchecks)
+        put_checks(d, &sb);
+    if (d->nstmts)
+        put_stmts(d, &sb);
+    if (d->ncites)
+        put_citations(d, &sb);
+    if (d->nprose)
+        put_prose(d, &sb);
+    sb_puts(&sb, "\n");
+    if (!d->changed) {
+        sb_puts(&sb, "no change in meaning\n");
+    } else {
+        size_t flips = 0;
+        for (size_t i = 0; i < d->nchecks; i++)
+            flips += d->checks[i].kind == CHECK_NOW_FAILS || d->checks[i].kind == CHECK_NOW_HOLDS;
+        const char *sep = "";
+        sb_puts(&sb, "changed in meaning: ");
+        count(&sb, &sep, nmeta, "front matter field", "front matter fields");
+        count(&sb, &sep, d->ninputs, "input", "inputs");
+        count(&sb, &sep, d->nresults, "result", "results");
+        count(&sb, &sep, flips, "check flipped", "checks flipped");
+        count(&sb, &sep, d->nchecks - flips, "check changed", "checks changed");
+        count(&sb, &sep, d->nstmts, "statement added, removed or renamed", "statements added, removed or renamed");
+        count(&sb, &sep, d->ncites, "citation", "citations");
+        count(&sb, &sep, d->nprose, "prose section", "prose sections");
+        sb_putc(&sb, '\n');
+    }
+    bool ok = fwrite(sb.data ? sb.data : "", 1, sb.len, out) == sb.len;
+    sb_free(&sb);
+    return ok;
+}
