@@ -109,6 +109,13 @@ bool source_check_text(const char *text, size_t len, const char *display, DiagLi
             i++;
             continue;
         }
+        if (c == '\r' && (i + 1 >= len || s[i + 1] != '\n')) {
+            /* Markdown ends a line at a lone CR; the rest of the tool counts
+             * lines by LF, so positions would disagree. */
+            Pos p = {display, line, col};
+            diag_error(diags, p, "carriage return without a line feed; save the file with LF or CRLF line endings");
+            return false;
+        }
         if ((c < 0x20 && c != '\t' && c != '\r' && c != '\f') || c == 0x7F) {
             Pos p = {display, line, col};
             diag_error(diags, p, "control character (byte 0x%02X) in the source", c);
