@@ -54,6 +54,7 @@ typedef struct Builtin {
     BuiltinFn fn;
     int min_args;
     int max_args;           /* -1: any number */
+    const char *keywords;   /* the keyword arguments it takes, space separated */
     const char *summary;    /* one line for --help and the manual */
 } Builtin;
 

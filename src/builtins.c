@@ -12,12 +12,10 @@
 #include <stdio.h>
 #include <string.h>
 
-#define BUILTIN(name, fn, mn, mx, summary) bool fn(CallCtx *cx, const CallArgs *a, Value *out);
-#include "builtins.def"
-#undef BUILTIN
+#include "builtin_fns.h"
 
 static const Builtin builtins[] = {
-#define BUILTIN(name, fn, mn, mx, summary) {#name, fn, mn, mx, summary},
+#define BUILTIN(name, fn, mn, mx, kw, summary) {#name, fn, mn, mx, kw, summary},
 #include "builtins.def"
 #undef BUILTIN
 };
@@ -91,7 +89,9 @@ bool arg_number(CallCtx *cx, const CallArgs *a, size_t i, Dim want, const char *
     const Value *v = &a->args[i];
     if (v->kind != VAL_NUMBER || !dim_eq(v->q.dim, want)) {
         char want_s[96], got_s[96];
-        dim_describe(want, TEMP_NONE, cx->units, want_s, sizeof want_s);
+        /* A wanted temperature is a point on a scale ("68 degF"). */
+        dim_describe(want, dim_eq(want, DIM_THETA) ? TEMP_ABSOLUTE_OFFSET : TEMP_NONE, cx->units, want_s,
+                     sizeof want_s);
         value_describe(v, cx->units, got_s, sizeof got_s);
         diag_error(cx->diags, arg_pos(a, i), "%s: argument %zu (%s) must be %s, found %s",
                    a->name, i + 1, what, want_s, got_s);

@@ -257,6 +257,28 @@ static bool eval_call(Ctx *c, const Expr *e, Value *out)
                        b->max_args, n);
         return false;
     }
+    /* Keywords are checked here, once for every function, so a misspelt or
+     * unsupported keyword can never be ignored silently. */
+    for (size_t i = 0; i < nk; i++) {
+        const char *k = e->kw_names[i], *list = b->keywords;
+        size_t kl = strlen(k);
+        bool known = false;
+        for (const char *p = list; *p && !known;) {
+            const char *end = strchr(p, ' ');
+            size_t wl = end ? (size_t)(end - p) : strlen(p);
+            known = wl == kl && memcmp(p, k, wl) == 0;
+            p += wl;
+            while (*p == ' ')
+                p++;
+        }
+        if (!known) {
+            if (*list)
+                diag_error(c->diags, e->kw_pos[i], "%s: unknown keyword '%s' (it takes: %s)", b->name, k, list);
+            else
+                diag_error(c->diags, e->kw_pos[i], "%s takes no keyword arguments, found '%s'", b->name, k);
+            return false;
+        }
+    }
     size_t before = c->diags->errors;
     if (!b->fn(c->call, &ca, out)) {
         if (c->diags->errors == before && c->diags->muted == 0)
@@ -614,6 +636,21 @@ static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *c
     res->state = RES_OK;
 }
 
+/* The unit an expression states for itself: a literal's unit, or the
+ * display unit of a plain name; NULL for anything computed. */
+static const Unit *written_unit(const Evaluated *ev, const Expr *e)
+{
+    while (e && e->kind == EXPR_PAREN)
+        e = e->lhs;
+    if (!e)
+        return NULL;
+    if (e->kind == EXPR_NUMBER && e->has_unit)
+        return &e->unit;
+    if (e->kind == EXPR_NAME && e->slot >= 0 && ev->results[e->slot].shown.text[0])
+        return &ev->results[e->slot].shown;
+    return NULL;
+}
+
 static void eval_check(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
 {
     Value l, r;
@@ -651,12 +688,13 @@ static void eval_check(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
     res->utilization = den > 0 && num >= 0 ? num / den : NAN;
     res->lhs = l;
     res->rhs = r;
-    res->lhs_shown = eval_display_unit(ev, &l, NULL);
-    res->rhs_shown = eval_display_unit(ev, &r, NULL);
     /* Both sides in one unit, so a reviewer compares like with like: the
-     * limit's unit if it was written with one, else the left side's. */
-    if (dim_eq(l.q.dim, r.q.dim))
-        res->lhs_shown = res->rhs_shown;
+     * unit the limit was written in (a literal's, or a name's display
+     * unit), else the left side's, else the system's default. */
+    const Unit *written = written_unit(ev, s->rhs);
+    if (!written)
+        written = written_unit(ev, s->lhs);
+    res->lhs_shown = res->rhs_shown = written ? *written : eval_display_unit(ev, &l, NULL);
     res->state = RES_OK;
 }
 

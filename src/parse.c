@@ -351,8 +351,6 @@ static Expr *parse_term(Parser *p)
 /* expr := term (('+' | '-') term)* */
 static Expr *parse_expr(Parser *p)
 {
-    if (!enter(p))
-        return NULL;
     Expr *lhs = parse_term(p);
     while (lhs && (p->tok.kind == TOK_PLUS || p->tok.kind == TOK_MINUS)) {
         Token t = p->tok;
@@ -368,7 +366,6 @@ static Expr *parse_expr(Parser *p)
         e->rhs = rhs;
         lhs = e;
     }
-    p->depth--;
     return lhs;
 }
 

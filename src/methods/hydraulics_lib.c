@@ -21,9 +21,7 @@
 #include <stdio.h>
 #include <string.h>
 
-#define BUILTIN(name, fn, mn, mx, summary) bool fn(CallCtx *cx, const CallArgs *a, Value *out);
-#include "builtins.def"
-#undef BUILTIN
+#include "builtin_fns.h"
 
 /* ---- the published methods ------------------------------------------- */
 

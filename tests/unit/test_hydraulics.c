@@ -17,9 +17,7 @@
 #include "methods/ratings.h"
 #include "methods/surge.h"
 
-#define BUILTIN(name, fn, mn, mx, summary) bool fn(CallCtx *cx, const CallArgs *a, Value *out);
-#include "builtins.def"
-#undef BUILTIN
+#include "builtin_fns.h"
 
 #define PSI 6894.757293168361
 #define INCH 0.0254

@@ -16,9 +16,7 @@
 #include "library.h"
 #include "methods/water.h"
 
-#define BUILTIN(name, fn, mn, mx, summary) bool fn(CallCtx *cx, const CallArgs *a, Value *out);
-#include "builtins.def"
-#undef BUILTIN
+#include "builtin_fns.h"
 
 static void assert_rel(double got, double want, double rel)
 {
