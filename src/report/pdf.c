@@ -405,6 +405,7 @@ static bool build(Pdf *P, const char *path)
     P->env = (MathEnv){&P->arena, &P->metrics, P->ev, P->ev->digits > 0 ? P->ev->digits : 4};
     P->painter = (MathPainter){paint_text, paint_line, paint_curve, P};
     pdf_number_references(P);
+    pdf_number_figures(P);
 
     /* collect and measure */
     Vec items = {0};

@@ -499,7 +499,7 @@ static double fn_note(Pdf *P, const Item *it, double top)
 }
 
 /* The right-margin column of a row: keys, line, verdict. */
-static double row_margin(Pdf *P, const Stmt *st, double top)
+double pdf_row_margin(Pdf *P, const Stmt *st, double top)
 {
     const Sheet *s = &P->sheet;
     const StmtResult *r = &P->ev->results[st->index];
@@ -557,7 +557,7 @@ static double row_margin(Pdf *P, const Stmt *st, double top)
 }
 
 /* A published method under its row: name, number, formula. */
-static double method_line(Pdf *P, const Method *m, int ref, double x, double top, double width)
+double pdf_method_line(Pdf *P, const Method *m, int ref, double x, double top, double width)
 {
     char *head = arena_printf(&P->arena, "%s [%d]%s", m->title ? m->title : m->key, ref,
                               m->formula ? ":" : "");
@@ -707,10 +707,10 @@ static double fn_stmt(Pdf *P, const Item *it, double top)
     for (size_t m = 0; m < r->nmethods; m++)
         for (size_t j = 0; j < P->ev->nmethods; j++)
             if (P->ev->methods[j] == r->methods[m])
-                y -= method_line(P, r->methods[m], P->method_ref[j], x + indent0, y,
+                y -= pdf_method_line(P, r->methods[m], P->method_ref[j], x + indent0, y,
                                  w - indent0);
 
-    double mh = row_margin(P, st, top - 1);
+    double mh = pdf_row_margin(P, st, top - 1);
     double h = top - y;
     if (mh + 1 > h)
         h = mh + 1;
@@ -756,9 +756,19 @@ void pdf_body_items(Pdf *P, Vec *items)
                 const Stmt *st = d->stmts[b->first_stmt + i];
                 if (st->kind == STMT_NOTE)
                     item_add(items, P, fn_note, st, 0, 4);
+                else if (st->kind == STMT_FIGURE && !st->parse_failed)
+                    item_add(items, P, pdf_fn_figure, st, P->figure_no[st->index], 10);
                 else if (!st->parse_failed)
                     item_add(items, P, fn_stmt, st, 0, i == 0 ? 8 : 2);
             }
+            break;
+        case BLK_PATH:
+            if (b->first_stmt < d->nstmts && !d->stmts[b->first_stmt]->parse_failed)
+                pdf_path_items(P, items, d->stmts[b->first_stmt]);
+            break;
+        case BLK_CASES:
+            if (b->first_stmt < d->ncases)
+                pdf_cases_items(P, items, b->first_stmt);
             break;
         case BLK_SOURCES:
         case BLK_HTML:

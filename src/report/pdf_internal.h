@@ -73,6 +73,9 @@ struct Pdf {
     /* the outline: the latest entry per level */
     HPDF_Outline outline[7];
     HPDF_Outline root;
+    /* figures: the number of each figure statement (by statement index), 0 for none */
+    int *figure_no;
+    int nfigures;
     HPDF_STATUS error;       /* first libharu error */
     HPDF_STATUS error_detail;
 };
@@ -101,6 +104,30 @@ void pdf_body_items(Pdf *P, Vec *items);
 /* Rich text: inline nodes wrapped at `width`; draws when P->page. */
 double pdf_inlines(Pdf *P, const Inline *in, FontRole base, double size, double lead, double x,
                    double top, double width);
+
+/* The right-margin column of a statement row (checks' verdict, source keys,
+ * method references, the line); returns its height. */
+double pdf_row_margin(Pdf *P, const Stmt *st, double top);
+/* A published method under its row: title, reference number, formula. */
+double pdf_method_line(Pdf *P, const Method *m, int ref, double x, double top, double width);
+
+/* ---- figures (pdf_figure.c) ----------------------------------------------- */
+/* Number the figure statements in document order (P->figure_no). */
+void pdf_number_figures(Pdf *P);
+/* "Figures 1 and 2": the figures drawn from the statement `slot`, "" if none. */
+void pdf_figures_of(const Pdf *P, int slot, char *buf, size_t n);
+/* A figure statement as one unsplittable item; it->aux is its number. */
+double pdf_fn_figure(Pdf *P, const Item *it, double top);
+
+/* ---- path and case tables (pdf_flow.c) ------------------------------------ */
+/* The items of a path block: its heading, the segment table, the summary. */
+void pdf_path_items(Pdf *P, Vec *items, const Stmt *st);
+/* The items of a cases block: a table of inputs, results and verdicts. */
+void pdf_cases_items(Pdf *P, Vec *items, size_t which);
+/* Case tables with a failing row, for the cover: items after the check summary. */
+void pdf_cases_cover_items(Pdf *P, Vec *items);
+/* The number of case rows, over all case tables, in which a check fails. */
+size_t pdf_case_rows_failing(const Pdf *P);
 
 /* ---- sheets, cover and end matter (pdf_sheet.c) -------------------------- */
 void pdf_sheet_geometry(Pdf *P);

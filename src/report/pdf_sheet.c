@@ -100,13 +100,17 @@ static void draw_watermark(Pdf *P, const char *text)
     HPDF_Page_EndText(pg);
 }
 
+/* A check fails in the calc itself or in one of its cases. */
 static bool any_failed(const Pdf *P)
 {
-    return P->ev->nfailed > 0;
+    return P->ev->nfailed > 0 || pdf_case_rows_failing(P) > 0;
 }
 
 static const char *marking(const Pdf *P)
 {
+    size_t cases = pdf_case_rows_failing(P);
+    if (P->ev->nfailed == 0 && cases > 0)
+        return cases == 1 ? "CHECKS NOT SATISFIED IN ONE CASE" : "CHECKS NOT SATISFIED IN SOME CASES";
     if (any_failed(P))
         return "CHECKS NOT SATISFIED";
     if (P->preliminary)
@@ -544,6 +548,7 @@ void pdf_cover_items(Pdf *P, Vec *items)
             item_add(items, P, fn_summary_row, d->stmts[i], ++no, 0);
     if (no == 0)
         item_add(items, P, fn_summary_none, NULL, 0, 0);
+    pdf_cases_cover_items(P, items);
     section(P, items, "Cautions", false, false);
     caution_items(P, items, true);
 }
