@@ -156,11 +156,11 @@ static void put_checks(const Diff *d, StrBuf *out)
             sb_printf(out, "  FAILS → holds  %s: utilisation %s → %s", label, u0, u1);
             break;
         case CHECK_UTILISATION:
-            sb_printf(out, "  %-15s %s: utilisation %s → %s", d->new_ev->results[c->new_slot].holds ? "holds" : "FAILS",
+            sb_printf(out, "  %-13s  %s: utilisation %s → %s", d->new_ev->results[c->new_slot].holds ? "holds" : "FAILS",
                       label, u0, u1);
             break;
         case CHECK_CONDITION:
-            sb_printf(out, "  %-15s %s: condition rewritten, utilisation %s unchanged",
+            sb_printf(out, "  %-13s  %s: condition rewritten, utilisation %s unchanged",
                       d->new_ev->results[c->new_slot].holds ? "holds" : "FAILS", label, u1);
             break;
         }
