@@ -17,6 +17,7 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "methods/fittings.h"
 #include "methods/friction.h"
 #include "methods/pumps.h"
 
@@ -177,6 +178,17 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
         double K = si->has_K ? si->K.q.si : 0;
         for (size_t k = 0; k < sp->nfittings; k++) {
             const FittingItem *it = &sp->fittings[k];
+            FittingKind fk = fitting_kind_parse(it->kind);
+            if (fk == FIT_EXPANSION || fk == FIT_CONTRACTION) {
+                /* k_fitting needs the other bore as D2=, which a row has no
+                 * place for; say what to do instead of asking for D2=. */
+                diag_error(cx->diags, it->pos,
+                           "fitting '%s' needs the other bore, which a path row cannot give; "
+                           "put its loss coefficient in the K column (k_fitting(\"%s\", D, Re, D2=...))",
+                           it->kind, fitting_kind_name(fk));
+                ok = false;
+                break;
+            }
             Value args[3] = {value_string(it->kind), value_number(qty(g->D, DIM_L)), v_re};
             Pos pos[3] = {it->pos, sp->pipe->pos, sp->flow->pos};
             Value kw = value_string(ps->fittings ? ps->fittings : "crane");

@@ -11,6 +11,8 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "methods/fittings.h"
+#include "methods/friction.h"
 #include "parse.h"
 
 typedef struct Cell {
@@ -109,6 +111,25 @@ static bool is_separator_row(const Cell *cells, size_t n)
             return false;
     }
     return true;
+}
+
+/* A row with the wrong number of cells: a short row is reported where the
+ * first missing cell would go (its closing '|'), naming that column; a long
+ * row at its first cell beyond the header. */
+static void report_row_width(DiagList *diags, const FenceLine *l, const Cell *cells, size_t nc,
+                             const Cell *header, size_t ncols)
+{
+    if (nc > ncols) {
+        diag_error(diags, cells[ncols].pos, "row has %zu cells, the header has %zu: this cell has no column", nc, ncols);
+        return;
+    }
+    size_t e = l->len;
+    while (e > 0 && (l->text[e - 1] == ' ' || l->text[e - 1] == '\t' || l->text[e - 1] == '\r'))
+        e--;
+    Pos p = l->pos;
+    p.col += (int)(e > 0 && l->text[e - 1] == '|' ? e - 1 : e);
+    diag_error(diags, p, "row has %zu cell%s, the header has %zu: the '%.*s' cell is missing", nc, nc == 1 ? "" : "s", ncols,
+               (int)header[nc].len, header[nc].text);
 }
 
 static bool cell_is(const Cell *c, const char *word)
@@ -297,9 +318,21 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
                 ok = false;
             }
         } else if (cell_is(&key, "friction")) {
+            /* Checked here, at the option, rather than once per segment
+             * when the friction factor is called. */
             ps->friction = word_value(a, &value);
+            int m = friction_method_lookup(ps->friction);
+            if (m < 0 || m == FRICTION_LAMINAR) {
+                diag_error(diags, value.pos,
+                           "friction must be colebrook, swamee_jain, haaland or churchill, found '%s'", ps->friction);
+                ok = false;
+            }
         } else if (cell_is(&key, "fittings")) {
             ps->fittings = word_value(a, &value);
+            if (fitting_method_parse(ps->fittings) < 0) {
+                diag_error(diags, value.pos, "fittings must be crane, hooper or darby, found '%s'", ps->fittings);
+                ok = false;
+            }
         } else {
             diag_error(diags, key.pos, "unknown path option '%.*s' (fluid, start, loss, friction, fittings)",
                        (int)key.len, key.text);
@@ -328,6 +361,8 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
         col_of[k] = -1;
     size_t ncols = split_row(&lines[i], cells, MAX_COLUMNS, &too_many);
     Pos header_pos = lines[i].pos;
+    Cell header[MAX_COLUMNS];
+    memcpy(header, cells, ncols * sizeof *cells);
     for (size_t k = 0; k < ncols; k++) {
         int which = -1;
         for (int c = 0; c < NCOLS; c++)
@@ -377,7 +412,7 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
         }
         size_t nc = split_row(l, cells, MAX_COLUMNS, &too_many);
         if (nc != ncols) {
-            diag_error(diags, l->pos, "row has %zu cells, the header has %zu", nc, ncols);
+            report_row_width(diags, l, cells, nc, header, ncols);
             ok = false;
             continue;
         }
@@ -532,6 +567,9 @@ CaseTable *tables_parse_cases(Arena *a, Pos at, const FenceLine *lines, size_t n
         }
     }
     ct->ninputs = ncols;
+    Cell header_cells[MAX_COLUMNS];
+    memcpy(header_cells, cells, ncols * sizeof *cells);
+    bool saw_row = false;
     size_t cap = n > first_row ? n - first_row : 0;
     ct->cells = arena_alloc(a, (cap * ncols + 1) * sizeof *ct->cells);
     ct->row_pos = arena_alloc(a, (cap + 1) * sizeof *ct->row_pos);
@@ -539,9 +577,10 @@ CaseTable *tables_parse_cases(Arena *a, Pos at, const FenceLine *lines, size_t n
         const FenceLine *l = &lines[i];
         if (!is_table_line(l))
             continue;
+        saw_row = true;
         size_t nc = split_row(l, cells, MAX_COLUMNS, &too_many);
         if (nc != ncols) {
-            diag_error(diags, l->pos, "row has %zu cells, the header has %zu", nc, ncols);
+            report_row_width(diags, l, cells, nc, header_cells, ncols);
             ok = false;
             continue;
         }
@@ -558,7 +597,7 @@ CaseTable *tables_parse_cases(Arena *a, Pos at, const FenceLine *lines, size_t n
         }
         ct->row_pos[ct->nrows++] = l->pos;
     }
-    if (ct->nrows == 0) {
+    if (ct->nrows == 0 && !saw_row) {
         diag_error(diags, header->pos, "cases table has no rows");
         ok = false;
     }
