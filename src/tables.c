@@ -249,7 +249,7 @@ static const char *const column_names[NCOLS] = {"segment", "flow", "pipe", "leng
 static const bool column_required[NCOLS] = {true, true, true, true, true, false, false, false};
 
 /* A segment id as a record field: letters, digits and '_' kept, anything
- * else becomes '_' ("S-1" -> "S_1"); a leading digit gets "S_". */
+ * else becomes '_' ("S-1" -> "S_1"); a leading digit gets "s_" ("3" -> "s_3"). */
 static const char *field_name(Arena *a, const char *id)
 {
     size_t n = strlen(id);
