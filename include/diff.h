@@ -99,11 +99,13 @@ typedef struct CiteChange {
 typedef enum ProseChangeKind { PROSE_CHANGED, PROSE_ADDED, PROSE_REMOVED } ProseChangeKind;
 
 /* A section of prose (the blocks under one heading, and the calc notes in
- * it) that differs. Paragraphs are counted, not diffed line by line. */
+ * it) that differs. Paragraphs are counted, not diffed line by line.
+ * Sections match by heading text, then a reworded heading by its number. */
 typedef struct ProseChange {
     ProseChangeKind kind;
     const char *number;      /* "2.1", "" before the first heading */
     const char *heading;     /* plain text; NULL before the first heading */
+    const char *old_heading; /* PROSE_CHANGED: the heading as OLD had it, when reworded */
     int line;                /* in NEW (in OLD when removed) */
     size_t changed, added, removed;  /* paragraphs */
 } ProseChange;

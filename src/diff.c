@@ -795,10 +795,17 @@ static void compare_prose(Builder *b)
                 ns[i].other = (int)k;
                 break;
             }
+    /* A reworded heading: the unmatched sections of the same number. */
+    for (size_t i = 1; i < nn; i++)
+        for (size_t k = 1; k < no && ns[i].other < 0; k++)
+            if (os[k].other < 0 && strcmp(os[k].heading->number, ns[i].heading->number) == 0) {
+                os[k].other = (int)i;
+                ns[i].other = (int)k;
+            }
     for (size_t i = 0; i < nn; i++) {
         Section *s = &ns[i];
         ProseChange c = {PROSE_CHANGED, s->heading ? s->heading->number : "", s->heading ? s->title : NULL,
-                         s->line, 0, 0, 0};
+                         NULL, s->line, 0, 0, 0};
         if (s->other < 0) {
             c.kind = PROSE_ADDED;
             c.added = s->npara;
@@ -809,6 +816,11 @@ static void compare_prose(Builder *b)
             continue;
         }
         Section *o = &os[s->other];
+        bool reworded = strcmp(o->title, s->title) != 0;
+        if (reworded) {
+            c.old_heading = o->title;
+            marks[nmarks++] = (BlockMark){s->heading, MARK_CHANGED};
+        }
         for (size_t p = 0; p < s->npara; p++)
             for (size_t q = 0; q < o->npara; q++)
                 if (!o->paras[q].matched && strcmp(o->paras[q].text, s->paras[p].text) == 0) {
@@ -820,7 +832,7 @@ static void compare_prose(Builder *b)
             un += !s->paras[p].matched;
         for (size_t q = 0; q < o->npara; q++)
             uo += !o->paras[q].matched;
-        if (!un && !uo)
+        if (!un && !uo && !reworded)
             continue;
         c.changed = un < uo ? un : uo;
         c.added = un - c.changed;
@@ -833,7 +845,7 @@ static void compare_prose(Builder *b)
     }
     for (size_t k = 1; k < no; k++)
         if (os[k].other < 0) {
-            ProseChange c = {PROSE_REMOVED, os[k].heading->number, os[k].title, os[k].line, 0, 0, os[k].npara};
+            ProseChange c = {PROSE_REMOVED, os[k].heading->number, os[k].title, NULL, os[k].line, 0, 0, os[k].npara};
             PUSH(d->prose, d->nprose, b->cap_prose, c);
         }
     qsort(marks, nmarks, sizeof *marks, cmp_block_mark);

@@ -11,7 +11,8 @@
  *                  "old_utilization", "new_utilization", "condition_changed"}],
  *     "statements": [{"change", "kind", "name", "old_name", "line", "old_line"}],
  *     "citations":  [{"change", "key", "old", "new", "name", "line"}],
- *     "prose": [{"section", "number", "change", "line", "paragraphs_changed",
+ *     "prose": [{"section", "number", "change", "line", "old_section" (a reworded
+ *                heading), "paragraphs_changed",
  *                "paragraphs_added", "paragraphs_removed"}] }
  * A value ("old", "new") is {"si", "si_unit", "text"} for a number (text in
  * the unit the document shows it in), {"text"} for a string and null when
@@ -220,6 +221,8 @@ bool render_diff_json(const Diff *d, FILE *out)
         json_object_set_new(o, "section", text_or_null(c->heading));
         json_object_set_new(o, "number", json_string(c->number));
         json_object_set_new(o, "change", json_string(pk[c->kind]));
+        if (c->old_heading)
+            json_object_set_new(o, "old_section", json_string(c->old_heading));
         json_object_set_new(o, c->kind == PROSE_REMOVED ? "old_line" : "line", json_integer(c->line));
         json_object_set_new(o, "paragraphs_changed", json_integer((json_int_t)c->changed));
         json_object_set_new(o, "paragraphs_added", json_integer((json_int_t)c->added));

@@ -304,6 +304,12 @@ static void put_prose(const Diff *d, StrBuf *out)
             sb_printf(out, "section removed (%zu %s)", c->removed, plural(c->removed, "paragraph", "paragraphs"));
             break;
         case PROSE_CHANGED: {
+            if (c->old_heading) {
+                sb_printf(out, "heading reworded from \"%s\"", c->old_heading);
+                if (!c->changed && !c->added && !c->removed)
+                    break;
+                sb_puts(out, ", ");
+            }
             sb_puts(out, "prose changed (");
             const char *sep = "";
             if (c->changed) {
