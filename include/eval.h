@@ -86,6 +86,7 @@ typedef struct StmtResult {
 /* A parametric case table, evaluated: per row, the shown values and every
  * check's verdict. */
 typedef struct CaseRow {
+    Value *inputs;           /* table->ninputs: the row's values of the inputs */
     Value *shown;            /* table->nshow */
     Unit *shown_unit;
     bool *shown_ok;
@@ -113,6 +114,7 @@ typedef struct Evaluated {
     size_t nchecks, nfailed; /* checks evaluated, checks that fail */
     CaseResult *cases;       /* doc->ncases */
     size_t ncases;
+    size_t case_rows_failing;/* over every case table: rows where a check fails */
 } Evaluated;
 
 /* Evaluate every statement. Errors and validity warnings go to `diags`. */

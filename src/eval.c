@@ -887,8 +887,21 @@ static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagL
     }
     CallCtx cc = {a, diags, ev->units, {0}, 0};
     Ctx c = {ev, doc, diags, &cc, 0};
+    /* The shown expressions are checked once, with the calc's own values and
+     * errors reported, so a bad field or dimension is an error, not a
+     * silent "not evaluated" in every row. */
+    bool shown_ok = true;
+    for (size_t k = 0; k < ct->nshow; k++) {
+        Value v;
+        c.upstream = 0;
+        if (ct->show_exprs[k] && !eval_expr(&c, ct->show_exprs[k], &v) && !c.upstream)
+            shown_ok = false;
+    }
+    if (!shown_ok)
+        return;
     for (size_t r = 0; r < ct->nrows; r++) {
         CaseRow *row = &cr->rows[r];
+        row->inputs = arena_alloc(a, (ni + 1) * sizeof *row->inputs);
         bool ok = true;
         for (size_t k = 0; k < ni; k++) {
             const Expr *e = ct->cells[r * ni + k];
@@ -907,6 +920,7 @@ static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagL
                 continue;
             }
             ev->results[slots[k]].value = v;
+            row->inputs[k] = v;
         }
         if (!ok) {
             for (size_t k = 0; k < ni; k++)
@@ -973,8 +987,10 @@ Evaluated *eval_document(Document *doc, DiagList *diags)
     check_block_inlines(ev, doc->blocks, diags);
     ev->ncases = doc->ncases;
     ev->cases = arena_alloc(&doc->arena, (doc->ncases + 1) * sizeof *ev->cases);
-    for (size_t i = 0; i < doc->ncases; i++)
+    for (size_t i = 0; i < doc->ncases; i++) {
         eval_cases(ev, doc->cases[i], &ev->cases[i], diags);
+        ev->case_rows_failing += ev->cases[i].rows_failing;
+    }
     ev->nmethods = all.len;
     ev->methods = arena_alloc(&doc->arena, (all.len + 1) * sizeof *ev->methods);
     for (size_t i = 0; i < all.len; i++)

@@ -132,10 +132,13 @@ static int cmd_check(int argc, char **argv)
         if (dl.errors) {
             if (status < EXIT_INPUT)
                 status = EXIT_INPUT;
-        } else if (ev->nfailed && status == EXIT_HOLDS) {
-            status = EXIT_CHECK_FAILS;
+        } else if ((ev->nfailed || ev->case_rows_failing) && status == EXIT_HOLDS) {
+            status = EXIT_CHECK_FAILS; /* a check failing in a case row fails too */
         }
         if (!json) {
+            if (ev->case_rows_failing)
+                printf("%s: checks fail in %zu case row%s\n", doc->file, ev->case_rows_failing,
+                       ev->case_rows_failing == 1 ? "" : "s");
             printf("%s: %zu check%s, %zu hold%s, %zu fail%s%s\n", doc->file, ev->nchecks,
                    ev->nchecks == 1 ? "" : "s", ev->nchecks - ev->nfailed,
                    ev->nchecks - ev->nfailed == 1 ? "s" : "", ev->nfailed, ev->nfailed == 1 ? "s" : "",
@@ -295,7 +298,7 @@ static int cmd_build(int argc, char **argv)
         status = out ? write_report(ev, fmt, out, &wl) : EXIT_IO;
         diag_free(&wl);
         free(def);
-        if (status == 0 && strict && ev->nfailed)
+        if (status == 0 && strict && (ev->nfailed || ev->case_rows_failing))
             status = EXIT_CHECK_FAILS;
     }
     diag_free(&dl);

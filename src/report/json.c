@@ -199,6 +199,10 @@ static json_t *cases_json(const Evaluated *ev, size_t which)
         const CaseRow *row = &cr->rows[r];
         json_t *ro = json_object();
         json_object_set_new(ro, "line", json_integer(ct->row_pos[r].line));
+        json_t *iv = json_object();
+        for (size_t k = 0; row->inputs && k < ct->ninputs; k++)
+            json_object_set_new(iv, ct->inputs[k], value_json(ev, &row->inputs[k], NULL));
+        json_object_set_new(ro, "inputs", iv);
         json_t *sv = json_object();
         for (size_t k = 0; k < ct->nshow; k++) {
             if (row->shown && row->shown_ok[k])
