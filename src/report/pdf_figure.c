@@ -304,7 +304,7 @@ static size_t legend_entries(Pdf *P, const FigureData *fd, const Axis *ax, Legen
     }
     if (fd->nmarkers && n < cap)
         out[n++] = (LegendEntry){1, 0,
-                                 strcmp(fd->kind, "moody") == 0 ? "operating points of the calc, by segment"
+                                 strcmp(fd->kind, "moody") == 0 ? "operating points of the calc"
                                  : fd->nmarkers == 1            ? fd->markers[0].label
                                                                 : "marked points"};
     return n;
@@ -584,7 +584,8 @@ double pdf_fn_figure(Pdf *P, const Item *it, double top)
         stroke_rgb(P, INK);
         /* the friction chart names its band, over the grid */
         if (strcmp(fd->kind, "moody") == 0 && isfinite(fd->band_lo) && isfinite(fd->band_hi)) {
-            double pa = axis_map(&ax, fd->band_lo), pb = axis_map(&ax, fd->band_hi);
+            double pa = axis_map(&ax, shown(fd->band_lo, &fd->x_unit, fd->log_x));
+            double pb = axis_map(&ax, shown(fd->band_hi, &fd->x_unit, fd->log_x));
             double tw = pdf_width(P, FONT_SANS, 6.6, "transition");
             if (pb - pa > 9 && pa >= plot_l && pb <= plot_r) {
                 pdf_fill(P, (pa + pb) / 2 - 4, plot_b + plot_h * 0.16 - tw / 2 - 2, 8, tw + 4, BAND);

@@ -538,13 +538,16 @@ static double fn_case_table(Pdf *P, const Item *it, double top)
         if (!L.per_check && row->holds) {
             StrBuf sb = {0};
             if (row->nfailed == 0)
-                sb_puts(&sb, "all hold");
+                sb_puts(&sb, "all checks hold");
             else {
                 sb_puts(&sb, "FAILS:");
+                bool lead = true;
                 for (size_t k = 0; k < cr->nchecks; k++)
-                    if (!row->holds[k])
-                        sb_printf(&sb, " %s%s;", case_check(P, cr, k)->label,
+                    if (!row->holds[k]) {
+                        sb_printf(&sb, "%s %s%s", lead ? "" : ",", case_check(P, cr, k)->label,
                                   row->check_ok[k] ? "" : " (not evaluated)");
+                        lead = false;
+                    }
             }
             list = arena_strdup(&P->arena, sb_str(&sb));
             sb_free(&sb);
