@@ -158,9 +158,15 @@ static void convert_one_inline(Md *m, cmark_node *n, Inline ***link, int depth)
     Inline *in = NULL;
     switch (cmark_node_get_type(n)) {
     case CMARK_NODE_TEXT: {
+        /* Text that cmark re-parsed (a paragraph cut short by a table) has
+         * no position: take the nearest enclosing node's. */
+        cmark_node *placed = n;
+        while (cmark_node_get_start_line(placed) == 0 && cmark_node_parent(placed))
+            placed = cmark_node_parent(placed);
+        int line = cmark_node_get_start_line(placed) > 0 ? cmark_node_get_start_line(placed) : 1;
+        int col = cmark_node_get_start_column(placed) > 0 ? cmark_node_get_start_column(placed) : 1;
         Inline **tail;
-        Inline *first = split_text(m, cmark_node_get_literal(n), cmark_node_get_start_line(n),
-                                   cmark_node_get_start_column(n), &tail);
+        Inline *first = split_text(m, cmark_node_get_literal(n), line, col, &tail);
         if (first) {
             **link = first;
             *link = tail;

@@ -459,7 +459,7 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
             }
         }
         for (size_t k = 0; k < ps->nsegs && seg->field; k++)
-            if (strcmp(ps->segs[k].field, seg->field) == 0) {
+            if (ps->segs[k].field && strcmp(ps->segs[k].field, seg->field) == 0) {
                 diag_error(diags, seg->pos, "segment '%s' is already in this path at line %d", seg->id, ps->segs[k].pos.line);
                 row_ok = false;
             }
