@@ -8,7 +8,8 @@
  * result, broken before a relation when too wide and set smaller when a
  * single piece cannot fit), the published method it used, and in the right
  * margin its source keys (linked to the references), its source line and,
- * for a check, the verdict. */
+ * for a check, the verdict. Path and cases blocks hand over to pdf_flow.c,
+ * figure statements to pdf_figure.c. */
 #include "report/pdf_internal.h"
 
 #include <math.h>

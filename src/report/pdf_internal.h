@@ -1,8 +1,8 @@
 /* pdf_internal.h — what the PDF renderer's files share.
  *
  * The report is built in two passes over one list of items (cover blocks,
- * headings, paragraphs, calc rows, tables, reference entries, listing
- * lines). Each item has one function that both measures and draws it: with
+ * headings, paragraphs, calc rows, tables, path and case tables, figures,
+ * reference entries, listing lines). Each item has one function that both measures and draws it: with
  * no current page it only returns its height; with a page it draws at the
  * given top and returns the same height. pagelayout.c assigns the measured
  * items to sheets, so the sheet count is known before the first sheet is
