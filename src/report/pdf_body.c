@@ -704,10 +704,11 @@ static double fn_stmt(Pdf *P, const Item *it, double top)
                                sr->iterations, lo, hi, vt, res, ut);
         y -= pdf_wrap(P, FONT_SERIF_ITALIC, 8, 10, x + indent0, y, w - indent0, t) + 1;
     }
-    /* the published methods the line used */
+    /* the published methods the line used: the formula at first use, the
+     * reference number in the margin every time */
     for (size_t m = 0; m < r->nmethods; m++)
         for (size_t j = 0; j < P->ev->nmethods; j++)
-            if (P->ev->methods[j] == r->methods[m])
+            if (P->ev->methods[j] == r->methods[m] && P->method_first[j] == st->index)
                 y -= pdf_method_line(P, r->methods[m], P->method_ref[j], x + indent0, y,
                                  w - indent0);
 

@@ -67,6 +67,7 @@ struct Pdf {
     /* references: numbers per source and per used method, and where they sit */
     int *source_ref;
     int *method_ref;
+    int *method_first;       /* by method: the statement that shows its formula (first use) */
     int nrefs;
     int *ref_page;           /* by reference number */
     double *ref_y;

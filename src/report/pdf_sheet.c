@@ -66,11 +66,31 @@ static void cell(Pdf *P, double x, double y, double w, double h, const char *lab
     pdf_rect(P, x, y, w, h, 0.5);
     if (label && *label)
         pdf_text_color(P, FONT_SANS, 5.6, x + 3, y + h - 7, label, GREY);
-    /* shrink a long value to fit its cell */
-    double size = vsize;
-    while (size > 5 && pdf_width(P, vf, size, value) > w - 6)
+    /* shrink a long value to fit its cell; below 6.5 pt, set it on two
+     * lines instead, broken at the space nearest the middle */
+    double size = vsize, room = w - 6;
+    while (size > 6.5 && pdf_width(P, vf, size, value) > room)
         size -= 0.25;
-    pdf_text(P, vf, size, x + 3, y + 4.5, value);
+    if (pdf_width(P, vf, size, value) <= room) {
+        pdf_text(P, vf, size, x + 3, y + 4.5, value);
+        return;
+    }
+    size_t n = strlen(value), best = 0;
+    for (size_t i = 1; i < n; i++)
+        if (value[i] == ' ' && (best == 0 || (i > n / 2 ? i - n / 2 : n / 2 - i) < (best > n / 2 ? best - n / 2 : n / 2 - best)))
+            best = i;
+    if (best == 0) { /* one long word: smallest size, clipped by the cell */
+        pdf_text(P, vf, 5, x + 3, y + 4.5, value);
+        return;
+    }
+    char first[256];
+    snprintf(first, sizeof first, "%.*s", (int)(best < sizeof first ? best : sizeof first - 1), value);
+    const char *second = value + best + 1;
+    size = 6.5;
+    while (size > 4.5 && (pdf_width(P, vf, size, first) > room || pdf_width(P, vf, size, second) > room))
+        size -= 0.25;
+    pdf_text(P, vf, size, x + 3, y + 2.6 + size + 0.4, first);
+    pdf_text(P, vf, size, x + 3, y + 2.6, second);
 }
 
 static void dated(char *buf, size_t n, const char *who, const char *date)
@@ -566,6 +586,18 @@ void pdf_number_references(Pdf *P)
         P->source_ref[i] = ++n;
     for (size_t i = 0; i < ev->nmethods; i++)
         P->method_ref[i] = ++n;
+    /* A method's formula is set out under the first statement that uses it;
+     * later statements cite it by number only. */
+    P->method_first = arena_alloc(&P->arena, (ev->nmethods + 1) * sizeof(int));
+    for (size_t i = 0; i < ev->nmethods; i++) {
+        P->method_first[i] = -1;
+        for (size_t k = 0; k < d->nstmts && P->method_first[i] < 0; k++)
+            for (size_t m = 0; m < ev->results[k].nmethods; m++)
+                if (ev->results[k].methods[m] == ev->methods[i]) {
+                    P->method_first[i] = (int)k;
+                    break;
+                }
+    }
     P->nrefs = n;
     P->ref_page = arena_alloc(&P->arena, (size_t)(n + 1) * sizeof(int));
     P->ref_y = arena_alloc(&P->arena, (size_t)(n + 1) * sizeof(double));
