@@ -22,6 +22,15 @@ bool render_json(const Evaluated *const *evs, const DiagList *diags, size_t nfil
 /* The sealed-style PDF report, written to `path`. */
 bool render_pdf(const Evaluated *ev, const char *path, DiagList *diags);
 
+/* The same report with revision marks (`build --since`): every statement,
+ * check and prose block that `since` (the Diff of an earlier revision and
+ * this one) marks changed or added gets a change bar and a revision triangle
+ * with this revision's letter; the cover's revision table names the
+ * revision; an appendix lists the changes since revision `since_label`. */
+struct Diff;
+bool render_pdf_since(const Evaluated *ev, const struct Diff *since, const char *since_label,
+                      const char *path, DiagList *diags);
+
 /* How a name is shown: a leading Greek word becomes the letter and the part
  * after the first '_' a subscript: "rho_w" -> base "ρ", sub "w"; "h_f" ->
  * "h", "f". Delta is the difference operator, so "Delta_z" -> base "Δz" and

@@ -36,7 +36,7 @@ static const char usage_text[] =
     "\n"
     "  headroom check FILE... [--json]\n"
     "      evaluate; print diagnostics and a summary of the checks\n"
-    "  headroom build FILE [-o OUT] [--format pdf|text|json] [--strict]\n"
+    "  headroom build FILE [-o OUT] [--format pdf|text|json] [--strict] [--since OLD]\n"
     "      write the report (default: FILE without .md/.calc, plus .pdf)\n"
     "  headroom new KIND [FILE]\n"
     "      write a commented starter calc (riser, pump-line, pipe-rating)\n"
@@ -176,8 +176,10 @@ static int cmd_check(int argc, char **argv)
 
 typedef enum Format { FMT_PDF, FMT_TEXT, FMT_JSON } Format;
 
-/* Render into a temporary file beside `out`, then rename it into place. */
-static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagList *dl)
+/* Render into a temporary file beside `out`, then rename it into place.
+ * `since` (PDF only): the changes to mark, since revision `since_label`. */
+static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagList *dl,
+                        const Diff *since, const char *since_label)
 {
     if (fmt != FMT_PDF && strcmp(out, "-") == 0) {
         bool ok = fmt == FMT_TEXT ? render_text(ev, stdout) : render_json(&ev, dl, 1, stdout);
@@ -197,7 +199,7 @@ static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagLi
     bool ok;
     if (fmt == FMT_PDF) {
         close(fd);
-        ok = render_pdf(ev, tmp, dl);
+        ok = render_pdf_since(ev, since, since_label, tmp, dl);
     } else {
         FILE *f = fdopen(fd, "wb");
         if (!f) {
@@ -227,9 +229,21 @@ static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagLi
     return ok ? 0 : EXIT_IO;
 }
 
+/* One revision for diff and build --since: a file or REV:path, evaluated.
+ * Its diagnostics are printed; NULL when it cannot be read or has errors. */
+static Evaluated *load_revision(const char *arg, DiagList *dl, Document **doc)
+{
+    Evaluated *ev = NULL;
+    *doc = revision_load(arg, dl);
+    if (*doc)
+        ev = eval_document(*doc, dl);
+    print_diags(dl, *doc);
+    return *doc && !dl->errors ? ev : NULL;
+}
+
 static int cmd_build(int argc, char **argv)
 {
-    const char *file = NULL, *out = NULL;
+    const char *file = NULL, *out = NULL, *since = NULL;
     Format fmt = FMT_PDF;
     bool strict = false;
     for (int i = 0; i < argc; i++) {
@@ -249,12 +263,20 @@ static int cmd_build(int argc, char **argv)
             }
         } else if (strcmp(argv[i], "--strict") == 0) {
             strict = true;
+        } else if (strcmp(argv[i], "--since") == 0 && i + 1 < argc) {
+            since = argv[++i];
         } else if (strcmp(argv[i], "--help") == 0) {
             fputs("usage: headroom build FILE [-o OUT] [--format pdf|text|json] [--strict]\n"
+                  "                      [--since OLD]\n"
                   "Write the report. PDF goes to OUT or to FILE without .md/.calc plus .pdf;\n"
                   "text and JSON go to OUT or standard output. Nothing is written when the\n"
                   "input has errors (exit 2). A failing check is shown on the cover; the exit\n"
-                  "status is 0 unless --strict, then 1.\n",
+                  "status is 0 unless --strict, then 1.\n"
+                  "--since OLD (a file or REV:path, as for diff; PDF only) marks every\n"
+                  "statement, check and prose block that changed in meaning since OLD with a\n"
+                  "change bar and a triangle holding FILE's revision, adds the revision to\n"
+                  "the cover's table and lists the changes in an appendix. Errors in OLD, or\n"
+                  "no revision in FILE's front matter, are exit 2 with nothing written.\n",
                   stdout);
             return 0;
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
@@ -271,6 +293,10 @@ static int cmd_build(int argc, char **argv)
         fputs("headroom build: no FILE given\n", stderr);
         return EXIT_INPUT;
     }
+    if (since && fmt != FMT_PDF) {
+        fputs("headroom build: --since marks revisions in the PDF report; drop --format\n", stderr);
+        return EXIT_INPUT;
+    }
     DiagList dl = {0};
     Document *doc = doc_load(file, &dl);
     if (!doc) {
@@ -280,7 +306,26 @@ static int cmd_build(int argc, char **argv)
     }
     Evaluated *ev = eval_document(doc, &dl);
     int status;
-    if (dl.errors) {
+    DiagList old_dl = {0};
+    Document *old_doc = NULL;
+    Evaluated *old_ev = NULL;
+    Diff *diff = NULL;
+    bool old_bad = false;
+    if (!dl.errors && since) {
+        if (!doc->meta.revision || !doc->meta.revision[0]) {
+            diag_error(&dl, ((Pos){doc->file, 1, 1}),
+                       "--since needs a 'revision' in the front matter: the letter that marks "
+                       "the changes");
+        } else if ((old_ev = load_revision(since, &old_dl, &old_doc)) == NULL) {
+            fprintf(stderr, "headroom build: the earlier revision '%s' cannot be used; nothing "
+                            "written\n", since);
+            old_bad = true;
+        } else {
+            DiffOptions opt = diff_options_default();
+            diff = diff_compute(old_ev, ev, &opt);
+        }
+    }
+    if (dl.errors || old_bad) {
         print_diags(&dl, doc);
         status = EXIT_INPUT;
     } else {
@@ -295,12 +340,19 @@ static int cmd_build(int argc, char **argv)
             }
         }
         DiagList wl = {0};
-        status = out ? write_report(ev, fmt, out, &wl) : EXIT_IO;
+        const char *label = !diff ? NULL
+                            : old_doc->meta.revision && old_doc->meta.revision[0] ? old_doc->meta.revision
+                                                                                  : since;
+        status = out ? write_report(ev, fmt, out, &wl, diff, label) : EXIT_IO;
         diag_free(&wl);
         free(def);
         if (status == 0 && strict && (ev->nfailed || ev->case_rows_failing))
             status = EXIT_CHECK_FAILS;
     }
+    if (diff)
+        diff_free(diff);
+    diag_free(&old_dl);
+    doc_free(old_doc);
     diag_free(&dl);
     doc_free(doc);
     return status;
@@ -421,14 +473,9 @@ static int cmd_diff(int argc, char **argv)
     Document *doc[2] = {NULL, NULL};
     Evaluated *ev[2] = {NULL, NULL};
     int status = 0;
-    for (int k = 0; k < 2; k++) {
-        doc[k] = revision_load(side[k], &dl[k]);
-        if (doc[k])
-            ev[k] = eval_document(doc[k], &dl[k]);
-        print_diags(&dl[k], doc[k]);
-        if (!doc[k] || dl[k].errors)
+    for (int k = 0; k < 2; k++)
+        if (!(ev[k] = load_revision(side[k], &dl[k], &doc[k])))
             status = EXIT_INPUT;
-    }
     if (status == 0) {
         Diff *d = diff_compute(ev[0], ev[1], &opt);
         bool ok = json ? render_diff_json(d, stdout) : render_diff_text(d, stdout);

@@ -401,6 +401,7 @@ static bool build(Pdf *P, const char *path)
     if (!load_fonts(P))
         return false;
     pdf_sheet_geometry(P);
+    pdf_revision_geometry(P);
     P->metrics = (MathMetrics){metric_width, P, 0.72, 0.22, 0.26};
     P->env = (MathEnv){&P->arena, &P->metrics, P->ev, P->ev->digits > 0 ? P->ev->digits : 4};
     P->painter = (MathPainter){paint_text, paint_line, paint_curve, P};
@@ -412,6 +413,7 @@ static bool build(Pdf *P, const char *path)
     pdf_cover_items(P, &items);
     pdf_body_items(P, &items);
     pdf_end_items(P, &items);
+    pdf_revision_items(P, &items);
     size_t n = items.len;
     PageItem *pi = xcalloc(n ? n : 1, sizeof *pi);
     PagePlace *place = xcalloc(n ? n : 1, sizeof *place);
@@ -453,6 +455,7 @@ static bool build(Pdf *P, const char *path)
             if (it->outline)
                 outline_add(P, it, place[i].page, top);
             it->fn(P, it, top);
+            pdf_revision_mark(P, it, top);
         }
         P->page = NULL;
     }
@@ -493,8 +496,16 @@ static bool build(Pdf *P, const char *path)
 
 bool render_pdf(const Evaluated *ev, const char *path, DiagList *diags)
 {
+    return render_pdf_since(ev, NULL, NULL, path, diags);
+}
+
+bool render_pdf_since(const Evaluated *ev, const Diff *since, const char *since_label,
+                      const char *path, DiagList *diags)
+{
     Pdf *P = xcalloc(1, sizeof *P);
     P->ev = ev;
+    P->since = since;
+    P->since_label = since_label;
     P->d = ev->doc;
     P->diags = diags;
     P->governing = -1;

@@ -779,6 +779,7 @@ void pdf_body_items(Pdf *P, Vec *items)
             item_add(items, P, fn_block, b, 0, 7);
             break;
         }
+        pdf_revision_tag(P, items, before, b);
         if (first && items->len > before) {
             ((Item *)items->items[before])->layout.break_before = true;
             first = false;

@@ -13,6 +13,7 @@
 
 #include <hpdf.h>
 
+#include "diff.h"
 #include "mathbox.h"
 #include "pagelayout.h"
 #include "render.h"
@@ -33,6 +34,7 @@ struct Item {
     const char *outline;
     int outline_level;       /* 1..6 */
     int ref;                 /* references: the entry's number, else 0 */
+    int rev_mark;            /* revision marks: 0 none, 1 bar and triangle, 2 bar only */
 };
 
 typedef struct Rgb {
@@ -77,6 +79,9 @@ struct Pdf {
     /* figures: the number of each figure statement (by statement index), 0 for none */
     int *figure_no;
     int nfigures;
+    /* revision marks (build --since): the diff from the earlier revision, its name */
+    const Diff *since;
+    const char *since_label;
     HPDF_STATUS error;       /* first libharu error */
     HPDF_STATUS error_detail;
 };
@@ -137,5 +142,24 @@ void pdf_cover_items(Pdf *P, Vec *items);
 void pdf_end_items(Pdf *P, Vec *items);
 void pdf_number_references(Pdf *P);
 bool pdf_status_issued(const char *status);
+/* A section title of the end matter (kept with what follows). */
+Item *pdf_section(Pdf *P, Vec *items, const char *title, bool new_sheet, bool outline);
+
+/* ---- revision marks (pdf_revision.c) ------------------------------------- */
+/* With P->since: narrow the body for the column of marks. */
+void pdf_revision_geometry(Pdf *P);
+/* Tag the items [from, len) made from block `b` that changed since OLD. */
+void pdf_revision_tag(Pdf *P, Vec *items, size_t from, const Block *b);
+/* The change bar and triangle of a tagged item drawn with its top at `top`. */
+void pdf_revision_mark(Pdf *P, const Item *it, double top);
+/* The triangle with the revision letter, the letter's baseline at `base`. */
+void pdf_revision_triangle(Pdf *P, double cx, double base, const char *letter);
+/* The cover's revision table: is `rev` the revision being marked; does the
+ * front matter's list lack it (then a row is added with `note`)? */
+bool pdf_revision_is_current(const Pdf *P, const char *rev);
+bool pdf_revision_row_missing(const Pdf *P);
+const char *pdf_revision_row_note(Pdf *P);
+/* The appendix "Changes since revision X". */
+void pdf_revision_items(Pdf *P, Vec *items);
 
 #endif

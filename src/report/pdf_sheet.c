@@ -236,6 +236,11 @@ static Item *section(Pdf *P, Vec *items, const char *title, bool new_sheet, bool
     return it;
 }
 
+Item *pdf_section(Pdf *P, Vec *items, const char *title, bool new_sheet, bool outline)
+{
+    return section(P, items, title, new_sheet, outline);
+}
+
 static double fn_gap(Pdf *P, const Item *it, double top)
 {
     (void)P;
@@ -271,18 +276,24 @@ static double rev_table(Pdf *P, double x, double top, double w)
     y -= rh;
     pdf_line(P, x, y, x + w, y, 0.4);
     size_t n = m->nrevisions;
-    for (size_t i = 0; i < (n ? n : 1); i++) {
-        const Revision *r = n ? &m->revisions[i] : NULL;
+    size_t rows = (n ? n : 1) + pdf_revision_row_missing(P);
+    for (size_t i = 0; i < rows; i++) {
+        const Revision *r = i < n ? &m->revisions[i] : NULL;
         const char *cells[4] = {r ? or_blank(r->rev) : or_blank(m->revision),
                                 r ? or_blank(r->date) : or_blank(m->date),
                                 r ? or_blank(r->by) : or_blank(m->prepared),
-                                r ? or_blank(r->note) : "(no revision history in the front matter)"};
+                                r ? or_blank(r->note)
+                                  : P->since ? pdf_revision_row_note(P)
+                                             : "(no revision history in the front matter)"};
         double h = pdf_wrap(P, FONT_SERIF, 8, 10, x + cw[0] + cw[1] + cw[2] + 3, y - 3,
                             cw[3] - 6, cells[3]);
         double row = h + 6 > rh ? h + 6 : rh;
         cx = x;
         for (int c = 0; c < 3; c++) {
-            pdf_text(P, FONT_SERIF, 8, cx + 3, y - 9.6, cells[c]);
+            if (c == 0 && pdf_revision_is_current(P, cells[0]))
+                pdf_revision_triangle(P, cx + 10, y - 10, cells[0]);
+            else
+                pdf_text(P, FONT_SERIF, 8, cx + 3, y - 9.6, cells[c]);
             cx += cw[c];
         }
         y -= row;
