@@ -12,6 +12,6 @@
 /* Parse doc->text from byte `body_start` (after the front matter). */
 void markdown_read(Document *doc, size_t body_start, DiagList *diags);
 
-enum { MARKDOWN_MAX_DEPTH = 64 };
+#include "bounds.h" /* MARKDOWN_MAX_DEPTH, SOURCE_MAX_LINE, DOC_MAX_STATEMENTS */
 
 #endif

@@ -11,7 +11,7 @@
 
 #include "doc.h"
 
-enum { PARSE_MAX_DEPTH = 200 };
+#include "bounds.h" /* PARSE_MAX_DEPTH */
 
 /* Parse one line of a calc block. Returns NULL for a blank line; a whole-line
  * comment gives a STMT_NOTE. On a syntax error the statement is returned with

@@ -30,7 +30,7 @@ typedef struct SolveReport {
 /* f returns false when it cannot be evaluated at x (treated as not finite). */
 typedef bool (*SolveFn)(double x, void *ctx, double *fx);
 
-enum { SOLVE_MAX_ITERATIONS = 200 };
+#include "bounds.h" /* SOLVE_MAX_ITERATIONS */
 
 /* Brent (1973), "Algorithms for Minimization without Derivatives", ch. 4:
  * inverse quadratic interpolation with bisection safeguards. Converges when

@@ -12,10 +12,7 @@
 
 #include "diag.h"
 
-enum {
-    SOURCE_MAX_BYTES = 8 * 1024 * 1024,  /* largest calc file accepted */
-    SOURCE_MAX_LINE = 64 * 1024          /* longest line inside a calc block */
-};
+#include "bounds.h" /* SOURCE_MAX_BYTES, SOURCE_MAX_LINE */
 
 /* Read a file ("-": standard input). NULL on an I/O error or an oversize
  * file, reported in diags (an oversize file sets *len above SOURCE_MAX_BYTES,

@@ -109,12 +109,17 @@ static size_t edit_distance(const char *a, const char *b)
 }
 
 /* The closest name defined before `before`, for "did you mean". */
-static const char *closest_name(const Document *doc, const char *name, int before)
+static const char *closest_name(const Document *doc, const char *name, int before, const DiagList *diags)
 {
+    if (diags->errors >= SUGGEST_MAX_ERRORS)
+        return NULL; /* a file of nothing but unknown names: stop searching */
     const char *best = NULL;
     size_t best_d = strlen(name) <= 3 ? 1 : 2;
     best_d++;
-    for (int i = 0; i < before && i < (int)doc->nstmts; i++) {
+    /* The nearest SUGGEST_MAX_NAMES names only, so a file of many unknown
+     * names among many defined ones stays linear. */
+    int first = before > SUGGEST_MAX_NAMES ? before - SUGGEST_MAX_NAMES : 0;
+    for (int i = first; i < before && i < (int)doc->nstmts; i++) {
         const Stmt *s = doc->stmts[i];
         if (!s->name || s->kind == STMT_CHECK)
             continue;
@@ -157,7 +162,7 @@ static int resolve_name(Resolver *r, const char *name, Pos pos)
         diag_error(r->diags, pos, "'%s' is a function; call it as %s(...)", name, name);
         return SLOT_UNRESOLVED;
     }
-    const char *near = closest_name(r->doc, name, r->current);
+    const char *near = closest_name(r->doc, name, r->current, r->diags);
     if (near)
         diag_error(r->diags, pos, "unknown name '%s'; did you mean %s?", name, near);
     else
@@ -334,7 +339,7 @@ static void resolve_inlines(Document *doc, Inline *in, DiagList *diags)
         if (in->kind == INL_VALUE) {
             in->slot = doc_lookup(doc, in->text);
             if (in->slot < 0) {
-                const char *near = closest_name(doc, in->text, (int)doc->nstmts);
+                const char *near = closest_name(doc, in->text, (int)doc->nstmts, diags);
                 if (near)
                     diag_error(diags, in->pos, "unknown name '%s' in an inline value; did you mean %s?", in->text, near);
                 else
@@ -352,12 +357,23 @@ static void resolve_inlines(Document *doc, Inline *in, DiagList *diags)
 static void resolve_cases(Document *doc, DiagList *diags)
 {
     Resolver r = {doc, diags, (int)doc->nstmts, {0}};
+    size_t work = 0;
     for (size_t c = 0; c < doc->ncases; c++) {
         CaseTable *ct = doc->cases[c];
+        /* Each row re-evaluates the calc: bound rows x statements so a file
+         * cannot ask for hours of work. The table is then not evaluated. */
+        work += ct->nrows * (doc->nstmts ? doc->nstmts : 1);
+        if (work > CASES_MAX_WORK) {
+            diag_error(diags, ct->pos,
+                       "too much work in cases: %zu rows of %zu statements pass the limit of %d rows x statements in a file",
+                       ct->nrows, doc->nstmts, CASES_MAX_WORK);
+            ct->nrows = 0;
+            work = CASES_MAX_WORK;
+        }
         for (size_t k = 0; k < ct->ninputs; k++) {
             int slot = doc_lookup(doc, ct->inputs[k]);
             if (slot < 0) {
-                const char *near = closest_name(doc, ct->inputs[k], (int)doc->nstmts);
+                const char *near = closest_name(doc, ct->inputs[k], (int)doc->nstmts, diags);
                 if (near)
                     diag_error(diags, ct->input_pos[k], "cases column '%s' is not an input of the calc; did you mean %s?",
                                ct->inputs[k], near);

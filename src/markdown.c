@@ -28,6 +28,7 @@ typedef struct Md {
     Vec cases;
     int heading_count[6];
     int too_deep;
+    bool too_many;           /* DOC_MAX_STATEMENTS was reported */
 } Md;
 
 static Pos at(const Md *m, int line, int col)
@@ -260,6 +261,17 @@ static void each_fence_line(Md *m, cmark_node *n, void (*fn)(Md *, const char *,
     }
 }
 
+/* Room for one more statement? Reported once, at the first one over. */
+static bool stmt_room(Md *m, Pos pos)
+{
+    if (m->stmts.len < DOC_MAX_STATEMENTS)
+        return true;
+    if (!m->too_many)
+        diag_error(m->diags, pos, "too many statements: the limit is %d in a file", DOC_MAX_STATEMENTS);
+    m->too_many = true;
+    return false;
+}
+
 static void calc_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
 {
     (void)ctx;
@@ -278,7 +290,7 @@ static void calc_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
         s = copy;
     }
     Stmt *st = parse_statement(&m->doc->arena, s, len, pos, m->diags);
-    if (st)
+    if (st && stmt_room(m, st->pos))
         vec_push(&m->stmts, st);
 }
 
@@ -481,7 +493,7 @@ static Block *convert_block(Md *m, cmark_node *n, int depth)
             each_fence_line(m, n, collect_line, &ll);
             if (is_path) {
                 const char *name = path_name(m, info, at_fence);
-                if (name) {
+                if (name && stmt_room(m, at_fence)) {
                     b = new_block(m, BLK_PATH, n);
                     b->first_stmt = m->stmts.len;
                     b->nstmts = 1;

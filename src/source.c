@@ -121,6 +121,14 @@ bool source_check_text(const char *text, size_t len, const char *display, DiagLi
             diag_error(diags, p, "control character (byte 0x%02X) in the source", c);
             return false;
         }
+        if (col > SOURCE_MAX_LINE) {
+            size_t start = i - (size_t)(col - 1);
+            const unsigned char *nl = memchr(s + i, '\n', len - i);
+            size_t n = (size_t)((nl ? nl : s + len) - (s + start));
+            Pos p = {display, line, 1};
+            diag_error(diags, p, "line is %zu bytes long; the limit is %d bytes a line", n, SOURCE_MAX_LINE);
+            return false;
+        }
         size_t n = utf8_len(s + i, len - i);
         if (n == 0) {
             Pos p = {display, line, col};

@@ -410,6 +410,11 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
             ok = false;
             continue;
         }
+        if (ps->nsegs == PATH_MAX_SEGMENTS) {
+            diag_error(diags, l->pos, "too many segments: the limit is %d in a path", PATH_MAX_SEGMENTS);
+            ok = false;
+            break;
+        }
         size_t nc = split_row(l, cells, MAX_COLUMNS, &too_many);
         if (nc != ncols) {
             report_row_width(diags, l, cells, nc, header, ncols);
@@ -578,6 +583,11 @@ CaseTable *tables_parse_cases(Arena *a, Pos at, const FenceLine *lines, size_t n
         if (!is_table_line(l))
             continue;
         saw_row = true;
+        if (ct->nrows == CASES_MAX_ROWS) {
+            diag_error(diags, l->pos, "too many cases: the limit is %d rows in a cases table", CASES_MAX_ROWS);
+            ok = false;
+            break;
+        }
         size_t nc = split_row(l, cells, MAX_COLUMNS, &too_many);
         if (nc != ncols) {
             report_row_width(diags, l, cells, nc, header_cells, ncols);

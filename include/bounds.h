@@ -1,0 +1,27 @@
+/* bounds.h — every limit headroom puts on its input, in one place.
+ *
+ * A calc file is read from people and from other programs alike, so every
+ * quantity that grows with the input is bounded: hostile or broken input gets
+ * a clear `file:line:col: error:` at the first thing over a limit (exit 2),
+ * never a crash, a hang or an exhausted stack. The limits are far above what
+ * a real calculation package needs; DEVELOPERS.md lists them with their
+ * messages and tests/limits/run has a pathological input for each.
+ * (Named bounds.h, not limits.h, so it never shadows the C header.) */
+#ifndef HEADROOM_BOUNDS_H
+#define HEADROOM_BOUNDS_H
+
+enum {
+    SOURCE_MAX_BYTES = 8 * 1024 * 1024, /* largest calc file accepted */
+    SOURCE_MAX_LINE = 64 * 1024,        /* longest line, in bytes, anywhere in the file */
+    PARSE_MAX_DEPTH = 200,              /* grammar levels of one expression (parentheses, signs) */
+    MARKDOWN_MAX_DEPTH = 64,            /* nested block quotes, lists and inline emphasis */
+    DOC_MAX_STATEMENTS = 100000,        /* statements of a file, all calc blocks and paths */
+    PATH_MAX_SEGMENTS = 10000,          /* rows of one path table */
+    CASES_MAX_ROWS = 1000,              /* rows of one cases table */
+    CASES_MAX_WORK = 2000000,           /* rows x statements over all cases tables */
+    SOLVE_MAX_ITERATIONS = 200,         /* Brent iterations of one solve */
+    SUGGEST_MAX_NAMES = 5000,           /* earlier names searched for a "did you mean" */
+    SUGGEST_MAX_ERRORS = 1000           /* after this many errors, no more "did you mean" */
+};
+
+#endif
