@@ -3,7 +3,8 @@
  * With `build NEW --since OLD`, main compares the two evaluated revisions
  * (diff.c) and hands the Diff to the renderer; nothing here compares or
  * evaluates. Each body item whose statement, check or prose block the Diff
- * marks changed or added carries a change bar in the outer margin along its
+ * marks changed or added (prose also when a value it shows, {name}, belongs
+ * to a marked statement) carries a change bar in the outer margin along its
  * height and, level with its first line, a revision triangle holding NEW's
  * revision letter, the way revised content is marked on issued sheets. The
  * triangle is a drawn path with the letter set inside it, so the letter can
@@ -47,6 +48,29 @@ static const char *letter_of(const Pdf *P)
 
 /* ---- marks in the body ---------------------------------------------------------- */
 
+/* Prose that shows a value ({name}) of a statement the Diff marks: its
+ * words are the same, but what the sheet says has changed. */
+static bool inlines_show_changed(const Diff *d, const Inline *in)
+{
+    for (; in; in = in->next) {
+        if (in->kind == INL_VALUE && in->slot >= 0 && diff_stmt_mark(d, (size_t)in->slot) != MARK_SAME)
+            return true;
+        if (inlines_show_changed(d, in->children))
+            return true;
+    }
+    return false;
+}
+
+static bool block_shows_changed(const Diff *d, const Block *b)
+{
+    if (inlines_show_changed(d, b->inlines))
+        return true;
+    for (const Block *c = b->children; c; c = c->next)
+        if (block_shows_changed(d, c))
+            return true;
+    return false;
+}
+
 void pdf_revision_tag(Pdf *P, Vec *items, size_t from, const Block *b)
 {
     const Diff *d = P->since;
@@ -65,6 +89,9 @@ void pdf_revision_tag(Pdf *P, Vec *items, size_t from, const Block *b)
     for (size_t i = from; i < items->len; i++) {
         Item *it = items->items[i];
         DiffMark m = b->kind == BLK_CALC ? diff_stmt_mark(d, ((const Stmt *)it->p)->index) : whole;
+        if (m == MARK_SAME && b->kind != BLK_CALC && b->kind != BLK_PATH && b->kind != BLK_CASES &&
+            block_shows_changed(d, it->p))
+            m = MARK_CHANGED;
         if (m == MARK_SAME)
             continue;
         it->rev_mark = (b->kind == BLK_CALC || first) ? 1 : 2;
