@@ -19,7 +19,8 @@ enum {
     PATH_MAX_SEGMENTS = 10000,          /* rows of one path table */
     CASES_MAX_ROWS = 1000,              /* rows of one cases table */
     CASES_MAX_WORK = 2000000,           /* rows x statements over all cases tables */
-    SOLVE_MAX_ITERATIONS = 200,         /* Brent iterations of one solve */
+    SOLVE_MAX_ITERATIONS = 1500,        /* Brent iterations of one solve: enough to bisect
+                                           any bracket of doubles down to a root of zero */
     SUGGEST_MAX_NAMES = 5000,           /* earlier names searched for a "did you mean" */
     SUGGEST_MAX_ERRORS = 1000           /* after this many errors, no more "did you mean" */
 };

@@ -566,10 +566,17 @@ static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *c
         }
     }
     SolveCtx sc = {ev, s, diags, l.q.dim};
-    double scale = fabs(trial.q.si) > 0 ? fabs(trial.q.si) : 1.0;
-    SolveReport rep = bracket ? solve_brent(residual_at, &sc, lo.q.si, hi.q.si, 1e-15 * scale)
-                              : solve_expand(residual_at, &sc, trial.q.si, trial.q.si > 0, 1e-15 * scale);
-    /* At the root: record both sides, then put the varied name back. */
+    /* Converge to the precision of the root itself (Brent's relative test,
+     * 2*eps*|x|), not to a fraction of the trial value: a root far smaller
+     * than the trial must still be resolved. The absolute floor only stops
+     * the search at a root of exactly zero. */
+    const double xtol = 1e-300;
+    SolveReport rep = bracket ? solve_brent(residual_at, &sc, lo.q.si, hi.q.si, xtol)
+                              : solve_expand(residual_at, &sc, trial.q.si, trial.q.si > 0, xtol);
+    /* At the root: record both sides, then put the varied name back. A
+     * bracketing method finds where the residual changes sign; if the sides
+     * do not agree there (a pole or a jump, not a root), it is no root. */
+    bool sign_change_only = false;
     if (rep.status == SOLVE_OK) {
         diags->muted++;
         set_var(ev, s, rep.root, diags);
@@ -581,6 +588,8 @@ static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *c
             res->rhs = rr;
             res->lhs_shown = eval_display_unit(ev, &lr, NULL);
             res->rhs_shown = eval_display_unit(ev, &rr, NULL);
+            double size = fmax(fabs(lr.q.si), fabs(rr.q.si));
+            sign_change_only = fabs(lr.q.si - rr.q.si) > 1e-6 * size;
         }
     }
     diags->muted++;
@@ -588,6 +597,18 @@ static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *c
     set_var(ev, s, trial.q.si, diags);
     diags->muted--;
     res->solve = rep;
+    if (rep.status == SOLVE_OK && sign_change_only) {
+        char where[64], lv[96], rv[96];
+        num_sig(unit_from_si(rep.root, &var->shown, trial.q.temp == TEMP_NONE), 4, where, sizeof where);
+        format_si(ev, res->lhs.q.si, l.q.dim, lv, sizeof lv);
+        format_si(ev, res->rhs.q.si, l.q.dim, rv, sizeof rv);
+        diag_error(diags, s->lo ? s->lo->pos : s->var_pos,
+                   "the equation changes sign near %s = %s %s but has no root there (left %s, right "
+                   "%s): a pole or a jump in the bracket",
+                   s->var, where, var->shown.text, lv, rv);
+        res->state = RES_FAILED;
+        return;
+    }
     if (rep.status != SOLVE_OK) {
         char a[128], b[128], fa[96], fb[96];
         Unit vu = var->shown;

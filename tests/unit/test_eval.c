@@ -199,6 +199,14 @@ static void test_solve_reevaluates_dependents(void **state)
     assert_true(fabs(r->solve.residual) < 1e-12);
     assert_close(r->lhs.q.si, 10, 1e-14);
 
+    /* A root far below the trial value is still resolved to its own
+     * precision: x^(1/3) = 1e-30 has the root 1e-90. */
+    load("x = 2\n"
+         "r = solve x where x^(1/3) = 1e-30 between 1e-300 and 1e100\n"
+         "z = solve x where x^3 = 0 between -1 and 2\n");
+    assert_int_equal(dl.errors, 0);
+    assert_close(si("r"), 1e-90, 1e-12);
+    assert_true(fabs(si("z")) < 1e-100);
     load("x = 2\n"
          "r = solve x where x^2 = -1 between 0 and 10\n");
     assert_error(5, 36, "no root of the equation between 0 and 10");
