@@ -285,6 +285,14 @@ Document *doc_load(const char *path, DiagList *diags);
 Document *doc_from_text(const char *display_name, const char *text, size_t len, DiagList *diags);
 void doc_free(Document *doc);
 
+/* A comparison as text: "<=" (or "≤" when typeset). */
+const char *cmp_op_text(CmpOp op, bool typeset);
+
+/* Does the expression read a value of the calc (a defined name, a field, g,
+ * a callable record)? Such an expression has a substituted form worth
+ * showing; pi and literals alone do not. */
+bool expr_reads_names(const Expr *e);
+
 /* Name table: NULL/-1 when absent. */
 int doc_lookup(const Document *doc, const char *name);
 const char *doc_source_line(const Document *doc, int line, size_t *len);

@@ -77,6 +77,42 @@ const char *doc_source_line(const Document *doc, int line, size_t *len)
     return p;
 }
 
+const char *cmp_op_text(CmpOp op, bool typeset)
+{
+    switch (op) {
+    case CMP_LE: return typeset ? "≤" : "<=";
+    case CMP_LT: return "<";
+    case CMP_GE: return typeset ? "≥" : ">=";
+    case CMP_GT: return ">";
+    }
+    return "?";
+}
+
+bool expr_reads_names(const Expr *e)
+{
+    if (!e)
+        return false;
+    switch (e->kind) {
+    case EXPR_NAME:
+        return e->slot >= 0 || e->slot == SLOT_G;
+    case EXPR_FIELD:
+        return true;
+    case EXPR_NUMBER:
+    case EXPR_STRING:
+        return false;
+    case EXPR_CALL:
+        for (size_t i = 0; i < e->nargs; i++)
+            if (expr_reads_names(e->args[i]))
+                return true;
+        for (size_t i = 0; i < e->nkw; i++)
+            if (expr_reads_names(e->kw[i]))
+                return true;
+        return e->callee_slot >= 0;
+    default:
+        return expr_reads_names(e->lhs) || expr_reads_names(e->rhs);
+    }
+}
+
 /* ---- resolution --------------------------------------------------------- */
 
 typedef struct Resolver {

@@ -217,15 +217,22 @@ static void convert_one_inline(Md *m, cmark_node *n, Inline ***link, int depth)
     *link = &in->next;
 }
 
+/* Past the nesting limit: report it once, at the node that went too deep. */
+static bool too_deep(Md *m, cmark_node *parent, int depth)
+{
+    if (depth <= MARKDOWN_MAX_DEPTH)
+        return false;
+    if (!m->too_deep)
+        diag_error(m->diags, at(m, cmark_node_get_start_line(parent), cmark_node_get_start_column(parent)),
+                   "Markdown nested too deeply (more than %d levels)", MARKDOWN_MAX_DEPTH);
+    m->too_deep = 1;
+    return true;
+}
+
 static Inline *convert_inlines(Md *m, cmark_node *parent, int depth)
 {
-    if (depth > MARKDOWN_MAX_DEPTH) {
-        if (!m->too_deep)
-            diag_error(m->diags, at(m, cmark_node_get_start_line(parent), cmark_node_get_start_column(parent)),
-                       "Markdown nested too deeply (more than %d levels)", MARKDOWN_MAX_DEPTH);
-        m->too_deep = 1;
+    if (too_deep(m, parent, depth))
         return NULL;
-    }
     Inline *first = NULL;
     Inline **link = &first;
     for (cmark_node *c = cmark_node_first_child(parent); c; c = cmark_node_next(c))
@@ -558,13 +565,8 @@ static Block *convert_block(Md *m, cmark_node *n, int depth)
 
 static Block *convert_blocks(Md *m, cmark_node *parent, int depth)
 {
-    if (depth > MARKDOWN_MAX_DEPTH) {
-        if (!m->too_deep)
-            diag_error(m->diags, at(m, cmark_node_get_start_line(parent), cmark_node_get_start_column(parent)),
-                       "Markdown nested too deeply (more than %d levels)", MARKDOWN_MAX_DEPTH);
-        m->too_deep = 1;
+    if (too_deep(m, parent, depth))
         return NULL;
-    }
     Block *first = NULL;
     Block **link = &first;
     for (cmark_node *c = cmark_node_first_child(parent); c; c = cmark_node_next(c)) {

@@ -171,17 +171,6 @@ static void put_checks(const Diff *d, StrBuf *out)
     }
 }
 
-static const char *cmp_text(CmpOp op)
-{
-    switch (op) {
-    case CMP_LE: return "<=";
-    case CMP_LT: return "<";
-    case CMP_GE: return ">=";
-    case CMP_GT: return ">";
-    }
-    return "?";
-}
-
 /* A statement in one line, as written: "V = Q/A", "check velocity: V <= 8 ft/s". */
 static void stmt_text(const Evaluated *ev, const Stmt *s, StrBuf *out)
 {
@@ -199,7 +188,7 @@ static void stmt_text(const Evaluated *ev, const Stmt *s, StrBuf *out)
     case STMT_CHECK:
         sb_printf(out, "check %s: ", s->label);
         render_expr_text(ev, s->lhs, false, out);
-        sb_printf(out, " %s ", cmp_text(s->cmp));
+        sb_printf(out, " %s ", cmp_op_text(s->cmp, false));
         render_expr_text(ev, s->rhs, false, out);
         break;
     case STMT_PATH:

@@ -109,17 +109,6 @@ static json_t *meta_json(const Meta *m)
     return o;
 }
 
-static const char *cmp_text(CmpOp op)
-{
-    switch (op) {
-    case CMP_LE: return "<=";
-    case CMP_LT: return "<";
-    case CMP_GE: return ">=";
-    case CMP_GT: return ">";
-    }
-    return "?";
-}
-
 static json_t *diagnostics_json(const DiagList *diags, const char *file)
 {
     json_t *a = json_array();
@@ -273,7 +262,7 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
             json_t *c = json_object();
             json_object_set_new(c, "label", json_string(s->label));
             json_object_set_new(c, "line", json_integer(s->pos.line));
-            json_object_set_new(c, "op", json_string(cmp_text(s->cmp)));
+            json_object_set_new(c, "op", json_string(cmp_op_text(s->cmp, false)));
             if (r->state == RES_OK) {
                 json_object_set_new(c, "holds", json_boolean(r->holds));
                 json_t *l = number_json(ev, &r->lhs, &r->lhs_shown);

@@ -705,29 +705,6 @@ MathBox *mbox_expr(const MathEnv *env, const Expr *e, double size, bool substitu
 
 /* ---- rows ----------------------------------------------------------------- */
 
-/* Does the substituted form differ from the formula (does it read a name)? */
-static bool reads_names(const Expr *e)
-{
-    if (!e)
-        return false;
-    switch (e->kind) {
-    case EXPR_NAME:
-        return e->slot >= 0 || e->slot == SLOT_G;
-    case EXPR_FIELD:
-        return true;
-    case EXPR_CALL:
-        for (size_t i = 0; i < e->nargs; i++)
-            if (reads_names(e->args[i]))
-                return true;
-        for (size_t i = 0; i < e->nkw; i++)
-            if (reads_names(e->kw[i]))
-                return true;
-        return e->callee_slot >= 0;
-    default:
-        return reads_names(e->lhs) || reads_names(e->rhs);
-    }
-}
-
 static bool is_literal(const Expr *e)
 {
     e = strip(e);
@@ -748,17 +725,6 @@ static void row_add(MathRow *row, MathBox *b, bool start)
 static MathBox *rel(const MathEnv *env, const char *r, MathBox *b, double size)
 {
     return hl2(env, op_box(env, r, size, 0.28), b);
-}
-
-static const char *cmp_text(CmpOp op)
-{
-    switch (op) {
-    case CMP_LE: return "≤";
-    case CMP_LT: return "<";
-    case CMP_GE: return "≥";
-    case CMP_GT: return ">";
-    }
-    return "?";
 }
 
 static void record_fields(const MathEnv *env, const Value *v, double size, MathRow *row)
@@ -794,13 +760,13 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row
             return;
         }
         if (r->value.kind == VAL_RECORD) {
-            if (reads_names(st->expr))
+            if (expr_reads_names(st->expr))
                 row_add(row, rel(env, "=", mbox_expr(env, st->expr, size, true), size), false);
             record_fields(env, &r->value, size, row);
             return;
         }
         bool literal = is_literal(st->expr);
-        if (!literal && reads_names(st->expr) && strip(st->expr)->kind != EXPR_NAME)
+        if (!literal && expr_reads_names(st->expr) && strip(st->expr)->kind != EXPR_NAME)
             row_add(row, rel(env, "=", mbox_expr(env, st->expr, size, true), size), false);
         /* an input shown as written is its own result, unless `as` converts it */
         bool input = literal && !st->has_as;
@@ -822,12 +788,12 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row
         break;
     }
     case STMT_CHECK: {
-        const char *op = cmp_text(st->cmp);
+        const char *op = cmp_op_text(st->cmp, true);
         row_add(row, mbox_expr(env, st->lhs, size, false), true);
         row_add(row, rel(env, op, mbox_expr(env, st->rhs, size, false), size), false);
         if (!ok)
             return;
-        if (reads_names(st->lhs) || reads_names(st->rhs)) {
+        if (expr_reads_names(st->lhs) || expr_reads_names(st->rhs)) {
             /* a name or a literal substitutes to its value: no middle line needed */
             bool lsimple = strip(st->lhs)->kind == EXPR_NAME || strip(st->lhs)->kind == EXPR_FIELD ||
                            is_literal(st->lhs);

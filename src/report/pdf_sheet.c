@@ -404,11 +404,6 @@ static double fn_summary_head(Pdf *P, const Item *it, double top)
     return h;
 }
 
-static const char *cmp_text(CmpOp op)
-{
-    return op == CMP_LE ? "≤" : op == CMP_LT ? "<" : op == CMP_GE ? "≥" : ">";
-}
-
 static double fn_summary_row(Pdf *P, const Item *it, double top)
 {
     const Stmt *st = it->p;
@@ -426,7 +421,7 @@ static double fn_summary_row(Pdf *P, const Item *it, double top)
     if (ok) {
         MathBox *k[3] = {mbox_quantity(&P->env, &r->lhs, &r->lhs_shown, size, false),
                          mbox_text(&P->env, FONT_SERIF, size,
-                                   arena_printf(&P->arena, "  %s  ", cmp_text(st->cmp))),
+                                   arena_printf(&P->arena, "  %s  ", cmp_op_text(st->cmp, true))),
                          mbox_quantity(&P->env, &r->rhs, &r->rhs_shown, size, false)};
         sides = mbox_hlist(&P->env, k, 3);
     } else {
@@ -713,7 +708,7 @@ static double fn_crit_row(Pdf *P, const Item *it, double top)
     /* the limit: the right-hand side as written and its value */
     MathBox *k[3];
     size_t nk = 0;
-    k[nk++] = mbox_text(&P->env, FONT_SERIF, size, arena_printf(&P->arena, "%s ", cmp_text(st->cmp)));
+    k[nk++] = mbox_text(&P->env, FONT_SERIF, size, arena_printf(&P->arena, "%s ", cmp_op_text(st->cmp, true)));
     k[nk++] = mbox_expr(&P->env, st->rhs, size, false);
     if (r->state == RES_OK && !(st->rhs->kind == EXPR_NUMBER)) {
         MathBox *v[2] = {mbox_text(&P->env, FONT_SERIF, size, "  =  "),

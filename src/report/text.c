@@ -181,41 +181,6 @@ void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBu
     put_expr(ev, e, substitute, out, PREC_TOP);
 }
 
-/* An expression worth substituting: it reads at least one name. */
-static bool reads_names(const Expr *e)
-{
-    if (!e)
-        return false;
-    switch (e->kind) {
-    case EXPR_NAME:
-        return true;
-    case EXPR_NUMBER:
-    case EXPR_STRING:
-        return false;
-    case EXPR_CALL:
-        for (size_t i = 0; i < e->nargs; i++)
-            if (reads_names(e->args[i]))
-                return true;
-        for (size_t i = 0; i < e->nkw; i++)
-            if (reads_names(e->kw[i]))
-                return true;
-        return false;
-    default:
-        return reads_names(e->lhs) || reads_names(e->rhs);
-    }
-}
-
-static const char *cmp_text(CmpOp op)
-{
-    switch (op) {
-    case CMP_LE: return "<=";
-    case CMP_LT: return "<";
-    case CMP_GE: return ">=";
-    case CMP_GT: return ">";
-    }
-    return "?";
-}
-
 static void put_comment(const Stmt *s, StrBuf *out)
 {
     if (!s->description && !s->ncites)
@@ -399,7 +364,7 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
             bare = bare->lhs;
         bool reference = bare->kind == EXPR_NAME || bare->kind == EXPR_FIELD;
         if (r->state == RES_OK) {
-            if (!reference && reads_names(s->expr)) {
+            if (!reference && expr_reads_names(s->expr)) {
                 render_expr_text(ev, s->expr, true, &v);
                 if (strcmp(sb_str(&v), sb_str(&f)) != 0)
                     sb_printf(out, " = %s", sb_str(&v));
@@ -473,11 +438,11 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
         StrBuf l = {0}, rr = {0};
         render_expr_text(ev, s->lhs, false, &l);
         render_expr_text(ev, s->rhs, false, &rr);
-        sb_printf(out, "check %s: %s %s %s", s->label, sb_str(&l), cmp_text(s->cmp), sb_str(&rr));
+        sb_printf(out, "check %s: %s %s %s", s->label, sb_str(&l), cmp_op_text(s->cmp, false), sb_str(&rr));
         if (r->state == RES_OK) {
             sb_puts(out, " : ");
             render_value_text(ev, &r->lhs, &r->lhs_shown, out);
-            sb_printf(out, " %s ", cmp_text(s->cmp));
+            sb_printf(out, " %s ", cmp_op_text(s->cmp, false));
             render_value_text(ev, &r->rhs, &r->rhs_shown, out);
             char u[32];
             if (isfinite(r->utilization))
