@@ -475,7 +475,7 @@ static double fn_heading(Pdf *P, const Item *it, double top)
     double size = lv <= 1 ? 13 : lv == 2 ? 11.2 : 10.2;
     FontRole f = lv <= 2 ? FONT_SERIF_BOLD : FONT_SERIF_BOLD_ITALIC;
     double nw = b->number[0] ? pdf_width(P, f, size, b->number) + size * 0.9 : 0;
-    if (nw && nw < 28)
+    if (nw > 0 && nw < 28)
         nw = 28;
     double x = s->body_l;
     pdf_text(P, f, size, x, top - size * 0.95, b->number);
