@@ -598,14 +598,16 @@ static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *c
     diags->muted--;
     res->solve = rep;
     if (rep.status == SOLVE_OK && sign_change_only) {
-        char where[64], lv[96], rv[96];
-        num_sig(unit_from_si(rep.root, &var->shown, trial.q.temp == TEMP_NONE), 4, where, sizeof where);
+        char num[64], where[128], lv[96], rv[96];
+        num_sig(unit_from_si(rep.root, &var->shown, trial.q.temp == TEMP_NONE), 4, num, sizeof num);
+        bool plain = var->shown.text[0] == '\0' || strcmp(var->shown.text, "1") == 0;
+        snprintf(where, sizeof where, "%s%s%s", num, plain ? "" : " ", plain ? "" : var->shown.text);
         format_si(ev, res->lhs.q.si, l.q.dim, lv, sizeof lv);
         format_si(ev, res->rhs.q.si, l.q.dim, rv, sizeof rv);
         diag_error(diags, s->lo ? s->lo->pos : s->var_pos,
-                   "the equation changes sign near %s = %s %s but has no root there (left %s, right "
+                   "the equation changes sign near %s = %s but has no root there (left %s, right "
                    "%s): a pole or a jump in the bracket",
-                   s->var, where, var->shown.text, lv, rv);
+                   s->var, where, lv, rv);
         res->state = RES_FAILED;
         return;
     }

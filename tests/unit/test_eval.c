@@ -207,6 +207,11 @@ static void test_solve_reevaluates_dependents(void **state)
     assert_int_equal(dl.errors, 0);
     assert_close(si("r"), 1e-90, 1e-12);
     assert_true(fabs(si("z")) < 1e-100);
+    /* A jump is a sign change but no root: (x - 1.1)/|x - 1.1| jumps from
+     * -1 to 1 at 1.1 and never equals 0.5. */
+    load("x = 2\n"
+         "r = solve x where (x - 1.1)/(abs(x - 1.1) + 1e-300) = 0.5 between 0 and 3\n");
+    assert_error(5, 67, "changes sign near x = 1.100 but has no root there");
     load("x = 2\n"
          "r = solve x where x^2 = -1 between 0 and 10\n");
     assert_error(5, 36, "no root of the equation between 0 and 10");
