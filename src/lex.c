@@ -7,6 +7,7 @@
  * litres. Keywords (and, as, where, between) are never units. */
 #include "lex.h"
 
+#include <stdbool.h>
 #include <string.h>
 
 #include "numfmt.h"
@@ -281,23 +282,15 @@ Token lex_next(Lexer *lx)
         }
         break;
     case '<':
-        if (lx->at < end && s[lx->at] == '=') {
+    case '>': {
+        bool or_equal = lx->at < end && s[lx->at] == '=';
+        if (or_equal) {
             lx->at++;
-            t.kind = TOK_LE;
             t.len = 2;
-        } else {
-            t.kind = TOK_LT;
         }
+        t.kind = c == '<' ? (or_equal ? TOK_LE : TOK_LT) : (or_equal ? TOK_GE : TOK_GT);
         break;
-    case '>':
-        if (lx->at < end && s[lx->at] == '=') {
-            lx->at++;
-            t.kind = TOK_GE;
-            t.len = 2;
-        } else {
-            t.kind = TOK_GT;
-        }
-        break;
+    }
     default:
         if (c < 0x20 || c == 0x7F)
             diag_error(lx->diags, t.pos, "unexpected control character (byte 0x%02X)", c);
