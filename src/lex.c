@@ -98,6 +98,21 @@ static int is_keyword(const char *s, size_t len)
     return 0;
 }
 
+/* An exponent after a unit or a unit group: `^2`, `^-1`, `^0.5`; its
+ * length, 0 when there is none. */
+static size_t exponent_length(const char *s, size_t left)
+{
+    if (left == 0 || s[0] != '^')
+        return 0;
+    size_t j = 1;
+    if (j < left && s[j] == '-')
+        j++;
+    size_t k = j;
+    while (k < left && (is_digit((unsigned char)s[k]) || s[k] == '.'))
+        k++;
+    return k > j ? k : 0;
+}
+
 /* The unit after a number: name[^exp] joined by * / · with balanced
  * parentheses, no spaces. Returns its length (0: no unit). */
 static size_t unit_length(const char *s, size_t left)
@@ -121,16 +136,7 @@ static size_t unit_length(const char *s, size_t left)
             if (n == 0 || !is_name_start((unsigned char)s[i]))
                 break;
             i += n;
-            if (i < left && s[i] == '^') {
-                size_t j = i + 1;
-                if (j < left && s[j] == '-')
-                    j++;
-                size_t k = j;
-                while (k < left && (is_digit((unsigned char)s[k]) || s[k] == '.'))
-                    k++;
-                if (k > j)
-                    i = k;
-            }
+            i += exponent_length(s + i, left - i);
             want_atom = 0;
             continue;
         }
@@ -138,16 +144,7 @@ static size_t unit_length(const char *s, size_t left)
             depth--;
             i++;
             /* A group may carry an exponent: ft/(gal/min)^2. */
-            if (i < left && s[i] == '^') {
-                size_t j = i + 1;
-                if (j < left && s[j] == '-')
-                    j++;
-                size_t k = j;
-                while (k < left && (is_digit((unsigned char)s[k]) || s[k] == '.'))
-                    k++;
-                if (k > j)
-                    i = k;
-            }
+            i += exponent_length(s + i, left - i);
             continue;
         }
         size_t op = 0;
