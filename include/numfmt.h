@@ -15,9 +15,6 @@
  * s[0..]; returns the number of bytes used (0: not a number). */
 size_t num_parse(const char *s, size_t len, double *out);
 
-/* Shortest decimal that reads back to the same double ("0.1", "1e-05"). */
-void num_roundtrip(double x, char *buf, size_t n);
-
 /* A number split for display with `digits` significant figures: mantissa text
  * and a power of ten (exp10 == 0 when no ×10^n is needed). Plain notation is
  * used for 1e-3 <= |x| < 1e6 (and for 0); otherwise scientific. Trailing

@@ -18,10 +18,6 @@
  * parse_failed set (so its name, if any, is still known) after reporting. */
 Stmt *parse_statement(Arena *a, const char *line, size_t len, Pos start, DiagList *diags);
 
-/* Parse a standalone expression (a library method's display formula, or the
- * inside of an inline {value}); NULL after reporting on error. */
-Expr *parse_expression_text(Arena *a, const char *text, DiagList *diags);
-
 /* Parse an expression that is all of text[0..len) (a table cell), with
  * positions counted from `start`; NULL after reporting on error. */
 Expr *parse_expression_at(Arena *a, const char *text, size_t len, Pos start, DiagList *diags);

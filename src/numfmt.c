@@ -51,19 +51,6 @@ size_t num_parse(const char *s, size_t len, double *out)
     return i;
 }
 
-void num_roundtrip(double x, char *buf, size_t n)
-{
-    if (!isfinite(x)) {
-        snprintf(buf, n, "%s", isnan(x) ? "nan" : x > 0 ? "inf" : "-inf");
-        return;
-    }
-    for (int prec = 15; prec <= 17; prec++) {
-        snprintf(buf, n, "%.*g", prec, x);
-        if (strtod(buf, NULL) == x)
-            return;
-    }
-}
-
 /* Strip a redundant leading zero and '+' from a C exponent: "e-05" -> -5. */
 static int exponent_of(const char *e)
 {

@@ -643,20 +643,6 @@ Stmt *parse_statement(Arena *a, const char *line, size_t len, Pos start, DiagLis
     return st;
 }
 
-Expr *parse_expression_text(Arena *a, const char *text, DiagList *diags)
-{
-    Parser p = {0};
-    p.arena = a;
-    p.diags = diags;
-    Pos start = {"(formula)", 1, 1};
-    lex_init(&p.lx, text, strlen(text), start, diags);
-    advance(&p);
-    Expr *e = parse_expr(&p);
-    if (!e || !expect_eol(&p))
-        return NULL;
-    return e;
-}
-
 Expr *parse_expression_at(Arena *a, const char *text, size_t len, Pos start, DiagList *diags)
 {
     Parser p = {0};

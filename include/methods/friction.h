@@ -34,7 +34,6 @@ typedef struct FrictionRange {
 } FrictionRange;
 
 const FrictionRange *friction_range(FrictionMethod m);
-bool friction_in_range(FrictionMethod m, double Re, double rr);
 
 /* Name used in calc files ("colebrook", ...) and back; -1 if unknown. */
 const char *friction_method_name(FrictionMethod m);

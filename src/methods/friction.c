@@ -46,12 +46,6 @@ const FrictionRange *friction_range(FrictionMethod m)
     return &RANGES[m];
 }
 
-bool friction_in_range(FrictionMethod m, double Re, double rr)
-{
-    const FrictionRange *r = &RANGES[m];
-    return Re >= r->re_min && Re <= r->re_max && rr >= r->rr_min && rr <= r->rr_max;
-}
-
 const char *friction_method_name(FrictionMethod m)
 {
     return NAMES[m];

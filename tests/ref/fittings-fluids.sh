@@ -6,9 +6,8 @@
 # families (Crane f_T, Crane L/D, Crane entrances/exit/changes of bore,
 # Hooper 2-K, Darby 3-K), each with its own stated tolerance; the cases, the
 # tolerances and the reasons for them are in fittings_fluids.py beside this
-# script. The real program evaluates generated calc files
-# (`$HEADROOM check FILE --json`); while it cannot, the numeric core is
-# driven through fittings_probe.c and the output says so.
+# script. The program itself evaluates generated calc files
+# (`$HEADROOM check FILE --json`); a program that does not run fails.
 #
 #   HEADROOM=build/san/headroom tests/ref/fittings-fluids.sh
 #

@@ -63,7 +63,7 @@ import sys
 import fluids
 import fluids.fittings as ff
 
-from fittings_route import choose, run_cli, run_probe, si
+from fittings_route import require_cli, run_cli, si
 
 IN = 0.0254
 EPS = 0.0018 * IN
@@ -131,8 +131,6 @@ class Case:
             e += " * %r" % self.scale
         return e
 
-    def probe_line(self):
-        return "k %s|%s|%r|%r|%r|%r" % (self.method, self.kind, self.D, self.Re, self.D2, self.r)
 
 
 def log_uniform(rng, lo, hi):
@@ -220,22 +218,11 @@ def main(argv):
         return 2
     headroom = argv[2]
     all_cases = cases()
-    route = choose(headroom)
-    print("fittings-fluids: reference python3-fluids %s; route %s%s" %
-          (fluids.__version__, route,
-           "" if route == "cli" else " (the headroom CLI cannot run a calc file yet: numeric core via fittings_probe.c)"))
-    problems = []
-    if route == "cli":
-        names = ["K_%d" % i for i in range(len(all_cases))]
-        values, problems = run_cli(headroom, list(zip(names, (c.expr() for c in all_cases))))
-        got = [si(values.get(n)) for n in names]
-    else:
-        got = []
-        for c, line in zip(all_cases, run_probe([c.probe_line() for c in all_cases])):
-            try:
-                got.append(float(line) * c.scale)
-            except ValueError:
-                got.append(None)
+    require_cli(headroom)
+    print("fittings-fluids: reference python3-fluids %s" % fluids.__version__)
+    names = ["K_%d" % i for i in range(len(all_cases))]
+    values, problems = run_cli(headroom, list(zip(names, (c.expr() for c in all_cases))))
+    got = [si(values.get(n)) for n in names]
     for p in problems[:20]:
         print("  " + p)
 

@@ -1,20 +1,11 @@
 """fittings_route.py — run headroom expressions for the reference checks
 tests/ref/fittings-fluids.sh and tests/ref/pipes-fluids.sh.
 
-Two routes to the same numbers:
-
-  cli    the real program: the expressions become statements `NAME = EXPR`
-         in ```calc fences of generated calc files, `HEADROOM check FILE
-         --json` evaluates them, and the values are read from the JSON
-         (values.NAME.si, or values.NAME.fields.FIELD.si for a record;
-         DESIGN 2.5).
-  probe  while the program cannot run a calc file, a small C driver
-         (fittings_probe.c) is compiled against src/methods and asked the
-         same questions line by line.
-
-The route is `cli` when HEADROOM runs (`HEADROOM --version` exits 0),
-otherwise `probe`; HEADROOM_ROUTE=cli|probe forces one. The route taken is
-printed, so a run never hides which one it used.
+The expressions become statements `NAME = EXPR` in ```calc fences of
+generated calc files, `HEADROOM check FILE --json` evaluates them, and the
+values are read from the JSON (values.NAME.si, or values.NAME.fields.FIELD.si
+for a record; DESIGN 2.5). There is no other route: a program that does not
+run fails the check.
 """
 
 import json
@@ -22,19 +13,18 @@ import os
 import subprocess
 import tempfile
 
-HERE = os.path.dirname(os.path.abspath(__file__))
-ROOT = os.path.dirname(os.path.dirname(HERE))
 
-
-def choose(headroom):
-    forced = os.environ.get("HEADROOM_ROUTE")
-    if forced in ("cli", "probe"):
-        return forced
+def require_cli(headroom):
+    """Exit with a message unless HEADROOM runs (`HEADROOM --version`)."""
     try:
         r = subprocess.run([headroom, "--version"], capture_output=True, timeout=60)
-        return "cli" if r.returncode == 0 else "probe"
-    except (OSError, subprocess.SubprocessError):
-        return "probe"
+        if r.returncode == 0:
+            return
+        why = "exit status %d" % r.returncode
+    except (OSError, subprocess.SubprocessError) as e:
+        why = str(e)
+    raise SystemExit("%s --version failed (%s): the reference check needs the program" %
+                     (headroom, why))
 
 
 def run_cli(headroom, statements, chunk=400):
@@ -67,28 +57,6 @@ def run_cli(headroom, statements, chunk=400):
                                                       d.get("col"), d.get("message")))
             values.update(doc.get("values", {}))
     return values, problems
-
-
-def build_probe():
-    tmp = tempfile.mkdtemp(prefix="headroom-probe-")
-    exe = os.path.join(tmp, "probe")
-    src = [os.path.join(HERE, "fittings_probe.c")] + [
-        os.path.join(ROOT, "src", "methods", n) for n in ("fittings.c", "pipes.c", "roughness.c")]
-    cmd = [os.environ.get("CC", "cc"), "-std=c11", "-O1", "-g", "-fsanitize=address,undefined",
-           "-I" + os.path.join(ROOT, "include"), "-I" + os.path.join(ROOT, "src")] + src + [
-               "-lm", "-o", exe]
-    subprocess.run(cmd, check=True)
-    return exe
-
-
-def run_probe(lines):
-    exe = build_probe()
-    r = subprocess.run([exe], input="\n".join(lines) + "\n", capture_output=True, text=True,
-                       check=True)
-    out = r.stdout.splitlines()
-    if len(out) != len(lines):
-        raise RuntimeError("probe answered %d of %d lines" % (len(out), len(lines)))
-    return out
 
 
 def si(entry, field=None):

@@ -10,9 +10,8 @@
 # metric columns; 1e-9 m for the plastics) and what fluids lacks (ASTM B88,
 # F876) are in pipes_fluids.py beside this script. Bad input (unknown size,
 # class, standard) must exit 2 with `file:line:col: error:` at the argument.
-# The real program evaluates generated calc files (`$HEADROOM check FILE
-# --json`); while it cannot, the numeric core is driven through
-# fittings_probe.c and the output says so.
+# The program itself evaluates generated calc files (`$HEADROOM check FILE
+# --json`); a program that does not run fails.
 #
 #   HEADROOM=build/san/headroom tests/ref/pipes-fluids.sh
 #

@@ -57,7 +57,7 @@ import fluids
 import fluids.friction as fr
 import fluids.piping as fp
 
-from fittings_route import choose, run_cli, run_probe, si
+from fittings_route import require_cli, run_cli, si
 
 IN = 0.0254
 
@@ -108,8 +108,6 @@ class Case:
     def expr(self):
         return 'pipe("%s", %s, %s)' % (self.std, self.size_expr, self.cls_expr)
 
-    def probe_line(self):
-        return "p %s|%s|%s" % (self.std, self.size_text, self.cls_text)
 
 
 def cases():
@@ -174,30 +172,19 @@ def main(argv):
         return 2
     headroom = argv[2]
     all_cases = cases()
-    route = choose(headroom)
-    print("pipes-fluids: reference python3-fluids %s; route %s%s" %
-          (fluids.__version__, route,
-           "" if route == "cli" else " (the headroom CLI cannot run a calc file yet: numeric core via fittings_probe.c)"))
+    require_cli(headroom)
+    print("pipes-fluids: reference python3-fluids %s" % fluids.__version__)
     passed = failed = 0
-    problems = []
     rough_got = {}
-    if route == "cli":
-        stmts = [("p_%d" % i, c.expr()) for i, c in enumerate(all_cases)]
-        stmts += [("eps_%d" % i, 'roughness("%s")' % m) for i, m in enumerate(ROUGH)]
-        values, problems = run_cli(headroom, stmts)
-        got = []
-        for i in range(len(all_cases)):
-            e = values.get("p_%d" % i)
-            got.append(tuple(si(e, f) for f in ("od", "id", "wall")))
-        for i, m in enumerate(ROUGH):
-            rough_got[m] = si(values.get("eps_%d" % i))
-    else:
-        got = []
-        for line in run_probe([c.probe_line() for c in all_cases]):
-            parts = line.split()
-            got.append(tuple(float(x) for x in parts) if len(parts) == 3 else (None,) * 3)
-        # roughness() is glue over the same table; in this route the table
-        # value is read through the probe's pipe rows instead: skipped.
+    stmts = [("p_%d" % i, c.expr()) for i, c in enumerate(all_cases)]
+    stmts += [("eps_%d" % i, 'roughness("%s")' % m) for i, m in enumerate(ROUGH)]
+    values, problems = run_cli(headroom, stmts)
+    got = []
+    for i in range(len(all_cases)):
+        e = values.get("p_%d" % i)
+        got.append(tuple(si(e, f) for f in ("od", "id", "wall")))
+    for i, m in enumerate(ROUGH):
+        rough_got[m] = si(values.get("eps_%d" % i))
     for p in problems[:20]:
         print("  " + p)
 
@@ -220,20 +207,17 @@ def main(argv):
           % (len(all_cases) // 4, worst[0] * 1e3, worst[1] * 1e3, worst[2] * 1e3))
 
     for m, fid in ROUGH.items():
-        if route != "cli":
-            break
         v, ref = rough_got.get(m), fr.material_roughness(fid)
         if v is not None and abs(v - ref) <= 0.005 * ref:
             passed += 1
         else:
             failed += 1
             print("FAIL roughness(\"%s\") = %r, fluids %s %r" % (m, v, fid, ref))
-    if route == "cli":
-        bad_fails = bad_input(headroom)
-        for f in bad_fails:
-            print("FAIL bad input " + f)
-        failed += len(bad_fails)
-        passed += len(BAD) - len(bad_fails)
+    bad_fails = bad_input(headroom)
+    for f in bad_fails:
+        print("FAIL bad input " + f)
+    failed += len(bad_fails)
+    passed += len(BAD) - len(bad_fails)
     if problems and failed == 0:
         failed += len(problems)
     print("pipes-fluids: %d passed, %d failed" % (passed, failed))
