@@ -55,4 +55,54 @@ void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBu
  * in quotes, a record as "(pipe record)"). */
 void render_value_text(const Evaluated *ev, const Value *v, const Unit *shown, StrBuf *out);
 
+/* ---- the CI formats of `check --format` (DESIGN 2.14) ------------------ */
+
+/* One file of a `check` run. */
+typedef struct CheckRun {
+    const char *file;         /* as named on the command line */
+    const Evaluated *ev;      /* NULL: the file could not be read */
+    const DiagList *diags;    /* this file's diagnostics, sorted */
+} CheckRun;
+
+/* JUnit XML: one testsuite per file, one testcase per check (a failing
+ * check a <failure> with both sides and the utilisation, a check not
+ * evaluated an <error>), one testcase per input error (an <error>). */
+bool render_junit(const CheckRun *runs, size_t n, FILE *out);
+
+/* SARIF 2.1.0: one run, a rule per kind of finding, a result per
+ * diagnostic and per failing check, columns in UTF-16 code units. */
+bool render_sarif(const CheckRun *runs, size_t n, FILE *out);
+
+/* GitHub workflow commands: ::error / ::warning / ::notice lines with the
+ * file, line and column, failing checks as errors, then a summary line. */
+bool render_github(const CheckRun *runs, size_t n, FILE *out);
+
+/* The kinds of finding the CI formats name (SARIF rule ids, JUnit types). */
+typedef enum FindingKind {
+    FIND_INPUT_ERROR,    /* an error in the calc: nothing can be issued */
+    FIND_WARNING,        /* a value outside a method's validity, and the like */
+    FIND_NOTE,
+    FIND_READ_FAILURE,   /* the file could not be read */
+    FIND_CHECK_FAILS,    /* a check that does not hold (also in a case row) */
+    FIND_KINDS
+} FindingKind;
+
+typedef struct FindingRule {
+    const char *id;      /* "input-error", ... */
+    const char *title;   /* one line, for SARIF shortDescription */
+} FindingRule;
+
+extern const FindingRule finding_rules[FIND_KINDS];
+
+/* The kind of a diagnostic: a read failure has no line. */
+FindingKind finding_of_diag(const Diag *d);
+
+/* A check's result in one line: "V <= 8 ft/s: 9.120 ft/s <= 8.000 ft/s,
+ * utilisation 1.14", plus the case rows where it fails. `fails` is set
+ * when it fails at the base values or in any case row. */
+void render_check_verdict(const Evaluated *ev, size_t stmt, StrBuf *out, bool *fails);
+
+/* A 1-based byte column of a line of `doc` as 1-based UTF-16 units. */
+int render_utf16_col(const Document *doc, int line, int byte_col);
+
 #endif

@@ -34,7 +34,7 @@ enum { EXIT_HOLDS = 0, EXIT_CHECK_FAILS = 1, EXIT_INPUT = 2, EXIT_IO = 3 };
 static const char usage_text[] =
     "usage: headroom COMMAND [ARGS]\n"
     "\n"
-    "  headroom check FILE... [--json]\n"
+    "  headroom check FILE... [--format text|json|junit|sarif|github] [--json]\n"
     "      evaluate; print diagnostics and a summary of the checks\n"
     "  headroom build FILE [-o OUT] [--format pdf|text|json] [--strict] [--since OLD]\n"
     "      write the report (default: FILE without .md/.calc, plus .pdf)\n"
@@ -84,19 +84,61 @@ static char *default_output(const char *in, const char *ext)
 
 /* ---- check ---------------------------------------------------------------- */
 
+typedef enum CheckFormat { CHK_TEXT, CHK_JSON, CHK_JUNIT, CHK_SARIF, CHK_GITHUB } CheckFormat;
+
+static const char check_help[] =
+    "usage: headroom check FILE... [--format text|json|junit|sarif|github] [--json]\n"
+    "Evaluate each calc file, print diagnostics and the checks.\n"
+    "--format picks what goes to standard output: text (the default: one line\n"
+    "per check), json (the results; --json is the same), junit (JUnit XML, one\n"
+    "test case per check), sarif (SARIF 2.1.0) or github (workflow annotations).\n"
+    "Diagnostics with the source line and a caret always go to standard error.\n"
+    "Exit 0 when every check holds, 1 when one fails, 2 on input errors.\n";
+
+static void print_check_text(const Evaluated *ev, const DiagList *dl)
+{
+    const Document *doc = ev->doc;
+    if (ev->case_rows_failing)
+        printf("%s: checks fail in %zu case row%s\n", doc->file, ev->case_rows_failing,
+               ev->case_rows_failing == 1 ? "" : "s");
+    printf("%s: %zu check%s, %zu hold%s, %zu fail%s%s\n", doc->file, ev->nchecks,
+           ev->nchecks == 1 ? "" : "s", ev->nchecks - ev->nfailed,
+           ev->nchecks - ev->nfailed == 1 ? "s" : "", ev->nfailed, ev->nfailed == 1 ? "s" : "",
+           dl->errors ? " (input has errors)" : "");
+    for (size_t i = 0; i < doc->nstmts; i++) {
+        const Stmt *s = doc->stmts[i];
+        const StmtResult *r = &ev->results[i];
+        if (s->kind == STMT_CHECK && r->state == RES_OK) {
+            char u[32] = "n/a";
+            if (isfinite(r->utilization))
+                num_sig(r->utilization, 3, u, sizeof u);
+            printf("  %-5s %s (utilisation %s)\n", r->holds ? "holds" : "FAILS", s->label, u);
+        }
+    }
+}
+
 static int cmd_check(int argc, char **argv)
 {
-    bool json = false;
+    CheckFormat fmt = CHK_TEXT;
     size_t nfiles = 0;
     char **files = calloc((size_t)argc + 1, sizeof *files);
     for (int i = 0; i < argc; i++) {
-        if (strcmp(argv[i], "--json") == 0)
-            json = true;
-        else if (strcmp(argv[i], "--help") == 0) {
-            fputs("usage: headroom check FILE... [--json]\n"
-                  "Evaluate each calc file, print diagnostics and the checks.\n"
-                  "Exit 0 when every check holds, 1 when one fails, 2 on input errors.\n",
-                  stdout);
+        if (strcmp(argv[i], "--json") == 0) {
+            fmt = CHK_JSON;
+        } else if (strcmp(argv[i], "--format") == 0 || strncmp(argv[i], "--format=", 9) == 0) {
+            const char *f = argv[i][8] == '=' ? argv[i] + 9 : i + 1 < argc ? argv[++i] : "";
+            static const char *const names[] = {"text", "json", "junit", "sarif", "github"};
+            size_t k = 0;
+            while (k < 5 && strcmp(f, names[k]) != 0)
+                k++;
+            if (k == 5) {
+                fprintf(stderr, "headroom check: unknown format '%s' (text, json, junit, sarif or github)\n", f);
+                free(files);
+                return EXIT_INPUT;
+            }
+            fmt = (CheckFormat)k;
+        } else if (strcmp(argv[i], "--help") == 0) {
+            fputs(check_help, stdout);
             free(files);
             return 0;
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
@@ -115,57 +157,53 @@ static int cmd_check(int argc, char **argv)
     DiagList all = {0};
     Document **docs = calloc(nfiles, sizeof *docs);
     Evaluated **evs = calloc(nfiles, sizeof *evs);
+    DiagList *dls = calloc(nfiles, sizeof *dls);
+    CheckRun *runs = calloc(nfiles, sizeof *runs);
     size_t nev = 0;
     for (size_t f = 0; f < nfiles; f++) {
-        DiagList dl = {0};
-        Document *doc = doc_load(files[f], &dl);
+        DiagList *dl = &dls[f];
+        Document *doc = doc_load(files[f], dl);
         docs[f] = doc;
+        runs[f] = (CheckRun){files[f], NULL, dl};
         if (!doc) {
-            print_diags(&dl, NULL);
-            diag_free(&dl);
+            print_diags(dl, NULL);
             status = EXIT_IO;
             continue;
         }
-        Evaluated *ev = eval_document(doc, &dl);
+        Evaluated *ev = eval_document(doc, dl);
         evs[nev++] = ev;
-        print_diags(&dl, doc);
-        if (dl.errors) {
+        runs[f].ev = ev;
+        print_diags(dl, doc);
+        if (dl->errors) {
             if (status < EXIT_INPUT)
                 status = EXIT_INPUT;
         } else if ((ev->nfailed || ev->case_rows_failing) && status == EXIT_HOLDS) {
             status = EXIT_CHECK_FAILS; /* a check failing in a case row fails too */
         }
-        if (!json) {
-            if (ev->case_rows_failing)
-                printf("%s: checks fail in %zu case row%s\n", doc->file, ev->case_rows_failing,
-                       ev->case_rows_failing == 1 ? "" : "s");
-            printf("%s: %zu check%s, %zu hold%s, %zu fail%s%s\n", doc->file, ev->nchecks,
-                   ev->nchecks == 1 ? "" : "s", ev->nchecks - ev->nfailed,
-                   ev->nchecks - ev->nfailed == 1 ? "s" : "", ev->nfailed, ev->nfailed == 1 ? "s" : "",
-                   dl.errors ? " (input has errors)" : "");
-            for (size_t i = 0; i < doc->nstmts; i++) {
-                const Stmt *s = doc->stmts[i];
-                const StmtResult *r = &ev->results[i];
-                if (s->kind == STMT_CHECK && r->state == RES_OK) {
-                    char u[32] = "n/a";
-                    if (isfinite(r->utilization))
-                        num_sig(r->utilization, 3, u, sizeof u);
-                    printf("  %-5s %s (utilisation %s)\n", r->holds ? "holds" : "FAILS", s->label, u);
-                }
-            }
-        }
+        if (fmt == CHK_TEXT)
+            print_check_text(ev, dl);
         /* Keep diagnostics for the JSON output. */
-        for (size_t i = 0; i < dl.len; i++)
-            diag_add(&all, dl.items[i].severity, dl.items[i].pos, "%s", dl.items[i].message);
-        diag_free(&dl);
+        for (size_t i = 0; i < dl->len; i++)
+            diag_add(&all, dl->items[i].severity, dl->items[i].pos, "%s", dl->items[i].message);
     }
-    if (json && nev > 0 && !ferror(stdout))
-        render_json((const Evaluated *const *)evs, &all, nev, stdout);
-    if (fflush(stdout) != 0 && status < EXIT_IO)
+    bool ok = true;
+    if (fmt == CHK_JSON && nev > 0 && !ferror(stdout))
+        ok = render_json((const Evaluated *const *)evs, &all, nev, stdout);
+    else if (fmt == CHK_JUNIT)
+        ok = render_junit(runs, nfiles, stdout);
+    else if (fmt == CHK_SARIF)
+        ok = render_sarif(runs, nfiles, stdout);
+    else if (fmt == CHK_GITHUB)
+        ok = render_github(runs, nfiles, stdout);
+    if ((!ok || fflush(stdout) != 0) && status < EXIT_IO)
         status = EXIT_IO;
     diag_free(&all);
-    for (size_t f = 0; f < nfiles; f++)
+    for (size_t f = 0; f < nfiles; f++) {
+        diag_free(&dls[f]);
         doc_free(docs[f]);
+    }
+    free(runs);
+    free(dls);
     free(docs);
     free(evs);
     free(files);
