@@ -15,7 +15,7 @@ BUILD   := build
 # Debian packages the build, the tests and the reference checks need.
 DEB_PACKAGES := libcmark-gfm-dev libcmark-gfm-extensions-dev libhpdf-dev libyaml-dev \
                 libjansson-dev nettle-dev fonts-dejavu-core libcmocka-dev pkg-config \
-                units python3-fluids python3-iapws poppler-utils qpdf \
+                units python3-fluids python3-iapws python3-scipy poppler-utils qpdf \
                 clang libclang-rt-14-dev
 
 PKGS    := libcmark-gfm jansson nettle yaml-0.1

@@ -221,6 +221,7 @@ typedef struct Meta {
     UnitSystem units;
     Paper paper;
     int digits;
+    const char *code;        /* `code:` the model plumbing code's key ("IPC 2018"); NULL: the default */
     Revision *revisions;
     size_t nrevisions;
     bool present;            /* the file had front matter */

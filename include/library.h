@@ -45,6 +45,7 @@ typedef struct CallCtx {
     UnitSystem units;
     const Method *methods[CALL_MAX_METHODS];   /* methods used by this statement */
     size_t nmethods;
+    const char *code;       /* the front matter's `code:` key, or NULL for the default */
 } CallCtx;
 
 typedef bool (*BuiltinFn)(CallCtx *cx, const CallArgs *a, Value *out);

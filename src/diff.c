@@ -120,6 +120,7 @@ static void compare_meta(Builder *b)
     meta_text(b, "units", o->units == UNITS_SI ? "SI" : "US", n->units == UNITS_SI ? "SI" : "US", true);
     meta_text(b, "paper", o->paper == PAPER_A4 ? "a4" : "letter", n->paper == PAPER_A4 ? "a4" : "letter", true);
     meta_text(b, "digits", arena_printf(a, "%d", o->digits), arena_printf(a, "%d", n->digits), true);
+    meta_text(b, "code", o->code ? o->code : "(default)", n->code ? n->code : "(default)", true);
 }
 
 /* ---- formulas as trees -------------------------------------------------- */

@@ -478,7 +478,7 @@ static void set_var(Evaluated *ev, const Stmt *s, double x, DiagList *diags)
 /* Evaluate both sides of the equation as they stand. */
 static bool equation_sides(Evaluated *ev, const Stmt *s, DiagList *diags, Value *l, Value *r)
 {
-    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0};
+    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code};
     Ctx c = {ev, ev->doc, diags, &cc, 0};
     bool ok = eval_expr(&c, s->lhs, l);
     ok = eval_expr(&c, s->rhs, r) && ok;
@@ -786,7 +786,7 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
     for (size_t k = 0; k < s->ndeps; k++)
         if (ev->results[s->deps[k]].state != RES_OK)
             return; /* not evaluated: an input failed */
-    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0};
+    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code};
     Ctx c = {ev, ev->doc, diags, &cc, 0};
     switch (s->kind) {
     case STMT_DEF: {
@@ -908,7 +908,7 @@ static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagL
             return; /* reported already, or the input itself failed */
         base[k] = ev->results[slots[k]].value;
     }
-    CallCtx cc = {a, diags, ev->units, {0}, 0};
+    CallCtx cc = {a, diags, ev->units, {0}, 0, ev->doc->meta.code};
     Ctx c = {ev, doc, diags, &cc, 0};
     /* The shown expressions are checked once, with the calc's own values and
      * errors reported, so a bad field or dimension is an error, not a

@@ -5,6 +5,7 @@
  * copied into the document's Arena. Defaults: US units, letter paper, four
  * significant digits. */
 #include "frontmatter.h"
+#include "methods/demand.h"
 
 #include <ctype.h>
 #include <stdlib.h>
@@ -173,13 +174,25 @@ static void one_key(FmCtx *c, const char *key, yaml_node_t *k, yaml_node_t *v)
             diag_error(c->diags, node_pos(c, v), "front matter: 'digits' must be a whole number from 2 to 10, found '%s'", s);
         else if (s)
             m->digits = (int)d;
+    } else if (strcmp(key, "code") == 0) {
+        const char *s = scalar(c, v, key);
+        const PlumbingCode *pc = s ? plumbing_code_find(s) : NULL;
+        if (pc) {
+            m->code = pc->key;
+        } else if (s) {
+            char list[256];
+            plumbing_codes_list(list, sizeof list);
+            diag_error(c->diags, node_pos(c, v),
+                       "front matter: 'code' names the model plumbing code whose fixture tables "
+                       "wsfu() and hunter() read; known: %s; found '%s'", list, s);
+        }
     } else if (strcmp(key, "revisions") == 0) {
         revisions(c, v);
     } else {
         diag_error(c->diags, node_pos(c, k),
                    "front matter: unknown key '%s' (known: title, project, client, number, subject, "
                    "revision, date, prepared, checked, approved, engineer, license, status, units, "
-                   "paper, digits, revisions)", key);
+                   "paper, digits, code, revisions)", key);
     }
 }
 

@@ -94,6 +94,7 @@ static json_t *meta_json(const Meta *m)
     json_object_set_new(o, "units", json_string(m->units == UNITS_SI ? "SI" : "US"));
     json_object_set_new(o, "paper", json_string(m->paper == PAPER_A4 ? "a4" : "letter"));
     json_object_set_new(o, "digits", json_integer(m->digits));
+    set_text(o, "code", m->code);
     if (m->nrevisions) {
         json_t *revs = json_array();
         for (size_t i = 0; i < m->nrevisions; i++) {

@@ -530,13 +530,30 @@ static double fn_caution(Pdf *P, const Item *it, double top)
     return h;
 }
 
+/* Did any statement take a load or a demand from a code's fixture tables? */
+static bool uses_fixture_demand(const Evaluated *ev)
+{
+    for (size_t i = 0; i < ev->nmethods; i++) {
+        const char *k = ev->methods[i]->key;
+        if (strncmp(k, "wsfu:", 5) == 0 || strncmp(k, "hunter:", 7) == 0)
+            return true;
+    }
+    return false;
+}
+
+/* The cautions of templates/cautions.md; the fixture demand caution only
+ * where fixture loads or demands are used, since a caution that does not
+ * apply is noise on a sealed sheet. */
 static void caution_items(Pdf *P, Vec *items, bool small)
 {
+    static const char DEMAND_TOPIC[] = "- **Fixture demand.**";
+    bool demand = uses_fixture_demand(P->ev);
     const char *t = TEXT_CAUTIONS;
     while (*t) {
         const char *e = strchr(t, '\n');
         size_t len = e ? (size_t)(e - t) : strlen(t);
-        if (len > 2 && t[0] == '-' && t[1] == ' ') {
+        bool skip = !demand && strncmp(t, DEMAND_TOPIC, sizeof DEMAND_TOPIC - 1) == 0;
+        if (len > 2 && t[0] == '-' && t[1] == ' ' && !skip) {
             char *line = arena_strndup(&P->arena, t + 2, len - 2);
             item_add(items, P, fn_caution, line, small, 4);
         }

@@ -1,0 +1,306 @@
+/* demand_lib.c — the calc functions wsfu(), hunter() and peak_demand().
+ *
+ * Glue between the evaluator and the tables and models of demand.c
+ * (DESIGN 2.11): read the arguments, find the code the front matter's
+ * `code:` names, look the fixture up in that code's load table, and cite
+ * the very row used so the report can name code, edition, table and row.
+ * A table or row that is not shipped — because no published copy of it
+ * could be verified — is refused with a message that says so, never
+ * replaced by a number from memory. */
+#include "library.h"
+
+#include "methods/demand.h"
+
+#include <ctype.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+bool fn_wsfu(CallCtx *cx, const CallArgs *a, Value *out);
+bool fn_hunter(CallCtx *cx, const CallArgs *a, Value *out);
+bool fn_peak_demand(CallCtx *cx, const CallArgs *a, Value *out);
+
+#define GPM (0.003785411784 / 60.0) /* 1 gal/min in m^3/s: 231 in^3 per minute */
+
+static Pos pos_of(const CallArgs *a, size_t i)
+{
+    return i < a->n && a->arg_pos ? a->arg_pos[i] : a->pos;
+}
+
+static const PlumbingCode *code_of(const CallCtx *cx)
+{
+    const PlumbingCode *c = cx->code ? plumbing_code_find(cx->code) : NULL;
+    return c ? c : plumbing_code_default();
+}
+
+/* A keyword argument that must be one of a few strings; -1 when absent,
+ * -2 after an error. */
+static int kw_choice(CallCtx *cx, const CallArgs *a, const char *name, const char *const *choices)
+{
+    Pos at;
+    const Value *v = kw_get(a, name, &at);
+    if (!v)
+        return -1;
+    char list[160] = "";
+    size_t len = 0;
+    for (int i = 0; choices[i]; i++) {
+        if (v->kind == VAL_STRING && strcmp(v->str, choices[i]) == 0)
+            return i;
+        int w = snprintf(list + len, sizeof list - len, "%s\"%s\"", i ? " or " : "", choices[i]);
+        if (w > 0 && (size_t)w < sizeof list - len)
+            len += (size_t)w;
+    }
+    if (v->kind == VAL_STRING) {
+        diag_error(cx->diags, at, "%s: %s= must be %s, found \"%s\"", a->name, name, list, v->str);
+    } else {
+        char got[96];
+        value_describe(v, cx->units, got, sizeof got);
+        diag_error(cx->diags, at, "%s: %s= must be %s, found %s", a->name, name, list, got);
+    }
+    return -2;
+}
+
+static const char *const USES[] = {"private", "public", NULL};
+static const char *const SIDES[] = {"cold", "hot", "total", NULL};
+static const char *const SYSTEMS[] = {"flush tank", "flush valve", NULL};
+
+/* The Method that cites one row of a load table, kept in the arena. */
+static const Method *load_method(CallCtx *cx, const PlumbingCode *c, const FixtureLoadRow *r)
+{
+    Method *m = arena_alloc(cx->arena, sizeof *m);
+    char cold[32], hot[32];
+    snprintf(cold, sizeof cold, isnan(r->cold) ? "no cold" : "%g cold", r->cold);
+    snprintf(hot, sizeof hot, isnan(r->hot) ? "no hot" : "%g hot", r->hot);
+    m->key = arena_printf(cx->arena, "wsfu:%s:%s:%d", c->key, r->kind, (int)r->use);
+    m->title = arena_printf(cx->arena, "Water supply fixture units of a %s (%s, %s): %s, %s, %g total",
+                            r->kind, r->occupancy, r->control, cold, hot, r->total);
+    m->formula = NULL;
+    m->validity = "the load of one fixture; loads add, demands do not";
+    m->reference = arena_printf(cx->arena, "%s, %s, row \"%s\", %s, %s", c->name, c->load_table,
+                                r->kind, r->occupancy, r->control);
+    return m;
+}
+
+/* The diagnostic for a kind that is not found. */
+static void load_error(CallCtx *cx, const PlumbingCode *c, const char *fn, Pos at, const char *kind,
+                       LoadStatus st, FixtureUse use)
+{
+    if (st == LOAD_NOT_SHIPPED) {
+        diag_error(cx->diags, at,
+                   "%s: the %s row for \"%s\" (%s) is not shipped: it could not be verified "
+                   "against a published copy of the table; take that load from the code adopted "
+                   "for the project and enter it as a number",
+                   fn, c->key, kind, c->load_table);
+    } else if (st == LOAD_NO_USE) {
+        char uses[64];
+        fixture_uses_list(c, kind, uses, sizeof uses);
+        diag_error(cx->diags, at, "%s: %s (%s) lists \"%s\" for %s use only, not %s", fn, c->key,
+                   c->load_table, kind, uses, use == FIXTURE_PUBLIC ? "public" : "private");
+    } else {
+        const char *near = fixture_kind_nearest(c, kind);
+        if (near) {
+            diag_error(cx->diags, at, "%s: unknown fixture kind \"%s\"; did you mean \"%s\"?", fn,
+                       kind, near);
+        } else {
+            char list[1024];
+            fixture_kinds_list(c, list, sizeof list);
+            diag_error(cx->diags, at, "%s: unknown fixture kind \"%s\"; the shipped rows of %s %s are %s",
+                       fn, kind, c->key, c->load_table, list);
+        }
+    }
+}
+
+/* ---- wsfu(KIND, water=, use=) ------------------------------------------- */
+
+/* wsfu("lavatory", water="hot", use="public") -> the load in water supply
+ * fixture units (a pure number), from the load table of the front matter's
+ * code. water= defaults to "total"; without use= the private row is taken
+ * where the table has one, else its only row. */
+bool fn_wsfu(CallCtx *cx, const CallArgs *a, Value *out)
+{
+    static const char *const allowed[] = {"water", "use", NULL};
+    const char *kind;
+    if (!kw_check(cx, a, allowed) || !arg_string(cx, a, 0, "KIND", &kind))
+        return false;
+    int side = kw_choice(cx, a, "water", SIDES);
+    int use = kw_choice(cx, a, "use", USES);
+    if (side == -2 || use == -2)
+        return false;
+    const PlumbingCode *c = code_of(cx);
+    FixtureUse fu = use < 0 ? FIXTURE_USE_ANY : (FixtureUse)use;
+    const FixtureLoadRow *row = NULL;
+    LoadStatus st = fixture_load_find(c, kind, fu, &row);
+    if (st != LOAD_OK) {
+        load_error(cx, c, "wsfu", pos_of(a, 0), kind, st, fu);
+        return false;
+    }
+    call_use_method(cx, load_method(cx, c, row));
+    WaterSide w = side < 0 ? WATER_TOTAL : (WaterSide)side;
+    *out = value_number(qty_number(fixture_load_value(row, w)));
+    return true;
+}
+
+/* ---- hunter(LOAD, system=) ------------------------------------------------ */
+
+/* hunter(L, system="flush tank"|"flush valve") -> the peak demand of a total
+ * load of L wsfu by the code's demand table, linear between its rows;
+ * refused outside the table. system= defaults to "flush tank". */
+bool fn_hunter(CallCtx *cx, const CallArgs *a, Value *out)
+{
+    static const char *const allowed[] = {"system", NULL};
+    double load;
+    if (!kw_check(cx, a, allowed) || !arg_dimensionless(cx, a, 0, "LOAD, in water supply fixture units", &load))
+        return false;
+    int sys = kw_choice(cx, a, "system", SYSTEMS);
+    if (sys == -2)
+        return false;
+    DemandSystem ds = sys == 1 ? SYSTEM_FLUSH_VALVE : SYSTEM_FLUSH_TANK;
+    const PlumbingCode *c = code_of(cx);
+    double gpm, first = 0, last = 0;
+    size_t lo = 0, hi = 0;
+    switch (demand_interpolate(c->demand, c->ndemand, ds, load, &gpm, &lo, &hi)) {
+    case DEMAND_OK:
+        break;
+    case DEMAND_NO_TABLE:
+        diag_error(cx->diags, a->pos,
+                   "hunter: the %s demand table (%s) is not shipped: %s; take the demand from the "
+                   "table of the code adopted for the project and enter it as a flow",
+                   c->key, c->demand_table, c->why_no_demand ? c->why_no_demand : "it has no rows");
+        return false;
+    case DEMAND_BAD_LOAD:
+        diag_error(cx->diags, pos_of(a, 0), "hunter: the load is not a finite number");
+        return false;
+    case DEMAND_BELOW:
+    case DEMAND_ABOVE:
+        demand_column_range(c->demand, c->ndemand, ds, &first, &last);
+        diag_error(cx->diags, pos_of(a, 0),
+                   "hunter: a load of %g wsfu is outside %s %s for %s systems, which runs from %g "
+                   "to %g wsfu",
+                   load, c->key, c->demand_table, SYSTEMS[ds], first, last);
+        return false;
+    }
+    Method *m = arena_alloc(cx->arena, sizeof *m);
+    m->key = arena_printf(cx->arena, "hunter:%s:%d:%zu:%zu", c->key, (int)ds, lo, hi);
+    if (lo == hi)
+        m->title = arena_printf(cx->arena, "Peak demand by Hunter's curve, %s systems: the row %g wsfu",
+                                SYSTEMS[ds], c->demand[lo].load);
+    else
+        m->title = arena_printf(cx->arena,
+                                "Peak demand by Hunter's curve, %s systems: linear between the rows "
+                                "%g and %g wsfu",
+                                SYSTEMS[ds], c->demand[lo].load, c->demand[hi].load);
+    m->formula = lo == hi ? NULL : "Q = Q_1 + (Q_2 - Q_1)*(L - L_1)/(L_2 - L_1)";
+    m->validity = "total loads within the table; the demand of fixtures, not of continuous uses";
+    m->reference = arena_printf(cx->arena, "%s, %s", c->name, c->demand_table);
+    call_use_method(cx, m);
+    *out = value_hinted(qty(gpm * GPM, DIM_FLOW), "gal/min", "L/s");
+    return true;
+}
+
+/* ---- peak_demand(FIXTURES, percentile=) ------------------------------------ */
+
+typedef struct FixtureItem {
+    double count;
+    char kind[96];
+    FixtureUse use;
+    Pos pos;
+} FixtureItem;
+
+/* Read "12 lavatory private, 8 shower, 10 water closet tank": each item a
+ * whole count, a fixture kind and an optional use word. Positions point
+ * into the string (its opening quote is at `at`). Returns the item count,
+ * or -1 after an error. */
+static long fixtures_parse(CallCtx *cx, const char *fn, const char *s, Pos at, FixtureItem *items,
+                           size_t max)
+{
+    size_t n = 0;
+    const char *p = s;
+    for (;;) {
+        while (*p == ' ' || *p == '\t')
+            p++;
+        const char *start = p, *comma = strchr(p, ',');
+        const char *end = comma ? comma : p + strlen(p);
+        Pos ip = at;
+        ip.col += (int)(start - s) + 1;
+        while (end > start && (end[-1] == ' ' || end[-1] == '\t'))
+            end--;
+        if (end == start) {
+            diag_error(cx->diags, ip, "%s: expected a count and a fixture kind, like \"12 lavatory\"", fn);
+            return -1;
+        }
+        if (n == max) {
+            diag_error(cx->diags, ip, "%s: more than %zu fixture items in one list", fn, max);
+            return -1;
+        }
+        char *num_end;
+        double count = strtod(start, &num_end);
+        if (num_end == start || num_end > end || !isfinite(count) || count < 0 ||
+            count != floor(count) || count > 1e6) {
+            diag_error(cx->diags, ip, "%s: each fixture item starts with a whole count from 0 to 1000000, found \"%.*s\"",
+                       fn, (int)(end - start), start);
+            return -1;
+        }
+        const char *k = num_end;
+        while (k < end && (*k == ' ' || *k == '\t'))
+            k++;
+        const char *kend = end;
+        FixtureUse use = FIXTURE_USE_ANY;
+        /* a trailing "private" or "public" is the use */
+        const char *last = kend;
+        while (last > k && last[-1] != ' ')
+            last--;
+        if (last > k && (size_t)(kend - last) == 7 && strncmp(last, "private", 7) == 0)
+            use = FIXTURE_PRIVATE, kend = last;
+        else if (last > k && (size_t)(kend - last) == 6 && strncmp(last, "public", 6) == 0)
+            use = FIXTURE_PUBLIC, kend = last;
+        while (kend > k && kend[-1] == ' ')
+            kend--;
+        if (kend == k || (size_t)(kend - k) >= sizeof items[n].kind) {
+            Pos kp = at;
+            kp.col += (int)(k - s) + 1;
+            diag_error(cx->diags, kp, "%s: expected a fixture kind after the count %g", fn, count);
+            return -1;
+        }
+        items[n].count = count;
+        memcpy(items[n].kind, k, (size_t)(kend - k));
+        items[n].kind[kend - k] = '\0';
+        items[n].use = use;
+        items[n].pos = at;
+        items[n].pos.col += (int)(k - s) + 1;
+        n++;
+        if (!comma)
+            break;
+        p = comma + 1;
+    }
+    return (long)n;
+}
+
+/* peak_demand("12 lavatory private, 8 shower", percentile=99) -> record
+ * `Q method`. The fixtures are read and checked against the code's load
+ * table; the probability table of the water demand calculator is needed
+ * for the number itself. */
+bool fn_peak_demand(CallCtx *cx, const CallArgs *a, Value *out)
+{
+    static const char *const allowed[] = {"percentile", NULL};
+    const char *list;
+    if (!kw_check(cx, a, allowed) || !arg_string(cx, a, 0, "FIXTURES", &list))
+        return false;
+    Pos pp;
+    const Value *pv = kw_get(a, "percentile", &pp);
+    if (pv && (pv->kind != VAL_NUMBER || !dim_is_none(pv->q.dim) || !(pv->q.si > 50 && pv->q.si < 100))) {
+        diag_error(cx->diags, pp, "peak_demand: percentile= must be a pure number above 50 and below 100 (99 is the 99th percentile)");
+        return false;
+    }
+    enum { MAX_ITEMS = 64 };
+    FixtureItem items[MAX_ITEMS];
+    long n = fixtures_parse(cx, "peak_demand", list, pos_of(a, 0), items, MAX_ITEMS);
+    if (n < 0)
+        return false;
+    (void)out;
+    diag_error(cx->diags, a->pos,
+               "peak_demand: the fixture probabilities and flows of the water demand calculator "
+               "(UPC Appendix M; IPC Appendix N) are not shipped: no published copy of that table "
+               "could be verified, so no peak demand can be computed from it; enter the demand as a flow");
+    return false;
+}
