@@ -22,7 +22,11 @@ enum {
     SOLVE_MAX_ITERATIONS = 1500,        /* Brent iterations of one solve: enough to bisect
                                            any bracket of doubles down to a root of zero */
     SUGGEST_MAX_NAMES = 5000,           /* earlier names searched for a "did you mean" */
-    SUGGEST_MAX_ERRORS = 1000           /* after this many errors, no more "did you mean" */
+    SUGGEST_MAX_ERRORS = 1000,          /* after this many errors, no more "did you mean" */
+    LSP_MAX_MESSAGE = 32 * 1024 * 1024, /* bytes of one language-server message body */
+    LSP_MAX_HEADER_LINE = 1024,         /* bytes of one header line of a message */
+    LSP_MAX_DOCUMENTS = 64,             /* calcs open in one language server at once */
+    LSP_MAX_OPEN_BYTES = 64 * 1024 * 1024 /* text of all the open calcs together */
 };
 
 #endif

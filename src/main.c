@@ -20,6 +20,7 @@
 #include "diff.h"
 #include "doc.h"
 #include "eval.h"
+#include "lsp.h"
 #include "numfmt.h"
 #include "parse.h"
 #include "render.h"
@@ -42,6 +43,8 @@ static const char usage_text[] =
     "      write a commented starter calc (riser, pump-line, pipe-rating)\n"
     "  headroom diff OLD NEW [--json] [--rel-tol X]\n"
     "      what changed in meaning between two revisions (a file or REV:path)\n"
+    "  headroom lsp\n"
+    "      a Language Server Protocol server on standard input and output\n"
     "  headroom convert \"VALUE UNIT\" UNIT\n"
     "      convert a value between units (10 significant digits)\n"
     "  headroom --help | --version\n"
@@ -605,6 +608,26 @@ static int cmd_convert(int argc, char **argv)
     return status;
 }
 
+/* ---- lsp ------------------------------------------------------------------ */
+
+static int cmd_lsp(int argc, char **argv)
+{
+    if (argc == 1 && strcmp(argv[0], "--help") == 0) {
+        fputs("usage: headroom lsp\n"
+              "Serve the Language Server Protocol on standard input and output:\n"
+              "diagnostics on open and change, hover, inlay hints with each statement's\n"
+              "value, go to definition and completion of names, units, functions,\n"
+              "fitting kinds and pipe sizes. An editor starts it; see the manual.\n",
+              stdout);
+        return 0;
+    }
+    if (argc != 0) {
+        fputs("usage: headroom lsp\n", stderr);
+        return EXIT_INPUT;
+    }
+    return lsp_serve(STDIN_FILENO, stdout);
+}
+
 int main(int argc, char **argv)
 {
     if (argc < 2 || strcmp(argv[1], "--help") == 0 || strcmp(argv[1], "-h") == 0 ||
@@ -627,6 +650,8 @@ int main(int argc, char **argv)
         return cmd_convert(argc - 2, argv + 2);
     if (strcmp(cmd, "new") == 0)
         return cmd_new(argc - 2, argv + 2);
+    if (strcmp(cmd, "lsp") == 0)
+        return cmd_lsp(argc - 2, argv + 2);
     fprintf(stderr, "headroom: unknown command '%s'\n%s", cmd, usage_text);
     return EXIT_INPUT;
 }
