@@ -16,6 +16,7 @@ BUILD   := build
 DEB_PACKAGES := libcmark-gfm-dev libcmark-gfm-extensions-dev libhpdf-dev libyaml-dev \
                 libjansson-dev nettle-dev fonts-dejavu-core libcmocka-dev pkg-config \
                 units python3-fluids python3-iapws python3-scipy poppler-utils qpdf \
+                icc-profiles-free python3-pikepdf \
                 clang libclang-rt-14-dev neovim
 
 PKGS    := libcmark-gfm jansson nettle yaml-0.1

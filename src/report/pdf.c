@@ -114,10 +114,18 @@ void pdf_fill(Pdf *P, double x, double y, double w, double h, Rgb c)
     HPDF_Page_SetRGBFill(P->page, (HPDF_REAL)INK.r, (HPDF_REAL)INK.g, (HPDF_REAL)INK.b);
 }
 
+/* Links print (PDF/A: the Print flag, 4, set and no hiding flag). */
+static void print_flag(HPDF_Annotation a)
+{
+    if (a)
+        HPDF_Dict_AddNumber((HPDF_Dict)a, "F", 4);
+}
+
 static void no_border(HPDF_Annotation a)
 {
     HPDF_LinkAnnot_SetBorderStyle(a, 0, 0, 0);
     HPDF_LinkAnnot_SetHighlightMode(a, HPDF_ANNOT_INVERT_BOX);
+    print_flag(a);
 }
 
 /* A link to reference number `ref`, whose sheet and height are known from
@@ -139,6 +147,7 @@ void pdf_uri(Pdf *P, double x, double y, double w, double h, const char *url)
     HPDF_Rect r = {(HPDF_REAL)x, (HPDF_REAL)y, (HPDF_REAL)(x + w), (HPDF_REAL)(y + h)};
     HPDF_Annotation a = HPDF_Page_CreateURILinkAnnot(P->page, r, url);
     HPDF_LinkAnnot_SetBorderStyle(a, 0, 0, 0);
+    print_flag(a);
 }
 
 /* Plain text wrapped at spaces (a word longer than the line is cut); a
@@ -263,14 +272,14 @@ static bool load_fonts(Pdf *P)
 }
 
 /* The report date: the front matter's, else SOURCE_DATE_EPOCH, else none. */
-static void report_date(Pdf *P, HPDF_Date *out, bool *has)
+static void report_date(Pdf *P)
 {
     const Meta *m = &P->d->meta;
     int y = 0, mo = 0, da = 0;
-    *has = false;
+    bool has = false;
     P->date[0] = '\0';
     if (m->date && sscanf(m->date, "%4d-%2d-%2d", &y, &mo, &da) == 3) {
-        *has = true;
+        has = true;
     } else {
         const char *sde = getenv("SOURCE_DATE_EPOCH");
         char *end = NULL;
@@ -282,22 +291,13 @@ static void report_date(Pdf *P, HPDF_Date *out, bool *has)
                 y = tmv.tm_year + 1900;
                 mo = tmv.tm_mon + 1;
                 da = tmv.tm_mday;
-                *has = true;
+                has = true;
             }
         }
     }
-    if (!*has)
+    if (!has || mo < 1 || mo > 12 || da < 1 || da > 31 || y < 1000 || y > 9999)
         return;
-    if (mo < 1 || mo > 12 || da < 1 || da > 31 || y < 1000 || y > 9999) {
-        *has = false;
-        return;
-    }
     snprintf(P->date, sizeof P->date, "%04d-%02d-%02d", y, mo, da);
-    memset(out, 0, sizeof *out);
-    out->year = y;
-    out->month = mo;
-    out->day = da;
-    out->ind = 'Z';
 }
 
 /* Info strings: with UTF-8 as the document's current encoder libharu
@@ -320,7 +320,7 @@ static const char *base_name(const char *path)
  * (without /Type /Filespec), so the embedded-file stream, its file
  * specification and the name-tree entry are made here from libharu's
  * object layer, straight from the source bytes in memory. */
-static void attach_source(Pdf *P)
+static HPDF_Dict attach_source(Pdf *P)
 {
     const Document *d = P->d;
     HPDF_Doc pdf = P->doc;
@@ -330,20 +330,20 @@ static void attach_source(Pdf *P)
     if (!names) {
         names = HPDF_NameDict_New(mm, xref);
         if (!names || HPDF_Catalog_SetNames(pdf->catalog, names) != HPDF_OK)
-            return;
+            return NULL;
     }
     HPDF_NameTree tree = HPDF_NameDict_GetNameTree(names, HPDF_NAME_EMBEDDED_FILES);
     if (!tree) {
         tree = HPDF_NameTree_New(mm, xref);
         if (!tree || HPDF_NameDict_SetNameTree(names, HPDF_NAME_EMBEDDED_FILES, tree) != HPDF_OK)
-            return;
+            return NULL;
     }
     HPDF_Dict file = HPDF_DictStream_New(mm, xref);
     HPDF_Dict params = HPDF_Dict_New(mm);
     HPDF_Dict spec = HPDF_Dict_New(mm);
     HPDF_Dict ef = HPDF_Dict_New(mm);
     if (!file || !params || !spec || !ef || HPDF_Xref_Add(xref, spec) != HPDF_OK)
-        return;
+        return NULL;
     file->filter = HPDF_STREAM_FILTER_FLATE_DECODE;
     HPDF_Dict_AddName(file, "Type", "EmbeddedFile");
     HPDF_Dict_AddName(file, "Subtype", "text/markdown");
@@ -367,6 +367,7 @@ static void attach_source(Pdf *P)
     HPDF_Dict_Add(ef, "F", file);
     HPDF_Dict_Add(spec, "EF", ef);
     HPDF_NameTree_Add(tree, HPDF_String_New(mm, name, NULL), spec);
+    return spec;
 }
 
 /* ---- outline ------------------------------------------------------------- */
@@ -398,6 +399,7 @@ static void outline_add(Pdf *P, const Item *it, int sheet, double top)
 static bool build(Pdf *P, const char *path)
 {
     const Document *d = P->d;
+    report_date(P); /* before drawing: the title block falls back to it */
     if (!load_fonts(P))
         return false;
     pdf_sheet_geometry(P);
@@ -468,23 +470,18 @@ static bool build(Pdf *P, const char *path)
     HPDF_SetPageMode(P->doc, HPDF_PAGE_MODE_USE_OUTLINE);
     const Meta *m = &d->meta;
     HPDF_SetCurrentEncoder(P->doc, "UTF-8");
-    set_info(P, HPDF_INFO_TITLE, m->title ? m->title : base_name(d->file));
-    set_info(P, HPDF_INFO_AUTHOR, m->prepared);
-    set_info(P, HPDF_INFO_SUBJECT, m->subject ? m->subject : m->project);
     char kw[512];
     snprintf(kw, sizeof kw, "calculation %s; revision %s; %s; sha256 %s", m->number ? m->number : "",
              m->revision ? m->revision : "", m->status ? m->status : "", d->digest);
-    set_info(P, HPDF_INFO_KEYWORDS, kw);
-    HPDF_SetInfoAttr(P->doc, HPDF_INFO_CREATOR, "headroom " HEADROOM_VERSION);
-    HPDF_Date date;
-    bool has_date;
-    report_date(P, &date, &has_date);
-    if (has_date) {
-        HPDF_SetInfoDateAttr(P->doc, HPDF_INFO_CREATION_DATE, date);
-        HPDF_SetInfoDateAttr(P->doc, HPDF_INFO_MOD_DATE, date);
-    }
-    attach_source(P);
-    if (P->error)
+    PdfInfo info = {m->title ? m->title : base_name(d->file), m->prepared,
+                    m->subject ? m->subject : m->project, kw, "headroom " HEADROOM_VERSION};
+    set_info(P, HPDF_INFO_TITLE, info.title);
+    set_info(P, HPDF_INFO_AUTHOR, info.author);
+    set_info(P, HPDF_INFO_SUBJECT, info.subject);
+    set_info(P, HPDF_INFO_KEYWORDS, info.keywords);
+    set_info(P, HPDF_INFO_CREATOR, info.creator);
+    HPDF_Dict spec = attach_source(P);
+    if (P->error || !pdf_archive_prepare(P, &info, spec))
         return false;
     if (HPDF_SaveToFile(P->doc, path) != HPDF_OK || P->error) {
         diag_error(P->diags, ((Pos){NULL, 0, 0}), "cannot write '%s' (libharu error 0x%04X)",

@@ -162,4 +162,15 @@ const char *pdf_revision_row_note(Pdf *P);
 /* The appendix "Changes since revision X". */
 void pdf_revision_items(Pdf *P, Vec *items);
 
+/* pdf_archive.c: PDF/A-3b. The document information as both the Info
+ * dictionary and the XMP metadata state it (NULL: absent). */
+typedef struct PdfInfo {
+    const char *title, *author, *subject, *keywords, *creator;
+} PdfInfo;
+/* Make the file archival just before it is saved: XMP, the sRGB output
+ * intent, valid ToUnicode maps, the source as associated file (its file
+ * specification `source_spec`, may be NULL), dates and the file ID. */
+bool pdf_archive_prepare(Pdf *P, const PdfInfo *info, HPDF_Dict source_spec);
+extern const char *const PDF_ICC_PROFILE;
+
 #endif
