@@ -64,6 +64,8 @@ typedef struct FittingInput {
     double Re;                 /* Reynolds number in that bore */
     double D2;                 /* second (larger) bore for expansion/contraction, m */
     double r;                  /* entrance rounding radius, m (entrance rounded) */
+    double nps;                /* nominal size, in, when known (a pipe record's nps);
+                                * 0: taken from the bore by the schedule 40 table */
 } FittingInput;
 
 /* Words <-> kind. Matching ignores case and whitespace entirely, so
@@ -90,8 +92,12 @@ double fitting_crane_ft(double D);
 
 /* Crane's equivalent length L/D of a kind, or 0 when Crane gives a K
  * directly (entrances, exit, changes of bore) or has no value. For the
- * butterfly valve it depends on D. */
+ * butterfly valve it depends on the NOMINAL size, NPS 2-8 45, 10-14 35,
+ * 16-24 25: fitting_crane_LD_nps takes it (in inches; 0 or less: taken
+ * from the bore D by the ASME B36.10M schedule 40 table, as
+ * fitting_crane_LD always does). */
 double fitting_crane_LD(FittingKind k, double D);
+double fitting_crane_LD_nps(FittingKind k, double D, double nps);
 
 /* The loss coefficient. *K is set only on FIT_OK. */
 FittingStatus fitting_k(FittingMethod m, const FittingInput *in, double *K);

@@ -4,10 +4,12 @@
  * source on top; a zero row means the method does not tabulate that kind,
  * and asking for it is an error rather than a guess from another method.
  * Every K is referred to the velocity in the bore D passed in; the inch
- * based correlations convert D to inches at the last moment. The values
- * were typed from the published tables (from memory, the publications were
- * not at hand) and are checked against python3-fluids 1.0.22 in
- * tests/ref/fittings-fluids.sh. */
+ * based correlations convert D to inches at the last moment. Every row is
+ * checked against the tables as python3-fluids 1.0.22 reproduces them
+ * (fluids.fittings: the Crane TP-410 (2009) K_*_Crane functions and their
+ * L/D, ft_Crane, and the Hooper and Darby dictionaries, which cite Hooper
+ * (1981) Table 1 and Darby (2001) Table 7-3) in tests/ref/fittings-fluids.sh
+ * and tests/unit/test_fittings.c. */
 #include "methods/fittings.h"
 
 #include "methods/pipes.h"
@@ -216,14 +218,25 @@ double fitting_crane_ft(double D)
 
 double fitting_crane_LD(FittingKind k, double D)
 {
+    return fitting_crane_LD_nps(k, D, 0.0);
+}
+
+double fitting_crane_LD_nps(FittingKind k, double D, double nps)
+{
     if (k < 0 || k >= FIT_KIND_COUNT || CRANE_LD[k] <= 0)
         return 0.0;
     if (k == FIT_BUTTERFLY) {
-        /* Size bands 2-8, 10-14, 16-24 in nominal; split at the bores
-         * between neighbouring sizes (9 in and 15 in). */
-        if (D <= 9.0 * INCH)
+        /* Crane's bands are NOMINAL sizes, 2-8, 10-14 and 16-24 in. The
+         * nominal size is the caller's when known (a pipe record), else
+         * taken from the bore by the ASME B36.10M schedule 40 table (as the
+         * Darby method takes D_n); the bands split midway between the
+         * listed sizes, at NPS 9 and 15: a 16 in schedule 40 valve (bore
+         * 15.000 in) is in the 16-24 in band. */
+        if (!(nps > 0.0))
+            nps = pipe_nps_from_sch40_bore(D);
+        if (nps < 9.0)
             return 45;
-        if (D <= 15.0 * INCH)
+        if (nps < 15.0)
             return 35;
         return 25;
     }
@@ -290,7 +303,7 @@ FittingStatus fitting_k(FittingMethod m, const FittingInput *in, double *K)
     case FIT_CRANE:
         if (CRANE_LD[in->kind] == CRANE_DIRECT)
             return crane_direct(in, K);
-        *K = fitting_crane_ft(in->D) * fitting_crane_LD(in->kind, in->D);
+        *K = fitting_crane_ft(in->D) * fitting_crane_LD_nps(in->kind, in->D, in->nps);
         return FIT_OK;
     case FIT_HOOPER: {
         const double *c = HOOPER[in->kind];
@@ -299,7 +312,7 @@ FittingStatus fitting_k(FittingMethod m, const FittingInput *in, double *K)
     }
     case FIT_DARBY: {
         const double *c = DARBY[in->kind];
-        double dn = pipe_nps_from_sch40_bore(in->D);
+        double dn = in->nps > 0.0 ? in->nps : pipe_nps_from_sch40_bore(in->D);
         *K = c[0] / in->Re + c[1] * (1.0 + c[2] / pow(dn, 0.3));
         return FIT_OK;
     }

@@ -34,7 +34,7 @@ static void assert_close(double got, double want, double tol)
 
 static double K_of(FittingMethod m, FittingKind k, double D, double Re, double D2, double r)
 {
-    FittingInput in = {k, D, Re, D2, r};
+    FittingInput in = {k, D, Re, D2, r, 0.0};
     double K = NAN;
     FittingStatus s = fitting_k(m, &in, &K);
     if (s != FIT_OK) {
@@ -113,6 +113,24 @@ static void test_crane_k(void **state)
     assert_close(fitting_crane_LD(FIT_BUTTERFLY, 6.065 * IN), 45, 0);
     assert_close(fitting_crane_LD(FIT_BUTTERFLY, 11.938 * IN), 35, 0);
     assert_close(fitting_crane_LD(FIT_BUTTERFLY, 19.0 * IN), 25, 0);
+    /* Crane TP-410 (2009) chooses the band by NOMINAL size. 16 in schedule
+     * 40 (bore 16.000 - 2*0.500 = 15.000 in, ASME B36.10M as fluids.piping
+     * reproduces it) is NPS 16: 25, not the 35 a 15 in bore split gives. */
+    assert_close(fitting_crane_LD(FIT_BUTTERFLY, 15.000 * IN), 25, 0);
+    /* 8 in schedule 40 (7.981 in) 45; 10 in schedule 40 (10.020 in) 35;
+     * 14 in schedule 40 (13.124 in) 35. */
+    assert_close(fitting_crane_LD(FIT_BUTTERFLY, 7.981 * IN), 45, 0);
+    assert_close(fitting_crane_LD(FIT_BUTTERFLY, 10.020 * IN), 35, 0);
+    assert_close(fitting_crane_LD(FIT_BUTTERFLY, 13.124 * IN), 35, 0);
+    /* With the nominal size given (a pipe record), heavy walls do not move
+     * the band: 10 in schedule 160 (bore 10.750 - 2*1.125 = 8.500 in) is
+     * NPS 10: 35; 16 in schedule 80 (14.314 in) NPS 16: 25; 8 in schedule
+     * 10 (8.329 in) NPS 8: 45. */
+    assert_close(fitting_crane_LD_nps(FIT_BUTTERFLY, 8.500 * IN, 10), 35, 0);
+    assert_close(fitting_crane_LD_nps(FIT_BUTTERFLY, 14.314 * IN, 16), 25, 0);
+    assert_close(fitting_crane_LD_nps(FIT_BUTTERFLY, 8.329 * IN, 8), 45, 0);
+    assert_close(fitting_crane_LD_nps(FIT_BUTTERFLY, 11.938 * IN, 12), 35, 0);
+    assert_close(fitting_crane_LD_nps(FIT_GATE, 8.5 * IN, 10), 8, 0);
 }
 
 /* Entrances and exit (Crane TP-410): sharp 0.5, projecting 0.78, exit 1.0,
@@ -137,7 +155,7 @@ static void test_crane_direct(void **state)
     assert_close(K_of(FIT_CRANE, FIT_CONTRACTION, 2 * IN, 1e5, 4 * IN, -1), 0.375, 1e-12);
     assert_close(K_of(FIT_CRANE, FIT_EXPANSION, 2 * IN, 1e5, 2 * IN, -1), 0.0, 1e-15);
 
-    FittingInput in = {FIT_EXPANSION, 2 * IN, 1e5, 0, -1};
+    FittingInput in = {FIT_EXPANSION, 2 * IN, 1e5, 0, -1, 0};
     double K;
     assert_int_equal(fitting_k(FIT_CRANE, &in, &K), FIT_NEEDS_D2);
     in.D2 = 1 * IN;
@@ -180,7 +198,7 @@ static void test_not_tabulated(void **state)
 {
     (void)state;
     double K;
-    FittingInput in = {FIT_ELBOW45_LONG, 0.05, 1e5, 0, -1};
+    FittingInput in = {FIT_ELBOW45_LONG, 0.05, 1e5, 0, -1, 0};
     assert_int_equal(fitting_k(FIT_CRANE, &in, &K), FIT_NOT_TABULATED);
     in.kind = FIT_BUTTERFLY;
     assert_int_equal(fitting_k(FIT_DARBY, &in, &K), FIT_NOT_TABULATED);
