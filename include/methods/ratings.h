@@ -58,6 +58,10 @@ const PlasticRating *rating_plastic_lookup(const char *material);
  * RATING_T_ABOVE_MAX above the last row. */
 RatingStatus rating_plastic_derate(const PlasticRating *m, double T, double *factor);
 
+/* ASTM D2241 pressure class (Pa, at 73.4 degF) of an SDR the standard
+ * lists (13.5, 17, 21, 26, 32.5, 41), 0 for any other. */
+double rating_d2241_class(double sdr);
+
 /* P = 2*HDS/(SDR - 1), then derated. hds <= 0 takes the table's HDS. */
 RatingStatus rating_plastic(const PlasticRating *m, double sdr, double T, double hds,
                             RatingResult *out);

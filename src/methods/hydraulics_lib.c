@@ -117,30 +117,36 @@ static const Method METHOD_RATING_PVC = {
     "rating_pvc",
     "Thermoplastic pressure rating, PVC 1120, with temperature derating",
     "p = 2*HDS/(SDR - 1)*F_T",
-    "73 degF <= T <= 140 degF (factor 1 below 73 degF); water",
+    "73.4 degF <= T <= 140 degF (F_T = 1.00 at and below 73.4 degF); water",
     "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM D1785 and D2241; "
-    "HDS 2000 psi at 73.4 degF (from memory); derating factors from PVC manufacturers' and "
-    "PPI engineering data (from memory). Verify against the manufacturer's current data.",
+    "HDS 2000 psi for PVC 1120 at 73.4 degF (HDB 4000 psi, service factor 0.5, ASTM D2241 "
+    "appendix, as given in Moser, Buried Pipe Design, ch. 4); ASTM D2241 pressure classes "
+    "from the Hydraulic Institute Engineering Data Book, Table 4.E.2; derating factors F_T "
+    "from GF Harvel, Temperature Derating, Schedule 40 & 80 PVC pipe, linear between rows. "
+    "Verify against the manufacturer's current data.",
 };
 
 static const Method METHOD_RATING_CPVC = {
     "rating_cpvc",
     "Thermoplastic pressure rating, CPVC 4120, with temperature derating",
     "p = 2*HDS/(SDR - 1)*F_T",
-    "73 degF <= T <= 200 degF (factor 1 below 73 degF); water",
-    "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM F441; HDS 2000 psi "
-    "at 73.4 degF (from memory); derating factors from CPVC manufacturers' engineering data "
-    "(from memory). Verify against the manufacturer's current data.",
+    "73.4 degF <= T <= 200 degF (F_T = 1.00 at and below 80 degF); water",
+    "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM F441; HDS 2000 psi for "
+    "CPVC 4120 at 73.4 degF (U.S. Plastic Corp., CPVC pipe physical properties); derating "
+    "factors F_T from GF Harvel, CPVC Industrial Pipe Temperature Derating, linear between "
+    "rows. Verify against the manufacturer's current data.",
 };
 
 static const Method METHOD_RATING_PEX = {
     "rating_pex",
     "Thermoplastic pressure rating, PEX, with temperature derating",
     "p = 2*HDS/(SDR - 1)*F_T",
-    "73.4 degF <= T <= 200 degF (factor 1 below 73.4 degF); water",
-    "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM F876/F877; HDS 630, "
-    "400 and 320 psi at 73.4, 180 and 200 degF (PPI TR-4 HDBs with design factor 0.5, "
-    "from memory), linear between. Verify against the manufacturer's current data.",
+    "73.4 degF <= T <= 180 degF (F_T = 1.00 at and below 73.4 degF); water",
+    "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM F876/F877; HDS 630 psi "
+    "at 73.4 degF and 400 psi at 180 degF, from the published SDR 9 ratings 160 psi at "
+    "73.4 degF and 100 psi at 180 degF (EngineerFix, How Much Pressure Can PEX Pipe Hold?; "
+    "Village Plumbing, Common PEX Pressure Ratings), linear between. Verify against the "
+    "manufacturer's current data.",
 };
 
 static const Method METHOD_RATING_B31 = {
@@ -526,12 +532,18 @@ static Value pressure_value(double p)
     return value_hinted(qty(p, DIM_PRESSURE), "psi", "kPa");
 }
 
-static bool rating_record(CallCtx *cx, const RatingResult *res, Value *out)
+/* rated, derate, p; with a pressure class (p_class > 0, ASTM D2241 pipe at
+ * the standard's HDS) also p_class = class*derate, placed before p, the
+ * same figure unrounded. */
+static bool rating_record(CallCtx *cx, const RatingResult *res, double p_class, Value *out)
 {
-    Record *r = record_new(cx->arena, "rating", 3);
-    record_set(r, 0, "rated", pressure_value(res->rated));
-    record_set(r, 1, "derate", value_number(qty_number(res->derate)));
-    record_set(r, 2, "p", pressure_value(res->p));
+    Record *r = record_new(cx->arena, "rating", p_class > 0.0 ? 4 : 3);
+    size_t i = 0;
+    record_set(r, i++, "rated", pressure_value(res->rated));
+    record_set(r, i++, "derate", value_number(qty_number(res->derate)));
+    if (p_class > 0.0)
+        record_set(r, i++, "p_class", pressure_value(p_class * res->derate));
+    record_set(r, i++, "p", pressure_value(res->p));
     *out = (Value){.kind = VAL_RECORD, .rec = r};
     return true;
 }
@@ -590,7 +602,11 @@ static bool rating_thermoplastic(CallCtx *cx, const CallArgs *a, const Record *p
         call_use_method(cx, &METHOD_RATING_CPVC);
     else
         call_use_method(cx, &METHOD_RATING_PEX);
-    return rating_record(cx, &res, out);
+    const char *standard = field_string(pipe, "standard");
+    double p_class = 0.0;
+    if (!(hds > 0.0) && standard && strcmp(standard, "ASTM D2241") == 0)
+        p_class = rating_d2241_class(sdr);
+    return rating_record(cx, &res, p_class, out);
 }
 
 static bool rating_metal(CallCtx *cx, const CallArgs *a, const Record *pipe,
@@ -690,7 +706,7 @@ static bool rating_metal(CallCtx *cx, const CallArgs *a, const Record *pipe,
                      "%s: Y = 0.4 holds below 900 degF (ASME B31.3 Table 304.1.1); give Y= "
                      "for %s",
                      a->name, show_temp(cx, T, b1, sizeof b1));
-    return rating_record(cx, &res, out);
+    return rating_record(cx, &res, 0.0, out);
 }
 
 bool fn_pressure_rating(CallCtx *cx, const CallArgs *a, Value *out)
@@ -730,6 +746,15 @@ bool fn_wave_speed(CallCtx *cx, const CallArgs *a, Value *out)
         !arg_record(cx, a, 1, "water", "fluid", &fluid))
         return false;
     double E, D, e, K, rho;
+    if (!record_get(pipe, "E") && field_string(pipe, "standard")) {
+        const char *mat = field_string(pipe, "material");
+        diag_error(cx->diags, arg_at(a, 0),
+                   "%s: no verified data for the elastic modulus of %s (%s pipe): no published "
+                   "value could be checked, so headroom ships none; take E from the "
+                   "manufacturer's data",
+                   a->name, mat ? mat : "this material", field_string(pipe, "standard"));
+        return false;
+    }
     if (!field_number(cx, a, 0, pipe, "E", DIM_PRESSURE, &E) ||
         !field_number(cx, a, 0, pipe, "id", DIM_L, &D) ||
         !field_number(cx, a, 0, pipe, "wall", DIM_L, &e) ||

@@ -20,34 +20,35 @@
 #define PSI 6894.757293168361   /* Pa per lbf/in^2 (NIST SP 811) */
 #define PI 3.14159265358979323846
 
-/* Elastic moduli, room temperature, each with its source. */
+/* Elastic moduli, room temperature, each with its source. B31.9 is ASME
+ * B31.9, Building Services Piping, Table 919.3.1 "Moduli of Elasticity and
+ * Thermal Expansion Coefficients" (psi x 10^-6): copper C12200 17.0, PVC
+ * 1120 0.42, CPVC 4120 0.42. Steel is ASME B31.1 Power Piping, Appendix C,
+ * Table C-1, carbon steel C <= 0.30 % at 70 degF, 29.5e6 psi (as reproduced
+ * by The Engineering ToolBox, "Young Modulus of Elasticity for Metals and
+ * Alloys"). No published PEX modulus could be read, so PEX has none
+ * (E = 0): pipe() leaves the field out and wave_speed() says so. */
+#define B31_9 "ASME B31.9, Building Services Piping, Table 919.3.1 (moduli of elasticity)"
 static const PipeStandard STANDARDS[PIPE_STANDARD_COUNT] = {
     {PIPE_ASME_B36_10M, "ASME B36.10M", "Welded and Seamless Wrought Steel Pipe", "steel",
-     "nominal wall", "commercial steel", 29.0e6 * PSI,
-     "carbon steel at room temperature, 29.0e6 psi (200 GPa), a common handbook value "
-     "(from memory); ASME B31.3 Appendix C tabulates 29.5e6 psi at 70 F for C <= 0.30 % "
-     "(from memory)"},
+     "nominal wall", "commercial steel", 29.5e6 * PSI,
+     "carbon steel (C <= 0.30 %) at 70 degF: 29.5e6 psi (203 GPa), ASME B31.1 Power Piping, "
+     "Appendix C, Table C-1"},
     {PIPE_ASTM_D1785, "ASTM D1785", "Poly(Vinyl Chloride) (PVC) Plastic Pipe, Schedules 40, 80, and 120",
-     "PVC", "minimum wall", "plastic", 400000.0 * PSI,
-     "ASTM D1784 cell class 12454 (PVC 1120): tensile modulus at least 400,000 psi (2758 MPa) "
-     "(from memory)"},
+     "PVC", "minimum wall", "plastic", 420000.0 * PSI,
+     "PVC 1120: 420,000 psi (2.90 GPa), " B31_9 "; GF Harvel PVC pipe physical properties "
+     "give the same tensile modulus at 73 degF (ASTM D638)"},
     {PIPE_ASTM_F441, "ASTM F441", "Chlorinated Poly(Vinyl Chloride) (CPVC) Plastic Pipe, Schedules 40 and 80",
-     "CPVC", "minimum wall", "plastic", 423000.0 * PSI,
-     "CPVC 4120, 423,000 psi (2.92 GPa), a typical compound value (from memory); ASTM D1784 "
-     "cell class 23447 requires at least 360,000 psi (from memory)"},
+     "CPVC", "minimum wall", "plastic", 420000.0 * PSI,
+     "CPVC 4120: 420,000 psi (2.90 GPa), " B31_9},
     {PIPE_ASTM_D2241, "ASTM D2241", "Poly(Vinyl Chloride) (PVC) Pressure-Rated Pipe (SDR Series)", "PVC",
-     "minimum wall", "plastic", 400000.0 * PSI,
-     "ASTM D1784 cell class 12454 (PVC 1120): tensile modulus at least 400,000 psi (2758 MPa) "
-     "(from memory)"},
+     "minimum wall", "plastic", 420000.0 * PSI,
+     "PVC 1120: 420,000 psi (2.90 GPa), " B31_9 "; GF Harvel PVC pipe physical properties "
+     "give the same tensile modulus at 73 degF (ASTM D638)"},
     {PIPE_ASTM_B88, "ASTM B88", "Seamless Copper Water Tube", "copper", "nominal wall", "copper",
-     17.0e6 * PSI,
-     "annealed to drawn copper tube, 17e6 psi (117 GPa), Copper Development Association, "
-     "Copper Tube Handbook (from memory)"},
+     17.0e6 * PSI, "copper C12200 (99.9 % Cu): 17.0e6 psi (117 GPa), " B31_9},
     {PIPE_ASTM_F876, "ASTM F876", "Crosslinked Polyethylene (PEX) Tubing", "PEX", "minimum wall",
-     "plastic",
-     100000.0 * PSI,
-     "PEX at 73 F, about 100,000 psi (0.69 GPa); published values range 0.6-0.9 GPa "
-     "(from memory)"},
+     "plastic", 0.0, NULL},
 };
 
 static const PipeRow ROWS[] = {

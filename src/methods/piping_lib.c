@@ -54,7 +54,9 @@ static const Method METHOD_PIPE[PIPE_STANDARD_COUNT] = {
 
 static const Method METHOD_CRANE_K = {
     "crane_tp410_k", "Crane TP-410 resistance coefficient (equivalent length)", "K = f_T*L_e/D",
-    "fully turbulent flow (Re >= 4000); 0.5 in <= D <= 24 in; valves fully open",
+    "fully turbulent flow (Re >= 4000); 0.5 in <= D <= 24 in; valves fully open; butterfly "
+    "valve L/D 45, 35, 25 for nominal sizes 2-8, 10-14, 16-24 in (the pipe record's nominal "
+    "size, or one taken from the bore by the ASME B36.10M schedule 40 table)",
     "Crane Co. (2009). Flow of Fluids Through Valves, Fittings, and Pipe. Technical Paper "
     "No. 410, Stamford, CT."};
 
@@ -92,8 +94,8 @@ static const Method METHOD_HOOPER = {
 
 static const Method METHOD_DARBY = {
     "darby_3k", "Darby 3-K method", "K = K_1/Re + K_i*(1 + K_d/(D_n/(1 in))^0.3)",
-    "all Reynolds numbers; D_n the nominal size, taken from the bore by the ASME B36.10M "
-    "schedule 40 table; valves fully open",
+    "all Reynolds numbers; D_n the nominal size (the pipe record's, or taken from the bore by "
+    "the ASME B36.10M schedule 40 table); valves fully open",
     "Darby, R. (2001). Chemical Engineering Fluid Mechanics, 2nd ed. Marcel Dekker, New York; "
     "Darby, R. (1999). Correlate pressure drops through fittings. Chemical Engineering 106(7), "
     "101-104."};
@@ -246,17 +248,20 @@ bool fn_pipe(CallCtx *cx, const CallArgs *a, Value *out)
     call_use_method(cx, &METHOD_PIPE[s->id]);
     if (rough)
         call_use_method(cx, roughness_method(cx, rough));
-    call_use_method(cx, modulus_method(cx, s));
+    bool has_E = s->E > 0.0;
+    if (has_E)
+        call_use_method(cx, modulus_method(cx, s));
 
     bool has_sdr = s->id != PIPE_ASME_B36_10M && s->id != PIPE_ASTM_B88;
-    Record *r = record_new(cx->arena, "pipe", has_sdr ? 11 : 10);
+    Record *r = record_new(cx->arena, "pipe", 9 + (has_sdr ? 1 : 0) + (has_E ? 1 : 0));
     size_t i = 0;
     record_set(r, i++, "od", value_hinted(qty(d.od, DIM_L), "in", "mm"));
     record_set(r, i++, "id", value_hinted(qty(d.id, DIM_L), "in", "mm"));
     record_set(r, i++, "wall", value_hinted(qty(d.wall, DIM_L), "in", "mm"));
     record_set(r, i++, "area", value_hinted(qty(d.area, DIM_AREA), "in^2", "mm^2"));
     record_set(r, i++, "roughness", value_hinted(qty(d.roughness, DIM_L), "in", "mm"));
-    record_set(r, i++, "E", value_hinted(qty(d.E, DIM_PRESSURE), "psi", "MPa"));
+    if (has_E)
+        record_set(r, i++, "E", value_hinted(qty(d.E, DIM_PRESSURE), "psi", "MPa"));
     if (has_sdr)
         record_set(r, i++, "sdr", value_number(qty_number(d.sdr)));
     record_set(r, i++, "material", value_string(s->material));
@@ -316,7 +321,24 @@ bool fn_k_fitting(CallCtx *cx, const CallArgs *a, Value *out)
     if (!kw_check(cx, a, allowed))
         return false;
     bool ok = arg_string(cx, a, 0, "KIND", &kind_text);
-    ok = arg_number(cx, a, 1, DIM_L, "D, the bore", &D) && ok;
+    /* D is a bore, or a pipe record: its id is the bore and its nominal
+     * size chooses Crane's butterfly band and Darby's D_n. */
+    double nps = 0.0;
+    const Value *dv = a->n > 1 ? &a->args[1] : NULL;
+    if (dv && dv->kind == VAL_RECORD && dv->rec && dv->rec->type &&
+        strcmp(dv->rec->type, "pipe") == 0) {
+        const Value *id = record_get(dv->rec, "id");
+        const Value *nv = record_get(dv->rec, "nps");
+        if (!id || id->kind != VAL_NUMBER || !dim_eq(id->q.dim, DIM_L)) {
+            diag_error(cx->diags, pos_of(a, 1), "k_fitting: the pipe record has no bore 'id'");
+            return false;
+        }
+        D = id->q.si;
+        if (nv && nv->kind == VAL_STRING && !pipe_size_parse(nv->str, &nps))
+            nps = 0.0;
+    } else {
+        ok = arg_number(cx, a, 1, DIM_L, "D, the bore (or a pipe record)", &D) && ok;
+    }
     ok = arg_dimensionless(cx, a, 2, "Re, the Reynolds number", &Re) && ok;
     if (!ok)
         return false;
@@ -336,7 +358,7 @@ bool fn_k_fitting(CallCtx *cx, const CallArgs *a, Value *out)
     }
 
     char list[1024];
-    FittingInput in = {fitting_kind_parse(kind_text), D, Re, 0.0, -1.0};
+    FittingInput in = {fitting_kind_parse(kind_text), D, Re, 0.0, -1.0, nps};
     if (in.kind == FIT_NONE || !fitting_method_has(m, in.kind)) {
         fitting_method_kinds(m, list, sizeof list);
         diag_error(cx->diags, pos_of(a, 0), "k_fitting: the %s method has no fitting \"%s\"; its kinds are %s",

@@ -2,10 +2,10 @@
  *
  * The thermoplastic rule and the metallic pressure-design equation are
  * published relations; the data they need (hydrostatic design stresses and
- * temperature derating factors) are tabulated below with their sources. The
- * derating tables are industry tables as printed by pipe manufacturers and
- * the Plastics Pipe Institute; every row was recalled, not read from a copy
- * at hand, and is marked so. Manufacturer data govern and must be verified. */
+ * temperature derating factors) are tabulated below, each table with the
+ * published copy it was checked against row by row (tests/unit/
+ * test_ratings.c holds every row to it). Manufacturer data govern and must
+ * be verified for the product installed. */
 #include "methods/ratings.h"
 
 #include <ctype.h>
@@ -15,50 +15,82 @@
 
 #define DEG_F_TO_K(f) (((f) - 32.0) * 5.0 / 9.0 + 273.15)
 
-/* PVC 1120 (cell class 12454): temperature derating factors for pressure
- * pipe, 73 degF = 1.00 down to 140 degF = 0.22, the maximum service
- * temperature; as printed in PVC pressure-pipe manufacturers' engineering
- * data and PPI tables (from memory). */
+/* The plastics' rating temperature, 73.4 degF (23 degC), where every factor
+ * is exactly 1.00. Manufacturers' tables head that row "73 degF"; it is the
+ * same temperature rounded. */
+#define T_RATING_F 73.4
+
+/* PVC 1120 (cell class 12454), Schedule 40/80 and SDR pressure pipe: GF
+ * Harvel, "Temperature Derating - Schedule 40 & 80 Pipe - PVC Industrial",
+ * operating temperature (degF) and de-rating factor: 73 1.00, 80 0.88,
+ * 90 0.75, 100 0.62, 110 0.51, 120 0.40, 130 0.31, 140 0.22 (140 degF is
+ * the maximum service temperature). */
 static const double PVC_DERATE[][2] = {
-    {73.0, 1.00}, {80.0, 0.88}, {90.0, 0.75}, {100.0, 0.62},
+    {T_RATING_F, 1.00}, {80.0, 0.88}, {90.0, 0.75}, {100.0, 0.62},
     {110.0, 0.51}, {120.0, 0.40}, {130.0, 0.31}, {140.0, 0.22},
 };
 
-/* CPVC 4120 (cell class 23447): derating factors to 200 degF as printed in
- * CPVC manufacturers' engineering data for ASTM F441 pipe (from memory). */
+/* CPVC 4120 (cell class 23447), ASTM F441 pipe: GF Harvel, "CPVC Industrial
+ * Pipe Temperature Derating": 73-80 1.00, 90 0.91, 100 0.82, 110 0.72,
+ * 120 0.65, 130 0.57, 140 0.50, 150 0.42, 160 0.40, 170 0.29, 180 0.25,
+ * 200 0.20. */
 static const double CPVC_DERATE[][2] = {
-    {73.0, 1.00}, {80.0, 1.00}, {90.0, 0.91}, {100.0, 0.82}, {110.0, 0.72},
+    {T_RATING_F, 1.00}, {80.0, 1.00}, {90.0, 0.91}, {100.0, 0.82}, {110.0, 0.72},
     {120.0, 0.65}, {130.0, 0.57}, {140.0, 0.50}, {150.0, 0.42}, {160.0, 0.40},
     {170.0, 0.29}, {180.0, 0.25}, {200.0, 0.20},
 };
 
-/* PEX (ASTM F876/F877 standard grade): hydrostatic design stresses 630 psi
- * at 73.4 degF, 400 psi at 180 degF and 320 psi at 200 degF (PPI TR-4 HDBs
- * 1250, 800 and 630 psi with design factor 0.5, from memory), which give the
- * familiar SDR 9 ratings 160, 100 and 80 psi. Factors are the ratios. */
+/* PEX, ASTM F876/F877 SDR 9 tubing: 160 psi at 73.4 degF (HDS 630 psi) and
+ * 100 psi at 180 degF, as published ("PEX tubing has a standard
+ * hydrostatic pressure rating of 160 psi at 73 degF ... At 180 degF, 100
+ * psi", Village Plumbing, "Common PEX Pressure Ratings"; "160 psi when the
+ * water temperature is 73.4 degF ... 630 ... 100 psi ... 180 degF",
+ * EngineerFix, "How Much Pressure Can PEX Pipe Hold?"). 100 psi on SDR 9 is
+ * HDS = 100*(9 - 1)/2 = 400 psi; the factor is the ratio 400/630. A 200 degF
+ * rating could not be read in a published copy, so the table ends at
+ * 180 degF. */
 static const double PEX_DERATE[][2] = {
-    {73.4, 1.00}, {180.0, 400.0 / 630.0}, {200.0, 320.0 / 630.0},
+    {T_RATING_F, 1.00}, {180.0, 400.0 / 630.0},
 };
 
 #define COUNT(t) (sizeof(t) / sizeof((t)[0]))
 
 static const PlasticRating PLASTICS[] = {
-    {"PVC", "PVC 1120", 2000.0 * RATING_PSI, DEG_F_TO_K(73.4),
-     "ASTM D1785 / ASTM D2241: HDS 2000 psi for PVC 1120 at 73.4 degF "
-     "(HDB 4000 psi per ASTM D2837, design factor 0.5) (from memory)",
-     "PVC pressure-pipe derating table, manufacturers' and PPI engineering data (from memory)",
+    {"PVC", "PVC 1120", 2000.0 * RATING_PSI, DEG_F_TO_K(T_RATING_F),
+     "HDS 2000 psi for PVC 1120 at 73.4 degF: HDB 4000 psi times the service factor 0.5 of "
+     "the ASTM D2241 appendix (Moser, A. P., Buried Pipe Design, chapter 4, pressure-rated "
+     "PVC pipe)",
+     "GF Harvel, Temperature Derating, Schedule 40 & 80 PVC Industrial pipe (73-140 degF)",
      COUNT(PVC_DERATE), PVC_DERATE},
-    {"CPVC", "CPVC 4120", 2000.0 * RATING_PSI, DEG_F_TO_K(73.4),
-     "ASTM F441: HDS 2000 psi for CPVC 4120 at 73.4 degF "
-     "(HDB 4000 psi per ASTM D2837, design factor 0.5) (from memory)",
-     "CPVC derating table, manufacturers' engineering data for ASTM F441 pipe (from memory)",
+    {"CPVC", "CPVC 4120", 2000.0 * RATING_PSI, DEG_F_TO_K(T_RATING_F),
+     "HDS 2000 psi for CPVC 4120 at 73.4 degF (\"the design stress of CPVC is also 2,000 psi "
+     "at 73 degF\", U.S. Plastic Corp., CPVC Schedule 40 pipe physical properties)",
+     "GF Harvel, CPVC Industrial Pipe Temperature Derating (73-200 degF)",
      COUNT(CPVC_DERATE), CPVC_DERATE},
-    {"PEX", "PEX (ASTM F876 standard grade)", 630.0 * RATING_PSI, DEG_F_TO_K(73.4),
-     "ASTM F876/F877 with PPI TR-4: HDS 630 psi at 73.4 degF "
-     "(HDB 1250 psi, design factor 0.5) (from memory)",
-     "ASTM F876/F877 ratings at 73.4, 180 and 200 degF (HDS 630, 400, 320 psi) (from memory)",
+    {"PEX", "PEX (ASTM F876 SDR 9)", 630.0 * RATING_PSI, DEG_F_TO_K(T_RATING_F),
+     "HDS 630 psi at 73.4 degF: ASTM F876/F877 SDR 9 rating 160 psi at 73.4 degF "
+     "(EngineerFix, How Much Pressure Can PEX Pipe Hold?)",
+     "ASTM F876/F877 SDR 9 ratings 160 psi at 73.4 degF and 100 psi at 180 degF (Village "
+     "Plumbing, Common PEX Pressure Ratings), linear between",
      COUNT(PEX_DERATE), PEX_DERATE},
 };
+
+/* ASTM D2241 pressure classes by SDR, psi at 73.4 degF, as the Hydraulic
+ * Institute Engineering Data Book, Section IV, Table 4.E.2 prints them
+ * beside each DR: DR 13.5 315, DR 17 250, DR 21 200, DR 26 160, DR 32.5 125,
+ * DR 41 100. They are 2*2000/(SDR - 1) rounded to the ANSI preferred
+ * number series (320 -> 315, 126.98 -> 125). */
+static const double D2241_CLASS[][2] = {
+    {13.5, 315.0}, {17.0, 250.0}, {21.0, 200.0}, {26.0, 160.0}, {32.5, 125.0}, {41.0, 100.0},
+};
+
+double rating_d2241_class(double sdr)
+{
+    for (size_t i = 0; i < COUNT(D2241_CLASS); i++)
+        if (fabs(sdr - D2241_CLASS[i][0]) < 1e-9)
+            return D2241_CLASS[i][1] * RATING_PSI;
+    return 0.0;
+}
 
 static bool same_word(const char *a, const char *b)
 {
@@ -110,7 +142,9 @@ RatingStatus rating_plastic_derate(const PlasticRating *m, double T, double *fac
      * rounding of a unit conversion (1e-9 degF) at that end. */
     if (tf > t[m->n - 1][0] + 1e-9)
         return RATING_T_ABOVE_MAX;
-    if (tf <= t[0][0]) {
+    /* At and below the rating temperature (allowing the rounding of a unit
+     * conversion) the factor is exactly the first row's, 1.00. */
+    if (tf <= t[0][0] + 1e-9) {
         *factor = t[0][1];
         return RATING_OK;
     }

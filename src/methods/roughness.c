@@ -2,8 +2,17 @@
  *
  * Values are those of new, clean pipe. Moody's chart gives them in feet and
  * they are kept here as he printed them, converted with 1 ft = 0.3048 m
- * exactly; rows without a Moody value say where they come from. Aged pipe
- * is rougher, often much rougher; the table says nothing about ageing. */
+ * exactly. Every row was checked against two published copies of Moody's
+ * table: eFunda, "Absolute Pipe Roughness" (from Binder 1973: drawn brass
+ * and drawn copper 5e-6 ft, commercial steel and wrought iron 150e-6,
+ * asphalted cast iron 400e-6, galvanized iron 500e-6, cast iron 850e-6,
+ * concrete 1000e-6 to 10,000e-6 ft) and Piping Designer, "Absolute
+ * Roughness" ("drawn tubing (glass, brass, plastic) 0.000005 ft", and the
+ * same steel, iron and concrete figures); tests/unit/test_pipes.c holds
+ * each row to them, tests/ref/pipes-fluids.sh to python3-fluids. Aged pipe
+ * is rougher, often much rougher; the table says nothing about ageing. A
+ * cement-mortar lining has no row: no published value for it could be
+ * read. */
 #include "methods/roughness.h"
 
 #include <ctype.h>
@@ -21,7 +30,8 @@ static const RoughnessRow ROWS[] = {
     {"copper", "drawn copper|brass|copper tube", 0.000005 * FT,
      MOODY " (drawn tubing, 0.000005 ft; copper tube is drawn tubing)"},
     {"plastic", "PVC|plastics|CPVC|PEX|PE|HDPE|polyethylene", 0.000005 * FT,
-     "smooth, taken equal to Moody's drawn tubing, 0.000005 ft (common practice, no source)"},
+     MOODY " (drawn tubing, 0.000005 ft; Piping Designer, Absolute Roughness, lists plastic "
+     "with drawn tubing)"},
     {"commercial steel", "steel|wrought iron|carbon steel|black steel", 0.00015 * FT,
      MOODY " (commercial steel or wrought iron, 0.00015 ft)"},
     {"galvanised steel", "galvanized|galvanised|galvanized steel|galvanized iron|galvanised iron",
@@ -29,10 +39,6 @@ static const RoughnessRow ROWS[] = {
     {"asphalted cast iron", "asphalt-dipped cast iron", 0.0004 * FT,
      MOODY " (asphalted cast iron, 0.0004 ft)"},
     {"cast iron", "grey iron|gray iron", 0.00085 * FT, MOODY " (cast iron, 0.00085 ft)"},
-    {"ductile iron cement-lined", "cement-lined ductile iron|cement lined|cement-lined",
-     0.001 * FT,
-     "smooth end of Moody's concrete range 0.001-0.01 ft applied to a cement-mortar lining "
-     "(common practice, no source)"},
     {"concrete", "", 0.001 * FT, MOODY " (concrete 0.001-0.01 ft; the smooth end is used)"},
 };
 

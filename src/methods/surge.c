@@ -26,8 +26,8 @@ double surge_support_c1(SurgeSupport s, double poisson)
     return 1.0;
 }
 
-/* Thick-walled elastic pipe (D/e below about 25), Wylie and Streeter
- * (1993), section 2.6 (from memory):
+/* Thick-walled elastic pipe (D/e below about 25), as derived in Wylie and
+ * Streeter (1993), section 2.6:
  *   expansion joints throughout:   c1 = 2e/D*(1 + nu) + D/(D + e)
  *   anchored at the upstream end:  c1 = 2e/D*(1 + nu) + D*(1 - nu/2)/(D + e)
  *   anchored throughout:           c1 = 2e/D*(1 + nu) + D*(1 - nu^2)/(D + e)
@@ -38,11 +38,14 @@ double surge_support_c1_thick(SurgeSupport s, double poisson, double D, double e
     return shell + D * surge_support_c1(s, poisson) / (D + e);
 }
 
-/* Poisson's ratios of pipe materials as tabulated in transient-flow texts
- * (Wylie and Streeter 1993, Table 2.1) (from memory). */
+/* Poisson's ratios of pipe materials. PVC 0.410 and CPVC 0.386 at 73 degF
+ * are GF Harvel's published pipe properties (U.S. Plastic Corp., "PVC and
+ * CPVC pipe" property table). Steel 0.30, copper 0.34 and polyethylene
+ * (PEX) 0.46 are the values of Wylie and Streeter (1993), Table 2.1; they
+ * are not yet checked against a copy of that table. */
 static const struct { const char *word; double nu; } POISSON[] = {
     {"stainless", 0.30}, {"steel", 0.30}, {"copper", 0.34},
-    {"cpvc", 0.45}, {"pvc", 0.45}, {"pex", 0.46}, {"polyethylene", 0.46},
+    {"cpvc", 0.386}, {"pvc", 0.410}, {"pex", 0.46}, {"polyethylene", 0.46},
 };
 
 static int starts_with_ci(const char *s, const char *w)

@@ -1,9 +1,15 @@
 /* test_hydraulics.c — pressure ratings, surge and pumps, core and calc glue.
  *
  * Hand-worked examples (the arithmetic is written out beside each assert)
- * and published ratings: ASTM D2241 SDR 21 PVC is 200 psi, ASTM D1785 2 in
- * schedule 40 PVC 280 psi, ASTM F876 PEX SDR 9 100 psi at 180 degF (all
- * from memory). Tolerances are relative and stated per assert. */
+ * and published ratings, each source named beside its check: ASTM D2241
+ * pressure classes (Hydraulic Institute Engineering Data Book, Section IV,
+ * Table 4.E.2: DR 21 200 psi, DR 26 160, DR 32.5 125), ASTM D1785 2 in
+ * schedule 40 PVC 280 psi (SD-W "PVC Pipe Data", Schedule 40 max. W.P.),
+ * PEX SDR 9 160 psi at 73.4 degF and 100 psi at 180 degF (Village
+ * Plumbing, "Common PEX Pressure Ratings"; EngineerFix), and every row of
+ * the PVC and CPVC derating tables (GF Harvel, "Temperature Derating",
+ * PVC Schedule 40 & 80 and CPVC Industrial pipe). Tolerances are relative
+ * and stated per assert. */
 #include <setjmp.h>
 #include <stdarg.h>
 #include <stddef.h>
@@ -42,12 +48,13 @@ static void test_plastic_ratings(void **state)
     const PlasticRating *pvc = rating_plastic_lookup("PVC");
     assert_non_null(pvc);
     RatingResult r;
-    /* SDR 21 PVC 1120: 2*2000/(21 - 1) = 200 psi, the ASTM D2241 rating. */
+    /* SDR 21 PVC 1120: 2*2000/(21 - 1) = 200 psi, the ASTM D2241 class. */
     assert_int_equal(rating_plastic(pvc, 21.0, deg_f(73.0), 0.0, &r), RATING_OK);
     assert_rel(r.rated / PSI, 200.0, 1e-12);
     assert_rel(r.p / PSI, 200.0, 1e-12);
     /* 2 in schedule 40 (od 2.375 in, min wall 0.154 in): SDR = 15.422,
-     * 4000/14.422 = 277.35 psi; ASTM D1785 prints 280 psi (rounded). */
+     * 4000/14.422 = 277.35 psi; SD-W's PVC schedule 40 table prints 280 psi
+     * (rounded). */
     assert_int_equal(rating_plastic(pvc, 2.375 / 0.154, deg_f(60.0), 0.0, &r), RATING_OK);
     assert_rel(r.rated / PSI, 277.3525, 1e-6);
     assert_rel(r.rated / PSI, 280.0, 0.01);
@@ -66,16 +73,17 @@ static void test_plastic_ratings(void **state)
     assert_int_equal(rating_plastic(pvc, 21.0, deg_f(141.0), 0.0, &r), RATING_T_ABOVE_MAX);
     assert_int_equal(rating_plastic(pvc, 1.0, deg_f(73.0), 0.0, &r), RATING_BAD_SDR);
 
-    /* PEX SDR 9: 2*630/8 = 157.5 psi at 73.4 degF (ASTM F876 prints 160,
-     * rounded); 2*400/8 = 100 psi at 180 degF; 2*320/8 = 80 psi at 200 degF. */
+    /* PEX SDR 9: 2*630/8 = 157.5 psi at 73.4 degF (published 160 psi,
+     * rounded); 2*400/8 = 100 psi at 180 degF (published 100 psi); no
+     * published 200 degF rating was read, so 180 degF ends the table. */
     const PlasticRating *pex = rating_plastic_lookup("pex");
     assert_non_null(pex);
     assert_int_equal(rating_plastic(pex, 9.0, deg_f(73.4), 0.0, &r), RATING_OK);
     assert_rel(r.p / PSI, 157.5, 1e-12);
+    assert_rel(r.p / PSI, 160.0, 0.016);
     assert_int_equal(rating_plastic(pex, 9.0, deg_f(180.0), 0.0, &r), RATING_OK);
     assert_rel(r.p / PSI, 100.0, 1e-9);
-    assert_int_equal(rating_plastic(pex, 9.0, deg_f(200.0), 0.0, &r), RATING_OK);
-    assert_rel(r.p / PSI, 80.0, 1e-9);
+    assert_int_equal(rating_plastic(pex, 9.0, deg_f(181.0), 0.0, &r), RATING_T_ABOVE_MAX);
 
     /* CPVC at 180 degF: factor 0.25 */
     const PlasticRating *cpvc = rating_plastic_lookup("CPVC");
@@ -86,6 +94,69 @@ static void test_plastic_ratings(void **state)
     assert_int_equal(rating_kind("copper"), RATING_METALLIC);
     assert_int_equal(rating_kind("PVC"), RATING_THERMOPLASTIC);
     assert_int_equal(rating_kind("ductile iron"), RATING_UNKNOWN);
+}
+
+/* Every row of the derating tables, read at the printed temperature, is the
+ * printed factor; at the rating temperature 73.4 degF = 23 degC (as K, the
+ * way a calc hands it over) the factor is exactly 1.00 for every plastic.
+ * PVC: GF Harvel, "Temperature Derating - Schedule 40 & 80 Pipe - PVC
+ * Industrial": 73 1.00, 80 0.88, 90 0.75, 100 0.62, 110 0.51, 120 0.40,
+ * 130 0.31, 140 0.22. CPVC: GF Harvel, "CPVC Industrial Pipe Temperature
+ * Derating": 73-80 1.00, 90 0.91, 100 0.82, 110 0.72, 120 0.65, 130 0.57,
+ * 140 0.50, 150 0.42, 160 0.40, 170 0.29, 180 0.25, 200 0.20. */
+static void test_derating_rows(void **state)
+{
+    (void)state;
+    static const double pvc_rows[][2] = {
+        {80, 0.88}, {90, 0.75}, {100, 0.62}, {110, 0.51}, {120, 0.40}, {130, 0.31}, {140, 0.22},
+    };
+    static const double cpvc_rows[][2] = {
+        {80, 1.00},  {90, 0.91},  {100, 0.82}, {110, 0.72}, {120, 0.65}, {130, 0.57},
+        {140, 0.50}, {150, 0.42}, {160, 0.40}, {170, 0.29}, {180, 0.25}, {200, 0.20},
+    };
+    const PlasticRating *pvc = rating_plastic_lookup("PVC");
+    const PlasticRating *cpvc = rating_plastic_lookup("CPVC");
+    double f;
+    for (size_t i = 0; i < sizeof pvc_rows / sizeof pvc_rows[0]; i++) {
+        assert_int_equal(rating_plastic_derate(pvc, deg_f(pvc_rows[i][0]), &f), RATING_OK);
+        assert_rel(f, pvc_rows[i][1], 1e-12);
+    }
+    for (size_t i = 0; i < sizeof cpvc_rows / sizeof cpvc_rows[0]; i++) {
+        assert_int_equal(rating_plastic_derate(cpvc, deg_f(cpvc_rows[i][0]), &f), RATING_OK);
+        assert_rel(f, cpvc_rows[i][1], 1e-12);
+    }
+    const char *const names[3] = {"PVC", "CPVC", "PEX"};
+    for (int k = 0; k < 3; k++) {
+        const PlasticRating *m = rating_plastic_lookup(names[k]);
+        /* 73.4 degF given as degF and as 23 degC: exactly 1 */
+        assert_int_equal(rating_plastic_derate(m, deg_f(73.4), &f), RATING_OK);
+        assert_true(f == 1.0);
+        assert_int_equal(rating_plastic_derate(m, 23.0 + 273.15, &f), RATING_OK);
+        assert_true(f == 1.0);
+        assert_int_equal(rating_plastic_derate(m, deg_f(50.0), &f), RATING_OK);
+        assert_true(f == 1.0);
+        /* the rating temperature is the table's first row */
+        assert_rel(m->table[0][0], 73.4, 0.0);
+        assert_rel(m->t_ref, 296.15, 1e-12);
+    }
+    /* just above 73.4 degF PVC derates, linearly toward 0.88 at 80 degF */
+    assert_int_equal(rating_plastic_derate(pvc, deg_f(76.7), &f), RATING_OK);
+    assert_rel(f, 1.0 - 0.12 * 3.3 / 6.6, 1e-12);
+}
+
+/* ASTM D2241 pressure classes by SDR, psi, against the Hydraulic Institute
+ * Engineering Data Book, Section IV, Table 4.E.2 "Pressure Class" column:
+ * DR 13.5 315, DR 17 250, DR 21 200, DR 26 160, DR 32.5 125, DR 41 100. */
+static void test_d2241_classes(void **state)
+{
+    (void)state;
+    static const double rows[][2] = {
+        {13.5, 315}, {17, 250}, {21, 200}, {26, 160}, {32.5, 125}, {41, 100},
+    };
+    for (size_t i = 0; i < sizeof rows / sizeof rows[0]; i++)
+        assert_rel(rating_d2241_class(rows[i][0]) / PSI, rows[i][1], 1e-12);
+    assert_true(rating_d2241_class(15.0) == 0.0);
+    assert_true(rating_d2241_class(9.0) == 0.0);
 }
 
 /* 4 in schedule 40 steel, D = 4.500 in, t = 0.237 in, S = 20 000 psi,
@@ -144,7 +215,10 @@ static void test_korteweg(void **state)
     assert_rel(a, 1484.576418 / sqrt(1.0 + 0.91 * 0.186909392), 1e-8);
     assert_rel(surge_support_c1(SURGE_SUPPORT_UPSTREAM, 0.30), 0.85, 1e-15);
     assert_rel(surge_poisson("steel"), 0.30, 0.0);
-    assert_rel(surge_poisson("PVC"), 0.45, 0.0);
+    /* GF Harvel pipe properties (U.S. Plastic Corp. table): PVC 0.410,
+     * CPVC 0.386 */
+    assert_rel(surge_poisson("PVC"), 0.410, 0.0);
+    assert_rel(surge_poisson("CPVC"), 0.386, 0.0);
     assert_true(surge_poisson("unobtainium") < 0.0);
     assert_int_equal(surge_wave_speed(0.0, 998.2, 0.1, 0.01, 2e11, 1.0, &a), SURGE_BAD_INPUT);
 }
@@ -290,6 +364,36 @@ static void test_fn_pressure_rating(void **state)
     args[1] = temp_f(100.0);
     assert_false(call_kw(&h, fn_pressure_rating, "pressure_rating", args, 2, 0, NULL, NULL, &out));
     assert_non_null(strstr(last_message(&h), "does not assume one"));
+
+    /* ASTM D2241 pipe at the standard's HDS: the pressure class beside the
+     * unrounded rating. SDR 32.5: 4000/31.5 = 126.984 psi, class 125 psi
+     * (Hydraulic Institute Engineering Data Book, Table 4.E.2); at 100 degF
+     * both times 0.62: 77.5 and 78.730 psi. SDR 26: 160 and 160. */
+    args[0] = make_pipe(&h, "PVC", 4.5, 0.138, 420000 * PSI, 32.5);
+    record_set(args[0].rec, 5, "standard", value_string("ASTM D2241"));
+    args[1] = temp_f(73.4);
+    assert_true(call_kw(&h, fn_pressure_rating, "pressure_rating", args, 2, 0, NULL, NULL, &out));
+    assert_rel(field(&out, "p_class") / PSI, 125.0, 1e-12);
+    assert_rel(field(&out, "p") / PSI, 4000.0 / 31.5, 1e-12);
+    assert_rel(field(&out, "derate"), 1.0, 0.0);
+    assert_string_equal(out.rec->fields[2].name, "p_class");
+    assert_string_equal(out.rec->fields[3].name, "p");
+    args[1] = temp_f(100.0);
+    assert_true(call_kw(&h, fn_pressure_rating, "pressure_rating", args, 2, 0, NULL, NULL, &out));
+    assert_rel(field(&out, "p_class") / PSI, 77.5, 1e-12);
+    assert_rel(field(&out, "p") / PSI, 0.62 * 4000.0 / 31.5, 1e-12);
+    args[0] = make_pipe(&h, "PVC", 4.5, 0.173, 420000 * PSI, 26.0);
+    record_set(args[0].rec, 5, "standard", value_string("ASTM D2241"));
+    args[1] = temp_f(73.4);
+    assert_true(call_kw(&h, fn_pressure_rating, "pressure_rating", args, 2, 0, NULL, NULL, &out));
+    assert_rel(field(&out, "p_class") / PSI, 160.0, 1e-12);
+    assert_rel(field(&out, "p") / PSI, 160.0, 1e-12);
+    /* other standards carry no class */
+    args[0] = make_pipe(&h, "PVC", 2.375, 0.154, 420000 * PSI, 0);
+    assert_true(call_kw(&h, fn_pressure_rating, "pressure_rating", args, 2, 0, NULL, NULL, &out));
+    assert_null(record_get(out.rec, "p_class"));
+    args[0] = make_pipe(&h, "steel", 4.5, 0.237, 29e6 * PSI, 0);
+    args[1] = temp_f(100.0);
 
     static const char *const kwn[2] = {"S", "E"};
     Value kw[2] = {value_number(qty(20000.0 * PSI, DIM_PRESSURE)), value_number(qty_number(1.0))};
@@ -445,6 +549,8 @@ int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_plastic_ratings),
+        cmocka_unit_test(test_derating_rows),
+        cmocka_unit_test(test_d2241_classes),
         cmocka_unit_test(test_metallic_rating),
         cmocka_unit_test(test_joukowsky),
         cmocka_unit_test(test_korteweg),
