@@ -65,6 +65,12 @@ void builtin_each(void (*fn)(const Builtin *b, void *ctx), void *ctx);
 /* Record that the current call used a method (deduplicated). */
 void call_use_method(CallCtx *cx, const Method *m);
 
+/* One method, as the report cites it: the same object, or the same key,
+ * title and reference (pipe() builds a material's roughness and modulus
+ * entries afresh at every call; four calls on one material are one
+ * entry). */
+bool method_same(const Method *a, const Method *b);
+
 /* Argument helpers: each reports a diagnostic naming the function, the
  * argument and the expected and found dimension, and returns false. */
 bool arg_number(CallCtx *cx, const CallArgs *a, size_t i, Dim want, const char *what, double *si);

@@ -36,10 +36,21 @@ void builtin_each(void (*fn)(const Builtin *b, void *ctx), void *ctx)
         fn(&builtins[i], ctx);
 }
 
+static bool same_text(const char *a, const char *b)
+{
+    return a == b || (a && b && strcmp(a, b) == 0);
+}
+
+bool method_same(const Method *a, const Method *b)
+{
+    return a == b || (a && b && same_text(a->key, b->key) && same_text(a->title, b->title) &&
+                      same_text(a->reference, b->reference));
+}
+
 void call_use_method(CallCtx *cx, const Method *m)
 {
     for (size_t i = 0; i < cx->nmethods; i++)
-        if (cx->methods[i] == m)
+        if (method_same(cx->methods[i], m))
             return;
     if (cx->nmethods < CALL_MAX_METHODS)
         cx->methods[cx->nmethods++] = m;

@@ -873,7 +873,7 @@ static void note_methods(Evaluated *ev, const StmtResult *r, Vec *all)
     for (size_t k = 0; k < r->nmethods; k++) {
         bool seen = false;
         for (size_t j = 0; j < all->len && !seen; j++)
-            seen = all->items[j] == r->methods[k];
+            seen = method_same(all->items[j], r->methods[k]);
         if (!seen)
             vec_push(all, (void *)r->methods[k]);
     }

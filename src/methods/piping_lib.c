@@ -125,7 +125,11 @@ static const Method *modulus_method(CallCtx *cx, const PipeStandard *s)
     m->key = arena_printf(cx->arena, "modulus:%s", s->material);
     m->title = arena_printf(cx->arena, "Elastic modulus of %s", s->material);
     m->formula = NULL;
-    m->validity = "room temperature; plastics soften as temperature rises";
+    m->validity = s->id == PIPE_ASME_B36_10M || s->id == PIPE_ASTM_B88
+                      ? "room temperature (70 degF); the modulus of a metal falls slowly as "
+                        "temperature rises"
+                      : "73 degF; a thermoplastic softens as temperature rises: its modulus "
+                        "falls markedly above room temperature";
     m->reference = s->E_source;
     return m;
 }

@@ -537,7 +537,7 @@ double pdf_row_margin(Pdf *P, const Stmt *st, double top)
     double room = s->body_r - x + 8;
     for (size_t m = 0; m < r->nmethods; m++) {
         for (size_t j = 0; j < P->ev->nmethods; j++)
-            if (P->ev->methods[j] == r->methods[m]) {
+            if (method_same(P->ev->methods[j], r->methods[m])) {
                 char *k = arena_printf(&P->arena, "[%d] %s", P->method_ref[j], r->methods[m]->key);
                 double ks = 6.8;
                 while (ks > 5 && pdf_width(P, FONT_MONO, ks, k) > room)
@@ -708,7 +708,7 @@ static double fn_stmt(Pdf *P, const Item *it, double top)
      * reference number in the margin every time */
     for (size_t m = 0; m < r->nmethods; m++)
         for (size_t j = 0; j < P->ev->nmethods; j++)
-            if (P->ev->methods[j] == r->methods[m] && P->method_first[j] == st->index)
+            if (method_same(P->ev->methods[j], r->methods[m]) && P->method_first[j] == st->index)
                 y -= pdf_method_line(P, r->methods[m], P->method_ref[j], x + indent0, y,
                                  w - indent0);
 

@@ -334,7 +334,7 @@ static double fn_path_summary(Pdf *P, const Item *it, double top)
     /* the methods */
     for (size_t m = 0; m < r->nmethods; m++)
         for (size_t j = 0; j < P->ev->nmethods; j++)
-            if (P->ev->methods[j] == r->methods[m] && P->method_first[j] == st->index)
+            if (method_same(P->ev->methods[j], r->methods[m]) && P->method_first[j] == st->index)
                 y -= pdf_method_line(P, r->methods[m], P->method_ref[j], x + 4, y, W - 4);
     double h = top - y + 3;
     if (P->page) {

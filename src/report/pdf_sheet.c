@@ -616,7 +616,7 @@ void pdf_number_references(Pdf *P)
         P->method_first[i] = -1;
         for (size_t k = 0; k < d->nstmts && P->method_first[i] < 0; k++)
             for (size_t m = 0; m < ev->results[k].nmethods; m++)
-                if (ev->results[k].methods[m] == ev->methods[i]) {
+                if (method_same(ev->results[k].methods[m], ev->methods[i])) {
                     P->method_first[i] = (int)k;
                     break;
                 }
@@ -642,6 +642,29 @@ static double fn_ref_source(Pdf *P, const Item *it, double top)
         kw = 70;
     double h = pdf_wrap(P, FONT_SERIF, 9, 11.5, x + kw, top - 1.8, s->body_r - x - kw, src->text);
     return h + 3 > 13 ? h + 3 : 13;
+}
+
+/* "Used by h_f (line 12), K (line 14)": every statement whose result cites
+ * the method, in document order; NULL when none does (a method met only in
+ * a path or case table). */
+static const char *ref_method_uses(Pdf *P, const Method *m)
+{
+    const Document *d = P->d;
+    const Evaluated *ev = P->ev;
+    char *out = NULL;
+    for (size_t k = 0; k < d->nstmts; k++) {
+        bool uses = false;
+        for (size_t j = 0; j < ev->results[k].nmethods && !uses; j++)
+            uses = method_same(ev->results[k].methods[j], m);
+        if (!uses)
+            continue;
+        const Stmt *st = d->stmts[k];
+        char *one = st->name ? arena_printf(&P->arena, "%s (line %d)", st->name, st->pos.line)
+                             : arena_printf(&P->arena, "line %d", st->pos.line);
+        out = out ? arena_printf(&P->arena, "%s, %s", out, one)
+                  : arena_printf(&P->arena, "Used by %s", one);
+    }
+    return out ? arena_printf(&P->arena, "%s.", out) : NULL;
 }
 
 static double fn_ref_method(Pdf *P, const Item *it, double top)
@@ -684,6 +707,9 @@ static double fn_ref_method(Pdf *P, const Item *it, double top)
         char *v = arena_printf(&P->arena, "Valid for %s.", m->validity);
         y -= pdf_wrap(P, FONT_SERIF_ITALIC, 8, 10, x, y, w, v);
     }
+    const char *uses = ref_method_uses(P, m);
+    if (uses)
+        y -= pdf_wrap(P, FONT_SERIF, 8, 10, x, y, w, uses);
     return top - y + 2;
 }
 
