@@ -38,7 +38,9 @@ Families, each at least 1000 points spread log-uniformly over bores of
                 method with flow split), so those are checked by hand in
                 tests/unit/test_fittings.c instead.
   crane-direct  entrances, exit and changes of bore: entrance sharp
-                (entrance_sharp(method="Crane")), exit (exit_normal()),
+                (entrance_sharp(method="Crane")), entrance projecting
+                (entrance_distance(D, method="Crane"), 0.78), exit
+                (exit_normal()),
                 entrance rounded over r/d 0-0.3 (entrance_rounded(D, r,
                 method="Crane")), sudden expansion over D/D2 0.05-1
                 (diffuser_sharp(D, D2), Borda-Carnot) and sudden contraction
@@ -178,6 +180,9 @@ def cases():
         out.append(Case("crane-direct", "crane", "entrance sharp", D, 1e5,
                         ff.entrance_sharp(method="Crane"), abs_=1e-9))
         out.append(Case("crane-direct", "crane", "exit", D, 1e5, ff.exit_normal(), abs_=1e-9))
+        # inward projecting (re-entrant) entrance: Crane's 0.78
+        out.append(Case("crane-direct", "crane", "entrance projecting", D, 1e5,
+                        ff.entrance_distance(D, method="Crane"), abs_=1e-9))
     for i in range(400):
         D = log_uniform(rng, 0.5 * IN, 24 * IN)
         r = D * rng.uniform(0.0, 0.3)
