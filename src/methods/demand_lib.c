@@ -6,7 +6,7 @@
  * the very row used so the report can name code, edition, table and row.
  * A table or row that is not shipped — because no published copy of it
  * could be verified — is refused with a message that says so, never
- * replaced by a number from memory. */
+ * replaced by an unverified number. */
 #include "library.h"
 
 #include "methods/demand.h"

@@ -52,7 +52,16 @@ static const char *const METHOD_NAMES[FIT_METHOD_COUNT] = {"crane", "hooper", "d
  * valves and fittings": K = f_T * L/D. Entrances, exit and changes of bore
  * carry a direct K or a formula instead (CRANE_DIRECT), see crane_k(). The
  * butterfly valve's L/D falls with size (crane_LD). The 45 degree long
- * radius elbow has no entry in that table. */
+ * radius elbow has no entry in that table. Checked against python3-fluids
+ * (gate, globe, ball, swing and lift check, butterfly, the r/d = 1 and 1.5
+ * bends) and, where fluids has no counterpart, against published copies of
+ * Crane's table: the standard 90 and 45 degree elbows 30 and 16 (Foust et
+ * al., Principles of Unit Operations, Appendix C-2a, "Representative
+ * equivalent length in pipe diameters (L/D) of various valves and fittings
+ * (Crane Co.)"), the standard tee 20 through the run and 60 through the
+ * branch (Ludwig, Applied Process Design for Chemical and Petrochemical
+ * Plants, Vol. 1, 3rd ed., p. 76, Crane's K factor table: "Flow thru run
+ * K = 20 f_T, flow thru branch K = 60 f_T"). */
 #define CRANE_DIRECT (-1.0)
 static const double CRANE_LD[FIT_KIND_COUNT] = {
     [FIT_ELBOW90_STD] = 30,          /* standard elbow, 90 deg */

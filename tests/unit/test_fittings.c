@@ -3,9 +3,12 @@
  * function's results and messages.
  *
  * Hand values were worked on a calculator from the published formulas and
- * constants named beside each case. Crane's printed f_T table (TP-410,
- * 2009, recalled from memory) is a second check on f_T. The full sweep
- * against python3-fluids 1.0.22 is tests/ref/fittings-fluids.sh. */
+ * constants named beside each case. Crane's L/D values fluids lacks are
+ * held to published copies of Crane's table: standard elbows 90 and 45
+ * degree 30 and 16 (Foust et al., Principles of Unit Operations, Appendix
+ * C-2a, "(Crane Co.)"), standard tee 20 run / 60 branch (Ludwig, Applied
+ * Process Design, Vol. 1, 3rd ed., p. 76). The full sweep against
+ * python3-fluids 1.0.22 is tests/ref/fittings-fluids.sh. */
 #include <setjmp.h>
 #include <stdarg.h>
 #include <stddef.h>
