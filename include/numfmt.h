@@ -28,5 +28,10 @@ typedef struct NumParts {
 NumParts num_parts(double x, int digits);
 /* num_parts joined as plain text: "4.050", "1.234e-05" -> "1.234e-5". */
 void num_sig(double x, int digits, char *buf, size_t n);
+/* The same as print sets it, in UTF-8: a typographic minus and ×10 with a
+ * superscript power ("−4.220×10⁻¹⁵", "6.343×10⁻⁴", "80.00"). */
+void num_typeset(double x, int digits, char *buf, size_t n);
+/* An integer's digits (and sign) as superscripts: -12 -> "⁻¹²". */
+void num_superscript(const char *digits, size_t len, char *buf, size_t n);
 
 #endif

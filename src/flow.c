@@ -336,7 +336,7 @@ static bool figure_hgl(CallCtx *cx, const Stmt *s, const Value *args, FigureData
 static bool figure_moody(CallCtx *cx, const Stmt *s, const Value *args, FigureData *fd)
 {
     static const double rr[] = {0, 1e-5, 1e-4, 1e-3, 5e-3, 0.02, 0.05};
-    static const char *const rr_name[] = {"smooth", "rr = 1e-5", "rr = 1e-4", "rr = 0.001", "rr = 0.005", "rr = 0.02", "rr = 0.05"};
+    static const char *const rr_name[] = {"smooth", "ε/D = 1×10⁻⁵", "ε/D = 1×10⁻⁴", "ε/D = 0.001", "ε/D = 0.005", "ε/D = 0.02", "ε/D = 0.05"};
     enum { NRR = sizeof rr / sizeof rr[0], NPTS = 48 };
     fd->x_title = "Reynolds number";
     fd->y_title = "Darcy friction factor";

@@ -100,3 +100,51 @@ void num_sig(double x, int digits, char *buf, size_t n)
     else
         snprintf(buf, n, "%s", p.mantissa);
 }
+
+static const char *const SUPERSCRIPT[] = {"⁰", "¹", "²", "³", "⁴", "⁵", "⁶", "⁷", "⁸", "⁹"};
+
+/* Append s to buf[0..n) at *at, keeping it terminated; what does not fit is dropped. */
+static void append(char *buf, size_t n, size_t *at, const char *s)
+{
+    size_t l = strlen(s);
+    if (*at + l + 1 > n)
+        return;
+    memcpy(buf + *at, s, l);
+    *at += l;
+    buf[*at] = '\0';
+}
+
+void num_superscript(const char *digits, size_t len, char *buf, size_t n)
+{
+    size_t at = 0;
+    if (!n)
+        return;
+    buf[0] = '\0';
+    for (size_t i = 0; i < len; i++) {
+        char c = digits[i];
+        if (c == '-')
+            append(buf, n, &at, "⁻");
+        else if (c >= '0' && c <= '9')
+            append(buf, n, &at, SUPERSCRIPT[c - '0']);
+    }
+}
+
+void num_typeset(double x, int digits, char *buf, size_t n)
+{
+    size_t at = 0;
+    if (!n)
+        return;
+    buf[0] = '\0';
+    NumParts p = num_parts(x, digits);
+    for (const char *c = p.mantissa; *c; c++) {
+        char one[2] = {*c, 0};
+        append(buf, n, &at, *c == '-' ? "−" : one);
+    }
+    if (p.exp10) {
+        char e[16], sup[64];
+        snprintf(e, sizeof e, "%d", p.exp10);
+        num_superscript(e, strlen(e), sup, sizeof sup);
+        append(buf, n, &at, "×10");
+        append(buf, n, &at, sup);
+    }
+}

@@ -27,19 +27,19 @@
 
 static const Method METHOD_IF97 = {
     "iapws_if97_region1",
-    "IAPWS-IF97 region 1 (density; isentropic bulk modulus K = rho*w^2)",
+    "IAPWS-IF97 region 1 (density; isentropic bulk modulus K = ρw²)",
     "rho = p_star/(R*T*gamma_pi)",
-    "273.16 K <= T <= 423.15 K (0.01..150 degC) as served here; p_sat(T) <= p <= 100 MPa",
+    "273.16 K ≤ T ≤ 423.15 K (0.01–150 °C) as served here; p_sat(T) ≤ p ≤ 100 MPa",
     "IAPWS R7-97(2012), Revised Release on the IAPWS Industrial Formulation 1997 for the "
     "Thermodynamic Properties of Water and Steam, region 1 (eq. 7) and speed of sound "
-    "(Table 3). K is the isentropic bulk modulus rho*w^2 from the IF97 speed of sound w.",
+    "(Table 3). K is the isentropic bulk modulus ρw² from the IF97 speed of sound w.",
 };
 
 static const Method METHOD_IF97_PSAT = {
     "iapws_if97_region4",
     "IAPWS-IF97 saturation-pressure equation (region 4)",
     "p_vap = p_1*(2*C/(-B + sqrt(B^2 - 4*A*C)))^4",
-    "273.15 K <= T <= 647.096 K",
+    "273.15 K ≤ T ≤ 647.096 K",
     "IAPWS R7-97(2012), Revised Release on the IAPWS Industrial Formulation 1997, "
     "region 4, eq. 30.",
 };
@@ -48,7 +48,7 @@ static const Method METHOD_VISC = {
     "iapws_2008_viscosity",
     "IAPWS 2008 viscosity of ordinary water (critical enhancement neglected)",
     "mu = mu_star*mu_0*mu_1",
-    "liquid water 0.01..150 degC, p <= 100 MPa (the release covers far more); the critical "
+    "liquid water 0.01–150 °C, p ≤ 100 MPa (the release covers far more); the critical "
     "enhancement mu_2 is taken as 1, which is exact outside about 645.91..650.77 K",
     "IAPWS R12-08, Release on the IAPWS Formulation 2008 for the Viscosity of Ordinary "
     "Water Substance, eqs. 10-12; evaluated with the IAPWS-IF97 density.",
@@ -57,8 +57,8 @@ static const Method METHOD_VISC = {
 static const Method METHOD_COLEBROOK = {
     "colebrook",
     "Colebrook-White equation",
-    "1/sqrt(f) = -2*log10(rr/3.7 + 2.51/(Re*sqrt(f)))",
-    "4000 <= Re <= 1e8, 0 <= rr <= 0.05",
+    "1/sqrt(f) = -2*log10(epsilon/(3.7*D) + 2.51/(Re*sqrt(f)))",
+    "4000 ≤ Re ≤ 10⁸, 0 ≤ ε/D ≤ 0.05",
     "Colebrook, C. F. (1939). Turbulent flow in pipes, with particular reference to the "
     "transition region between the smooth and rough pipe laws. J. Inst. Civil Eng. 11(4), "
     "133-156. Solved to machine precision by Halley's method.",
@@ -67,8 +67,8 @@ static const Method METHOD_COLEBROOK = {
 static const Method METHOD_SWAMEE_JAIN = {
     "swamee_jain",
     "Swamee-Jain explicit friction factor",
-    "f = 0.25/log10(rr/3.7 + 5.74/Re^0.9)^2",
-    "5000 <= Re <= 1e8, 1e-6 <= rr <= 0.05",
+    "f = 0.25/log10(epsilon/(3.7*D) + 5.74/Re^0.9)^2",
+    "5000 ≤ Re ≤ 10⁸, 10⁻⁶ ≤ ε/D ≤ 0.05",
     "Swamee, P. K. and Jain, A. K. (1976). Explicit equations for pipe-flow problems. "
     "J. Hydraulics Div. ASCE 102(5), 657-664. Range as listed by Winning, H. K. and "
     "Coole, T. (2013), Flow Turbulence Combust. 90, 1-27.",
@@ -77,8 +77,8 @@ static const Method METHOD_SWAMEE_JAIN = {
 static const Method METHOD_HAALAND = {
     "haaland",
     "Haaland explicit friction factor",
-    "1/sqrt(f) = -1.8*log10((rr/3.7)^1.11 + 6.9/Re)",
-    "4000 <= Re <= 1e8, 1e-6 <= rr <= 0.05",
+    "1/sqrt(f) = -1.8*log10((epsilon/(3.7*D))^1.11 + 6.9/Re)",
+    "4000 ≤ Re ≤ 10⁸, 10⁻⁶ ≤ ε/D ≤ 0.05",
     "Haaland, S. E. (1983). Simple and explicit formulas for the friction factor in "
     "turbulent pipe flow. J. Fluids Eng. 105(1), 89-90. Range as listed by Winning and "
     "Coole (2013).",
@@ -88,9 +88,9 @@ static const Method METHOD_CHURCHILL = {
     "churchill",
     "Churchill (1977) friction factor, all flow regimes",
     "f = 8*((8/Re)^12 + 1/(A + B)^1.5)^(1/12)",
-    "all Re; rr <= 0.05 (common practice, no source); 2000 < Re < 4000 is uncertain",
+    "all Re; ε/D ≤ 0.05 (common practice, no source); 2000 < Re < 4000 is uncertain",
     "Churchill, S. W. (1977). Friction-factor equation spans all fluid-flow regimes. "
-    "Chem. Eng. 84(24), 91-92. A = (2.457*ln(1/((7/Re)^0.9 + 0.27*rr)))^16, "
+    "Chem. Eng. 84(24), 91-92. A = (2.457·ln(1/((7/Re)^0.9 + 0.27·ε/D)))^16, "
     "B = (37530/Re)^16.",
 };
 
@@ -107,17 +107,17 @@ static const Method METHOD_HAZEN_WILLIAMS = {
     "hazen_williams",
     "Hazen-Williams head loss (SI form)",
     "h_f = 10.67*L*Q^1.852/(C^1.852*D^4.8704)",
-    "water at ordinary temperatures in turbulent flow; 0.3 m/s <= V <= 3 m/s "
+    "water at ordinary temperatures in turbulent flow; 0.3 m/s ≤ V ≤ 3 m/s "
     "(common practice, no source)",
     "Williams, G. S. and Hazen, A. (1920). Hydraulic Tables, 3rd ed. Wiley. SI form from "
-    "V = 0.849*C*R^0.63*S^0.54 with R = D/4; 10.67 is the rounded constant of SI texts.",
+    "V = 0.849·C·R^0.63·S^0.54 with R = D/4; 10.67 is the rounded constant of SI texts.",
 };
 
 static const Method METHOD_RATING_PVC = {
     "rating_pvc",
     "Thermoplastic pressure rating, PVC 1120, with temperature derating",
     "p = 2*HDS/(SDR - 1)*F_T",
-    "73.4 degF <= T <= 140 degF (F_T = 1.00 at and below 73.4 degF); water",
+    "73.4 °F ≤ T ≤ 140 °F (F_T = 1.00 at and below 73.4 °F); water",
     "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM D1785 and D2241; "
     "HDS 2000 psi for PVC 1120 at 73.4 degF (HDB 4000 psi, service factor 0.5, ASTM D2241 "
     "appendix, as given in Moser, Buried Pipe Design, ch. 4); ASTM D2241 pressure classes "
@@ -130,7 +130,7 @@ static const Method METHOD_RATING_CPVC = {
     "rating_cpvc",
     "Thermoplastic pressure rating, CPVC 4120, with temperature derating",
     "p = 2*HDS/(SDR - 1)*F_T",
-    "73.4 degF <= T <= 200 degF (F_T = 1.00 at and below 80 degF); water",
+    "73.4 °F ≤ T ≤ 200 °F (F_T = 1.00 at and below 80 °F); water",
     "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM F441; HDS 2000 psi for "
     "CPVC 4120 at 73.4 degF (U.S. Plastic Corp., CPVC pipe physical properties); derating "
     "factors F_T from GF Harvel, CPVC Industrial Pipe Temperature Derating, linear between "
@@ -141,7 +141,7 @@ static const Method METHOD_RATING_PEX = {
     "rating_pex",
     "Thermoplastic pressure rating, PEX, with temperature derating",
     "p = 2*HDS/(SDR - 1)*F_T",
-    "73.4 degF <= T <= 180 degF (F_T = 1.00 at and below 73.4 degF); water",
+    "73.4 °F ≤ T ≤ 180 °F (F_T = 1.00 at and below 73.4 °F); water",
     "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM F876/F877; HDS 630 psi "
     "at 73.4 degF and 400 psi at 180 degF, from the published SDR 9 ratings 160 psi at "
     "73.4 degF and 100 psi at 180 degF (EngineerFix, How Much Pressure Can PEX Pipe Hold?; "
@@ -153,7 +153,7 @@ static const Method METHOD_RATING_B31 = {
     "rating_b31",
     "Metallic pipe pressure design (ASME B31.3 304.1.2)",
     "p = 2*S*E*W*(t - c)/(D - 2*Y*(t - c))",
-    "t < D/6; Y = 0.4 for ferrous and nonferrous metals below 900 degF (Table 304.1.1)",
+    "t < D/6; Y = 0.4 for ferrous and nonferrous metals below 900 °F (Table 304.1.1)",
     "ASME B31.3, Process Piping, para. 304.1.2 eq. (3a) solved for p (B31.1 104.1.2 has the "
     "same form). S, E and W come from the code's tables for the material and temperature.",
 };
@@ -162,8 +162,8 @@ static const Method METHOD_KORTEWEG = {
     "korteweg",
     "Korteweg pressure-wave speed in a thin-walled elastic pipe",
     "a = sqrt((K/rho)/(1 + c_1*K*D/(E*e)))",
-    "thin wall, D/e > 25; linear-elastic pipe; c_1 = 1 (expansion joints), 1 - nu/2 "
-    "(anchored upstream), 1 - nu^2 (anchored throughout)",
+    "thin wall, D/e > 25; linear-elastic pipe; c₁ = 1 (expansion joints), 1 − ν/2 "
+    "(anchored upstream), 1 − ν² (anchored throughout)",
     "Korteweg, D. J. (1878), Ann. Phys. 241(12), 525-542; in the form of Wylie, E. B. and "
     "Streeter, V. L. (1993), Fluid Transients in Systems, Prentice Hall, section 2.6.",
 };
@@ -173,7 +173,7 @@ static const Method METHOD_KORTEWEG_THICK = {
     "Pressure-wave speed in a thick-walled elastic pipe",
     "c_1 = 2*e/D*(1 + nu) + D*(1 - nu/2)/(D + e)",
     "D/e below 25; linear-elastic pipe; shown for a pipe anchored upstream: with expansion "
-    "joints the last term is D/(D + e), anchored throughout D*(1 - nu^2)/(D + e)",
+    "joints the last term is D/(D + e), anchored throughout D·(1 − ν²)/(D + e)",
     "Wylie, E. B. and Streeter, V. L. (1993), Fluid Transients in Systems, Prentice Hall, "
     "section 2.6, thick-walled elastic conduits.",
 };
@@ -182,7 +182,7 @@ static const Method METHOD_JOUKOWSKY = {
     "joukowsky",
     "Joukowsky pressure rise",
     "Delta_p = rho*a*Delta_V",
-    "velocity change completed within 2*L/a; friction and cavitation neglected",
+    "velocity change completed within 2L/a; friction and cavitation neglected",
     "Joukowsky, N. (1900). Ueber den hydraulischen Stoss in Wasserleitungsroehren. "
     "Mem. Acad. Imp. Sci. St.-Petersbourg 9(5); see Wylie and Streeter (1993), section 1.2.",
 };
@@ -208,8 +208,8 @@ static const Method METHOD_OPERATING = {
     "pump_operating_point",
     "Pump operating point on a quadratic system curve",
     "a + b*Q + c*Q^2 = H_static + k*Q^2",
-    "Q >= 0; within the span of the pump curve's points",
-    "Intersection of the pump curve with the system curve H = H_static + k*Q^2; roots by "
+    "Q ≥ 0; within the span of the pump curve's points",
+    "Intersection of the pump curve with the system curve H = H_static + k·Q²; roots by "
     "the cancellation-free quadratic formula (Press et al., Numerical Recipes, 5.6).",
 };
 

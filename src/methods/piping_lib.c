@@ -70,8 +70,8 @@ static const Method METHOD_PIPE[PIPE_STANDARD_COUNT] = {
 
 static const Method METHOD_CRANE_K = {
     "crane_tp410_k", "Crane TP-410 resistance coefficient (equivalent length)", "K = f_T*L_e/D",
-    "fully turbulent flow (Re >= 4000); 0.5 in <= D <= 24 in; valves fully open; butterfly "
-    "valve L/D 45, 35, 25 for nominal sizes 2-8, 10-14, 16-24 in (the pipe record's nominal "
+    "fully turbulent flow (Re ≥ 4000); 0.5 in ≤ D ≤ 24 in; valves fully open; butterfly "
+    "valve L/D 45, 35, 25 for nominal sizes 2–8, 10–14, 16–24 in (the pipe record's nominal "
     "size, or one taken from the bore by the ASME B36.10M schedule 40 table)",
     "Crane Co. (2009). Flow of Fluids Through Valves, Fittings, and Pipe. Technical Paper "
     "No. 410, Stamford, CT, table \"Representative resistance coefficients (K) for valves and "
@@ -98,13 +98,13 @@ static const Method METHOD_CRANE_ENDS = {
 
 static const Method METHOD_EXPANSION = {
     "borda_carnot", "Sudden enlargement (Borda-Carnot), referred to the small bore",
-    "K = (1 - (D/D_2)^2)^2", "D <= D_2; turbulent flow",
+    "K = (1 - (D/D_2)^2)^2", "D ≤ D₂; turbulent flow",
     "Crane Co. (2009). Flow of Fluids Through Valves, Fittings, and Pipe, TP-410 (sudden "
     "enlargement, from the Borda-Carnot momentum balance)."};
 
 static const Method METHOD_CONTRACTION = {
     "crane_contraction", "Sudden contraction, referred to the small bore",
-    "K = 0.5*(1 - (D/D_2)^2)", "D <= D_2; turbulent flow",
+    "K = 0.5*(1 - (D/D_2)^2)", "D ≤ D₂; turbulent flow",
     "Crane Co. (2009). Flow of Fluids Through Valves, Fittings, and Pipe, TP-410 (sudden "
     "contraction)."};
 

@@ -259,8 +259,6 @@ void mbox_draw(const MathBox *b, const MathPainter *p, double x, double y)
 
 /* ---- units and numbers as print ----------------------------------------- */
 
-static const char *const SUPER[] = {"⁰", "¹", "²", "³", "⁴", "⁵", "⁶", "⁷", "⁸", "⁹"};
-
 static void put(char *buf, size_t n, size_t *at, const char *s)
 {
     size_t l = strlen(s);
@@ -306,12 +304,9 @@ void mbox_unit_text(const char *unit, char *buf, size_t n)
                 s++;
                 continue;
             }
-            for (const char *c = e; c < q; c++) {
-                if (*c == '-')
-                    put(buf, n, &at, "⁻");
-                else if (*c >= '0' && *c <= '9')
-                    put(buf, n, &at, SUPER[*c - '0']);
-            }
+            char sup[64];
+            num_superscript(e, (size_t)(q - e), sup, sizeof sup);
+            put(buf, n, &at, sup);
             s = q;
         } else if ((*s >= 'a' && *s <= 'z') || (*s >= 'A' && *s <= 'Z') || *s == '_') {
             const char *q = s;

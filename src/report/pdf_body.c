@@ -603,28 +603,6 @@ double pdf_method_line(Pdf *P, const Method *m, int ref, double x, double top, d
     return top - y;
 }
 
-/* A number for running text: "−4.22×10⁻¹⁵". */
-static void sci_text(double x, int digits, char *buf, size_t n)
-{
-    static const char *const sup[] = {"⁰", "¹", "²", "³", "⁴", "⁵", "⁶", "⁷", "⁸", "⁹"};
-    NumParts p = num_parts(x, digits);
-    StrBuf sb = {0};
-    for (const char *c = p.mantissa; *c; c++)
-        if (*c == '-')
-            sb_puts(&sb, "−");
-        else
-            sb_putc(&sb, *c);
-    if (p.exp10) {
-        char e[16];
-        snprintf(e, sizeof e, "%d", p.exp10);
-        sb_puts(&sb, "×10");
-        for (const char *c = e; *c; c++)
-            sb_puts(&sb, *c == '-' ? "⁻" : sup[*c - '0']);
-    }
-    snprintf(buf, n, "%s", sb_str(&sb));
-    sb_free(&sb);
-}
-
 static double fn_stmt(Pdf *P, const Item *it, double top)
 {
     const Stmt *st = it->p;
@@ -691,9 +669,9 @@ static double fn_stmt(Pdf *P, const Item *it, double top)
         const SolveReport *sr = &r->solve;
         char res[48], lo[48], hi[48];
         Unit vu = r->shown;
-        sci_text(unit_from_si(sr->residual, &r->lhs_shown, true), 3, res, sizeof res);
-        num_sig(unit_from_si(sr->start_lo, &vu, false), 4, lo, sizeof lo);
-        num_sig(unit_from_si(sr->start_hi, &vu, false), 4, hi, sizeof hi);
+        num_typeset(unit_from_si(sr->residual, &r->lhs_shown, true), 3, res, sizeof res);
+        num_typeset(unit_from_si(sr->start_lo, &vu, false), 4, lo, sizeof lo);
+        num_typeset(unit_from_si(sr->start_hi, &vu, false), 4, hi, sizeof hi);
         char ut[64];
         mbox_unit_text(r->lhs_shown.text, ut, sizeof ut);
         char vt[64];

@@ -291,12 +291,12 @@ static size_t legend_entries(Pdf *P, const FigureData *fd, const Axis *ax, Legen
     if (group && n < cap)
         out[n++] = (LegendEntry){0, group_style,
                                  strcmp(fd->kind, "moody") == 0
-                                     ? "Colebrook-White, labelled by relative roughness rr = ε/D"
+                                     ? "Colebrook-White, labelled by relative roughness ε/D"
                                      : "curves labelled at their right-hand end"};
     if (isfinite(fd->band_lo) && isfinite(fd->band_hi) && n < cap) {
         char lo[40], hi[40];
-        num_sig(unit_from_si(fd->band_lo, &fd->x_unit, true), 2, lo, sizeof lo);
-        num_sig(unit_from_si(fd->band_hi, &fd->x_unit, true), 2, hi, sizeof hi);
+        num_typeset(unit_from_si(fd->band_lo, &fd->x_unit, true), 2, lo, sizeof lo);
+        num_typeset(unit_from_si(fd->band_hi, &fd->x_unit, true), 2, hi, sizeof hi);
         out[n++] = (LegendEntry){2, 0,
                                  strcmp(fd->kind, "moody") == 0
                                      ? arena_printf(&P->arena, "transition zone, %s < Re < %s", lo, hi)
@@ -420,8 +420,8 @@ static void draw_markers(Pdf *P, const FigureData *fd, const Axis *ax, const Axi
         }
         if (with_values) {
             char xs[40], ys[40], xu[48], yu[48];
-            num_sig(x, P->env.digits, xs, sizeof xs);
-            num_sig(y, P->env.digits, ys, sizeof ys);
+            num_typeset(x, P->env.digits, xs, sizeof xs);
+            num_typeset(y, P->env.digits, ys, sizeof ys);
             mbox_unit_text(fd->x_unit.text, xu, sizeof xu);
             mbox_unit_text(fd->y_unit.text, yu, sizeof yu);
             sb_printf(&sb, " (%s %s, %s %s)", xs, has_unit(&fd->x_unit) ? xu : "", ys,
@@ -501,7 +501,7 @@ static const char *hgl_suffix(Pdf *P, const Stmt *st, const FigureData *fd)
         return NULL;
     Unit uP = unit_default(DIM_PRESSURE, TEMP_NONE, P->ev->units);
     char v[40], u[32];
-    num_sig(unit_from_si(pr->p_min, &uP, true), P->env.digits, v, sizeof v);
+    num_typeset(unit_from_si(pr->p_min, &uP, true), P->env.digits, v, sizeof v);
     mbox_unit_text(uP.text, u, sizeof u);
     return arena_printf(&P->arena, ", %s %s", v, u);
 }

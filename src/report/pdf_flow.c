@@ -91,13 +91,7 @@ static void path_cell(const Pdf *P, const PathCols *c, const SegmentResult *g, i
         return;
     }
     double v = c->has_unit[i] ? unit_from_si(si[i], &c->unit[i], true) : si[i];
-    num_sig(v, P->env.digits, buf, n);
-    /* a typographic minus */
-    if (buf[0] == '-') {
-        char t[64];
-        snprintf(t, sizeof t, "−%s", buf + 1);
-        snprintf(buf, n, "%s", t);
-    }
+    num_typeset(v, P->env.digits, buf, n);
 }
 
 #define PT_SIZE 7.8
@@ -241,7 +235,7 @@ static double fn_path_head(Pdf *P, const Item *it, double top)
     if (pr && pr->nsegs) {
         Unit uP = unit_default(DIM_PRESSURE, TEMP_NONE, P->ev->units);
         char v[48];
-        num_sig(unit_from_si(pr->segs[0].p_in, &uP, true), P->env.digits, v, sizeof v);
+        num_typeset(unit_from_si(pr->segs[0].p_in, &uP, true), P->env.digits, v, sizeof v);
         char ut[32];
         mbox_unit_text(uP.text, ut, sizeof ut);
         sb_printf(&sb, " = %s %s", v, ut);

@@ -175,7 +175,7 @@ static double fn_intro(Pdf *P, const Item *it, double top)
     const Diff *d = P->since;
     const Document *od = d->old_ev->doc, *nd = P->d;
     char tol[32];
-    num_sig(d->opt.rel_tol, 3, tol, sizeof tol);
+    num_typeset(d->opt.rel_tol, 3, tol, sizeof tol);
     char *t = arena_printf(
         &P->arena,
         "Revision %s (%s, SHA-256 %.12s) compared in meaning with revision %s (%s, SHA-256 "
