@@ -119,7 +119,7 @@ static const Method METHOD_RATING_PVC = {
     "p = 2*HDS/(SDR - 1)*F_T",
     "73.4 °F ≤ T ≤ 140 °F (F_T = 1.00 at and below 73.4 °F); water",
     "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM D1785 and D2241; "
-    "HDS 2000 psi for PVC 1120 at 73.4 degF (HDB 4000 psi, service factor 0.5, ASTM D2241 "
+    "HDS 2000 psi for PVC 1120 at 73.4 °F (HDB 4000 psi, service factor 0.5, ASTM D2241 "
     "appendix, as given in Moser, Buried Pipe Design, ch. 4); ASTM D2241 pressure classes "
     "from the Hydraulic Institute Engineering Data Book, Table 4.E.2; derating factors F_T "
     "from GF Harvel, Temperature Derating, Schedule 40 & 80 PVC pipe, linear between rows. "
@@ -132,7 +132,7 @@ static const Method METHOD_RATING_CPVC = {
     "p = 2*HDS/(SDR - 1)*F_T",
     "73.4 °F ≤ T ≤ 200 °F (F_T = 1.00 at and below 80 °F); water",
     "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM F441; HDS 2000 psi for "
-    "CPVC 4120 at 73.4 degF (U.S. Plastic Corp., CPVC pipe physical properties); derating "
+    "CPVC 4120 at 73.4 °F (U.S. Plastic Corp., CPVC pipe physical properties); derating "
     "factors F_T from GF Harvel, CPVC Industrial Pipe Temperature Derating, linear between "
     "rows. Verify against the manufacturer's current data.",
 };
@@ -143,8 +143,8 @@ static const Method METHOD_RATING_PEX = {
     "p = 2*HDS/(SDR - 1)*F_T",
     "73.4 °F ≤ T ≤ 180 °F (F_T = 1.00 at and below 73.4 °F); water",
     "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM F876/F877; HDS 630 psi "
-    "at 73.4 degF and 400 psi at 180 degF, from the published SDR 9 ratings 160 psi at "
-    "73.4 degF and 100 psi at 180 degF (EngineerFix, How Much Pressure Can PEX Pipe Hold?; "
+    "at 73.4 °F and 400 psi at 180 °F, from the published SDR 9 ratings 160 psi at "
+    "73.4 °F and 100 psi at 180 °F (EngineerFix, How Much Pressure Can PEX Pipe Hold?; "
     "Village Plumbing, Common PEX Pressure Ratings), linear between. Verify against the "
     "manufacturer's current data.",
 };
@@ -423,7 +423,7 @@ static bool friction_call(CallCtx *cx, const CallArgs *a, FrictionMethod m, bool
     bool transition = regime && Re >= FRICTION_RE_LAMINAR && Re < FRICTION_RE_TURBULENT;
     if (transition)
         diag_warning(cx->diags, a->pos,
-                     "%s: Re = %s is in the transition zone 2000 <= Re < 4000, where no "
+                     "%s: Re = %s is in the transition zone 2000 ≤ Re < 4000, where no "
                      "correlation is reliable; the %s value is given",
                      a->name, show_num(Re, b1, sizeof b1), friction_method_name(used));
     bool re_out = !transition && (Re < rg->re_min || Re > rg->re_max);

@@ -232,7 +232,7 @@ static void test_fn_friction_factor(void **state)
     args[0] = value_number(qty_number(3000.0));
     assert_true(call(&h, fn_friction_factor, "friction_factor", args, 2, NULL, NULL, &out));
     assert_int_equal(h.diags.warnings, 1);
-    assert_non_null(strstr(last_message(&h), "transition zone 2000 <= Re < 4000"));
+    assert_non_null(strstr(last_message(&h), "transition zone 2000 ≤ Re < 4000"));
 
     /* outside the validity range: a warning naming the range */
     args[0] = value_number(qty_number(1e5));
