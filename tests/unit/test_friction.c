@@ -239,13 +239,13 @@ static void test_fn_friction_factor(void **state)
     args[1] = value_number(qty_number(0.08));
     assert_true(call(&h, fn_colebrook, "colebrook", args, 2, NULL, NULL, &out));
     assert_int_equal(h.diags.warnings, 2);
-    assert_non_null(strstr(last_message(&h), "4000 <= Re <= 1e8, 0 <= rr <= 0.05"));
+    assert_non_null(strstr(last_message(&h), "4000 ≤ Re ≤ 10⁸, 0 ≤ ε/D ≤ 0.05"));
 
     args[0] = value_number(qty_number(4500.0));
     args[1] = value_number(qty_number(1e-4));
     assert_true(call(&h, fn_swamee_jain, "swamee_jain", args, 2, NULL, NULL, &out));
     assert_int_equal(h.diags.warnings, 3);
-    assert_non_null(strstr(last_message(&h), "5000 <= Re <= 1e8"));
+    assert_non_null(strstr(last_message(&h), "5000 ≤ Re ≤ 10⁸"));
 
     /* bad input: errors at the offending argument */
     args[0] = value_number(qty_number(-5.0));
