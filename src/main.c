@@ -25,6 +25,7 @@
 #include "parse.h"
 #include "render.h"
 #include "revision.h"
+#include "watch.h"
 
 #ifndef HEADROOM_VERSION
 #define HEADROOM_VERSION "0.0.0"
@@ -43,6 +44,8 @@ static const char usage_text[] =
     "      write a commented starter calc (riser, pump-line, pipe-rating)\n"
     "  headroom diff OLD NEW [--json] [--rel-tol X]\n"
     "      what changed in meaning between two revisions (a file or REV:path)\n"
+    "  headroom watch FILE [-o OUT]\n"
+    "      build the PDF report again whenever the file is saved\n"
     "  headroom lsp\n"
     "      a Language Server Protocol server on standard input and output\n"
     "  headroom convert \"VALUE UNIT\" UNIT\n"
@@ -608,6 +611,81 @@ static int cmd_convert(int argc, char **argv)
     return status;
 }
 
+/* ---- watch ---------------------------------------------------------------- */
+
+typedef struct WatchCtx {
+    const char *file, *out;
+    int builds;
+} WatchCtx;
+
+/* One build of `watch`: diagnostics, the check summary, the PDF replaced
+ * atomically (write_report: a temporary beside it, then rename). */
+static void watch_build(void *vctx, Vec *inputs)
+{
+    WatchCtx *w = vctx;
+    vec_push(inputs, xstrdup(w->file));
+    printf("-- build %d of %s\n", ++w->builds, w->file);
+    DiagList dl = {0};
+    Document *doc = doc_load(w->file, &dl);
+    if (!doc) {
+        print_diags(&dl, NULL);
+        printf("%s: cannot be read; waiting for it to be saved\n", w->file);
+    } else {
+        Evaluated *ev = eval_document(doc, &dl);
+        print_diags(&dl, doc);
+        print_check_text(ev, &dl);
+        if (dl.errors) {
+            printf("%s: not written: the input has errors\n", w->out);
+        } else {
+            DiagList wl = {0};
+            if (write_report(ev, FMT_PDF, w->out, &wl, NULL, NULL) == 0)
+                printf("wrote %s\n", w->out);
+            diag_free(&wl);
+        }
+        /* Files the calc uses are watched too, once the Document lists them
+         * (use("file"), DESIGN 2.13): push each of their paths here. */
+    }
+    fflush(stderr);
+    diag_free(&dl);
+    doc_free(doc);
+}
+
+static int cmd_watch(int argc, char **argv)
+{
+    const char *file = NULL, *out = NULL;
+    for (int i = 0; i < argc; i++) {
+        if (strcmp(argv[i], "-o") == 0 && i + 1 < argc) {
+            out = argv[++i];
+        } else if (strcmp(argv[i], "--help") == 0) {
+            fputs("usage: headroom watch FILE [-o OUT]\n"
+                  "Build the PDF report (to OUT, default FILE without .md/.calc plus .pdf),\n"
+                  "then again whenever FILE is saved, printing the diagnostics and the\n"
+                  "checks each time. The report is replaced atomically, so a viewer reloads\n"
+                  "a whole file; with input errors the last good report stays. Stop with\n"
+                  "SIGINT (Ctrl-C) or SIGTERM: exit status 0.\n",
+                  stdout);
+            return 0;
+        } else if ((argv[i][0] == '-' && argv[i][1] != '\0') || strcmp(argv[i], "-") == 0) {
+            fprintf(stderr, "headroom watch: unknown or incomplete option '%s'\n", argv[i]);
+            return EXIT_INPUT;
+        } else if (!file) {
+            file = argv[i];
+        } else {
+            fprintf(stderr, "headroom watch: one FILE at a time (found '%s' too)\n", argv[i]);
+            return EXIT_INPUT;
+        }
+    }
+    if (!file) {
+        fputs("usage: headroom watch FILE [-o OUT]\n", stderr);
+        return EXIT_INPUT;
+    }
+    char *def = out ? NULL : default_output(file, ".pdf");
+    WatchCtx w = {file, out ? out : def, 0};
+    int status = w.out ? watch_loop(watch_build, &w) : EXIT_IO;
+    free(def);
+    return status;
+}
+
 /* ---- lsp ------------------------------------------------------------------ */
 
 static int cmd_lsp(int argc, char **argv)
@@ -650,6 +728,8 @@ int main(int argc, char **argv)
         return cmd_convert(argc - 2, argv + 2);
     if (strcmp(cmd, "new") == 0)
         return cmd_new(argc - 2, argv + 2);
+    if (strcmp(cmd, "watch") == 0)
+        return cmd_watch(argc - 2, argv + 2);
     if (strcmp(cmd, "lsp") == 0)
         return cmd_lsp(argc - 2, argv + 2);
     fprintf(stderr, "headroom: unknown command '%s'\n%s", cmd, usage_text);
