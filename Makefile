@@ -17,7 +17,7 @@ DEB_PACKAGES := libcmark-gfm-dev libcmark-gfm-extensions-dev libhpdf-dev libyaml
                 libjansson-dev nettle-dev fonts-dejavu-core libcmocka-dev pkg-config \
                 units python3-fluids python3-iapws python3-scipy poppler-utils qpdf \
                 icc-profiles-free python3-pikepdf \
-                clang libclang-rt-14-dev neovim
+                clang libclang-rt-14-dev neovim vim zsh fish
 
 PKGS    := libcmark-gfm jansson nettle yaml-0.1
 WARN    := -std=c11 -Wall -Wextra -Wshadow -Wconversion -Wstrict-prototypes \
@@ -119,6 +119,18 @@ install: $(BUILD)/headroom
 	install -m 755 $(BUILD)/headroom $(DESTDIR)$(PREFIX)/bin/headroom
 	install -d $(DESTDIR)$(PREFIX)/share/man/man1
 	install -m 644 doc/headroom.1 $(DESTDIR)$(PREFIX)/share/man/man1/headroom.1
+	install -d $(DESTDIR)$(PREFIX)/share/bash-completion/completions \
+	  $(DESTDIR)$(PREFIX)/share/zsh/site-functions $(DESTDIR)$(PREFIX)/share/fish/vendor_completions.d
+	install -m 644 editors/completion/headroom.bash $(DESTDIR)$(PREFIX)/share/bash-completion/completions/headroom
+	install -m 644 editors/completion/_headroom $(DESTDIR)$(PREFIX)/share/zsh/site-functions/_headroom
+	install -m 644 editors/completion/headroom.fish $(DESTDIR)$(PREFIX)/share/fish/vendor_completions.d/headroom.fish
+	for d in share/vim/vimfiles share/nvim/site; do \
+	  install -d $(DESTDIR)$(PREFIX)/$$d/syntax $(DESTDIR)$(PREFIX)/$$d/ftdetect && \
+	  install -m 644 editors/vim/syntax/headroom.vim $(DESTDIR)$(PREFIX)/$$d/syntax/headroom.vim && \
+	  install -m 644 editors/vim/ftdetect/headroom.vim $(DESTDIR)$(PREFIX)/$$d/ftdetect/headroom.vim || exit 1; \
+	done
+	install -d $(DESTDIR)$(PREFIX)/share/headroom/textmate
+	install -m 644 editors/textmate/headroom-calc.tmLanguage.json $(DESTDIR)$(PREFIX)/share/headroom/textmate/
 
 clean:
 	rm -rf $(BUILD)
