@@ -63,8 +63,8 @@ int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size)
                                  "textDocument/didOpen", "params", "textDocument", "uri", uri, "languageId",
                                  "markdown", "version", 1, "text", text ? text : json_string("")));
         static const char *const asks[] = {"textDocument/hover", "textDocument/definition", "textDocument/completion"};
-        static const int cols[] = {0, 2, 5, 9, 16, 40};
-        for (int line = 0; line < 24; line++)
+        static const int cols[] = {0, 4, 12, 30};
+        for (int line = 0; line < 20; line++)
             for (size_t c = 0; c < sizeof cols / sizeof cols[0]; c++)
                 for (size_t a = 0; a < 3; a++)
                     frame_json(in, json_pack("{s:s,s:i,s:s,s:{s:{s:s},s:{s:i,s:i}}}", "jsonrpc", "2.0", "id", id++,

@@ -55,6 +55,11 @@ void render_check_verdict(const Evaluated *ev, size_t stmt, StrBuf *out, bool *f
     const Stmt *s = ev->doc->stmts[stmt];
     const StmtResult *r = &ev->results[stmt];
     const char *op = cmp_op_text(s->cmp, false);
+    *fails = true;
+    if (!s->lhs || !s->rhs) { /* the check did not parse */
+        sb_puts(out, "not evaluated: the check has errors");
+        return;
+    }
     StrBuf l = {0}, rr = {0};
     render_expr_text(ev, s->lhs, false, &l);
     render_expr_text(ev, s->rhs, false, &rr);
