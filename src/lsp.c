@@ -435,7 +435,7 @@ static void put_cites(const Document *doc, const Stmt *s, StrBuf *out)
 {
     for (size_t i = 0; i < s->ncites; i++) {
         const Source *src = source_of(doc, s->cites[i].key);
-        sb_printf(out, "\nSource [%s]: %s", s->cites[i].key, src ? src->text : "(not in the sources block)");
+        sb_printf(out, "\n\nSource [%s]: %s", s->cites[i].key, src ? src->text : "(not in the sources block)");
     }
 }
 
@@ -443,7 +443,7 @@ static void put_methods(const StmtResult *r, StrBuf *out)
 {
     for (size_t k = 0; k < r->nmethods; k++) {
         const Method *m = r->methods[k];
-        sb_printf(out, "\nMethod: %s", m->title);
+        sb_printf(out, "\n\nMethod: %s", m->title);
         if (m->formula)
             sb_printf(out, ", %s", m->formula);
         if (m->validity)
@@ -455,12 +455,12 @@ static void put_methods(const StmtResult *r, StrBuf *out)
 
 static void put_si(const Value *v, StrBuf *out)
 {
-    if (v->kind != VAL_NUMBER || !isfinite(v->q.si))
+    if (v->kind != VAL_NUMBER || !isfinite(v->q.si) || dim_is_none(v->q.dim))
         return;
     char num[48], unit[64];
     num_sig(v->q.si, 6, num, sizeof num);
     dim_format_si(v->q.dim, unit, sizeof unit);
-    sb_printf(out, "\nIn SI: %s %s", num, strcmp(unit, "1") == 0 ? "" : unit);
+    sb_printf(out, "\n\nIn SI: %s %s", num, unit);
 }
 
 /* What a defined name is: value, unit, formula, substituted formula,
@@ -473,8 +473,8 @@ static void hover_name(const Evaluated *ev, const Stmt *s, StrBuf *out)
         render_value_text(ev, &r->value, &r->shown, &val);
     sb_printf(out, "%s = %s", s->name, r->state == RES_OK ? sb_str(&val) : "(not evaluated)");
     if (s->description)
-        sb_printf(out, "\n%s", s->description);
-    sb_puts(out, "\n```calc\n");
+        sb_printf(out, "\n\n%s", s->description);
+    sb_puts(out, "\n\n```calc\n");
     if (s->kind == STMT_DEF && s->expr) {
         render_expr_text(ev, s->expr, false, &f);
         sb_printf(out, "%s = %s%s%s\n", s->name, sb_str(&f), s->has_as ? " as " : "", s->has_as ? s->as_text : "");
@@ -505,7 +505,7 @@ static void hover_name(const Evaluated *ev, const Stmt *s, StrBuf *out)
     if (r->state == RES_OK && r->value.kind == VAL_RECORD) {
         const Record *rec = r->value.rec;
         size_t shown = rec->nfields < 24 ? rec->nfields : 24;
-        sb_printf(out, "\n%s record:", rec->type ? rec->type : "a");
+        sb_printf(out, "\n\n%s record:\n", rec->type ? rec->type : "a");
         for (size_t i = 0; i < shown; i++) {
             const Value *fv = &rec->fields[i].value;
             Unit u = fv->kind == VAL_NUMBER ? eval_display_unit(ev, fv, NULL) : (Unit){0};
@@ -520,7 +520,7 @@ static void hover_name(const Evaluated *ev, const Stmt *s, StrBuf *out)
     put_cites(ev->doc, s, out);
     if (r->state == RES_OK)
         put_methods(r, out);
-    sb_printf(out, "\nDefined at line %d.", s->pos.line);
+    sb_printf(out, "\n\nDefined at line %d.", s->pos.line);
     sb_free(&f);
     sb_free(&v);
     sb_free(&val);
@@ -533,7 +533,7 @@ static void hover_check(const Evaluated *ev, const Stmt *s, StrBuf *out)
     render_check_verdict(ev, (size_t)s->index, &v, &fails);
     sb_printf(out, "check %s: %s", s->label ? s->label : "", sb_str(&v));
     if (s->description)
-        sb_printf(out, "\n%s", s->description);
+        sb_printf(out, "\n\n%s", s->description);
     put_cites(ev->doc, s, out);
     sb_free(&v);
 }
@@ -552,7 +552,7 @@ static bool hover_field(const Evaluated *ev, int slot, const char *field, StrBuf
         sb_printf(out, "%s.%s = ", ev->doc->stmts[slot]->name, field);
         render_value_text(ev, fv, &u, out);
         put_si(fv, out);
-        sb_printf(out, "\nA field of %s (line %d).", ev->doc->stmts[slot]->name, ev->doc->stmts[slot]->pos.line);
+        sb_printf(out, "\n\nA field of %s (line %d).", ev->doc->stmts[slot]->name, ev->doc->stmts[slot]->pos.line);
         put_methods(r, out);
         return true;
     }
@@ -590,7 +590,7 @@ static json_t *do_hover(Server *S, OpenDoc *od, json_t *params)
         } else if (builtin_lookup(w)) {
             const Builtin *fn = builtin_lookup(w);
             put_signature(fn, &out);
-            sb_printf(&out, "\n%s", fn->summary);
+            sb_printf(&out, "\n\n%s", fn->summary);
         } else if (strcmp(w, "pi") == 0) {
             sb_puts(&out, "pi = 3.141592654 (the constant)");
         } else if (strcmp(w, "g") == 0) {
