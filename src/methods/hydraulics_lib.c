@@ -795,8 +795,8 @@ bool fn_wave_speed(CallCtx *cx, const CallArgs *a, Value *out)
     }
     if (support != SURGE_SUPPORT_JOINTS && nu < 0.0) {
         diag_error(cx->diags, sp,
-                   "%s: no Poisson's ratio is tabulated for this pipe's material; give "
-                   "poisson=...",
+                   "%s: no verified Poisson's ratio is tabulated for this pipe's material "
+                   "(steel, PVC and CPVC are); give poisson=... from the manufacturer's data",
                    a->name);
         return false;
     }
@@ -816,9 +816,9 @@ bool fn_wave_speed(CallCtx *cx, const CallArgs *a, Value *out)
         call_use_method(cx, &METHOD_KORTEWEG_THICK);
     else if (D / e < SURGE_THIN_WALL_RATIO)
         diag_warning(cx->diags, a->pos,
-                     "%s: D/e = %s is below 25 and no Poisson's ratio is known for this "
-                     "material, so the thin-wall factor was used; give poisson=... for the "
-                     "thick-walled form",
+                     "%s: D/e = %s is below 25 and no verified Poisson's ratio is tabulated "
+                     "for this material, so the thin-wall factor was used; give poisson=... "
+                     "for the thick-walled form",
                      a->name, show_num(D / e, b1, sizeof b1));
     *out = value_hinted(qty(speed, DIM_VELOCITY), "ft/s", "m/s");
     return true;

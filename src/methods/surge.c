@@ -38,14 +38,15 @@ double surge_support_c1_thick(SurgeSupport s, double poisson, double D, double e
     return shell + D * surge_support_c1(s, poisson) / (D + e);
 }
 
-/* Poisson's ratios of pipe materials. PVC 0.410 and CPVC 0.386 at 73 degF
- * are GF Harvel's published pipe properties (U.S. Plastic Corp., "PVC and
- * CPVC pipe" property table). Steel 0.30, copper 0.34 and polyethylene
- * (PEX) 0.46 are the values of Wylie and Streeter (1993), Table 2.1; they
- * are not yet checked against a copy of that table. */
+/* Poisson's ratios of pipe materials, each as a published copy prints it:
+ * PVC 0.410 and CPVC 0.386 at 73 degF, GF Harvel's pipe properties (U.S.
+ * Plastic Corp., "PVC and CPVC pipe" property table); steel 0.30, the upper
+ * end of "steel 0.27 - 0.3" (Altair Radioss help, "Poisson's ratio"
+ * material table), the end that gives the faster wave and so the larger
+ * surge. Copper and polyethylene (PEX) have no row: no published value
+ * could be read, and wave_speed() asks for poisson= where one is needed. */
 static const struct { const char *word; double nu; } POISSON[] = {
-    {"stainless", 0.30}, {"steel", 0.30}, {"copper", 0.34},
-    {"cpvc", 0.386}, {"pvc", 0.410}, {"pex", 0.46}, {"polyethylene", 0.46},
+    {"stainless", 0.30}, {"steel", 0.30}, {"cpvc", 0.386}, {"pvc", 0.410},
 };
 
 static int starts_with_ci(const char *s, const char *w)

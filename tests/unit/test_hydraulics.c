@@ -220,6 +220,11 @@ static void test_korteweg(void **state)
     assert_rel(surge_poisson("PVC"), 0.410, 0.0);
     assert_rel(surge_poisson("CPVC"), 0.386, 0.0);
     assert_true(surge_poisson("unobtainium") < 0.0);
+    /* no published copper or polyethylene value was read: no row */
+    assert_true(surge_poisson("copper") < 0.0);
+    assert_true(surge_poisson("PEX") < 0.0);
+    /* Altair Radioss help: steel 0.27 - 0.3; the upper end */
+    assert_rel(surge_poisson("stainless steel"), 0.30, 0.0);
     assert_int_equal(surge_wave_speed(0.0, 998.2, 0.1, 0.01, 2e11, 1.0, &a), SURGE_BAD_INPUT);
 }
 
