@@ -284,6 +284,18 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
         set_text(m, "key", ev->methods[k]->key);
         set_text(m, "title", ev->methods[k]->title);
         set_text(m, "reference", ev->methods[k]->reference);
+        /* every statement that cites it, as the PDF's references list them */
+        json_t *used = json_array();
+        for (size_t i = 0; i < doc->nstmts; i++)
+            for (size_t j = 0; j < ev->results[i].nmethods; j++)
+                if (method_same(ev->results[i].methods[j], ev->methods[k])) {
+                    json_t *u = json_object();
+                    set_text(u, "name", doc->stmts[i]->name);
+                    json_object_set_new(u, "line", json_integer(doc->stmts[i]->pos.line));
+                    json_array_append_new(used, u);
+                    break;
+                }
+        json_object_set_new(m, "used_by", used);
         json_array_append_new(methods, m);
     }
     json_object_set_new(o, "values", values);
