@@ -150,9 +150,9 @@ static const Method *modulus_method(CallCtx *cx, const PipeStandard *s)
     m->title = arena_printf(cx->arena, "Elastic modulus of %s", s->material);
     m->formula = NULL;
     m->validity = s->id == PIPE_ASME_B36_10M || s->id == PIPE_ASTM_B88
-                      ? "room temperature (70 degF); the modulus of a metal falls slowly as "
+                      ? "room temperature (70 °F); the modulus of a metal falls slowly as "
                         "temperature rises"
-                      : "73 degF; a thermoplastic softens as temperature rises: its modulus "
+                      : "73 °F; a thermoplastic softens as temperature rises: its modulus "
                         "falls markedly above room temperature";
     m->reference = s->E_source;
     return m;

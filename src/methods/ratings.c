@@ -57,20 +57,20 @@ static const double PEX_DERATE[][2] = {
 
 static const PlasticRating PLASTICS[] = {
     {"PVC", "PVC 1120", 2000.0 * RATING_PSI, DEG_F_TO_K(T_RATING_F),
-     "HDS 2000 psi for PVC 1120 at 73.4 degF: HDB 4000 psi times the service factor 0.5 of "
+     "HDS 2000 psi for PVC 1120 at 73.4 °F: HDB 4000 psi times the service factor 0.5 of "
      "the ASTM D2241 appendix (Moser, A. P., Buried Pipe Design, chapter 4, pressure-rated "
      "PVC pipe)",
-     "GF Harvel, Temperature Derating, Schedule 40 & 80 PVC Industrial pipe (73-140 degF)",
+     "GF Harvel, Temperature Derating, Schedule 40 & 80 PVC Industrial pipe (73-140 °F)",
      COUNT(PVC_DERATE), PVC_DERATE},
     {"CPVC", "CPVC 4120", 2000.0 * RATING_PSI, DEG_F_TO_K(T_RATING_F),
-     "HDS 2000 psi for CPVC 4120 at 73.4 degF (\"the design stress of CPVC is also 2,000 psi "
-     "at 73 degF\", U.S. Plastic Corp., CPVC Schedule 40 pipe physical properties)",
-     "GF Harvel, CPVC Industrial Pipe Temperature Derating (73-200 degF)",
+     "HDS 2000 psi for CPVC 4120 at 73.4 °F (\"the design stress of CPVC is also 2,000 psi "
+     "at 73 °F\", U.S. Plastic Corp., CPVC Schedule 40 pipe physical properties)",
+     "GF Harvel, CPVC Industrial Pipe Temperature Derating (73-200 °F)",
      COUNT(CPVC_DERATE), CPVC_DERATE},
     {"PEX", "PEX (ASTM F876 SDR 9)", 630.0 * RATING_PSI, DEG_F_TO_K(T_RATING_F),
-     "HDS 630 psi at 73.4 degF: ASTM F876/F877 SDR 9 rating 160 psi at 73.4 degF "
+     "HDS 630 psi at 73.4 °F: ASTM F876/F877 SDR 9 rating 160 psi at 73.4 °F "
      "(EngineerFix, How Much Pressure Can PEX Pipe Hold?)",
-     "ASTM F876/F877 SDR 9 ratings 160 psi at 73.4 degF and 100 psi at 180 degF (Village "
+     "ASTM F876/F877 SDR 9 ratings 160 psi at 73.4 °F and 100 psi at 180 °F (Village "
      "Plumbing, Common PEX Pressure Ratings), linear between",
      COUNT(PEX_DERATE), PEX_DERATE},
 };
