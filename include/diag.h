@@ -48,4 +48,9 @@ void diag_sort(DiagList *dl);
  * `text` is the whole source (may be NULL), used to show the line. */
 void diag_print(FILE *out, const DiagList *dl, const char *text, size_t text_len, bool color);
 
+/* Write `s` with control and bidirectional-control characters shown as
+ * escapes (`\x1b`, `\u202e`), so text from a file or a command line never
+ * drives the terminal. diag_print escapes every line and message this way. */
+void diag_print_escaped(FILE *out, const char *s);
+
 #endif

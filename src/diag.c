@@ -104,6 +104,65 @@ static const char *find_line(const char *text, size_t text_len, int line, size_t
     return p;
 }
 
+/* How many bytes of `s` (at most `n`) form one character that must not reach
+ * a terminal raw: C0 controls but tab, DEL, C1 controls (U+0080-U+009F) and
+ * the bidirectional controls that reorder what is shown (U+061C, U+200E,
+ * U+200F, U+202A-U+202E, U+2066-U+2069). 0 for anything else. */
+static size_t unsafe_char_len(const unsigned char *s, size_t n)
+{
+    if ((s[0] < 0x20 && s[0] != '\t') || s[0] == 0x7F)
+        return 1;
+    if (s[0] == 0xC2 && n >= 2 && s[1] >= 0x80 && s[1] <= 0x9F)
+        return 2;
+    if (s[0] == 0xD8 && n >= 2 && s[1] == 0x9C)
+        return 2;
+    if (s[0] == 0xE2 && n >= 3) {
+        unsigned c = ((unsigned)(s[1] & 0x3F) << 6) | (s[2] & 0x3F);
+        c |= 0x2000;
+        if (s[1] == 0x80 && (c == 0x200E || c == 0x200F || (c >= 0x202A && c <= 0x202E)))
+            return 3;
+        if (s[1] == 0x81 && c >= 0x2066 && c <= 0x2069)
+            return 3;
+    }
+    return 0;
+}
+
+/* Write n bytes with every unsafe character escaped: `\x1b` for a single
+ * byte, `\u202e` for a longer one. When `cols` is not NULL, cols[i] is
+ * set to the terminal columns byte i took, to line a caret up. */
+static void put_escaped(FILE *out, const char *s, size_t n, unsigned char *cols)
+{
+    const unsigned char *u = (const unsigned char *)s;
+    for (size_t i = 0; i < n;) {
+        size_t k = unsafe_char_len(u + i, n - i);
+        if (k == 0) {
+            fputc(u[i], out);
+            if (cols)
+                cols[i] = 1;
+            i++;
+            continue;
+        }
+        unsigned c = u[i];
+        if (k == 2)
+            c = ((unsigned)(u[i] & 0x1F) << 6) | (u[i + 1] & 0x3F);
+        else if (k == 3)
+            c = ((unsigned)(u[i] & 0x0F) << 12) | ((unsigned)(u[i + 1] & 0x3F) << 6) |
+                (u[i + 2] & 0x3F);
+        int w = c < 0x100 ? fprintf(out, "\\x%02x", c) : fprintf(out, "\\u%04x", c);
+        if (cols) {
+            cols[i] = (unsigned char)(w > 0 ? w : 0);
+            for (size_t j = 1; j < k; j++)
+                cols[i + j] = 0;
+        }
+        i += k;
+    }
+}
+
+void diag_print_escaped(FILE *out, const char *s)
+{
+    put_escaped(out, s, strlen(s), NULL);
+}
+
 void diag_print(FILE *out, const DiagList *dl, const char *text, size_t text_len, bool color)
 {
     static const char *const word[] = {"error", "warning", "note"};
@@ -113,13 +172,17 @@ void diag_print(FILE *out, const DiagList *dl, const char *text, size_t text_len
     for (size_t i = 0; i < dl->len; i++) {
         const Diag *d = &dl->items[i];
         const char *file = d->pos.file ? d->pos.file : "headroom";
+        fputs(color ? "\033[1m" : "", out);
+        diag_print_escaped(out, file);
         if (d->pos.line > 0)
-            fprintf(out, "%s%s:%d:%d:%s ", color ? "\033[1m" : "", file, d->pos.line,
-                    d->pos.col > 0 ? d->pos.col : 1, color ? "\033[0m" : "");
+            fprintf(out, ":%d:%d:%s ", d->pos.line, d->pos.col > 0 ? d->pos.col : 1,
+                    color ? "\033[0m" : "");
         else
-            fprintf(out, "%s%s:%s ", color ? "\033[1m" : "", file, color ? "\033[0m" : "");
-        fprintf(out, "%s%s:%s %s\n", color ? hue[d->severity] : "", word[d->severity],
-                color ? "\033[0m" : "", d->message);
+            fprintf(out, ":%s ", color ? "\033[0m" : "");
+        fprintf(out, "%s%s:%s ", color ? hue[d->severity] : "", word[d->severity],
+                color ? "\033[0m" : "");
+        diag_print_escaped(out, d->message);
+        fputc('\n', out);
         size_t len = 0;
         const char *line = find_line(text, text_len, d->pos.line, &len, &at, &at_line);
         if (!line)
@@ -130,14 +193,22 @@ void diag_print(FILE *out, const DiagList *dl, const char *text, size_t text_len
         if (len > 160 && col > 80)
             from = col - 60;
         size_t shown = len - from < 160 ? len - from : 160;
+        unsigned char cols[160];
         fprintf(out, "%5d | %s", d->pos.line, from ? "..." : "");
-        fwrite(line + from, 1, shown, out);
+        put_escaped(out, line + from, shown, cols);
         fprintf(out, "%s\n      | %s", from + shown < len ? "..." : "", from ? "   " : "");
-        /* The caret sits under the column; tabs are kept so it lines up. */
+        /* The caret sits under the column; tabs are kept so it lines up, an
+         * escaped character takes the width of its escape. */
         for (size_t c = from; c < col && c < from + shown; c++) {
-            if (((unsigned char)line[c] & 0xC0) == 0x80)
+            if (line[c] == '\t') {
+                fputc('\t', out);
+                continue;
+            }
+            size_t w = cols[c - from];
+            if (w == 1 && ((unsigned char)line[c] & 0xC0) == 0x80)
                 continue; /* one caret column per UTF-8 character */
-            fputc(line[c] == '\t' ? '\t' : ' ', out);
+            for (size_t k = 0; k < w; k++)
+                fputc(' ', out);
         }
         fprintf(out, "%s^%s\n", color ? hue[d->severity] : "", color ? "\033[0m" : "");
     }

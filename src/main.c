@@ -22,6 +22,7 @@
 #include "eval.h"
 #include "lsp.h"
 #include "numfmt.h"
+#include "outfile.h"
 #include "parse.h"
 #include "render.h"
 #include "revision.h"
@@ -55,6 +56,21 @@ static const char usage_text[] =
     "Exit status: 0 every check holds; 1 a check fails (build: with --strict);\n"
     "2 the input has errors (nothing is written); 3 an I/O or internal failure.\n"
     "FILE may be '-' for standard input. NO_COLOR turns off colour.\n";
+
+/* The first failure to write standard output, for main() to report once. */
+static int stdout_errno;
+
+/* Flush standard output; false (and the error kept) when a write failed. */
+static bool stdout_ok(void)
+{
+    errno = 0;
+    if (fflush(stdout) != 0 || ferror(stdout)) {
+        if (!stdout_errno)
+            stdout_errno = errno ? errno : EIO;
+        return false;
+    }
+    return true;
+}
 
 static bool use_color(void)
 {
@@ -201,7 +217,7 @@ static int cmd_check(int argc, char **argv)
         ok = render_sarif(runs, nfiles, stdout);
     else if (fmt == CHK_GITHUB)
         ok = render_github(runs, nfiles, stdout);
-    if ((!ok || fflush(stdout) != 0) && status < EXIT_IO)
+    if ((!ok || !stdout_ok()) && status < EXIT_IO)
         status = EXIT_IO;
     diag_free(&all);
     for (size_t f = 0; f < nfiles; f++) {
@@ -220,54 +236,81 @@ static int cmd_check(int argc, char **argv)
 
 typedef enum Format { FMT_PDF, FMT_TEXT, FMT_JSON } Format;
 
-/* Render into a temporary file beside `out`, then rename it into place.
+/* Render into a temporary file, then move it into place: renamed over a
+ * regular (or absent) OUT, copied into one that is not a regular file (a
+ * device, a FIFO) or into standard output ("-"), which are never replaced.
+ * `inputs`: the calc and every file it reads, which OUT must not be.
  * `since` (PDF only): the changes to mark, since revision `since_label`. */
 static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagList *dl,
-                        const Diff *since, const char *since_label)
+                        const Diff *since, const char *since_label, const char *const *inputs,
+                        size_t ninputs)
 {
-    if (fmt != FMT_PDF && strcmp(out, "-") == 0) {
-        bool ok = fmt == FMT_TEXT ? render_text(ev, stdout) : render_json(&ev, dl, 1, stdout);
-        return ok && fflush(stdout) == 0 ? 0 : EXIT_IO;
+    OutKind kind;
+    char why[512];
+    if (!outfile_classify(out, inputs, ninputs, &kind, why, sizeof why)) {
+        fprintf(stderr, "headroom: will not write the report: ");
+        diag_print_escaped(stderr, why);
+        fputc('\n', stderr);
+        return EXIT_INPUT;
     }
-    size_t n = strlen(out);
-    char *tmp = malloc(n + 16);
-    if (!tmp)
+    if (fmt != FMT_PDF && kind == OUT_STDOUT) {
+        bool ok = fmt == FMT_TEXT ? render_text(ev, stdout) : render_json(&ev, dl, 1, stdout);
+        return stdout_ok() && ok ? 0 : EXIT_IO; /* main() names the failure */
+    }
+    if (fmt == FMT_PDF && kind == OUT_STDOUT && isatty(STDOUT_FILENO)) {
+        fputs("headroom: will not write a PDF to a terminal; redirect standard output\n", stderr);
         return EXIT_IO;
-    snprintf(tmp, n + 16, "%s.tmp.XXXXXX", out);
-    int fd = mkstemp(tmp);
+    }
+    char *tmp = NULL;
+    int fd = outfile_temp_create(out, kind, &tmp);
     if (fd < 0) {
-        fprintf(stderr, "headroom: cannot write '%s': %s\n", out, strerror(errno));
-        free(tmp);
+        fprintf(stderr, "headroom: cannot create a temporary file for '%s': %s\n", out,
+                strerror(errno));
         return EXIT_IO;
     }
     bool ok;
+    const char *failed = "render the report";
+    int err = 0;
     if (fmt == FMT_PDF) {
         close(fd);
         ok = render_pdf_since(ev, since, since_label, tmp, dl);
     } else {
         FILE *f = fdopen(fd, "wb");
         if (!f) {
+            err = errno;
             close(fd);
             ok = false;
         } else {
             ok = fmt == FMT_TEXT ? render_text(ev, f) : render_json(&ev, dl, 1, f);
-            ok = (fclose(f) == 0) && ok;
+            if (!ok || ferror(f))
+                err = errno, ok = false;
+            if (fclose(f) != 0 && ok)
+                err = errno, ok = false;
         }
+        failed = "write";
     }
-    /* mkstemp creates 0600; a report gets the usual mode under the umask. */
-    mode_t mask = umask(0);
-    umask(mask);
-    if (ok && chmod(tmp, 0666 & ~mask) != 0)
-        ok = false;
-    if (ok && rename(tmp, out) != 0) {
-        fprintf(stderr, "headroom: cannot write '%s': %s\n", out, strerror(errno));
-        ok = false;
+    if (ok && kind == OUT_REPLACE) {
+        /* mkstemp creates 0600; a report gets the usual mode under the umask. */
+        mode_t mask = umask(0);
+        umask(mask);
+        if (chmod(tmp, 0666 & ~mask) != 0 || rename(tmp, out) != 0)
+            err = errno, ok = false, failed = "move the report into place as";
+    } else if (ok) {
+        int to = kind == OUT_STDOUT ? STDOUT_FILENO : open(out, O_WRONLY | O_NOCTTY);
+        if (to < 0 || !outfile_copy(tmp, to))
+            err = errno, ok = false, failed = "write";
+        if (to >= 0 && to != STDOUT_FILENO && close(to) != 0 && ok)
+            err = errno, ok = false, failed = "write";
     }
-    if (!ok) {
+    if (!ok || kind != OUT_REPLACE)
         unlink(tmp);
+    outfile_temp_release();
+    if (!ok) {
         if (dl->len)
             print_diags(dl, ev->doc);
-        fprintf(stderr, "headroom: failed to write '%s'\n", out);
+        fprintf(stderr, "headroom: failed to %s '%s'%s%s\n", failed,
+                kind == OUT_STDOUT ? "standard output" : out, err ? ": " : "",
+                err ? strerror(err) : "");
     }
     free(tmp);
     return ok ? 0 : EXIT_IO;
@@ -387,7 +430,8 @@ static int cmd_build(int argc, char **argv)
         const char *label = !diff ? NULL
                             : old_doc->meta.revision && old_doc->meta.revision[0] ? old_doc->meta.revision
                                                                                   : since;
-        status = out ? write_report(ev, fmt, out, &wl, diff, label) : EXIT_IO;
+        const char *inputs[] = {file, since};
+        status = out ? write_report(ev, fmt, out, &wl, diff, label, inputs, 2) : EXIT_IO;
         diag_free(&wl);
         free(def);
         if (status == 0 && strict && (ev->nfailed || ev->case_rows_failing))
@@ -444,7 +488,7 @@ static int cmd_new(int argc, char **argv)
     const char *path = argc == 2 ? argv[1] : def;
     if (strcmp(path, "-") == 0) {
         fputs(text, stdout);
-        return fflush(stdout) == 0 ? 0 : EXIT_IO;
+        return stdout_ok() ? 0 : EXIT_IO;
     }
     /* O_EXCL: never overwrite somebody's calc. */
     int fd = open(path, O_WRONLY | O_CREAT | O_EXCL, 0666);
@@ -523,7 +567,7 @@ static int cmd_diff(int argc, char **argv)
     if (status == 0) {
         Diff *d = diff_compute(ev[0], ev[1], &opt);
         bool ok = json ? render_diff_json(d, stdout) : render_diff_text(d, stdout);
-        status = ok && fflush(stdout) == 0 ? (d->changed ? 1 : 0) : EXIT_IO;
+        status = stdout_ok() && ok ? (d->changed ? 1 : 0) : EXIT_IO;
         diff_free(d);
     }
     for (int k = 0; k < 2; k++) {
@@ -706,7 +750,7 @@ static int cmd_lsp(int argc, char **argv)
     return lsp_serve(STDIN_FILENO, stdout);
 }
 
-int main(int argc, char **argv)
+static int run_command(int argc, char **argv)
 {
     if (argc < 2 || strcmp(argv[1], "--help") == 0 || strcmp(argv[1], "-h") == 0 ||
         strcmp(argv[1], "help") == 0) {
@@ -734,4 +778,20 @@ int main(int argc, char **argv)
         return cmd_lsp(argc - 2, argv + 2);
     fprintf(stderr, "headroom: unknown command '%s'\n%s", cmd, usage_text);
     return EXIT_INPUT;
+}
+
+/* Every command's standard output is checked once here: a write that failed
+ * (a full disk, a closed pipe) is exit 3 with what failed, whatever the
+ * command printed before. */
+int main(int argc, char **argv)
+{
+    int status = run_command(argc, argv);
+    stdout_ok();
+    if (fclose(stdout) != 0 && !stdout_errno)
+        stdout_errno = errno ? errno : EIO;
+    if (stdout_errno) {
+        fprintf(stderr, "headroom: cannot write to standard output: %s\n", strerror(stdout_errno));
+        return EXIT_IO;
+    }
+    return status;
 }
