@@ -13,7 +13,12 @@
 enum {
     SOURCE_MAX_BYTES = 8 * 1024 * 1024, /* largest calc file accepted */
     SOURCE_MAX_LINE = 64 * 1024,        /* longest line, in bytes, anywhere in the file */
-    PARSE_MAX_DEPTH = 200,              /* grammar levels of one expression (parentheses, signs) */
+    PARSE_MAX_DEPTH = 200,              /* levels of one expression tree: every operator, sign,
+                                           parenthesis, field and call. Every walker (evaluation,
+                                           layout, text, JSON, diff) recurses once per level, so
+                                           this bounds the stack: tests/limits/run runs a tree at
+                                           the limit through every command, and chains 100 times
+                                           the length that once overflowed, under ulimit -s 1024 */
     MARKDOWN_MAX_DEPTH = 64,            /* nested block quotes, lists and inline emphasis */
     DOC_MAX_STATEMENTS = 100000,        /* statements of a file, all calc blocks and paths */
     PATH_MAX_SEGMENTS = 10000,          /* rows of one path table */

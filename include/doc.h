@@ -37,6 +37,8 @@ typedef struct Expr Expr;
 struct Expr {
     ExprKind kind;
     Pos pos;
+    int height;              /* levels of the tree from here down (a leaf is 1);
+                                at most PARSE_MAX_DEPTH, so no walker recurses deeper */
     /* EXPR_NUMBER */
     double number;           /* as written, in `unit` */
     const char *text;        /* the literal as written: number, string or name */

@@ -133,15 +133,16 @@ static size_t unsafe_char_len(const unsigned char *s, size_t n)
 static void put_escaped(FILE *out, const char *s, size_t n, unsigned char *cols)
 {
     const unsigned char *u = (const unsigned char *)s;
+    size_t run = 0; /* start of the pending run of bytes written as they are */
     for (size_t i = 0; i < n;) {
         size_t k = unsafe_char_len(u + i, n - i);
         if (k == 0) {
-            fputc(u[i], out);
             if (cols)
                 cols[i] = 1;
             i++;
             continue;
         }
+        fwrite(s + run, 1, i - run, out);
         unsigned c = u[i];
         if (k == 2)
             c = ((unsigned)(u[i] & 0x1F) << 6) | (u[i + 1] & 0x3F);
@@ -155,7 +156,9 @@ static void put_escaped(FILE *out, const char *s, size_t n, unsigned char *cols)
                 cols[i + j] = 0;
         }
         i += k;
+        run = i;
     }
+    fwrite(s + run, 1, n - run, out);
 }
 
 void diag_print_escaped(FILE *out, const char *s)

@@ -54,7 +54,37 @@ static Expr *new_expr(Parser *p, ExprKind kind, Pos pos)
     e->pos = pos;
     e->slot = SLOT_UNRESOLVED;
     e->callee_slot = -1;
+    e->height = 1;
     return e;
+}
+
+/* The height of a node over its children. Every operator, sign, parenthesis,
+ * field and call is a level of the tree, and every walker (evaluation,
+ * layout, listings, diff) recurses once per level, so a tree taller than
+ * PARSE_MAX_DEPTH is refused here, at the node that goes over (a 6,000-term
+ * sum once overflowed the stack). false after reporting it. */
+static bool tree_grow(Parser *p, Expr *e)
+{
+    int h = 0;
+    if (e->lhs && e->lhs->height > h)
+        h = e->lhs->height;
+    if (e->rhs && e->rhs->height > h)
+        h = e->rhs->height;
+    for (size_t i = 0; i < e->nargs; i++)
+        if (e->args[i]->height > h)
+            h = e->args[i]->height;
+    for (size_t i = 0; i < e->nkw; i++)
+        if (e->kw[i]->height > h)
+            h = e->kw[i]->height;
+    e->height = h + 1;
+    if (e->height > PARSE_MAX_DEPTH) {
+        char lim[16];
+        snprintf(lim, sizeof lim, "%d", PARSE_MAX_DEPTH);
+        fail(p, e->pos, "expression nested too deeply (more than %s levels): every operator, sign, "
+                        "parenthesis, field and call is a level; split it into named steps", lim);
+        return false;
+    }
+    return true;
 }
 
 /* `number` (may be NULL) is the literal the unit follows, for the hint
@@ -226,7 +256,7 @@ static Expr *parse_primary(Parser *p)
             Pos open = p->tok.pos;
             advance(p);
             parse_args(p, e, open);
-            return p->failed ? NULL : e;
+            return p->failed || !tree_grow(p, e) ? NULL : e;
         }
         Expr *e = new_expr(p, EXPR_NAME, t.pos);
         e->text = arena_strndup(p->arena, t.text, t.len);
@@ -247,7 +277,7 @@ static Expr *parse_primary(Parser *p)
         advance(p);
         Expr *e = new_expr(p, EXPR_PAREN, open);
         e->lhs = inner;
-        return e;
+        return tree_grow(p, e) ? e : NULL;
     }
     default:
         expected(p, "a number, a name, a string or '('");
@@ -269,7 +299,7 @@ static Expr *parse_postfix(Parser *p)
         f->lhs = e;
         f->text = arena_strndup(p->arena, p->tok.text, p->tok.len);
         advance(p);
-        e = f;
+        e = tree_grow(p, f) ? f : NULL;
     }
     return e;
 }
@@ -302,7 +332,7 @@ static Expr *parse_power(Parser *p)
     e->op = OP_POW;
     e->lhs = base;
     e->rhs = ex;
-    return e;
+    return tree_grow(p, e) ? e : NULL;
 }
 
 /* unary := '-' unary | '+' unary | power */
@@ -320,6 +350,8 @@ static Expr *parse_unary(Parser *p)
         } else {
             r = new_expr(p, EXPR_NEG, t.pos);
             r->lhs = operand;
+            if (!tree_grow(p, r))
+                r = NULL;
         }
     } else {
         r = parse_power(p);
@@ -343,7 +375,7 @@ static Expr *parse_term(Parser *p)
         e->middle_dot = t.middle_dot != 0;
         e->lhs = lhs;
         e->rhs = rhs;
-        lhs = e;
+        lhs = tree_grow(p, e) ? e : NULL;
     }
     return lhs;
 }
@@ -364,7 +396,7 @@ static Expr *parse_expr(Parser *p)
         e->op = t.kind == TOK_PLUS ? OP_ADD : OP_SUB;
         e->lhs = lhs;
         e->rhs = rhs;
-        lhs = e;
+        lhs = tree_grow(p, e) ? e : NULL;
     }
     return lhs;
 }
