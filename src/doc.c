@@ -16,6 +16,7 @@
 #include "library.h"
 #include "markdown.h"
 #include "source.h"
+#include "strmap.h"
 
 /* ---- name table: open addressing, names -> slots ---------------------- */
 
@@ -297,6 +298,9 @@ static void resolve_statements(Document *doc, DiagList *diags)
         labels->slots[k] = (int)i;
     }
 
+    StrMap source_keys = {0};
+    for (size_t k = 0; k < doc->nsources; k++)
+        strmap_add(&source_keys, doc->sources[k].key, k, NULL);
     Resolver r = {doc, diags, 0, {0}};
     for (size_t i = 0; i < doc->nstmts; i++) {
         Stmt *s = doc->stmts[i];
@@ -304,11 +308,11 @@ static void resolve_statements(Document *doc, DiagList *diags)
         r.deps.len = 0;
         for (size_t c = 0; c < s->ncites; c++) {
             Cite *ct = &s->cites[c];
-            for (size_t k = 0; k < doc->nsources; k++)
-                if (strcmp(doc->sources[k].key, ct->key) == 0) {
-                    ct->source = (int)k;
-                    doc->sources[k].cited = true;
-                }
+            size_t k;
+            if (strmap_get(&source_keys, ct->key, &k)) {
+                ct->source = (int)k;
+                doc->sources[k].cited = true;
+            }
             if (ct->source < 0) {
                 if (doc->nsources)
                     diag_error(diags, ct->pos, "unknown source key '%s' (define it in a ```sources block)", ct->key);
@@ -366,6 +370,7 @@ static void resolve_statements(Document *doc, DiagList *diags)
         s->ndeps = u;
     }
     vec_free(&r.deps);
+    strmap_free(&source_keys);
 }
 
 /* Inline {values} in prose may name anything defined in the calc. */

@@ -12,6 +12,8 @@
 #include <string.h>
 #include <yaml.h>
 
+#include "strmap.h"
+
 typedef struct FmCtx {
     Document *doc;
     DiagList *diags;
@@ -267,6 +269,7 @@ size_t frontmatter_read(Document *doc, DiagList *diags)
     }
     yaml_node_t *root = yaml_document_get_root_node(&ydoc);
     if (root && root->type == YAML_MAPPING_NODE) {
+        StrMap seen = {0};
         for (yaml_node_pair_t *pr = root->data.mapping.pairs.start; pr < root->data.mapping.pairs.top; pr++) {
             yaml_node_t *k = yaml_document_get_node(&ydoc, pr->key);
             yaml_node_t *v = yaml_document_get_node(&ydoc, pr->value);
@@ -278,17 +281,14 @@ size_t frontmatter_read(Document *doc, DiagList *diags)
             }
             const char *key = (const char *)k->data.scalar.value;
             /* A repeated key is an error too: YAML readers differ on which wins. */
-            for (yaml_node_pair_t *q = root->data.mapping.pairs.start; q < pr; q++) {
-                yaml_node_t *kq = yaml_document_get_node(&ydoc, q->key);
-                if (kq && kq->type == YAML_SCALAR_NODE && strcmp((const char *)kq->data.scalar.value, key) == 0) {
-                    diag_error(diags, node_pos(&c, k), "front matter: key '%s' is given twice", key);
-                    key = NULL;
-                    break;
-                }
+            if (!strmap_add(&seen, key, 0, NULL)) {
+                diag_error(diags, node_pos(&c, k), "front matter: key '%s' is given twice", key);
+                key = NULL;
             }
             if (key)
                 one_key(&c, key, k, v);
         }
+        strmap_free(&seen);
     } else if (root && !(root->type == YAML_SCALAR_NODE && root->data.scalar.length == 0)) {
         diag_error(diags, node_pos(&c, root), "front matter must be 'key: value' lines");
     }

@@ -16,6 +16,7 @@
 
 #include "parse.h"
 #include "source.h"
+#include "strmap.h"
 #include "tables.h"
 
 enum { ESCAPED_BRACE = 0x1A };
@@ -25,6 +26,7 @@ typedef struct Md {
     DiagList *diags;
     Vec stmts;
     Vec sources;
+    StrMap source_keys;      /* key -> index in sources */
     Vec cases;
     int heading_count[6];
     int too_deep;
@@ -382,12 +384,11 @@ static void sources_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
     src->key = arena_strndup(&m->doc->arena, s + i, ke - i);
     src->text = arena_strndup(&m->doc->arena, s + ts, te - ts);
     src->pos = kp;
-    for (size_t k = 0; k < m->sources.len; k++) {
-        Source *o = m->sources.items[k];
-        if (strcmp(o->key, src->key) == 0) {
-            diag_error(m->diags, kp, "source key '%s' is already defined at %d:%d", src->key, o->pos.line, o->pos.col);
-            return;
-        }
+    size_t had;
+    if (!strmap_add(&m->source_keys, src->key, m->sources.len, &had)) {
+        const Source *o = m->sources.items[had];
+        diag_error(m->diags, kp, "source key '%s' is already defined at %d:%d", src->key, o->pos.line, o->pos.col);
+        return;
     }
     vec_push(&m->sources, src);
 }
@@ -627,5 +628,6 @@ void markdown_read(Document *doc, size_t body_start, DiagList *diags)
         doc->cases[i] = m.cases.items[i];
     vec_free(&m.stmts);
     vec_free(&m.sources);
+    strmap_free(&m.source_keys);
     vec_free(&m.cases);
 }

@@ -14,6 +14,7 @@
 #include "methods/fittings.h"
 #include "methods/friction.h"
 #include "parse.h"
+#include "strmap.h"
 
 typedef struct Cell {
     const char *text;
@@ -401,6 +402,7 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
     }
     size_t cap = n - i + 1;
     ps->segs = arena_alloc(a, cap * sizeof *ps->segs);
+    StrMap seg_fields = {0}; /* segment field name -> its row */
     for (; i < n; i++) {
         const FenceLine *l = &lines[i];
         if (is_blank(l))
@@ -463,14 +465,15 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
             default: break;
             }
         }
-        for (size_t k = 0; k < ps->nsegs && seg->field; k++)
-            if (ps->segs[k].field && strcmp(ps->segs[k].field, seg->field) == 0) {
-                diag_error(diags, seg->pos, "segment '%s' is already in this path at line %d", seg->id, ps->segs[k].pos.line);
-                row_ok = false;
-            }
+        size_t k;
+        if (seg->field && !strmap_add(&seg_fields, seg->field, ps->nsegs, &k)) {
+            diag_error(diags, seg->pos, "segment '%s' is already in this path at line %d", seg->id, ps->segs[k].pos.line);
+            row_ok = false;
+        }
         ok = row_ok;
         ps->nsegs++;
     }
+    strmap_free(&seg_fields);
     if (ps->nsegs == 0 && ok) {
         diag_error(diags, header_pos, "path '%s' has a table with no segments", name);
         ok = false;

@@ -104,6 +104,8 @@ typedef struct PathLayout {
 
 static PathLayout path_layout(Pdf *P, const PathCols *c, const PathResult *pr)
 {
+    if (P->path_layout_key == pr)
+        return *(const PathLayout *)P->path_layout;
     PathLayout L;
     double nat[PATH_COLS], sum = 0, W = full_width(P);
     for (int i = 0; i < PATH_COLS; i++) {
@@ -125,6 +127,10 @@ static PathLayout path_layout(Pdf *P, const PathCols *c, const PathResult *pr)
     L.x[0] = P->sheet.body_l;
     for (int i = 0; i < PATH_COLS; i++)
         L.x[i + 1] = L.x[i] + (sum > W ? nat[i] * W / sum : nat[i] + extra);
+    if (!P->path_layout)
+        P->path_layout = arena_alloc(&P->arena, sizeof L);
+    *(PathLayout *)P->path_layout = L;
+    P->path_layout_key = pr;
     return L;
 }
 
@@ -404,6 +410,8 @@ static MathBox *case_cell(Pdf *P, const CaseTable *ct, const CaseRow *row, size_
 
 static CaseLayout case_layout(Pdf *P, const CaseTable *ct, const CaseResult *cr)
 {
+    if (P->case_layout_key == cr)
+        return *(const CaseLayout *)P->case_layout;
     CaseLayout L = {0};
     double W = full_width(P);
     size_t fixed = 1 + ct->ninputs + ct->nshow;
@@ -445,6 +453,10 @@ static CaseLayout case_layout(Pdf *P, const CaseTable *ct, const CaseResult *cr)
             P->page = keep;
             L.head_h = fmax(L.head_h, h + 12);
         }
+    if (!P->case_layout)
+        P->case_layout = arena_alloc(&P->arena, sizeof L);
+    *(CaseLayout *)P->case_layout = L; /* L.x lives in the arena too */
+    P->case_layout_key = cr;
     return L;
 }
 

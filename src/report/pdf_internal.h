@@ -84,6 +84,10 @@ struct Pdf {
     const char *since_label;
     HPDF_STATUS error;       /* first libharu error */
     HPDF_STATUS error_detail;
+    /* a path or cases table is split into chunks that share one column
+     * layout, measured over every row once (pdf_flow.c), not once a chunk */
+    const void *path_layout_key, *case_layout_key;
+    void *path_layout, *case_layout;
 };
 
 /* ---- primitives (pdf.c) -------------------------------------------------- */
