@@ -19,6 +19,8 @@ enum {
                                            this bounds the stack: tests/limits/run runs a tree at
                                            the limit through every command, and chains 100 times
                                            the length that once overflowed, under ulimit -s 1024 */
+    FRONTMATTER_MAX_VALUE = 4096,       /* bytes of one front-matter value (title, a note, ...);
+                                           the PDF holds at most 65,535 in one string */
     MARKDOWN_MAX_DEPTH = 64,            /* nested block quotes, lists and inline emphasis */
     DOC_MAX_STATEMENTS = 100000,        /* statements of a file, all calc blocks and paths */
     PATH_MAX_SEGMENTS = 10000,          /* rows of one path table */

@@ -130,4 +130,11 @@ void eval_recompute(Evaluated *ev, const int *changed, size_t nchanged, size_t u
  * document's unit system, then the system's default for the dimension. */
 Unit eval_display_unit(const Evaluated *ev, const Value *v, const Unit *as_unit);
 
+/* The rule of `as UNIT`, for statements, inline values and `convert`: a
+ * number of the unit's dimension, a temperature point in a point unit and a
+ * difference in a difference unit, and a number there that is finite. false
+ * after an error at `at`. */
+bool eval_unit_fits(DiagList *diags, UnitSystem sys, Pos at, const char *as_text, const Unit *u,
+                    const Value *v);
+
 #endif

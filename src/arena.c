@@ -1,6 +1,8 @@
 /* arena.c — the xmalloc family, the document arena, string buffers and
- * pointer vectors. Exhaustion aborts with a message: a compiler that runs
- * out of memory on one document has nothing useful left to do. */
+ * pointer vectors. Exhaustion exits with status 3 and a message (never
+ * abort()): a compiler that runs out of memory on one document has nothing
+ * useful left to do, and exit() runs the handler that removes a report's
+ * temporary file (outfile.c). */
 #include "arena.h"
 
 #include <stdio.h>
@@ -10,7 +12,7 @@
 static void out_of_memory(size_t n)
 {
     fprintf(stderr, "headroom: out of memory (asked for %zu bytes)\n", n);
-    abort();
+    exit(3);
 }
 
 void *xmalloc(size_t n)

@@ -107,7 +107,8 @@ static const char *find_line(const char *text, size_t text_len, int line, size_t
 /* How many bytes of `s` (at most `n`) form one character that must not reach
  * a terminal raw: C0 controls but tab, DEL, C1 controls (U+0080-U+009F) and
  * the bidirectional controls that reorder what is shown (U+061C, U+200E,
- * U+200F, U+202A-U+202E, U+2066-U+2069). 0 for anything else. */
+ * U+200F, U+202A-U+202E, U+2066-U+2069) and the zero-width characters that
+ * draw nothing (U+200B-U+200D, U+2060-U+2064, U+FEFF). 0 for anything else. */
 static size_t unsafe_char_len(const unsigned char *s, size_t n)
 {
     if ((s[0] < 0x20 && s[0] != '\t') || s[0] == 0x7F)
@@ -116,10 +117,14 @@ static size_t unsafe_char_len(const unsigned char *s, size_t n)
         return 2;
     if (s[0] == 0xD8 && n >= 2 && s[1] == 0x9C)
         return 2;
+    if (s[0] == 0xEF && n >= 3 && s[1] == 0xBB && s[2] == 0xBF)
+        return 3; /* U+FEFF, the zero-width no-break space */
     if (s[0] == 0xE2 && n >= 3) {
         unsigned c = ((unsigned)(s[1] & 0x3F) << 6) | (s[2] & 0x3F);
         c |= 0x2000;
-        if (s[1] == 0x80 && (c == 0x200E || c == 0x200F || (c >= 0x202A && c <= 0x202E)))
+        if (s[1] == 0x80 && ((c >= 0x200B && c <= 0x200F) || (c >= 0x202A && c <= 0x202E)))
+            return 3;
+        if (s[1] == 0x81 && c >= 0x2060 && c <= 0x2064)
             return 3;
         if (s[1] == 0x81 && c >= 0x2066 && c <= 0x2069)
             return 3;

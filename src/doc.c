@@ -16,6 +16,7 @@
 #include "library.h"
 #include "markdown.h"
 #include "source.h"
+#include "lookalike.h"
 #include "strmap.h"
 
 /* ---- name table: open addressing, names -> slots ---------------------- */
@@ -260,6 +261,49 @@ static int cmp_int(const void *a, const void *b)
     return (x > y) - (x < y);
 }
 
+static const char *script_name(unsigned cp)
+{
+    return cp >= 0x0400 && cp <= 0x052F ? "Cyrillic" : "Greek";
+}
+
+/* Names that print alike but are different names: one that mixes Latin and
+ * Cyrillic letters, and two whose skeletons (look-alike letters replaced by
+ * their Latin twins) are the same. Warnings at the later name. */
+static void warn_lookalikes(Document *doc, DiagList *diags)
+{
+    StrMap skeletons = {0}; /* skeleton -> first statement with it */
+    char **skel = xcalloc(doc->nstmts + 1, sizeof *skel);
+    for (size_t i = 0; i < doc->nstmts; i++) {
+        const Stmt *s = doc->stmts[i];
+        if ((s->kind != STMT_DEF && s->kind != STMT_SOLVE && s->kind != STMT_PATH) || !s->name ||
+            s->parse_failed)
+            continue;
+        char buf[256];
+        int scripts;
+        unsigned twin;
+        if (!lookalike_skeleton(s->name, buf, sizeof buf, &scripts, &twin))
+            continue;
+        if ((scripts & LOOK_LATIN) && (scripts & LOOK_CYRILLIC))
+            diag_warning(diags, s->name_pos, "name '%s' mixes Latin and Cyrillic letters; it prints like "
+                                             "'%s' but is another name", s->name, buf);
+        skel[i] = arena_strdup(&doc->arena, buf);
+        size_t first;
+        if (!strmap_add(&skeletons, skel[i], i, &first) && strcmp(doc->stmts[first]->name, s->name) != 0) {
+            const Stmt *f = doc->stmts[first];
+            unsigned t2;
+            int sc2;
+            char b2[256];
+            lookalike_skeleton(f->name, b2, sizeof b2, &sc2, &t2);
+            unsigned cp = twin ? twin : t2;
+            diag_warning(diags, s->name_pos, "name '%s' looks like '%s' (defined at %d:%d) but is another "
+                                             "name: U+%04X is a %s letter, not a Latin one",
+                         s->name, f->name, f->name_pos.line, f->name_pos.col, cp, script_name(cp));
+        }
+    }
+    strmap_free(&skeletons);
+    free(skel);
+}
+
 static void resolve_statements(Document *doc, DiagList *diags)
 {
     doc->names = names_new(&doc->arena, doc->nstmts);
@@ -281,6 +325,7 @@ static void resolve_statements(Document *doc, DiagList *diags)
         doc->names->slots[k] = (int)i;
         doc->names->len++;
     }
+    warn_lookalikes(doc, diags);
     /* Check labels are unique: reviewers and diffs refer to them. */
     NameTable *labels = names_new(&doc->arena, doc->nstmts);
     for (size_t i = 0; i < doc->nstmts; i++) {

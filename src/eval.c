@@ -10,6 +10,7 @@
 #include "eval.h"
 
 #include <math.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -320,6 +321,12 @@ static bool eval_expr(Ctx *c, const Expr *e, Value *out)
         return eval_expr(c, e->lhs, out);
     case EXPR_NEG: {
         Value v;
+        if (e->lhs->kind == EXPR_NUMBER && e->lhs->has_unit && e->lhs->unit.temp != TEMP_NONE) {
+            /* -10 degC is a temperature written with a sign, a point below
+             * zero on its scale: the literal -10 in degC, not a negation. */
+            *out = value_number(unit_to_qty(-e->lhs->number, &e->lhs->unit));
+            return true;
+        }
         if (!eval_expr(c, e->lhs, &v))
             return false;
         if (!need_number(c, e->lhs, &v, "the operand of '-'"))
@@ -364,6 +371,15 @@ static bool eval_expr(Ctx *c, const Expr *e, Value *out)
 
 /* ---- display units ------------------------------------------------------ */
 
+static Unit display_default(const Value *v, UnitSystem sys)
+{
+    Unit u = unit_default(v->q.dim, v->q.temp, sys);
+    bool difference = v->q.temp == TEMP_NONE || u.temp == TEMP_NONE;
+    if (sys != UNITS_SI && isfinite(v->q.si) && !isfinite(unit_from_si(v->q.si, &u, difference)))
+        return unit_default(v->q.dim, v->q.temp, UNITS_SI); /* too large for the customary unit */
+    return u;
+}
+
 Unit eval_display_unit(const Evaluated *ev, const Value *v, const Unit *as_unit)
 {
     if (as_unit)
@@ -373,18 +389,20 @@ Unit eval_display_unit(const Evaluated *ev, const Value *v, const Unit *as_unit)
         Unit u;
         size_t bo, bl;
         if (unit_parse(hint, strlen(hint), &u, &bo, &bl) == UNIT_OK && dim_eq(u.dim, v->q.dim)) {
+            bool difference = v->q.temp == TEMP_NONE || u.temp == TEMP_NONE;
             if (v->q.temp == TEMP_NONE && u.temp != TEMP_NONE)
-                return unit_default(v->q.dim, v->q.temp, ev->units);
-            return u;
+                return display_default(v, ev->units);
+            if (!isfinite(v->q.si) || isfinite(unit_from_si(v->q.si, &u, difference)))
+                return u;
         }
     }
-    return unit_default(v->q.dim, v->q.temp, ev->units);
+    return display_default(v, ev->units);
 }
 
 /* `as UNIT` must fit the value: same dimension, and a point shown in a
  * point unit, a difference in a difference unit. Shared by statements and
  * inline {name as unit} values. */
-static bool unit_fits(DiagList *diags, UnitSystem sys, Pos at, const char *as_text, const Unit *u, const Value *v)
+bool eval_unit_fits(DiagList *diags, UnitSystem sys, Pos at, const char *as_text, const Unit *u, const Value *v)
 {
     if (v->kind != VAL_NUMBER) {
         diag_error(diags, at, "'as %s' needs a number, but the value is %s", as_text,
@@ -407,6 +425,13 @@ static bool unit_fits(DiagList *diags, UnitSystem sys, Pos at, const char *as_te
         diag_error(diags, at, "this is a temperature difference; show it in delta_%s, not %s", as_text, as_text);
         return false;
     }
+    /* A point shown in a point unit converts with its offset; anything else
+     * as a difference. The number shown must be a number. */
+    bool difference = v->q.temp == TEMP_NONE || u->temp == TEMP_NONE;
+    if (isfinite(v->q.si) && !isfinite(unit_from_si(v->q.si, u, difference))) {
+        diag_error(diags, at, "the value is too large to show in %s (it overflows a double there)", as_text);
+        return false;
+    }
     return true;
 }
 
@@ -414,7 +439,7 @@ static bool as_fits(Ctx *c, const Stmt *s, const Value *v)
 {
     if (!s->has_as)
         return true;
-    return unit_fits(c->diags, c->ev->units, s->as_pos, s->as_text, &s->as_unit, v);
+    return eval_unit_fits(c->diags, c->ev->units, s->as_pos, s->as_text, &s->as_unit, v);
 }
 
 /* Inline {name}, {name.field} and {name as unit} in prose: the field must
@@ -444,7 +469,7 @@ static void check_inlines(Evaluated *ev, const Inline *in, DiagList *diags)
             v = f;
         }
         if (in->has_as)
-            unit_fits(diags, ev->units, in->pos, in->as_unit.text, &in->as_unit, v);
+            eval_unit_fits(diags, ev->units, in->pos, in->as_unit.text, &in->as_unit, v);
     }
 }
 
@@ -510,6 +535,51 @@ static void format_si(const Evaluated *ev, double si, Dim d, char *buf, size_t n
         snprintf(buf, n, "%s %s", num, u.text);
 }
 
+/* Push the slots an expression reads (names, and records called as f(x)). */
+static void expr_push_slots(const Expr *e, Vec *stack)
+{
+    if (!e)
+        return;
+    if (e->kind == EXPR_NAME && e->slot >= 0)
+        vec_push(stack, (void *)(intptr_t)(e->slot + 1));
+    if (e->kind == EXPR_CALL) {
+        if (e->callee_slot >= 0)
+            vec_push(stack, (void *)(intptr_t)(e->callee_slot + 1));
+        for (size_t i = 0; i < e->nargs; i++)
+            expr_push_slots(e->args[i], stack);
+        for (size_t i = 0; i < e->nkw; i++)
+            expr_push_slots(e->kw[i], stack);
+    }
+    expr_push_slots(e->lhs, stack);
+    expr_push_slots(e->rhs, stack);
+}
+
+/* Does the equation read `var` directly or through the statements it reads?
+ * Iterative, over each statement once: a chain of 100,000 statements is no
+ * deeper than one. */
+static bool equation_reads(const Document *doc, const Stmt *s, int var)
+{
+    Vec stack = {0};
+    expr_push_slots(s->lhs, &stack);
+    expr_push_slots(s->rhs, &stack);
+    unsigned char *seen = xcalloc(doc->nstmts + 1, 1);
+    bool found = false;
+    while (stack.len > 0 && !found) {
+        int slot = (int)(intptr_t)stack.items[--stack.len] - 1;
+        if (slot == var) {
+            found = true;
+        } else if (slot >= 0 && (size_t)slot < doc->nstmts && !seen[slot]) {
+            seen[slot] = 1;
+            const Stmt *t = doc->stmts[slot];
+            for (size_t k = 0; k < t->ndeps; k++)
+                vec_push(&stack, (void *)(intptr_t)(t->deps[k] + 1));
+        }
+    }
+    free(seen);
+    vec_free(&stack);
+    return found;
+}
+
 static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, DiagList *diags)
 {
     Ctx c = {ev, ev->doc, diags, cc, 0};
@@ -540,6 +610,14 @@ static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *c
         describe_operand(&c, s->lhs, &l, dl, sizeof dl);
         describe_operand(&c, s->rhs, &r, dr, sizeof dr);
         diag_error(diags, s->lhs->pos, "the two sides of the equation differ: %s on the left, %s on the right", dl, dr);
+        res->state = RES_FAILED;
+        return;
+    }
+    if (!equation_reads(ev->doc, s, s->var_slot)) {
+        /* an identity (5 = 5) holds for every value and a contradiction for
+         * none: either way there is nothing to solve for */
+        diag_error(diags, s->lhs->pos, "the equation does not depend on %s: no statement it reads "
+                                       "uses %s, so solving cannot choose a value", s->var, s->var);
         res->state = RES_FAILED;
         return;
     }

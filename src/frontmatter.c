@@ -12,6 +12,7 @@
 #include <string.h>
 #include <yaml.h>
 
+#include "bounds.h"
 #include "strmap.h"
 
 typedef struct FmCtx {
@@ -32,6 +33,13 @@ static const char *scalar(FmCtx *c, yaml_node_t *n, const char *key)
     if (!n || n->type != YAML_SCALAR_NODE) {
         if (n)
             diag_error(c->diags, node_pos(c, n), "front matter: '%s' must be a single value (text), not a list or mapping", key);
+        return NULL;
+    }
+    if (n->data.scalar.length > FRONTMATTER_MAX_VALUE) {
+        /* check and build agree: a value the report cannot hold is an error
+         * here, not a failure of the PDF library later */
+        diag_error(c->diags, node_pos(c, n), "front matter: '%s' is %zu bytes long; the limit is %d bytes a value",
+                   key, n->data.scalar.length, FRONTMATTER_MAX_VALUE);
         return NULL;
     }
     return arena_strndup(&c->doc->arena, (const char *)n->data.scalar.value, n->data.scalar.length);
@@ -261,7 +269,10 @@ size_t frontmatter_read(Document *doc, DiagList *diags)
     }
     yaml_parser_set_input_string(&parser, (const unsigned char *)body, (size_t)(close - body));
     if (!yaml_parser_load(&parser, &ydoc)) {
-        Pos p = {doc->file, (int)parser.problem_mark.line + 2, (int)parser.problem_mark.column + 1};
+        /* An unclosed construct is found at the end of the block; report it
+         * where it opened (the context mark), as an editor would show it. */
+        yaml_mark_t mk = parser.context ? parser.context_mark : parser.problem_mark;
+        Pos p = {doc->file, (int)mk.line + 2, (int)mk.column + 1};
         diag_error(diags, p, "front matter: %s%s%s", parser.problem ? parser.problem : "malformed YAML",
                    parser.context ? " " : "", parser.context ? parser.context : "");
         yaml_parser_delete(&parser);

@@ -10,9 +10,17 @@
 #include <stdbool.h>
 #include <string.h>
 
+#include "lookalike.h"
 #include "numfmt.h"
 
 static const char *const keywords[] = {"and", "as", "where", "between", "solve", "check", NULL};
+
+static Pos pos_at(const Lexer *lx, size_t off)
+{
+    Pos p = lx->start;
+    p.col += (int)off;
+    return p;
+}
 
 void lex_init(Lexer *lx, const char *line, size_t len, Pos start, DiagList *diags)
 {
@@ -36,14 +44,20 @@ void lex_init(Lexer *lx, const char *line, size_t len, Pos start, DiagList *diag
             break;
         }
     }
+    /* Names, strings and comments alike: nothing that hides itself or
+     * reorders the line on screen (UTS #39, UAX #9). */
+    unsigned cp;
+    size_t at = lookalike_find_hidden(line, len, &cp);
+    if (at < len)
+        diag_error(diags, pos_at(lx, at),
+                   "%s character U+%04X in a calc line: it makes the line read other than it is; "
+                   "delete it", (cp >= 0x202A && cp <= 0x202E) || (cp >= 0x2066 && cp <= 0x2069) ||
+                                        cp == 0x061C || cp == 0x200E || cp == 0x200F
+                                    ? "bidirectional-control"
+                                    : "invisible",
+                   cp);
 }
 
-static Pos pos_at(const Lexer *lx, size_t off)
-{
-    Pos p = lx->start;
-    p.col += (int)off;
-    return p;
-}
 
 static int is_name_start(unsigned char c)
 {

@@ -30,6 +30,11 @@ typedef struct Md {
     Vec cases;
     int heading_count[6];
     int too_deep;
+    /* A table header right after a paragraph line: cmark places it on the
+     * paragraph's line, its columns shifted by the paragraph's length. While
+     * that header is converted, positions on fix_line move to true_line and
+     * fix_shift columns left. */
+    int fix_line, true_line, fix_shift;
     bool too_many;           /* DOC_MAX_STATEMENTS was reported */
 } Md;
 
@@ -56,6 +61,14 @@ static Inline *new_inline(Md *m, InlineKind kind)
     in->kind = kind;
     in->slot = SLOT_UNRESOLVED;
     return in;
+}
+
+static void fix_pos(const Md *m, int *line, int *col)
+{
+    if (m->fix_line > 0 && *line == m->fix_line) {
+        *line = m->true_line;
+        *col = *col > m->fix_shift ? *col - m->fix_shift : 1;
+    }
 }
 
 /* Split a text node into plain text and {value} pieces. `{name}`,
@@ -168,6 +181,7 @@ static void convert_one_inline(Md *m, cmark_node *n, Inline ***link, int depth)
             placed = cmark_node_parent(placed);
         int line = cmark_node_get_start_line(placed) > 0 ? cmark_node_get_start_line(placed) : 1;
         int col = cmark_node_get_start_column(placed) > 0 ? cmark_node_get_start_column(placed) : 1;
+        fix_pos(m, &line, &col);
         Inline **tail;
         Inline *first = split_text(m, cmark_node_get_literal(n), line, col, &tail);
         if (first) {
@@ -224,8 +238,15 @@ static bool too_deep(Md *m, cmark_node *parent, int depth)
 {
     if (depth <= MARKDOWN_MAX_DEPTH)
         return false;
+    /* Text the table extension re-parses has no position of its own (line
+     * 0): report at the nearest enclosing node that has one. */
+    cmark_node *where = parent;
+    while (where && cmark_node_get_start_line(where) <= 0 && cmark_node_parent(where))
+        where = cmark_node_parent(where);
+    int line = cmark_node_get_start_line(where), col = cmark_node_get_start_column(where);
+    fix_pos(m, &line, &col);
     if (!m->too_deep)
-        diag_error(m->diags, at(m, cmark_node_get_start_line(parent), cmark_node_get_start_column(parent)),
+        diag_error(m->diags, at(m, line > 0 ? line : 1, line > 0 && col > 0 ? col : 1),
                    "Markdown nested too deeply (more than %d levels)", MARKDOWN_MAX_DEPTH);
     m->too_deep = 1;
     return true;
@@ -297,6 +318,19 @@ static void calc_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
             if (copy[i] == ESCAPED_BRACE)
                 copy[i] = '\\';
         s = copy;
+    }
+    if (m->stmts.len >= DOC_MAX_STATEMENTS) {
+        /* Over the limit: not parsed at all, so a file of millions of
+         * statements is refused in memory proportional to the limit. */
+        size_t i = 0;
+        while (i < len && (s[i] == ' ' || s[i] == '\t' || s[i] == '\r'))
+            i++;
+        if (i < len && s[i] != '#') {
+            Pos at_stmt = pos;
+            at_stmt.col += (int)i;
+            stmt_room(m, at_stmt);
+        }
+        return;
     }
     Stmt *st = parse_statement(&m->doc->arena, s, len, pos, m->diags);
     if (st && stmt_room(m, st->pos))
@@ -433,6 +467,25 @@ static Block *new_block(Md *m, BlockKind kind, cmark_node *n)
 
 static Block *convert_blocks(Md *m, cmark_node *parent, int depth);
 
+/* Where a table header really is: the line before the separator row, which
+ * is the line before the first body row (or the table's last line). When
+ * cmark placed it elsewhere (on the paragraph line above it), set the fix. */
+static void header_position(Md *m, cmark_node *header)
+{
+    m->fix_line = 0;
+    cmark_node *table = cmark_node_parent(header);
+    cmark_node *row = cmark_node_next(header);
+    int sep = row ? cmark_node_get_start_line(row) - 1 : cmark_node_get_end_line(table);
+    int line = sep - 1, reported = cmark_node_get_start_line(header);
+    size_t len;
+    if (line < 1 || line == reported || !doc_source_line(m->doc, line, &len))
+        return;
+    int shift = cmark_node_get_end_column(header) - (int)len;
+    m->fix_line = reported;
+    m->true_line = line;
+    m->fix_shift = shift > 0 ? shift : 0;
+}
+
 static Block *convert_block(Md *m, cmark_node *n, int depth)
 {
     Block *b = NULL;
@@ -552,7 +605,10 @@ static Block *convert_block(Md *m, cmark_node *n, int depth)
         } else if (strcmp(type, "table_row") == 0 || strcmp(type, "table_header") == 0) {
             b = new_block(m, BLK_TABLE_ROW, n);
             b->header_row = strcmp(type, "table_header") == 0;
+            if (b->header_row)
+                header_position(m, n);
             b->children = convert_blocks(m, n, depth + 1);
+            m->fix_line = 0;
         } else if (strcmp(type, "table_cell") == 0) {
             b = new_block(m, BLK_TABLE_CELL, n);
             b->inlines = convert_inlines(m, n, 0);
@@ -598,7 +654,10 @@ void markdown_read(Document *doc, size_t body_start, DiagList *diags)
             text[i] = ESCAPED_BRACE;
 
     cmark_gfm_core_extensions_ensure_registered();
-    cmark_parser *parser = cmark_parser_new(CMARK_OPT_SOURCEPOS);
+    /* cmark's own allocator aborts when memory runs out; ours exits 3 with
+     * a message like every other allocation. */
+    static cmark_mem mem = {xcalloc, xrealloc, free};
+    cmark_parser *parser = cmark_parser_new_with_mem(CMARK_OPT_SOURCEPOS, &mem);
     cmark_syntax_extension *table = cmark_find_syntax_extension("table");
     cmark_syntax_extension *strike = cmark_find_syntax_extension("strikethrough");
     if (table)

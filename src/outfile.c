@@ -58,11 +58,20 @@ static void on_fatal_signal(int sig)
     raise(sig);
 }
 
+/* exit() on the way out of a failure (out of memory) removes it too. */
+static void remove_at_exit(void)
+{
+    if (armed)
+        unlink(armed_path);
+    armed = 0;
+}
+
 static void install_handlers(void)
 {
     if (handlers_installed)
         return;
     handlers_installed = true;
+    atexit(remove_at_exit);
     static const int sigs[] = {SIGINT, SIGTERM, SIGHUP, SIGPIPE};
     for (size_t i = 0; i < sizeof sigs / sizeof sigs[0]; i++) {
         struct sigaction old;

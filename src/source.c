@@ -9,6 +9,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/stat.h>
 
 #include "arena.h"
 
@@ -20,8 +21,15 @@ char *source_read(const char *path, const char *display, size_t *len, DiagList *
         diag_error(diags, nowhere, "cannot open: %s", strerror(errno));
         return NULL;
     }
+    struct stat st;
+    if (f != stdin && fstat(fileno(f), &st) == 0 && S_ISDIR(st.st_mode)) {
+        diag_error(diags, nowhere, "is a directory, not a calc file");
+        fclose(f);
+        return NULL;
+    }
     size_t cap = 64 * 1024, n = 0;
     char *buf = xmalloc(cap + 1);
+    errno = 0;
     for (;;) {
         if (n == cap) {
             if (cap > SOURCE_MAX_BYTES) {
@@ -41,11 +49,11 @@ char *source_read(const char *path, const char *display, size_t *len, DiagList *
         if (got == 0)
             break;
     }
-    int err = ferror(f);
+    int err = ferror(f) ? (errno ? errno : EIO) : 0;
     if (f != stdin)
         fclose(f);
     if (err) {
-        diag_error(diags, nowhere, "read error");
+        diag_error(diags, nowhere, "cannot read: %s", strerror(err));
         free(buf);
         return NULL;
     }

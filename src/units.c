@@ -19,6 +19,7 @@
 #include "units.h"
 
 #include <math.h>
+#include <stdio.h>
 #include <string.h>
 
 /* ---- dimensions ------------------------------------------------------- */
@@ -187,8 +188,26 @@ static void buf_puts(Buf *b, const char *s)
 static void buf_put_abs_number(Buf *b, double x)
 {
     double ax = fabs(x);
-    if (!(ax < 1e9)) { /* not an exponent anyone writes; keep it finite */
-        buf_puts(b, "1e9");
+    if (!(ax < 1e9)) {
+        /* Beyond the 1e-9 grid: the whole number when it is one, else the
+         * double's shortest exact spelling; never a rounded stand-in. */
+        char big[40];
+        if (ax < 1e18 && ax == floor(ax)) {
+            unsigned long long w = (unsigned long long)ax;
+            size_t k = sizeof big - 1;
+            big[k] = '\0';
+            do {
+                big[--k] = (char)('0' + (int)(w % 10));
+                w /= 10;
+            } while (w > 0);
+            buf_puts(b, big + k);
+        } else {
+            snprintf(big, sizeof big, "%.17g", ax);
+            for (char *c = big; *c; c++)
+                if (*c == ',')
+                    *c = '.'; /* whatever the locale */
+            buf_puts(b, big);
+        }
         return;
     }
     unsigned long long n = (unsigned long long)llround(ax * 1e9);
