@@ -61,18 +61,35 @@ static int pos_cmp(const Diag *a, const Diag *b)
     return 0;
 }
 
-/* Insertion sort: stable, and lists are short and nearly sorted. */
+/* A stable merge sort: diagnostics come in runs that are each in order (the
+ * parse, then resolution, then evaluation), and a file may have 100,000 of
+ * them, so an insertion sort's quadratic worst case is not an option. */
 void diag_sort(DiagList *dl)
 {
-    for (size_t i = 1; i < dl->len; i++) {
-        Diag d = dl->items[i];
-        size_t j = i;
-        while (j > 0 && pos_cmp(&dl->items[j - 1], &d) > 0) {
-            dl->items[j] = dl->items[j - 1];
-            j--;
+    size_t n = dl->len;
+    if (n < 2)
+        return;
+    Diag *tmp = xmalloc(n * sizeof *tmp);
+    Diag *a = dl->items, *b = tmp;
+    for (size_t width = 1; width < n; width *= 2) {
+        for (size_t lo = 0; lo < n; lo += 2 * width) {
+            size_t mid = lo + width < n ? lo + width : n;
+            size_t hi = lo + 2 * width < n ? lo + 2 * width : n;
+            size_t i = lo, j = mid, k = lo;
+            while (i < mid && j < hi)
+                b[k++] = pos_cmp(&a[j], &a[i]) < 0 ? a[j++] : a[i++]; /* ties keep a[i] first */
+            while (i < mid)
+                b[k++] = a[i++];
+            while (j < hi)
+                b[k++] = a[j++];
         }
-        dl->items[j] = d;
+        Diag *t = a;
+        a = b;
+        b = t;
     }
+    if (a != dl->items)
+        memcpy(dl->items, a, n * sizeof *a);
+    free(tmp);
 }
 
 /* Find line `line` (1-based) in text; returns its start and sets *len.
