@@ -72,6 +72,25 @@ static bool stdout_ok(void)
     return true;
 }
 
+/* A command-line word or file name as it may be echoed: control and
+ * bidirectional-control characters escaped (diag_print_escaped), so a name
+ * never drives the terminal. A ring of buffers, so one message can show
+ * several; long words are cut at 255 bytes. */
+static const char *shown(const char *s)
+{
+    static char ring[8][256];
+    static unsigned next;
+    char *buf = ring[next++ % 8];
+    FILE *m = fmemopen(buf, sizeof ring[0], "w");
+    if (!m)
+        return "?";
+    setvbuf(m, NULL, _IONBF, 0);
+    diag_print_escaped(m, s);
+    fclose(m);
+    buf[sizeof ring[0] - 1] = '\0';
+    return buf;
+}
+
 static bool use_color(void)
 {
     const char *nc = getenv("NO_COLOR");
@@ -121,9 +140,9 @@ static void print_check_text(const Evaluated *ev, const DiagList *dl)
 {
     const Document *doc = ev->doc;
     if (ev->case_rows_failing)
-        printf("%s: checks fail in %zu case row%s\n", doc->file, ev->case_rows_failing,
+        printf("%s: checks fail in %zu case row%s\n", shown(doc->file), ev->case_rows_failing,
                ev->case_rows_failing == 1 ? "" : "s");
-    printf("%s: %zu check%s, %zu hold%s, %zu fail%s%s\n", doc->file, ev->nchecks,
+    printf("%s: %zu check%s, %zu hold%s, %zu fail%s%s\n", shown(doc->file), ev->nchecks,
            ev->nchecks == 1 ? "" : "s", ev->nchecks - ev->nfailed,
            ev->nchecks - ev->nfailed == 1 ? "s" : "", ev->nfailed, ev->nfailed == 1 ? "s" : "",
            dl->errors ? " (input has errors)" : "");
@@ -154,7 +173,7 @@ static int cmd_check(int argc, char **argv)
             while (k < 5 && strcmp(f, names[k]) != 0)
                 k++;
             if (k == 5) {
-                fprintf(stderr, "headroom check: unknown format '%s' (text, json, junit, sarif or github)\n", f);
+                fprintf(stderr, "headroom check: unknown format '%s' (text, json, junit, sarif or github)\n", shown(f));
                 free(files);
                 return EXIT_INPUT;
             }
@@ -164,7 +183,7 @@ static int cmd_check(int argc, char **argv)
             free(files);
             return 0;
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
-            fprintf(stderr, "headroom check: unknown option '%s'\n", argv[i]);
+            fprintf(stderr, "headroom check: unknown option '%s'\n", shown(argv[i]));
             free(files);
             return EXIT_INPUT;
         } else
@@ -264,7 +283,7 @@ static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagLi
     char *tmp = NULL;
     int fd = outfile_temp_create(out, kind, &tmp);
     if (fd < 0) {
-        fprintf(stderr, "headroom: cannot create a temporary file for '%s': %s\n", out,
+        fprintf(stderr, "headroom: cannot create a temporary file for '%s': %s\n", shown(out),
                 strerror(errno));
         return EXIT_IO;
     }
@@ -309,7 +328,7 @@ static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagLi
         if (dl->len)
             print_diags(dl, ev->doc);
         fprintf(stderr, "headroom: failed to %s '%s'%s%s\n", failed,
-                kind == OUT_STDOUT ? "standard output" : out, err ? ": " : "",
+                kind == OUT_STDOUT ? "standard output" : shown(out), err ? ": " : "",
                 err ? strerror(err) : "");
     }
     free(tmp);
@@ -345,7 +364,7 @@ static int cmd_build(int argc, char **argv)
             else if (strcmp(f, "json") == 0)
                 fmt = FMT_JSON;
             else {
-                fprintf(stderr, "headroom build: unknown format '%s' (pdf, text or json)\n", f);
+                fprintf(stderr, "headroom build: unknown format '%s' (pdf, text or json)\n", shown(f));
                 return EXIT_INPUT;
             }
         } else if (strcmp(argv[i], "--strict") == 0) {
@@ -367,12 +386,12 @@ static int cmd_build(int argc, char **argv)
                   stdout);
             return 0;
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
-            fprintf(stderr, "headroom build: unknown or incomplete option '%s'\n", argv[i]);
+            fprintf(stderr, "headroom build: unknown or incomplete option '%s'\n", shown(argv[i]));
             return EXIT_INPUT;
         } else if (!file) {
             file = argv[i];
         } else {
-            fprintf(stderr, "headroom build: one FILE at a time (found '%s' too)\n", argv[i]);
+            fprintf(stderr, "headroom build: one FILE at a time (found '%s' too)\n", shown(argv[i]));
             return EXIT_INPUT;
         }
     }
@@ -405,7 +424,7 @@ static int cmd_build(int argc, char **argv)
                        "the changes");
         } else if ((old_ev = load_revision(since, &old_dl, &old_doc)) == NULL) {
             fprintf(stderr, "headroom build: the earlier revision '%s' cannot be used; nothing "
-                            "written\n", since);
+                            "written\n", shown(since));
             old_bad = true;
         } else {
             DiffOptions opt = diff_options_default();
@@ -477,7 +496,7 @@ static int cmd_new(int argc, char **argv)
         if (strcmp(starters[i].kind, argv[0]) == 0)
             text = starters[i].text;
     if (!text) {
-        fprintf(stderr, "headroom new: unknown kind '%s' (kinds:", argv[0]);
+        fprintf(stderr, "headroom new: unknown kind '%s' (kinds:", shown(argv[0]));
         for (size_t i = 0; i < n; i++)
             fprintf(stderr, " %s", starters[i].kind);
         fputs(")\n", stderr);
@@ -493,7 +512,7 @@ static int cmd_new(int argc, char **argv)
     /* O_EXCL: never overwrite somebody's calc. */
     int fd = open(path, O_WRONLY | O_CREAT | O_EXCL, 0666);
     if (fd < 0) {
-        fprintf(stderr, "headroom new: cannot create '%s': %s\n", path, strerror(errno));
+        fprintf(stderr, "headroom new: cannot create '%s': %s\n", shown(path), strerror(errno));
         return errno == EEXIST ? EXIT_INPUT : EXIT_IO;
     }
     size_t len = strlen(text);
@@ -501,7 +520,7 @@ static int cmd_new(int argc, char **argv)
     ok = close(fd) == 0 && ok;
     if (!ok) {
         unlink(path);
-        fprintf(stderr, "headroom new: failed to write '%s'\n", path);
+        fprintf(stderr, "headroom new: failed to write '%s'\n", shown(path));
         return EXIT_IO;
     }
     printf("wrote %s; build it with: headroom build %s\n", path, path);
@@ -536,7 +555,7 @@ static int cmd_diff(int argc, char **argv)
             double x;
             size_t n = strlen(t);
             if (n == 0 || num_parse(t, n, &x) != n || !(x >= 0 && x < 1)) {
-                fprintf(stderr, "headroom diff: --rel-tol expects a number from 0 up to 1, found '%s'\n", t);
+                fprintf(stderr, "headroom diff: --rel-tol expects a number from 0 up to 1, found '%s'\n", shown(t));
                 return EXIT_INPUT;
             }
             opt.rel_tol = x;
@@ -544,12 +563,12 @@ static int cmd_diff(int argc, char **argv)
             fputs(diff_help, stdout);
             return 0;
         } else if (argv[i][0] == '-' && argv[i][1] != '\0') {
-            fprintf(stderr, "headroom diff: unknown or incomplete option '%s'\n", argv[i]);
+            fprintf(stderr, "headroom diff: unknown or incomplete option '%s'\n", shown(argv[i]));
             return EXIT_INPUT;
         } else if (nside < 2) {
             side[nside++] = argv[i];
         } else {
-            fprintf(stderr, "headroom diff: two revisions, OLD and NEW (found '%s' too)\n", argv[i]);
+            fprintf(stderr, "headroom diff: two revisions, OLD and NEW (found '%s' too)\n", shown(argv[i]));
             return EXIT_INPUT;
         }
     }
@@ -795,7 +814,7 @@ static int run_command(int argc, char **argv)
         return cmd_watch(argc - 2, argv + 2);
     if (strcmp(cmd, "lsp") == 0)
         return cmd_lsp(argc - 2, argv + 2);
-    fprintf(stderr, "headroom: unknown command '%s'\n%s", cmd, usage_text);
+    fprintf(stderr, "headroom: unknown command '%s'\n%s", shown(cmd), usage_text);
     return EXIT_INPUT;
 }
 
