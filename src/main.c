@@ -598,16 +598,16 @@ static int cmd_diff(int argc, char **argv)
 
 /* ---- convert -------------------------------------------------------------- */
 
-/* VALUE is evaluated as the calc statement `value = VALUE` and shown in UNIT
- * by the rule of `as UNIT`, so convert speaks the calc language exactly (an
- * absolute temperature is not shown in a difference unit; a value that
- * overflows in UNIT is an error, not "inf"). */
+/* VALUE UNIT is a number (with a sign) and a unit, as written after a number
+ * in a calc; it is shown in UNIT by the rule of a calc's `as UNIT`
+ * (eval_unit_fits): an absolute temperature is not shown in a difference
+ * unit, and a value that overflows in UNIT is an error, not "inf". */
 static int cmd_convert(int argc, char **argv)
 {
     if (argc == 1 && strcmp(argv[0], "--help") == 0) {
         fputs("usage: headroom convert \"VALUE UNIT\" UNIT\n"
               "Print VALUE UNIT in UNIT with 10 significant digits, a space and the unit.\n"
-              "VALUE UNIT is a calc expression, evaluated and shown by the rules of a calc.\n"
+              "The value is shown by the rule of a calc's 'as UNIT'.\n"
               "Example: headroom convert \"38 gal/min\" L/s\n",
               stdout);
         return 0;
@@ -620,67 +620,59 @@ static int cmd_convert(int argc, char **argv)
     Pos p1 = {"value", 1, 1}, p2 = {"unit", 1, 1};
     const char *s = argv[0];
     size_t len = strlen(s);
-    int status = 0;
-    /* One line of calc: no line breaks, fences or comments smuggled in. */
-    for (size_t i = 0; i < len && status == 0; i++)
-        if ((unsigned char)s[i] < 0x20 || s[i] == '#' || s[i] == '`') {
-            p1.col = (int)i + 1;
-            diag_error(&dl, p1, "a value is one expression on one line; found '%c' here",
-                       (unsigned char)s[i] < 0x20 ? '?' : s[i]);
-            status = EXIT_INPUT;
-        }
     size_t i = 0;
+    bool neg = false;
     while (i < len && s[i] == ' ')
         i++;
-    if (status == 0 && i == len) {
-        diag_error(&dl, p1, "expected a number, found nothing");
-        status = EXIT_INPUT;
+    if (i < len && (s[i] == '-' || s[i] == '+')) {
+        neg = s[i] == '-';
+        i++;
     }
-    Unit to;
-    if (status == 0 && !parse_unit(argv[1], strlen(argv[1]), p2, &to, &dl))
+    double x;
+    size_t used = num_parse(s + i, len - i, &x);
+    int status = 0;
+    Unit from, to;
+    if (used == 0) {
+        p1.col = (int)i + 1;
+        diag_error(&dl, p1, "expected a number, found '%s'", s + i);
         status = EXIT_INPUT;
-    Document *doc = NULL;
-    Evaluated *ev = NULL;
-    if (status == 0) {
-        static const char head[] = "```calc\nvalue = ";
-        size_t n = sizeof head - 1 + len + 6;
-        char *text = xmalloc(n);
-        snprintf(text, n, "%s%s\n```\n", head, s);
-        DiagList cl = {0};
-        doc = doc_from_text("value", text, strlen(text), &cl);
-        free(text);
-        if (doc && !cl.errors)
-            ev = eval_document(doc, &cl);
-        /* Positions in the one-line calc are columns of VALUE. */
-        for (size_t k = 0; k < cl.len; k++) {
-            Pos at = p1;
-            int col = cl.items[k].pos.col - (int)(sizeof "value = " - 1);
-            at.col = cl.items[k].pos.line == 2 && col > 0 ? col : 1;
-            diag_add(&dl, cl.items[k].severity, at, "%s", cl.items[k].message);
+    } else {
+        i += used;
+        while (i < len && s[i] == ' ')
+            i++;
+        size_t end = len;
+        while (end > i && s[end - 1] == ' ')
+            end--;
+        p1.col = (int)i + 1;
+        if (end == i) {
+            diag_error(&dl, p1, "expected a unit after the number");
+            status = EXIT_INPUT;
+        } else if (!parse_unit(s + i, end - i, p1, &from, &dl)) {
+            status = EXIT_INPUT;
         }
-        if (cl.errors || !ev || doc->nstmts != 1 || ev->results[0].state != RES_OK)
+        if (!parse_unit(argv[1], strlen(argv[1]), p2, &to, &dl))
             status = EXIT_INPUT;
-        diag_free(&cl);
     }
     if (status == 0) {
-        const Value *v = &ev->results[0].value;
-        if (v->kind != VAL_NUMBER) {
-            diag_error(&dl, p1, "expected a number with a unit, found %s",
-                       v->kind == VAL_STRING ? "a string" : "a record");
+        /* The sign belongs to the number: -40 degF is a point below zero. */
+        Value v = value_number(unit_to_qty(neg ? -x : x, &from));
+        if (!isfinite(v.q.si)) {
+            p1.col = 1;
+            diag_error(&dl, p1, "the value overflows a double in SI units");
             status = EXIT_INPUT;
-        } else if (!dim_eq(v->q.dim, to.dim)) {
+        } else if (!dim_eq(v.q.dim, to.dim)) {
             char a[96], b[96];
-            dim_describe(v->q.dim, v->q.temp, UNITS_SI, a, sizeof a);
+            dim_describe(from.dim, from.temp, UNITS_SI, a, sizeof a);
             dim_describe(to.dim, to.temp, UNITS_SI, b, sizeof b);
             diag_error(&dl, p2, "cannot convert %s to %s", a, b);
             status = EXIT_INPUT;
-        } else if (!eval_unit_fits(&dl, UNITS_SI, p2, argv[1], &to, v)) {
+        } else if (!eval_unit_fits(&dl, UNITS_SI, p2, shown(argv[1]), &to, &v)) {
             status = EXIT_INPUT;
         } else {
             /* A point converts to a point with offsets; a difference as a
              * difference (eval_unit_fits refused the mixed cases). */
-            bool difference = v->q.temp == TEMP_NONE || to.temp == TEMP_NONE;
-            double y = unit_from_si(v->q.si, &to, difference);
+            bool difference = v.q.temp == TEMP_NONE || to.temp == TEMP_NONE;
+            double y = unit_from_si(v.q.si, &to, difference);
             char buf[64];
             snprintf(buf, sizeof buf, "%.10g", y);
             printf("%s %s\n", buf, argv[1]);
@@ -689,7 +681,6 @@ static int cmd_convert(int argc, char **argv)
     if (dl.len)
         diag_print(stderr, &dl, NULL, 0, use_color());
     diag_free(&dl);
-    doc_free(doc);
     return status;
 }
 
