@@ -711,7 +711,8 @@ static void watch_build(void *vctx, Vec *inputs)
             printf("%s: not written: the input has errors\n", w->out);
         } else {
             DiagList wl = {0};
-            if (write_report(ev, FMT_PDF, w->out, &wl, NULL, NULL) == 0)
+            const char *ins[] = {w->file};
+            if (write_report(ev, FMT_PDF, w->out, &wl, NULL, NULL, ins, 1) == 0)
                 printf("wrote %s\n", w->out);
             diag_free(&wl);
         }
