@@ -26,7 +26,11 @@ enum {
     LSP_MAX_MESSAGE = 32 * 1024 * 1024, /* bytes of one language-server message body */
     LSP_MAX_HEADER_LINE = 1024,         /* bytes of one header line of a message */
     LSP_MAX_DOCUMENTS = 64,             /* calcs open in one language server at once */
-    LSP_MAX_OPEN_BYTES = 64 * 1024 * 1024 /* text of all the open calcs together */
+    LSP_MAX_OPEN_BYTES = 64 * 1024 * 1024, /* text of all the open calcs together */
+    USE_MAX_DEPTH = 16,                 /* files in a chain of use("...") (a uses b uses c ...) */
+    USE_MAX_FILES = 1000,               /* distinct files used in one run, over every part */
+    USE_MAX_BYTES = 64 * 1024 * 1024,   /* source bytes of every used file of one run */
+    PACKAGE_MAX_PARTS = 500             /* calc files in one package index's `parts:` list */
 };
 
 #endif

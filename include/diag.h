@@ -48,4 +48,14 @@ void diag_sort(DiagList *dl);
  * `text` is the whole source (may be NULL), used to show the line. */
 void diag_print(FILE *out, const DiagList *dl, const char *text, size_t text_len, bool color);
 
+/* The same when the diagnostics fall in several files (a calc and the files
+ * it uses): each is shown with the line of the source whose `file` matches
+ * its position's. */
+typedef struct DiagSource {
+    const char *file;
+    const char *text;
+    size_t len;
+} DiagSource;
+void diag_print_sources(FILE *out, const DiagList *dl, const DiagSource *src, size_t nsrc, bool color);
+
 #endif

@@ -212,6 +212,12 @@ typedef struct Revision {
     const char *rev, *date, *by, *note;
 } Revision;
 
+/* One entry of a package index's `parts:` list (DESIGN 2.13). */
+typedef struct Part {
+    const char *file;        /* as written, relative to the index */
+    Pos pos;
+} Part;
+
 typedef enum Paper { PAPER_LETTER, PAPER_A4 } Paper;
 
 typedef struct Meta {
@@ -224,6 +230,9 @@ typedef struct Meta {
     const char *code;        /* `code:` the model plumbing code's key ("IPC 2018"); NULL: the default */
     Revision *revisions;
     size_t nrevisions;
+    Part *parts;             /* a package index: its calc files, in order */
+    size_t nparts;
+    bool has_parts;          /* the key was given (an index, even with an empty list) */
     bool present;            /* the file had front matter */
 } Meta;
 
@@ -256,6 +265,8 @@ typedef struct CaseTable {
 /* ---- the document ------------------------------------------------------ */
 
 typedef struct NameTable NameTable;
+struct UseSet;
+
 
 typedef struct Document {
     Arena arena;
@@ -274,6 +285,8 @@ typedef struct Document {
     NameTable *names;        /* name -> statement slot */
     size_t *line_start;      /* byte offset of each line (index 0 = line 1) */
     size_t nlines;
+    bool from_git;           /* read as REV:path: its uses are read from the same revision */
+    struct UseSet *own_uses; /* the used files of eval_document() without a shared set */
 } Document;
 
 /* Read a whole calc file (or standard input for "-") into a Document: front
@@ -293,6 +306,11 @@ const char *cmp_op_text(CmpOp op, bool typeset);
  * a callable record)? Such an expression has a substituted form worth
  * showing; pi and literals alone do not. */
 bool expr_reads_names(const Expr *e);
+
+/* The file a `NAME = use("file.calc.md")` statement reads, as written; NULL
+ * for any other statement. Lets tools list a document's uses without
+ * evaluating it. */
+const char *doc_stmt_use(const Stmt *s);
 
 /* Name table: NULL/-1 when absent. */
 int doc_lookup(const Document *doc, const char *name);

@@ -115,10 +115,23 @@ typedef struct Evaluated {
     CaseResult *cases;       /* doc->ncases */
     size_t ncases;
     size_t case_rows_failing;/* over every case table: rows where a check fails */
+    struct UseSet *uses;     /* where used calcs are cached (uses.h) */
+    const struct UsedFile **used; /* every file it used, directly or through another, in order */
+    size_t nused;
 } Evaluated;
 
-/* Evaluate every statement. Errors and validity warnings go to `diags`. */
+/* Evaluate every statement. Errors and validity warnings go to `diags`.
+ * Used calcs are cached in a set the document owns. */
 Evaluated *eval_document(Document *doc, DiagList *diags);
+/* The same with a set shared by several documents (a package's parts), so
+ * a file they all use is read and evaluated once. The set must outlive the
+ * Evaluated. */
+Evaluated *eval_document_in(Document *doc, struct UseSet *uses, DiagList *diags);
+
+/* The value an expression that only names a value shows (a name, or fields
+ * of a record read with '.', however deep: basis.w.rho); NULL otherwise.
+ * `shown` gets the unit it is shown in. For renderers' substitutions. */
+const Value *eval_named_value(const Evaluated *ev, const Expr *e, Unit *shown);
 
 /* Re-evaluate, in order, the statements that depend (directly or through
  * others) on any slot in `changed`, stopping before statement `upto`. The

@@ -19,6 +19,7 @@
 #include <string.h>
 
 #include "numfmt.h"
+#include "uses.h"
 
 DiffOptions diff_options_default(void)
 {
@@ -871,6 +872,87 @@ static void mark_readers(Diff *d, const Document *nd)
     }
 }
 
+/* A used file's name relative to the directory of the calc that uses it,
+ * so old/basis.calc.md and new/basis.calc.md (or two revisions) match. */
+static const char *use_name(const Document *user, const UsedFile *u)
+{
+    const char *base = user->file, *slash = strrchr(base, '/');
+    const char *colon = user->from_git ? strchr(base, ':') : NULL;
+    const char *end = slash ? slash + 1 : colon ? colon + 1 : base;
+    size_t n = (size_t)(end - base);
+    if (strncmp(u->file, base, n) == 0)
+        return u->file + n;
+    return u->file;
+}
+
+static const UsedFile *use_find(const Evaluated *ev, const char *name)
+{
+    for (size_t i = 0; i < ev->nused; i++)
+        if (strcmp(use_name(ev->doc, ev->used[i]), name) == 0)
+            return ev->used[i];
+    return NULL;
+}
+
+/* Does a use statement's file read `u` (it is u, or uses it)? */
+static bool reads_file(const Record *rec, const UsedFile *u)
+{
+    const UsedFile *f = use_of_record(rec);
+    if (!f)
+        return false;
+    if (f == u)
+        return true;
+    for (size_t i = 0; i < f->ev->nused; i++)
+        if (f->ev->used[i] == u)
+            return true;
+    return false;
+}
+
+/* The results of NEW that depend on the used file `u`. */
+static void moved_by(Diff *d, const Document *nd, const UsedFile *u, UseChange *c)
+{
+    bool *dep = xcalloc(nd->nstmts + 1, sizeof *dep);
+    for (size_t i = 0; i < nd->nstmts; i++) {
+        const StmtResult *r = &d->new_ev->results[i];
+        dep[i] = doc_stmt_use(nd->stmts[i]) && r->state == RES_OK && r->value.kind == VAL_RECORD &&
+                 reads_file(r->value.rec, u);
+        for (size_t k = 0; k < nd->stmts[i]->ndeps && !dep[i]; k++)
+            dep[i] = dep[nd->stmts[i]->deps[k]];
+    }
+    c->moved = arena_alloc(&d->arena, (d->nresults + 1) * sizeof *c->moved);
+    for (size_t i = 0; i < d->nresults; i++)
+        if (d->results[i].new_slot >= 0 && dep[d->results[i].new_slot])
+            c->moved[c->nmoved++] = i;
+    free(dep);
+}
+
+static void compare_uses(Diff *d)
+{
+    const Evaluated *o = d->old_ev, *n = d->new_ev;
+    d->uses = arena_alloc(&d->arena, (o->nused + n->nused + 1) * sizeof *d->uses);
+    for (size_t i = 0; i < n->nused; i++) {
+        const UsedFile *nu = n->used[i];
+        const char *name = use_name(n->doc, nu);
+        const UsedFile *ou = use_find(o, name);
+        if (ou && strcmp(ou->doc->digest, nu->doc->digest) == 0)
+            continue;
+        UseChange *c = &d->uses[d->nuses++];
+        c->kind = ou ? USE_CHANGED : USE_ADDED;
+        c->name = name;
+        c->old_digest = ou ? ou->doc->digest : NULL;
+        c->new_digest = nu->doc->digest;
+        moved_by(d, n->doc, nu, c);
+    }
+    for (size_t i = 0; i < o->nused; i++) {
+        const char *name = use_name(o->doc, o->used[i]);
+        if (use_find(n, name))
+            continue;
+        UseChange *c = &d->uses[d->nuses++];
+        c->kind = USE_REMOVED;
+        c->name = name;
+        c->old_digest = o->used[i]->doc->digest;
+    }
+}
+
 Diff *diff_compute(const Evaluated *old_ev, const Evaluated *new_ev, const DiffOptions *opt)
 {
     Diff *d = xcalloc(1, sizeof *d);
@@ -908,6 +990,7 @@ Diff *diff_compute(const Evaluated *old_ev, const Evaluated *new_ev, const DiffO
     d->stmts = to_arena(d, d->stmts, d->nstmts, sizeof *d->stmts);
     d->cites = to_arena(d, d->cites, d->ncites, sizeof *d->cites);
     d->prose = to_arena(d, d->prose, d->nprose, sizeof *d->prose);
+    compare_uses(d);
 
     bool meta_changed = false;
     for (size_t i = 0; i < d->nmeta; i++)

@@ -16,6 +16,7 @@
 #include "library.h"
 #include "markdown.h"
 #include "source.h"
+#include "uses.h"
 
 /* ---- name table: open addressing, names -> slots ---------------------- */
 
@@ -120,6 +121,7 @@ typedef struct Resolver {
     DiagList *diags;
     int current;             /* statement being resolved */
     Vec deps;                /* slots read, as (void *)(intptr_t)(slot + 1) */
+    const Expr *use_top;     /* the whole right-hand side of a definition: where use() may stand */
 } Resolver;
 
 static size_t edit_distance(const char *a, const char *b)
@@ -229,6 +231,21 @@ static int resolve_expr(Resolver *r, Expr *e)
         ok = resolve_expr(r, e->rhs) && ok;
         break;
     case EXPR_CALL:
+        if (strcmp(e->text, "use") == 0 && doc_lookup(r->doc, e->text) < 0) {
+            /* use() reads a file: a statement of its own, with the name in quotes */
+            if (e != r->use_top)
+                diag_error(r->diags, e->pos, "use(...) binds another calc file and stands alone: "
+                                             "NAME = use(\"file.calc.md\")");
+            else if (e->nargs != 1 || e->nkw != 0 || e->args[0]->kind != EXPR_STRING)
+                diag_error(r->diags, e->pos, "use takes one file name in quotes: NAME = "
+                                             "use(\"basis.calc.md\")");
+            else if (!e->args[0]->text[0])
+                diag_error(r->diags, e->args[0]->pos, "use: the file name is empty");
+            else
+                break;
+            ok = 0;
+            break;
+        }
         if (!builtin_lookup(e->text)) {
             int slot = doc_lookup(r->doc, e->text);
             if (slot >= 0 && slot < r->current) {
@@ -251,6 +268,15 @@ static int resolve_expr(Resolver *r, Expr *e)
         break;
     }
     return ok;
+}
+
+const char *doc_stmt_use(const Stmt *s)
+{
+    const Expr *e = s && s->kind == STMT_DEF && !s->parse_failed ? s->expr : NULL;
+    if (!e || e->kind != EXPR_CALL || strcmp(e->text, "use") != 0 || e->callee_slot >= 0 ||
+        e->nargs != 1 || e->nkw != 0 || e->args[0]->kind != EXPR_STRING)
+        return NULL;
+    return e->args[0]->text;
 }
 
 static int cmp_int(const void *a, const void *b)
@@ -297,7 +323,7 @@ static void resolve_statements(Document *doc, DiagList *diags)
         labels->slots[k] = (int)i;
     }
 
-    Resolver r = {doc, diags, 0, {0}};
+    Resolver r = {doc, diags, 0, {0}, NULL};
     for (size_t i = 0; i < doc->nstmts; i++) {
         Stmt *s = doc->stmts[i];
         r.current = (int)i;
@@ -320,7 +346,9 @@ static void resolve_statements(Document *doc, DiagList *diags)
             continue;
         int ok = 1;
         if (s->kind == STMT_DEF) {
+            r.use_top = s->expr;
             ok = resolve_expr(&r, s->expr);
+            r.use_top = NULL;
         } else if (s->kind == STMT_CHECK) {
             ok = resolve_expr(&r, s->lhs);
             ok = resolve_expr(&r, s->rhs) && ok;
@@ -392,7 +420,7 @@ static void resolve_inlines(Document *doc, Inline *in, DiagList *diags)
  * (they are evaluated after the whole calc). */
 static void resolve_cases(Document *doc, DiagList *diags)
 {
-    Resolver r = {doc, diags, (int)doc->nstmts, {0}};
+    Resolver r = {doc, diags, (int)doc->nstmts, {0}, NULL};
     size_t work = 0;
     for (size_t c = 0; c < doc->ncases; c++) {
         CaseTable *ct = doc->cases[c];
@@ -482,7 +510,7 @@ Document *doc_from_text(const char *display_name, const char *text, size_t len, 
     resolve_statements(doc, diags);
     resolve_cases(doc, diags);
     resolve_blocks(doc, doc->blocks, diags);
-    if (doc->nstmts == 0 && diags->errors == 0) {
+    if (doc->nstmts == 0 && diags->errors == 0 && !doc->meta.has_parts) {
         Pos p = {doc->file, 1, 1};
         diag_warning(diags, p, "the file has no calc statements (no ```calc block)");
     }
@@ -513,6 +541,7 @@ void doc_free(Document *doc)
 {
     if (!doc)
         return;
+    use_set_free(doc->own_uses);
     arena_free(&doc->arena);
     free(doc);
 }

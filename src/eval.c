@@ -16,6 +16,7 @@
 
 #include "flow.h"
 #include "numfmt.h"
+#include "uses.h"
 
 typedef struct Ctx {
     Evaluated *ev;
@@ -211,8 +212,38 @@ static bool eval_binary(Ctx *c, const Expr *e, Value *out)
     return false;
 }
 
+/* NAME = use("file.calc.md"): the used calc's values as a record. The
+ * files it used are the user's too, so the list stays transitive. */
+static bool eval_use(Ctx *c, const Expr *e, Value *out)
+{
+    Evaluated *ev = c->ev;
+    const UsedFile *u = use_set_resolve(ev->uses, c->doc, e->args[0]->text, e->args[0]->pos, c->diags);
+    if (!u)
+        return false;
+    size_t add = 1 + u->ev->nused;
+    const UsedFile **list = arena_alloc(&c->doc->arena, (ev->nused + add) * sizeof *list);
+    if (ev->nused)
+        memcpy(list, ev->used, ev->nused * sizeof *list);
+    size_t n = ev->nused;
+    for (size_t i = 0; i < add; i++) {
+        const UsedFile *f = i + 1 < add ? u->ev->used[i] : u;
+        bool seen = false;
+        for (size_t k = 0; k < n && !seen; k++)
+            seen = list[k] == f;
+        if (!seen)
+            list[n++] = f;
+    }
+    ev->used = list;
+    ev->nused = n;
+    *out = u->record;
+    return true;
+}
+
 static bool eval_call(Ctx *c, const Expr *e, Value *out)
 {
+    if (e->callee_slot < 0 && strcmp(e->text, "use") == 0 && e->nargs == 1 &&
+        e->args[0]->kind == EXPR_STRING)
+        return eval_use(c, e, out);
     size_t n = e->nargs, nk = e->nkw;
     Value *args = arena_alloc(&c->doc->arena, (n + 1) * sizeof *args);
     Pos *apos = arena_alloc(&c->doc->arena, (n + 1) * sizeof *apos);
@@ -989,10 +1020,46 @@ static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagL
     }
 }
 
+const Value *eval_named_value(const Evaluated *ev, const Expr *e, Unit *shown)
+{
+    while (e && e->kind == EXPR_PAREN)
+        e = e->lhs;
+    if (!e)
+        return NULL;
+    if (e->kind == EXPR_NAME) {
+        if (e->slot < 0 || (size_t)e->slot >= ev->doc->nstmts)
+            return NULL;
+        const StmtResult *r = &ev->results[e->slot];
+        if (r->state != RES_OK)
+            return NULL;
+        *shown = r->shown;
+        return &r->value;
+    }
+    if (e->kind != EXPR_FIELD)
+        return NULL;
+    Unit ignored;
+    const Value *base = eval_named_value(ev, e->lhs, &ignored);
+    if (!base || base->kind != VAL_RECORD || !base->rec)
+        return NULL;
+    const Value *f = record_get(base->rec, e->text);
+    if (f)
+        *shown = eval_display_unit(ev, f, NULL);
+    return f;
+}
+
 Evaluated *eval_document(Document *doc, DiagList *diags)
+{
+    if (!doc->own_uses)
+        doc->own_uses = use_set_new();
+    return eval_document_in(doc, doc->own_uses, diags);
+}
+
+Evaluated *eval_document_in(Document *doc, UseSet *uses, DiagList *diags)
 {
     Evaluated *ev = arena_alloc(&doc->arena, sizeof *ev);
     ev->doc = doc;
+    ev->uses = uses;
+    use_set_enter(uses, doc);
     ev->units = doc->meta.units;
     ev->digits = doc->meta.digits;
     ev->results = arena_alloc(&doc->arena, (doc->nstmts + 1) * sizeof *ev->results);
@@ -1019,5 +1086,6 @@ Evaluated *eval_document(Document *doc, DiagList *diags)
     for (size_t i = 0; i < all.len; i++)
         ev->methods[i] = all.items[i];
     vec_free(&all);
+    use_set_leave(uses);
     return ev;
 }

@@ -13,6 +13,7 @@
 
 #include "numfmt.h"
 #include "render.h"
+#include "uses.h"
 
 static json_t *real_or_null(double x)
 {
@@ -58,6 +59,11 @@ static json_t *value_json(const Evaluated *ev, const Value *v, const Unit *shown
         json_t *o = json_object();
         json_object_set_new(o, "kind", json_string("record"));
         json_object_set_new(o, "type", json_string(v->rec->type));
+        const UsedFile *u = use_of_record(v->rec);
+        if (u) {
+            json_object_set_new(o, "file", json_string(u->file));
+            json_object_set_new(o, "digest", json_string(u->doc->digest));
+        }
         json_t *fields = json_object();
         for (size_t i = 0; i < v->rec->nfields; i++)
             json_object_set_new(fields, v->rec->fields[i].name, value_json(ev, &v->rec->fields[i].value, NULL));
@@ -106,6 +112,12 @@ static json_t *meta_json(const Meta *m)
             json_array_append_new(revs, r);
         }
         json_object_set_new(o, "revisions", revs);
+    }
+    if (m->has_parts) {
+        json_t *parts = json_array();
+        for (size_t i = 0; i < m->nparts; i++)
+            json_array_append_new(parts, json_string(m->parts[i].file));
+        json_object_set_new(o, "parts", parts);
     }
     return o;
 }
@@ -226,6 +238,17 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
     json_t *o = json_object();
     json_object_set_new(o, "file", json_string(doc->file));
     json_object_set_new(o, "digest", json_string(doc->digest));
+    json_t *uses = json_array();
+    for (size_t i = 0; i < ev->nused; i++) {
+        json_t *u = json_object();
+        json_object_set_new(u, "file", json_string(ev->used[i]->file));
+        json_object_set_new(u, "digest", json_string(ev->used[i]->doc->digest));
+        json_array_append_new(uses, u);
+    }
+    if (ev->nused)
+        json_object_set_new(o, "uses", uses);
+    else
+        json_decref(uses);
     json_object_set_new(o, "meta", meta_json(&doc->meta));
     json_t *values = json_object();
     json_t *checks = json_array();

@@ -9,6 +9,7 @@
  * the PDF library; text is measured through MathMetrics and drawn through
  * MathPainter. */
 #include "mathbox.h"
+#include "uses.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -514,17 +515,8 @@ static const Value *subst_value(const MathEnv *env, const Expr *e, Unit *unit)
         *unit = r->shown;
         return &r->value;
     }
-    if (e->kind == EXPR_FIELD && e->lhs && e->lhs->kind == EXPR_NAME && e->lhs->slot >= 0 &&
-        (size_t)e->lhs->slot < ev->doc->nstmts) {
-        const StmtResult *r = &ev->results[e->lhs->slot];
-        if (r->state != RES_OK || r->value.kind != VAL_RECORD || !r->value.rec)
-            return NULL;
-        const Value *fv = record_get(r->value.rec, e->text);
-        if (!fv)
-            return NULL;
-        *unit = eval_display_unit(ev, fv, NULL);
-        return fv;
-    }
+    if (e->kind == EXPR_FIELD)
+        return eval_named_value(ev, e, unit); /* basis.p_city, basis.w.rho */
     return NULL;
 }
 
@@ -754,6 +746,14 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row
                     false);
             return;
         }
+        const UsedFile *used = r->value.kind == VAL_RECORD ? use_of_record(r->value.rec) : NULL;
+        if (used) {
+            char *t = arena_printf(env->arena, "the values of %s (SHA-256 %.12s)",
+                                   doc_stmt_use(st) ? doc_stmt_use(st) : used->file,
+                                   used->doc->digest);
+            row_add(row, rel(env, "=", mbox_text(env, FONT_SERIF_ITALIC, size, t), size), false);
+            return;
+        }
         if (r->value.kind == VAL_RECORD) {
             if (expr_reads_names(st->expr))
                 row_add(row, rel(env, "=", mbox_expr(env, st->expr, size, true), size), false);
@@ -761,7 +761,8 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row
             return;
         }
         bool literal = is_literal(st->expr);
-        if (!literal && expr_reads_names(st->expr) && strip(st->expr)->kind != EXPR_NAME)
+        if (!literal && expr_reads_names(st->expr) && strip(st->expr)->kind != EXPR_NAME &&
+            strip(st->expr)->kind != EXPR_FIELD)
             row_add(row, rel(env, "=", mbox_expr(env, st->expr, size, true), size), false);
         /* an input shown as written is its own result, unless `as` converts it */
         bool input = literal && !st->has_as;

@@ -11,6 +11,8 @@
 
 #include "numfmt.h"
 #include "render.h"
+#include "package.h"
+#include "uses.h"
 
 void render_quantity(const Evaluated *ev, const Value *v, const Unit *unit, char *buf, size_t n)
 {
@@ -142,16 +144,12 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
     }
     case EXPR_FIELD:
         if (sub) {
-            /* Substitute the field's value when the base is a plain name. */
-            const Expr *b = e->lhs;
-            if (b->kind == EXPR_NAME && b->slot >= 0 && ev->results[b->slot].state == RES_OK &&
-                ev->results[b->slot].value.kind == VAL_RECORD) {
-                const Value *f = record_get(ev->results[b->slot].value.rec, e->text);
-                if (f && f->kind == VAL_NUMBER) {
-                    Unit u = eval_display_unit(ev, f, NULL);
-                    put_value(ev, f, &u, parent_prec, out);
-                    break;
-                }
+            /* Substitute the field's value (basis.p_city, basis.w.rho). */
+            Unit u;
+            const Value *f = eval_named_value(ev, e, &u);
+            if (f && f->kind == VAL_NUMBER) {
+                put_value(ev, f, &u, parent_prec, out);
+                break;
             }
         }
         put_expr(ev, e->lhs, false, out, PREC_ATOM);
@@ -384,7 +382,15 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
         sb_free(&f);
         sb_free(&v);
         put_comment(s, out);
-        if (r->state == RES_OK && r->value.kind == VAL_RECORD) {
+        const UsedFile *used = r->state == RES_OK && r->value.kind == VAL_RECORD
+                                   ? use_of_record(r->value.rec)
+                                   : NULL;
+        if (used) {
+            /* a used calc: its file and digest; its values are listed in its own report */
+            sb_printf(out, "\n      the values of %s (sha256 %.12s), %zu names",
+                      doc_stmt_use(s) ? doc_stmt_use(s) : used->file, used->doc->digest,
+                      r->value.rec->nfields);
+        } else if (r->state == RES_OK && r->value.kind == VAL_RECORD) {
             const Record *rec = r->value.rec;
             for (size_t i = 0; i < rec->nfields; i++) {
                 sb_printf(out, "\n      %s.%s = ", s->name, rec->fields[i].name);
@@ -533,10 +539,36 @@ bool render_text(const Evaluated *ev, FILE *out)
     if (m->number || m->revision)
         sb_printf(&sb, "calc: %s  revision: %s\n", m->number ? m->number : "-", m->revision ? m->revision : "-");
     sb_printf(&sb, "source: %s  sha256: %s\n", doc->file, doc->digest);
+    for (size_t i = 0; i < ev->nused; i++)
+        sb_printf(&sb, "uses: %s  sha256: %s\n", ev->used[i]->file, ev->used[i]->doc->digest);
     put_blocks(ev, doc->blocks, &sb);
     size_t holds = ev->nchecks - ev->nfailed;
     sb_printf(&sb, "\nchecks: %zu hold, %zu fail\n", holds, ev->nfailed);
     bool ok = fwrite(sb.data ? sb.data : "", 1, sb.len, out) == sb.len;
     sb_free(&sb);
+    return ok;
+}
+
+bool render_package_text(const Package *pkg, FILE *out)
+{
+    const Document *ix = pkg->index;
+    const Meta *m = &ix->meta;
+    bool ok = fprintf(out, "%s\npackage: %s  sha256: %s\n", m->title ? m->title : ix->file, ix->file,
+                      ix->digest) > 0;
+    if (m->project)
+        ok = fprintf(out, "project: %s\n", m->project) > 0 && ok;
+    if (m->number || m->revision)
+        ok = fprintf(out, "calc: %s  revision: %s\n", m->number ? m->number : "-",
+                     m->revision ? m->revision : "-") > 0 && ok;
+    for (size_t i = 0; i < pkg->nparts; i++) {
+        ok = fprintf(out, "\n==== part %zu of %zu: %s\n", i + 1, pkg->nparts, pkg->parts[i].file) > 0 && ok;
+        ok = render_text(pkg->parts[i].ev, out) && ok;
+    }
+    for (size_t i = 0; i < pkg->nextra; i++)
+        ok = fprintf(out, "\nused by a part, not a part: %s  sha256: %s  (%zu checks, %zu fail)\n",
+                     pkg->extra[i]->file, pkg->extra[i]->doc->digest, pkg->extra[i]->ev->nchecks,
+                     pkg->extra[i]->ev->nfailed) > 0 && ok;
+    ok = fprintf(out, "\npackage checks: %zu hold, %zu fail\n", pkg->nchecks - pkg->nfailed,
+                 pkg->nfailed) > 0 && ok;
     return ok;
 }
