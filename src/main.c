@@ -949,12 +949,18 @@ static void watch_build(void *vctx, Vec *inputs)
             printf("%s: not written: the input has errors\n", w->out);
         } else {
             DiagList wl = {0};
-            if (write_report(ev, FMT_PDF, w->out, &wl, NULL, NULL) == 0)
+            ReportJob job = {ev, NULL, NULL, NULL, NULL};
+            if (write_report(&job, FMT_PDF, w->out, &wl) == 0)
                 printf("wrote %s\n", w->out);
             diag_free(&wl);
         }
-        /* Files the calc uses are watched too, once the Document lists them
-         * (use("file"), DESIGN 2.13): push each of their paths here. */
+        /* The files the calc uses (use("file"), DESIGN 2.13), directly or
+         * through another, are watched too. */
+        for (size_t i = 0; doc->own_uses && i < doc->own_uses->nfiles; i++) {
+            const UsedFile *u = doc->own_uses->files[i];
+            if (u->file && !u->doc->from_git)
+                vec_push(inputs, xstrdup(u->file));
+        }
     }
     fflush(stderr);
     diag_free(&dl);
