@@ -83,6 +83,8 @@ typedef struct PathSegment {
     const char *field;       /* its record field name ("S_1") */
     Pos pos;
     Expr *flow, *pipe, *length, *rise, *K, *C;
+    Expr *device;            /* a device at the segment's outlet (DESIGN 2.10) */
+    const char *device_text; /* its cell as written */
     FittingItem *fittings;
     size_t nfittings;
 } PathSegment;

@@ -28,7 +28,12 @@ typedef struct SegmentResult {
     double V, Re, f, K;      /* K: fittings plus the K column */
     double h_f, h_m;         /* friction and fitting head loss */
     double dp_static;        /* rho*g*rise */
-    double p_in, p_out;
+    bool has_device;         /* a device at the outlet (DESIGN 2.10) */
+    const char *device;      /* its cell as written */
+    int device_status;       /* its DeviceStatus (methods/devices.h) */
+    double p_device_in;      /* static pressure just before the device */
+    double dp_device;        /* static drop across it (negative: a pump's gain); 0 without */
+    double p_in, p_out;      /* p_out: after the device, if any */
     double x_in, x_out;      /* distance along the path */
     double z_in, z_out;      /* elevation */
 } SegmentResult;
@@ -40,6 +45,8 @@ typedef struct PathResult {
     double p_end, p_min, V_max, loss;
     size_t p_min_seg;        /* the segment whose outlet (or first inlet) is lowest */
     bool p_min_at_inlet;
+    bool p_min_before_device;/* the lowest is just before that segment's device */
+    size_t ndevices;
 } PathResult;
 
 /* A figure's data, in SI; the renderers convert with x_unit / y_unit. */

@@ -358,7 +358,7 @@ static void resolve_statements(Document *doc, DiagList *diags)
             ok = resolve_expr(&r, ps->start) && ok;
             for (size_t k = 0; k < ps->nsegs; k++) {
                 PathSegment *g = &ps->segs[k];
-                Expr *cells[] = {g->flow, g->pipe, g->length, g->rise, g->K, g->C};
+                Expr *cells[] = {g->flow, g->pipe, g->length, g->rise, g->K, g->C, g->device};
                 for (size_t c = 0; c < sizeof cells / sizeof cells[0]; c++)
                     if (cells[c])
                         ok = resolve_expr(&r, cells[c]) && ok;

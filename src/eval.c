@@ -774,6 +774,10 @@ static void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
             in[i].has_C = true;
             ok = eval_expr(c, g->C, &in[i].C) && ok;
         }
+        if (g->device) {
+            in[i].has_device = true;
+            ok = eval_expr(c, g->device, &in[i].device) && ok;
+        }
     }
     if (!ok) {
         res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;

@@ -7,7 +7,10 @@
  * the flow changes, the static pressure changes by the difference of the
  * velocity heads, p_in(i) = p_out(i-1) + rho*(V(i-1)^2 - V(i)^2)/2.
  * Energy is lost only to pipe friction (Darcy-Weisbach with the chosen
- * friction method, or Hazen-Williams) and to the K of fittings. Every
+ * friction method, or Hazen-Williams), to the K of fittings, and across a
+ * device at a segment's outlet (DESIGN 2.10: a PRV, a valve or meter by Cv
+ * or Kv, a loss curve, or a pump that adds head), which changes the static
+ * pressure there and steps the energy grade line by the same amount. Every
  * correlation is reached through the library functions of builtins.def, so
  * a path uses exactly the methods, warnings and references a calc line
  * would. */
@@ -17,6 +20,7 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "methods/devices_lib.h"
 #include "methods/fittings.h"
 #include "methods/friction.h"
 #include "methods/pumps.h"
@@ -64,9 +68,9 @@ static Value hinted(double si, Dim d, const char *us, const char *si_unit)
     return us ? value_hinted(qty(si, d), us, si_unit) : value_number(qty(si, d));
 }
 
-static Record *segment_record(CallCtx *cx, const SegmentResult *g)
+static Record *segment_record(CallCtx *cx, const SegmentResult *g, const PathSegment *sp)
 {
-    Record *r = record_new(cx->arena, "segment", 12);
+    Record *r = record_new(cx->arena, "segment", g->has_device ? 15 : 13);
     size_t k = 0;
     record_set(r, k++, "Q", value_number(qty(g->Q, DIM_FLOW)));
     record_set(r, k++, "D", hinted(g->D, DIM_L, "in", "mm"));
@@ -80,6 +84,11 @@ static Record *segment_record(CallCtx *cx, const SegmentResult *g)
     record_set(r, k++, "h_m", value_number(qty(g->h_m, DIM_L)));
     record_set(r, k++, "p_in", value_number(qty(g->p_in, DIM_PRESSURE)));
     record_set(r, k++, "p_out", value_number(qty(g->p_out, DIM_PRESSURE)));
+    record_set(r, k++, "dp_device", value_number(qty(g->dp_device, DIM_PRESSURE)));
+    if (g->has_device) {
+        record_set(r, k++, "p_device_in", value_number(qty(g->p_device_in, DIM_PRESSURE)));
+        record_set(r, k++, "device", value_string(sp->device_text));
+    }
     return r;
 }
 
@@ -209,6 +218,25 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
         else
             g->p_in = pr->segs[i - 1].p_out + rho * (pr->segs[i - 1].V * pr->segs[i - 1].V - g->V * g->V) / 2;
         g->p_out = g->p_in - rho * G * (g->h_f + g->h_m) - g->dp_static;
+        g->p_device_in = g->p_out;
+
+        /* A device at the outlet, after the pipe and fitting losses. */
+        if (si->has_device) {
+            Device dev;
+            DeviceStatus st;
+            double after;
+            if (!device_from_value(cx, &si->device, sp->device->pos, "device", &dev) ||
+                !device_step(cx, &dev, sp->device->pos, g->Q, g->p_out, rho, &after, &st)) {
+                ok = false;
+                continue;
+            }
+            g->has_device = true;
+            g->device = sp->device_text;
+            g->device_status = (int)st;
+            g->dp_device = g->p_out - after;
+            g->p_out = after;
+            pr->ndevices++;
+        }
         g->x_in = x;
         g->z_in = z;
         x += g->L;
@@ -228,11 +256,19 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
             pr->p_min = g->p_in;
             pr->p_min_seg = i;
             pr->p_min_at_inlet = true;
+            pr->p_min_before_device = false;
+        }
+        if (g->has_device && g->p_device_in < pr->p_min) {
+            pr->p_min = g->p_device_in;
+            pr->p_min_seg = i;
+            pr->p_min_at_inlet = false;
+            pr->p_min_before_device = true;
         }
         if (g->p_out < pr->p_min) {
             pr->p_min = g->p_out;
             pr->p_min_seg = i;
             pr->p_min_at_inlet = false;
+            pr->p_min_before_device = false;
         }
         if (g->V > pr->V_max)
             pr->V_max = g->V;
@@ -246,14 +282,15 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
     record_set(r, k++, "p_min", value_number(qty(pr->p_min, DIM_PRESSURE)));
     const SegmentResult *at = &pr->segs[pr->p_min_seg];
     record_set(r, k++, "p_min_at",
-               value_string(arena_printf(cx->arena, "%s %s", at->id, pr->p_min_at_inlet ? "inlet" : "outlet")));
+               value_string(arena_printf(cx->arena, "%s %s", at->id,
+                                         pr->p_min_at_inlet ? "inlet" : pr->p_min_before_device ? "device inlet" : "outlet")));
     record_set(r, k++, "V_max", value_number(qty(pr->V_max, DIM_VELOCITY)));
     record_set(r, k++, "loss", value_number(qty(pr->loss, DIM_L)));
     record_set(r, k++, "length", value_number(qty(x, DIM_L)));
     for (size_t i = 0; i < pr->nsegs; i++) {
         Value sv = {0};
         sv.kind = VAL_RECORD;
-        sv.rec = segment_record(cx, &pr->segs[i]);
+        sv.rec = segment_record(cx, &pr->segs[i], &ps->segs[i]);
         record_set(r, k++, ps->segs[i].field, sv);
     }
     r->native = pr;
@@ -303,30 +340,42 @@ static bool figure_hgl(CallCtx *cx, const Stmt *s, const Value *args, FigureData
     fd->x_unit = unit_default(DIM_L, TEMP_NONE, cx->units);
     fd->y_unit = fd->x_unit;
     fd->series = arena_alloc(cx->arena, 3 * sizeof *fd->series);
-    size_t n = 2 * pr->nsegs;
+    /* two points a segment, and a third where a device steps the lines */
+    size_t n = 2 * pr->nsegs + pr->ndevices;
     Series *pipe = add_series(cx, fd, 3, "pipe elevation", n, 3);
     Series *hgl = add_series(cx, fd, 3, "hydraulic grade line", n, 0);
     Series *egl = add_series(cx, fd, 3, "energy grade line", n, 1);
     double rg = pr->rho * G;
+    /* markers: the lowest pressure first, then each device */
+    fd->markers = arena_alloc(cx->arena, (pr->ndevices + 1) * sizeof *fd->markers);
+    fd->nmarkers = 1;
+    size_t a = 0;
     for (size_t i = 0; i < pr->nsegs; i++) {
         const SegmentResult *g = &pr->segs[i];
         double hv = g->V * g->V / (2 * G);
-        size_t a = 2 * i, b = 2 * i + 1;
-        pipe->x[a] = hgl->x[a] = egl->x[a] = g->x_in;
-        pipe->x[b] = hgl->x[b] = egl->x[b] = g->x_out;
-        pipe->y[a] = g->z_in;
-        pipe->y[b] = g->z_out;
-        hgl->y[a] = g->z_in + g->p_in / rg;
-        hgl->y[b] = g->z_out + g->p_out / rg;
-        egl->y[a] = hgl->y[a] + hv;
-        egl->y[b] = hgl->y[b] + hv;
+        double xs[3] = {g->x_in, g->x_out, g->x_out}, zs[3] = {g->z_in, g->z_out, g->z_out};
+        double ps[3] = {g->p_in, g->p_device_in, g->p_out};
+        size_t np = g->has_device ? 3 : 2;
+        if (!g->has_device)
+            ps[1] = g->p_out;
+        for (size_t k = 0; k < np; k++, a++) {
+            pipe->x[a] = hgl->x[a] = egl->x[a] = xs[k];
+            pipe->y[a] = zs[k];
+            hgl->y[a] = zs[k] + ps[k] / rg;
+            egl->y[a] = hgl->y[a] + hv;
+        }
+        if (g->has_device) {
+            Marker *mk = &fd->markers[fd->nmarkers++];
+            mk->x = g->x_out;
+            mk->y = g->z_out + g->p_out / rg;
+            mk->label = arena_printf(cx->arena, "%s at %s", g->device, g->id);
+        }
     }
     const SegmentResult *m = &pr->segs[pr->p_min_seg];
-    fd->markers = arena_alloc(cx->arena, sizeof *fd->markers);
-    fd->markers[0].x = pr->p_min_at_inlet ? m->x_in : m->x_out;
-    fd->markers[0].y = (pr->p_min_at_inlet ? m->z_in : m->z_out) + pr->p_min / rg;
-    fd->markers[0].label = "minimum pressure";
-    fd->nmarkers = 1;
+    Marker *mk = &fd->markers[0];
+    mk->x = pr->p_min_at_inlet ? m->x_in : m->x_out;
+    mk->y = (pr->p_min_at_inlet ? m->z_in : m->z_out) + pr->p_min / rg;
+    mk->label = "minimum pressure";
     return true;
 }
 

@@ -244,9 +244,9 @@ static bool parse_fittings(Arena *a, const Cell *c, PathSegment *seg, DiagList *
     return ok;
 }
 
-enum { COL_SEGMENT, COL_FLOW, COL_PIPE, COL_LENGTH, COL_RISE, COL_FITTINGS, COL_K, COL_C, NCOLS };
-static const char *const column_names[NCOLS] = {"segment", "flow", "pipe", "length", "rise", "fittings", "K", "C"};
-static const bool column_required[NCOLS] = {true, true, true, true, true, false, false, false};
+enum { COL_SEGMENT, COL_FLOW, COL_PIPE, COL_LENGTH, COL_RISE, COL_FITTINGS, COL_K, COL_C, COL_DEVICE, NCOLS };
+static const char *const column_names[NCOLS] = {"segment", "flow", "pipe", "length", "rise", "fittings", "K", "C", "device"};
+static const bool column_required[NCOLS] = {true, true, true, true, true, false, false, false, false};
 
 /* A segment id as a record field: letters, digits and '_' kept, anything
  * else becomes '_' ("S-1" -> "S_1"); a leading digit gets "s_" ("3" -> "s_3"). */
@@ -369,7 +369,7 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
             if (cell_is(&cells[k], column_names[c]))
                 which = c;
         if (which < 0) {
-            diag_error(diags, cells[k].pos, "unknown path column '%.*s' (segment, flow, pipe, length, rise, fittings, K, C)",
+            diag_error(diags, cells[k].pos, "unknown path column '%.*s' (segment, flow, pipe, length, rise, fittings, K, C, device)",
                        (int)cells[k].len, cells[k].text);
             ok = false;
         } else if (col_of[which] >= 0) {
@@ -460,6 +460,10 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
             case COL_RISE: seg->rise = e; break;
             case COL_K: seg->K = e; break;
             case COL_C: seg->C = e; break;
+            case COL_DEVICE:
+                seg->device = e;
+                seg->device_text = arena_strndup(a, cell->text, cell->len);
+                break;
             default: break;
             }
         }

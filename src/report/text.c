@@ -222,10 +222,13 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
     unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
     sb_printf(out, ": %zu segments, %s loss\n", pr->nsegs,
               s->path->loss == LOSS_DARCY ? "Darcy-Weisbach" : "Hazen-Williams");
-    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "segment", "Q", "D", "L",
-              "rise", "V", "Re", "f", "K", "h_f", "h_m", "p_in", "p_out");
-    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "", uQ.text, uD.text,
-              uL.text, uL.text, uV.text, "", "", "", uL.text, uL.text, uP.text, uP.text);
+    bool dev = pr->ndevices > 0;
+    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s", "segment", "Q", "D", "L",
+              "rise", "V", "Re", "f", "K", "h_f", "h_m", "p_in");
+    sb_printf(out, dev ? " %10s %10s  %s\n" : " %10s\n", dev ? "dp_device" : "p_out", "p_out", "device");
+    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s", "", uQ.text, uD.text,
+              uL.text, uL.text, uV.text, "", "", "", uL.text, uL.text, uP.text);
+    sb_printf(out, dev ? " %10s %10s\n" : " %10s\n", uP.text, uP.text);
     for (size_t i = 0; i < pr->nsegs; i++) {
         const SegmentResult *g = &pr->segs[i];
         sb_printf(out, "  %-10s", g->id);
@@ -243,7 +246,15 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
         put_cell(ev, g->h_f, &uL, true, out);
         put_cell(ev, g->h_m, &uL, true, out);
         put_cell(ev, g->p_in, &uP, true, out);
+        if (dev) {
+            if (g->has_device)
+                put_cell(ev, g->dp_device, &uP, true, out);
+            else
+                sb_printf(out, " %10s", "-");
+        }
         put_cell(ev, g->p_out, &uP, true, out);
+        if (g->has_device)
+            sb_printf(out, "  %s", g->device);
         sb_putc(out, '\n');
     }
     const Record *rec = r->value.rec;
