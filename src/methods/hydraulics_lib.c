@@ -719,6 +719,25 @@ bool fn_pressure_rating(CallCtx *cx, const CallArgs *a, Value *out)
     if (!arg_record(cx, a, 0, "pipe", "pipe", &pipe) || !arg_temperature(cx, a, 1, &T))
         return false;
     const char *material = field_string(pipe, "material");
+    if (material && strcmp(material, "bore") == 0) {
+        /* A bore(...) names no material, so no derating table applies: it
+         * is rated by the metallic pressure-design formula, which needs
+         * only the geometry and the stress the engineer gives. */
+        Pos hp;
+        if (!record_get(pipe, "wall")) {
+            diag_error(cx->diags, arg_at(a, 0),
+                       "%s: this bore has no wall to rate; give bore(D, roughness, od=..., wall=...)", a->name);
+            return false;
+        }
+        if (kw_get(a, "HDS", &hp)) {
+            diag_error(cx->diags, hp,
+                       "%s: a bore names no thermoplastic material with a derating table; rate it with S= and E= "
+                       "(the pressure-design formula) or use the manufacturer's rating",
+                       a->name);
+            return false;
+        }
+        return rating_metal(cx, a, pipe, "bore", T, out);
+    }
     switch (rating_kind(material)) {
     case RATING_THERMOPLASTIC:
         return rating_thermoplastic(cx, a, pipe, rating_plastic_lookup(material), T, out);
@@ -746,6 +765,14 @@ bool fn_wave_speed(CallCtx *cx, const CallArgs *a, Value *out)
         !arg_record(cx, a, 1, "water", "fluid", &fluid))
         return false;
     double E, D, e, K, rho;
+    const char *material = field_string(pipe, "material");
+    if (material && strcmp(material, "bore") == 0 && (!record_get(pipe, "wall") || !record_get(pipe, "E"))) {
+        diag_error(cx->diags, arg_at(a, 0),
+                   "%s: a bore needs its wall and the pipe material's elastic modulus for the wave speed; give "
+                   "bore(D, roughness, wall=..., E=...)",
+                   a->name);
+        return false;
+    }
     if (!record_get(pipe, "E") && field_string(pipe, "standard")) {
         const char *mat = field_string(pipe, "material");
         diag_error(cx->diags, arg_at(a, 0),
