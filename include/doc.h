@@ -67,7 +67,8 @@ typedef enum StmtKind {
     STMT_CHECK,  /* check LABEL: A OP B                            */
     STMT_NOTE,   /* a whole-line comment                           */
     STMT_PATH,   /* a ```path NAME block: binds the record NAME    */
-    STMT_FIGURE  /* figure KIND(args)  # caption                   */
+    STMT_FIGURE, /* figure KIND(args)  # caption                   */
+    STMT_CURVE   /* a ```curve NAME block: binds the curve NAME    */
 } StmtKind;
 
 /* One entry of a path's fittings cell: "2 elbow 90 std". */
@@ -102,6 +103,16 @@ typedef struct PathSpec {
     size_t nsegs;
 } PathSpec;
 
+/* A ```curve NAME block (DESIGN 2.10): an interpolate: line and a
+ * two-column table, the argument and the value, one point a row. */
+typedef struct CurveSpec {
+    bool loglog;             /* interpolate: loglog (default linear) */
+    const char *x_head, *y_head;   /* the column headings as written */
+    Expr **x, **y;           /* npoints cells each */
+    Pos *row_pos;
+    size_t npoints;
+} CurveSpec;
+
 typedef enum CmpOp { CMP_LE, CMP_LT, CMP_GE, CMP_GT } CmpOp;
 
 typedef struct Cite {
@@ -133,6 +144,7 @@ typedef struct Stmt {
     Cite *cites;
     size_t ncites;
     PathSpec *path;          /* PATH */
+    CurveSpec *curve;        /* CURVE */
     const char *figure;      /* FIGURE: hgl, moody or pump */
     Expr **args;             /* FIGURE: its arguments */
     size_t nargs;
@@ -183,6 +195,7 @@ typedef enum BlockKind {
     BLK_HTML,
     BLK_CALC,                /* ```calc: statements [first_stmt, first_stmt + nstmts) */
     BLK_PATH,                /* ```path NAME: one statement, first_stmt */
+    BLK_CURVE,               /* ```curve NAME: one statement, first_stmt */
     BLK_CASES,               /* ```cases: Document.cases[first_stmt] */
     BLK_SOURCES              /* ```sources */
 } BlockKind;

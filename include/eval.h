@@ -85,6 +85,7 @@ typedef struct StmtResult {
     double utilization;      /* CHECK: lhs/rhs for <, <=; rhs/lhs for >, >= */
     SolveReport solve;       /* SOLVE */
     const PathResult *path;  /* PATH */
+    const ResultTable *table;/* CURVE: its points; DEF: a table a function laid out */
     const FigureData *figure;/* FIGURE */
     const Method *methods[CALL_MAX_METHODS];  /* published methods the line used */
     size_t nmethods;

@@ -447,6 +447,54 @@ static bool figure_moody(CallCtx *cx, const Stmt *s, const Value *args, FigureDa
     return true;
 }
 
+static const char *capitalised(CallCtx *cx, const char *word)
+{
+    char *s = arena_strdup(cx->arena, word);
+    if (s[0] >= 'a' && s[0] <= 'z')
+        s[0] = (char)(s[0] - 'a' + 'A');
+    return s;
+}
+
+/* A curve read between and beyond its points: the interpolated line from
+ * its first to its last point (sampled, so a log-log curve shows its power
+ * laws), on logarithmic axes for a log-log curve, and each table point. */
+static bool figure_curve(CallCtx *cx, const Stmt *s, const Value *args, FigureData *fd)
+{
+    const CurveData *cd = s->nargs == 1 ? curve_of(&args[0]) : NULL;
+    if (!cd) {
+        char got[96] = "nothing";
+        if (s->nargs == 1)
+            value_describe(&args[0], cx->units, got, sizeof got);
+        diag_error(cx->diags, s->nargs ? s->args[0]->pos : s->name_pos,
+                   "figure curve takes one curve (a ```curve NAME block), found %s", s->nargs == 1 ? got : "");
+        return false;
+    }
+    const Curve *c = &cd->curve;
+    fd->x_unit = unit_default(cd->x_dim, cd->x_temp, cx->units);
+    fd->y_unit = unit_default(cd->y_dim, cd->y_temp, cx->units);
+    fd->log_x = fd->log_y = c->interp == CURVE_LOGLOG;
+    fd->x_title = capitalised(cx, dim_name(cd->x_dim) ? dim_name(cd->x_dim) : "argument");
+    fd->y_title = capitalised(cx, dim_name(cd->y_dim) ? dim_name(cd->y_dim) : "value");
+    enum { PER = 12 };
+    size_t n = (c->n - 1) * PER + 1;
+    fd->series = arena_alloc(cx->arena, sizeof *fd->series);
+    Series *line = add_series(cx, fd, 1, arena_printf(cx->arena, "curve %s", cd->name), n, 0);
+    for (size_t i = 0; i + 1 < c->n; i++)
+        for (size_t k = 0; k < PER; k++) {
+            double t = (double)k / PER;
+            double x = c->interp == CURVE_LOGLOG ? c->x[i] * pow(c->x[i + 1] / c->x[i], t)
+                                                 : c->x[i] + t * (c->x[i + 1] - c->x[i]);
+            line->x[i * PER + k] = x;
+            line->y[i * PER + k] = curve_eval(c, x, NULL);
+        }
+    line->x[n - 1] = c->x[c->n - 1];
+    line->y[n - 1] = c->y[c->n - 1];
+    fd->markers = arena_alloc(cx->arena, (c->n + 1) * sizeof *fd->markers);
+    for (size_t i = 0; i < c->n; i++)
+        fd->markers[fd->nmarkers++] = (Marker){c->x[i], c->y[i], ""};
+    return true;
+}
+
 /* Pump curve, system curve H = H_static + k*Q^2, and where they cross. */
 static bool figure_pump(CallCtx *cx, const Stmt *s, const Value *args, FigureData *fd)
 {
@@ -454,19 +502,26 @@ static bool figure_pump(CallCtx *cx, const Stmt *s, const Value *args, FigureDat
         diag_error(cx->diags, s->name_pos, "figure pump takes a pump, H_static and k, found %zu arguments", s->nargs);
         return false;
     }
-    if (args[0].kind != VAL_RECORD || strcmp(args[0].rec->type, "pump") != 0 || !args[0].rec->native) {
+    const CurveData *cd = curve_of(&args[0]);
+    if (cd && !(dim_eq(cd->x_dim, DIM_FLOW) && dim_eq(cd->y_dim, DIM_L))) {
+        diag_error(cx->diags, s->args[0]->pos, "figure pump: curve '%s' must give head (a length) against flow",
+                   cd->name);
+        return false;
+    }
+    if (!cd && (args[0].kind != VAL_RECORD || strcmp(args[0].rec->type, "pump") != 0 || !args[0].rec->native)) {
         char got[96];
         value_describe(&args[0], cx->units, got, sizeof got);
-        diag_error(cx->diags, s->args[0]->pos, "figure pump: argument 1 must be a pump (pump_curve(...)), found %s", got);
+        diag_error(cx->diags, s->args[0]->pos,
+                   "figure pump: argument 1 must be a pump (pump_curve(...)) or a curve of head against flow, found %s", got);
         return false;
     }
     Dim k_dim = dim_div(DIM_L, dim_mul(DIM_FLOW, DIM_FLOW));
     if (!need(cx, &args[1], DIM_L, s->args[1]->pos, "figure pump: H_static") ||
         !need(cx, &args[2], k_dim, s->args[2]->pos, "figure pump: k"))
         return false;
-    const PumpCurve *pc = args[0].rec->native;
+    const PumpCurve *pc = cd ? NULL : args[0].rec->native;
     double hs = args[1].q.si, k = args[2].q.si;
-    double q_end = pc->q_max * 1.15;
+    double q_end = (cd ? cd->curve.x[cd->curve.n - 1] : pc->q_max) * 1.15;
     enum { NPTS = 41 };
     fd->x_title = "Flow rate";
     fd->y_title = "Head";
@@ -478,12 +533,14 @@ static bool figure_pump(CallCtx *cx, const Stmt *s, const Value *args, FigureDat
     for (size_t i = 0; i < NPTS; i++) {
         double q = q_end * (double)i / (NPTS - 1);
         pump->x[i] = sys->x[i] = q;
-        pump->y[i] = pump_head(pc, q);
+        pump->y[i] = cd ? curve_eval(&cd->curve, q, NULL) : pump_head(pc, q);
         sys->y[i] = hs + k * q * q;
     }
-    double Q, H;
+    double Q = NAN, H;
     int count = 0;
-    if (pump_operating_point(pc, hs, k, &Q, &H, &count) == PUMP_OK) {
+    bool met = cd ? curve_pump_crossing(&cd->curve, hs, k, &Q) > 0 : pump_operating_point(pc, hs, k, &Q, &H, &count) == PUMP_OK;
+    H = hs + k * Q * Q;
+    if (met) {
         fd->markers = arena_alloc(cx->arena, sizeof *fd->markers);
         fd->markers[0] = (Marker){Q, H, "operating point"};
         fd->nmarkers = 1;
@@ -503,8 +560,10 @@ bool flow_figure(CallCtx *cx, const Stmt *s, const Value *args, FigureData **out
         ok = figure_moody(cx, s, args, fd);
     else if (strcmp(s->figure, "pump") == 0)
         ok = figure_pump(cx, s, args, fd);
+    else if (strcmp(s->figure, "curve") == 0)
+        ok = figure_curve(cx, s, args, fd);
     else {
-        diag_error(cx->diags, s->name_pos, "unknown figure '%s' (hgl, moody or pump)", s->figure);
+        diag_error(cx->diags, s->name_pos, "unknown figure '%s' (hgl, moody, pump or curve)", s->figure);
         ok = false;
     }
     *out = ok ? fd : NULL;

@@ -32,6 +32,14 @@ const CurveData *curve_of(const Value *v);
 /* The method a curve's interpolation applies. */
 const Method *curve_method(CurveInterp interp);
 
+/* The largest flow Q >= 0 where pump curve c (head in m against m^3/s)
+ * meets H = hs + k*Q^2, and how many crossings there are (0: none). */
+int curve_pump_crossing(const Curve *c, double hs, double k, double *q);
+
+/* operating_point(CURVE, H_static, k) for a tabulated pump curve: the
+ * largest flow where curve(Q) = H_static + k*Q^2, a record Q H. */
+bool curve_operating_point(CallCtx *cx, const CallArgs *a, const CurveData *cd, double hs, double k, Value *out);
+
 /* A device record, curve record (flow against pressure drop or head) or
  * pump record as a Device; reports at `at` ("WHAT must be ...") and returns
  * false for anything else. */

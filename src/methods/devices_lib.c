@@ -15,6 +15,7 @@
 
 #include "builtin_fns.h"
 #include "numfmt.h"
+#include "solve.h"
 
 /* ---- the published methods ------------------------------------------- */
 
@@ -508,3 +509,110 @@ bool device_step(CallCtx *cx, const Device *d, Pos at, double Q, double p_in, do
                show(cx->units, Q, DIM_FLOW, TEMP_NONE, b1, sizeof b1));
     return false;
 }
+
+/* ---- operating point on a tabulated pump curve ---------------------------- */
+
+static const Method METHOD_OPERATING_CURVE = {
+    "pump_operating_point_table",
+    "Pump operating point on a tabulated pump curve",
+    "H_pump = H_static + k*Q^2",
+    "Q >= 0; within the curve's table (beyond it: the end interval extrapolated)",
+    "Intersection of the tabulated pump curve with the system curve H = H_static + k*Q^2, found by "
+    "Brent's method (Brent 1973, ch. 4) in each table interval where the two cross.",
+};
+
+typedef struct Crossing {
+    const Curve *c;
+    double hs, k;
+} Crossing;
+
+static bool crossing_fn(double q, void *ctx, double *f)
+{
+    const Crossing *x = ctx;
+    *f = curve_eval(x->c, q, NULL) - x->hs - x->k * q * q;
+    return isfinite(*f);
+}
+
+/* The largest Q >= 0 where the pump curve c meets H = hs + k*Q^2, scanning
+ * the table's intervals from Q = 0 (or its first point) and one interval as
+ * long again as the table beyond its last point; returns how many
+ * crossings were found (0: none). */
+int curve_pump_crossing(const Curve *c, double hs, double k, double *q_out)
+{
+    Crossing x = {c, hs, k};
+    double lo0 = fmax(0.0, c->x[0]), span = c->x[c->n - 1] - lo0;
+    size_t nb = c->n + 2;
+    double best = NAN;
+    int found = 0;
+    double prev_q = lo0, prev_f;
+    if (!crossing_fn(prev_q, &x, &prev_f))
+        prev_f = NAN;
+    if (prev_f == 0.0) {
+        best = prev_q;
+        found = 1;
+    }
+    for (size_t i = 0; i < nb; i++) {
+        double q = i < c->n ? c->x[i] : c->x[c->n - 1] + span * (double)(i - c->n + 1);
+        if (!(q > prev_q))
+            continue;
+        double f;
+        if (!crossing_fn(q, &x, &f))
+            break;
+        if (f == 0.0) {
+            best = q;
+            found++;
+        } else if (isfinite(prev_f) && prev_f != 0.0 && (f < 0) != (prev_f < 0)) {
+            SolveReport rep = solve_brent(crossing_fn, &x, prev_q, q, 1e-15 * fmax(q, 1e-12));
+            if (rep.status == SOLVE_OK) {
+                best = rep.root;
+                found++;
+            }
+        }
+        prev_q = q;
+        prev_f = f;
+    }
+    *q_out = best;
+    return found;
+}
+
+bool curve_operating_point(CallCtx *cx, const CallArgs *a, const CurveData *cd, double hs, double k, Value *out)
+{
+    char b1[96], b2[96], b3[96];
+    if (!dim_eq(cd->x_dim, DIM_FLOW) || !dim_eq(cd->y_dim, DIM_L)) {
+        char xs[96], ys[96];
+        dim_describe(cd->x_dim, cd->x_temp, cx->units, xs, sizeof xs);
+        dim_describe(cd->y_dim, cd->y_temp, cx->units, ys, sizeof ys);
+        diag_error(cx->diags, arg_at(a, 0), "%s: a pump curve gives head (a length) against flow; curve '%s' gives %s against %s",
+                   a->name, cd->name, ys, xs);
+        return false;
+    }
+    const Curve *c = &cd->curve;
+    double best = NAN;
+    int found = curve_pump_crossing(c, hs, k, &best);
+    if (!found) {
+        diag_error(cx->diags, a->pos,
+                   "%s: the pump curve '%s' and the system curve H = H_static + k*Q^2 do not meet at Q >= 0 "
+                   "(pump head %s at the first point, static head %s)",
+                   a->name, cd->name, show(cx->units, c->y[0], DIM_L, TEMP_NONE, b1, sizeof b1),
+                   show(cx->units, hs, DIM_L, TEMP_NONE, b2, sizeof b2));
+        return false;
+    }
+    call_use_method(cx, curve_method(c->interp));
+    call_use_method(cx, &METHOD_OPERATING_CURVE);
+    if (found > 1)
+        diag_warning(cx->diags, a->pos, "%s: the curves meet %d times at Q >= 0; the largest flow %s is taken", a->name,
+                     found, show(cx->units, best, DIM_FLOW, TEMP_NONE, b1, sizeof b1));
+    if (curve_side(c, best))
+        diag_warning(cx->diags, a->pos,
+                     "%s: the operating point Q = %s is outside the pump curve's table (%s to %s); the end interval is "
+                     "extrapolated",
+                     a->name, show(cx->units, best, DIM_FLOW, TEMP_NONE, b1, sizeof b1),
+                     show(cx->units, c->x[0], DIM_FLOW, TEMP_NONE, b2, sizeof b2),
+                     show(cx->units, c->x[c->n - 1], DIM_FLOW, TEMP_NONE, b3, sizeof b3));
+    Record *r = record_new(cx->arena, "operating_point", 2);
+    record_set(r, 0, "Q", value_hinted(qty(best, DIM_FLOW), "gal/min", "L/s"));
+    record_set(r, 1, "H", value_hinted(qty(hs + k * best * best, DIM_L), "ft", "m"));
+    *out = (Value){.kind = VAL_RECORD, .rec = r};
+    return true;
+}
+

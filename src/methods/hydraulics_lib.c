@@ -10,6 +10,7 @@
  * a valid input outside a correlation's fitted range is a warning. */
 #include "library.h"
 
+#include "methods/devices_lib.h"
 #include "methods/friction.h"
 #include "methods/pumps.h"
 #include "methods/ratings.h"
@@ -1005,6 +1006,21 @@ bool fn_operating_point(CallCtx *cx, const CallArgs *a, Value *out)
 {
     const Record *pump;
     double Hs, k;
+    const CurveData *cd = a->n > 0 ? curve_of(&a->args[0]) : NULL;
+    if (cd) {
+        /* a tabulated pump curve (```curve NAME) */
+        if (!arg_number(cx, a, 1, DIM_L, "static head", &Hs) ||
+            !arg_number(cx, a, 2, dim_div(DIM_L, dim_flow2()), "system coefficient k", &k))
+            return false;
+        if (!(k >= 0.0) || !isfinite(k)) {
+            char b1[64];
+            diag_error(cx->diags, arg_at(a, 2),
+                       "%s: k must be zero or positive (system head rises with flow), found %s", a->name,
+                       show_num(k, b1, sizeof b1));
+            return false;
+        }
+        return curve_operating_point(cx, a, cd, Hs, k, out);
+    }
     if (!arg_record(cx, a, 0, "pump", "pump curve", &pump) ||
         !arg_number(cx, a, 1, DIM_L, "static head", &Hs) ||
         !arg_number(cx, a, 2, dim_div(DIM_L, dim_flow2()), "system coefficient k", &k))

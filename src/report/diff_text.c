@@ -194,6 +194,9 @@ static void stmt_text(const Evaluated *ev, const Stmt *s, StrBuf *out)
     case STMT_PATH:
         sb_printf(out, "path %s (%zu segments)", s->name, s->path ? s->path->nsegs : (size_t)0);
         break;
+    case STMT_CURVE:
+        sb_printf(out, "curve %s (%zu points)", s->name, s->curve ? s->curve->npoints : (size_t)0);
+        break;
     default:
         break;
     }

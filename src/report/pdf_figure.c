@@ -307,6 +307,7 @@ static size_t legend_entries(Pdf *P, const FigureData *fd, const Axis *ax, Legen
                                  strcmp(fd->kind, "moody") == 0 ? "operating points of the calc"
                                  : fd->nmarkers == 1            ? fd->markers[0].label
                                  : strcmp(fd->kind, "hgl") == 0 ? "minimum pressure; devices in the path"
+                                 : strcmp(fd->kind, "curve") == 0 ? "points of the table"
                                                                 : "marked points"};
     return n;
 }
@@ -530,6 +531,8 @@ static const char *default_caption(const Pdf *P, const Stmt *st)
         return "Darcy friction factor against Reynolds number";
     if (strcmp(st->figure, "pump") == 0)
         return arena_printf(a, "Pump curve of %s and system curve", arg);
+    if (strcmp(st->figure, "curve") == 0)
+        return arena_printf(a, "Curve %s with its table points", arg);
     return st->figure;
 }
 

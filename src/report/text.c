@@ -272,6 +272,43 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
         sb_printf(out, "      method: %s\n", r->methods[k]->title);
 }
 
+/* A table a statement laid out (a curve's points, select_pipe's
+ * candidates): a heading line, the column heads and units, a row a line. */
+static void put_table(const Evaluated *ev, const ResultTable *t, StrBuf *out)
+{
+    sb_printf(out, "  %s\n ", t->title);
+    for (size_t k = 0; k < t->ncols; k++)
+        sb_printf(out, " %12s", t->heads[k]);
+    sb_puts(out, "\n ");
+    for (size_t k = 0; k < t->ncols; k++)
+        sb_printf(out, " %12s", strcmp(t->units[k].text, "1") == 0 ? "" : t->units[k].text);
+    sb_putc(out, '\n');
+    for (size_t r = 0; r < t->nrows; r++) {
+        sb_putc(out, ' ');
+        for (size_t k = 0; k < t->ncols; k++) {
+            const Value *v = &t->cells[r * t->ncols + k];
+            char num[48] = "";
+            if (v->kind == VAL_NUMBER)
+                num_sig(unit_from_si(v->q.si, &t->units[k], v->q.temp == TEMP_NONE), ev->digits, num, sizeof num);
+            sb_printf(out, " %12s", v->kind == VAL_STRING ? v->str : num);
+        }
+        sb_putc(out, '\n');
+    }
+}
+
+static void put_curve(const Evaluated *ev, const Stmt *s, const StmtResult *r, StrBuf *out)
+{
+    sb_printf(out, "curve %s", s->name);
+    if (r->state != RES_OK || !r->table) {
+        sb_puts(out, " = (not evaluated)\n");
+        return;
+    }
+    sb_printf(out, ": %zu points, %s interpolation\n", s->curve->npoints, s->curve->loglog ? "log-log" : "linear");
+    put_table(ev, r->table, out);
+    for (size_t k = 0; k < r->nmethods; k++)
+        sb_printf(out, "      method: %s\n", r->methods[k]->title);
+}
+
 /* A figure in the listing is its data, a small table per series. */
 static void put_figure(const Evaluated *ev, const Stmt *s, const StmtResult *r, StrBuf *out)
 {
@@ -304,7 +341,8 @@ static void put_figure(const Evaluated *ev, const Stmt *s, const StmtResult *r, 
         char x[40], y[40];
         num_sig(unit_from_si(fd->markers[k].x, &fd->x_unit, true), ev->digits, x, sizeof x);
         num_sig(unit_from_si(fd->markers[k].y, &fd->y_unit, true), ev->digits, y, sizeof y);
-        sb_printf(out, "  point %s: (%s, %s)\n", fd->markers[k].label, x, y);
+        const char *label = fd->markers[k].label ? fd->markers[k].label : "";
+        sb_printf(out, "  point%s%s: (%s, %s)\n", label[0] ? " " : "", label, x, y);
     }
 }
 
@@ -356,6 +394,9 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
     switch (s->kind) {
     case STMT_PATH:
         put_path(ev, s, r, out);
+        return;
+    case STMT_CURVE:
+        put_curve(ev, s, r, out);
         return;
     case STMT_FIGURE:
         put_figure(ev, s, r, out);
@@ -413,6 +454,8 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
         if (r->state == RES_OK)
             put_methods(r, out);
         sb_putc(out, '\n');
+        if (r->state == RES_OK && r->table)
+            put_table(ev, r->table, out);
         return;
     }
     case STMT_SOLVE: {
@@ -522,6 +565,7 @@ static void put_blocks(const Evaluated *ev, const Block *b, StrBuf *out)
             break;
         case BLK_CALC:
         case BLK_PATH:
+        case BLK_CURVE:
             for (size_t i = 0; i < b->nstmts; i++)
                 put_statement(ev, ev->doc->stmts[b->first_stmt + i], out);
             break;
