@@ -277,20 +277,30 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
 static void put_table(const Evaluated *ev, const ResultTable *t, StrBuf *out)
 {
     sb_printf(out, "  %s\n ", t->title);
-    for (size_t k = 0; k < t->ncols; k++)
-        sb_printf(out, " %12s", t->heads[k]);
+    int w[16];
+    for (size_t k = 0; k < t->ncols && k < 16; k++) {
+        size_t n = strlen(t->heads[k]);
+        for (size_t r = 0; r < t->nrows; r++) {
+            const Value *v = &t->cells[r * t->ncols + k];
+            if (v->kind == VAL_STRING && strlen(v->str) > n)
+                n = strlen(v->str);
+        }
+        w[k] = n > 12 ? (int)n : 12;
+    }
+    for (size_t k = 0; k < t->ncols && k < 16; k++)
+        sb_printf(out, " %*s", w[k], t->heads[k]);
     sb_puts(out, "\n ");
-    for (size_t k = 0; k < t->ncols; k++)
-        sb_printf(out, " %12s", strcmp(t->units[k].text, "1") == 0 ? "" : t->units[k].text);
+    for (size_t k = 0; k < t->ncols && k < 16; k++)
+        sb_printf(out, " %*s", w[k], strcmp(t->units[k].text, "1") == 0 ? "" : t->units[k].text);
     sb_putc(out, '\n');
     for (size_t r = 0; r < t->nrows; r++) {
         sb_putc(out, ' ');
-        for (size_t k = 0; k < t->ncols; k++) {
+        for (size_t k = 0; k < t->ncols && k < 16; k++) {
             const Value *v = &t->cells[r * t->ncols + k];
             char num[48] = "";
             if (v->kind == VAL_NUMBER)
                 num_sig(unit_from_si(v->q.si, &t->units[k], v->q.temp == TEMP_NONE), ev->digits, num, sizeof num);
-            sb_printf(out, " %12s", v->kind == VAL_STRING ? v->str : num);
+            sb_printf(out, " %*s", w[k], v->kind == VAL_STRING ? v->str : num);
         }
         sb_putc(out, '\n');
     }
