@@ -8,8 +8,9 @@
  * 2000), in the fluid given by fluid= or, without it, water at 60 degF
  * (15.56 degC) and one atmosphere from IAPWS-IF97 and IAPWS 2008. The first
  * size within every limit given is returned as a pipe record (with its V and
- * S), and the sizes tried, each with its V, S and verdict, go to the report
- * as a table. A limit is met when the value is at most the limit. */
+ * S), and the sizes tried, each with its V, S and verdict ("too fast", "too
+ * steep", both, or "selected"), go to the report as a table. A limit is met
+ * when the value is at most the limit. */
 #include "library.h"
 
 #include <math.h>
@@ -157,7 +158,7 @@ bool fn_select_pipe(CallCtx *cx, const CallArgs *a, Value *out)
         }
         rho = r->q.si;
         mu = m->q.si;
-        fluid_text = "the fluid given (fluid=)";
+        fluid_text = "the water given";
     } else {
         WaterProps w;
         if (water_props((60.0 - 32.0) * 5.0 / 9.0 + 273.15, WATER_P_DEFAULT, &w) != WATER_OK)
@@ -243,9 +244,9 @@ bool fn_select_pipe(CallCtx *cx, const CallArgs *a, Value *out)
         double S = f / d.id * V * V / (2 * WATER_G);
         bool v_ok = V <= V_max, s_ok = S <= S_max;
         const char *verdict = v_ok && s_ok ? "selected"
-                              : !v_ok && !s_ok ? "over V_max and S_max"
-                              : !v_ok          ? "over V_max"
-                                               : "over S_max";
+                              : !v_ok && !s_ok ? "too fast and too steep"
+                              : !v_ok          ? "too fast"
+                                               : "too steep";
         Value *row = &cells[nrows * 5];
         row[0] = value_string(d.row->nps);
         row[1] = value_number(qty(d.id, DIM_L));
@@ -302,16 +303,17 @@ bool fn_select_pipe(CallCtx *cx, const CallArgs *a, Value *out)
     char lim[200] = "";
     size_t len = 0;
     if (vv)
-        len += (size_t)snprintf(lim + len, sizeof lim - len, "V_max %s", show(cx->units, V_max, DIM_VELOCITY, b1, sizeof b1));
+        len += (size_t)snprintf(lim + len, sizeof lim - len, "velocity at most %s",
+                                show(cx->units, V_max, DIM_VELOCITY, b1, sizeof b1));
     if (sv) {
         Unit u = S_unit;
         char num[48];
         num_sig(unit_from_si(sv->q.si, &u, true), 4, num, sizeof num);
         bool unitless = !u.text[0] || strcmp(u.text, "1") == 0;
-        snprintf(lim + len, sizeof lim - len, "%sS_max %s%s%s", vv ? ", " : "", num, unitless ? "" : " ",
-                 unitless ? "" : u.text);
+        snprintf(lim + len, sizeof lim - len, "%sfriction gradient at most %s%s%s", vv ? ", " : "", num,
+                 unitless ? "" : " ", unitless ? "" : u.text);
     }
-    t->title = arena_printf(cx->arena, "Sizes tried, %s class %s at %s (%s; friction in %s)", s->name,
+    t->title = arena_printf(cx->arena, "Sizes tried, %s %s at %s (%s; friction for %s)", s->name,
                             pick.row->cls, show(cx->units, Q, DIM_FLOW, b2, sizeof b2), lim, fluid_text);
     t->ncols = 5;
     t->nrows = nrows;
