@@ -301,14 +301,23 @@ static double fn_path_summary(Pdf *P, const Item *it, double top)
                   {"Lowest pressure", "p_min", "p_min", where},
                   {"Highest velocity", "V_max", "V_max", NULL},
                   {"Total head loss", "loss", "h_L", "friction and fittings"}};
-        /* two entries a line, in two columns */
-        for (int i = 0; i < 4; i += 2) {
+        /* two entries a line, in two columns; one a line when an entry is
+         * wider than its column (a long segment id in a remark) */
+        MathBox *box[4] = {0};
+        bool wide = false;
+        for (int j = 0; j < 4; j++) {
+            const Value *v = record_get(rec, e[j].field);
+            if (v)
+                box[j] = summary_entry(P, e[j].words, e[j].sym, v, e[j].remark, size);
+            wide = wide || (box[j] && box[j]->w > W / 2 - 8);
+        }
+        int per = wide ? 1 : 2;
+        for (int i = 0; i < 4; i += per) {
             double h = 0;
-            for (int j = i; j < i + 2; j++) {
-                const Value *v = record_get(rec, e[j].field);
-                if (!v)
+            for (int j = i; j < i + per; j++) {
+                MathBox *b = box[j];
+                if (!b)
                     continue;
-                MathBox *b = summary_entry(P, e[j].words, e[j].sym, v, e[j].remark, size);
                 if (P->page)
                     mbox_draw(b, &P->painter, x + 4 + (j - i) * W / 2, y - b->h - 1);
                 h = fmax(h, b->h + b->d + 3);
