@@ -35,12 +35,7 @@ static void cell_text(const Pdf *P, const ResultTable *t, size_t r, size_t k, ch
         snprintf(buf, n, "—");
         return;
     }
-    num_sig(unit_from_si(v->q.si, &t->units[k], v->q.temp == TEMP_NONE), P->env.digits, buf, n);
-    if (buf[0] == '-') {
-        char m[64];
-        snprintf(m, sizeof m, "−%s", buf + 1);
-        snprintf(buf, n, "%s", m);
-    }
+    num_typeset(unit_from_si(v->q.si, &t->units[k], v->q.temp == TEMP_NONE), P->env.digits, buf, n);
 }
 
 /* Column edges: each column as wide as its widest entry, the table as wide
