@@ -84,7 +84,7 @@ $(BUILD)/tests/%: tests/unit/%.c $(SAN_LIB_OBJ)
 	$(CC) $(ALL_CFLAGS) -O1 $(SAN) $< $(SAN_LIB_OBJ) -o $@ $(LIBS) -lcmocka
 
 # The report's fixed texts, compiled in from templates/ (the output is committed).
-src/starters.inc: $(wildcard templates/starters/*.calc.md) templates/gen-starters.sh
+src/starters.inc: $(wildcard templates/starters/*.calc.md templates/starters/package/*.calc.md) templates/gen-starters.sh
 	templates/gen-starters.sh > $@
 
 src/report/pdf_texts.inc: templates/cautions.md templates/gen-texts.sh
@@ -97,8 +97,9 @@ unit-tests: $(UNIT_TESTS)
 # sheets (pdftoppm), all under build/demo/.
 demo: $(BUILD)/headroom
 	@mkdir -p $(BUILD)/demo
-	@set -e; for f in examples/*.calc.md; do \
+	@set -e; for f in examples/*.calc.md examples/*/index.calc.md; do \
 	  base=$$(basename $$f .calc.md); \
+	  [ "$$base" != index ] || base=$$(basename $$(dirname $$f)); \
 	  echo "== $$f"; \
 	  $(BUILD)/headroom check $$f || [ $$? -eq 1 ]; \
 	  $(BUILD)/headroom build $$f --format text -o $(BUILD)/demo/$$base.txt; \

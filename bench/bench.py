@@ -108,6 +108,38 @@ def calc_100_sheets():
     return path
 
 
+def package_50():
+    """A package of 50 parts of 100 statements each, all using one basis of
+    design: every part reads the basis's water and supply pressure."""
+    d = os.path.join(OUT, "package50")
+    os.makedirs(d, exist_ok=True)
+    with open(os.path.join(d, "basis.calc.md"), "w") as f:
+        f.write("---\ntitle: Basis\nunits: US\n---\n\n```calc\nw = water(55 degF)\n"
+                "p_supply = 80 psi\nV_limit = 8 ft/s\n```\n")
+    parts = []
+    for p in range(50):
+        lines = ["---", f"title: Part {p}", f"number: B-{p}", f"subject: Line {p} of the benchmark",
+                 "units: US", "---", "", f"# Line {p}", "", "```calc",
+                 'basis = use("basis.calc.md")',
+                 f"Q = {40 + p} gal/min", f"D = {2 + (p % 4) * 0.5} in", "A = pi*D^2/4",
+                 "V = Q/A as ft/s", "Re = basis.w.rho*V*D/basis.w.mu",
+                 "f = friction_factor(Re, (0.00005 in)/D)", "L = 100 ft",
+                 "h = f*(L/D)*V^2/(2*g) as ft"]
+        for k in range(89):
+            lines.append(f"x_{k} = h*{k + 1} + {k} ft  # derived value {k}")
+        lines += ["check velocity: V <= basis.V_limit",
+                  "check pressure: basis.w.rho*g*h <= basis.p_supply", "```", ""]
+        name = f"part{p:02d}.calc.md"
+        with open(os.path.join(d, name), "w") as f:
+            f.write("\n".join(lines) + "\n")
+        parts.append(name)
+    index = os.path.join(d, "index.calc.md")
+    with open(index, "w") as f:
+        f.write("---\ntitle: Benchmark package\nunits: US\nparts:\n" +
+                "".join(f"  - {n}\n" for n in parts) + "---\n\nFifty parts.\n")
+    return index
+
+
 def pdf_pages(path):
     try:
         out = subprocess.run(["pdfinfo", path], capture_output=True, text=True).stdout
@@ -141,6 +173,15 @@ def main():
     pages = pdf_pages(pdf)
     size = os.path.getsize(pdf) / 1024.0 if os.path.exists(pdf) else 0
     rows.append((f"build, {pages} sheets ({size:.0f} KB)", f"{t * 1000:.1f} ms", f"{m:.1f} MB", "< 1 s, < 64 MB"))
+
+    index = package_50()
+    t, m = run([HEADROOM, "check", index], repeat=3)
+    rows.append(("check, package of 50 parts x 100 statements", f"{t * 1000:.1f} ms", f"{m:.1f} MB",
+                 "(figure only)"))
+    ppdf = os.path.join(OUT, "package50.pdf")
+    t, m = run([HEADROOM, "build", index, "-o", ppdf], repeat=2)
+    rows.append((f"build, that package ({pdf_pages(ppdf)} sheets)", f"{t * 1000:.1f} ms", f"{m:.1f} MB",
+                 "(figure only)"))
 
     out = subprocess.run([os.path.join(OUT, "colebrook")], capture_output=True, text=True).stdout.strip()
     per = [l for l in out.splitlines() if "per solve" in l]

@@ -24,6 +24,7 @@ enum {
     MARKDOWN_MAX_DEPTH = 64,            /* nested block quotes, lists and inline emphasis */
     DOC_MAX_STATEMENTS = 100000,        /* statements of a file, all calc blocks and paths */
     PATH_MAX_SEGMENTS = 10000,          /* rows of one path table */
+    CURVE_MAX_POINTS = 10000,           /* rows of one curve table */
     CASES_MAX_ROWS = 1000,              /* rows of one cases table */
     CASES_MAX_WORK = 2000000,           /* rows x statements over all cases tables */
     SOLVE_MAX_ITERATIONS = 1500,        /* Brent iterations of one solve: enough to bisect
@@ -33,7 +34,11 @@ enum {
     LSP_MAX_MESSAGE = 32 * 1024 * 1024, /* bytes of one language-server message body */
     LSP_MAX_HEADER_LINE = 1024,         /* bytes of one header line of a message */
     LSP_MAX_DOCUMENTS = 64,             /* calcs open in one language server at once */
-    LSP_MAX_OPEN_BYTES = 64 * 1024 * 1024 /* text of all the open calcs together */
+    LSP_MAX_OPEN_BYTES = 64 * 1024 * 1024, /* text of all the open calcs together */
+    USE_MAX_DEPTH = 16,                 /* files in a chain of use("...") (a uses b uses c ...) */
+    USE_MAX_FILES = 1000,               /* distinct files used in one run, over every part */
+    USE_MAX_BYTES = 64 * 1024 * 1024,   /* source bytes of every used file of one run */
+    PACKAGE_MAX_PARTS = 500             /* calc files in one package index's `parts:` list */
 };
 
 #endif

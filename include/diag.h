@@ -52,5 +52,14 @@ void diag_print(FILE *out, const DiagList *dl, const char *text, size_t text_len
  * escapes (`\x1b`, `\u202e`), so text from a file or a command line never
  * drives the terminal. diag_print escapes every line and message this way. */
 void diag_print_escaped(FILE *out, const char *s);
+/* The same when the diagnostics fall in several files (a calc and the files
+ * it uses): each is shown with the line of the source whose `file` matches
+ * its position's. */
+typedef struct DiagSource {
+    const char *file;
+    const char *text;
+    size_t len;
+} DiagSource;
+void diag_print_sources(FILE *out, const DiagList *dl, const DiagSource *src, size_t nsrc, bool color);
 
 #endif

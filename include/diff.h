@@ -118,6 +118,19 @@ typedef struct BlockMark {
     DiffMark mark;
 } BlockMark;
 
+/* A used calc file whose bytes differ (or that only one side uses), matched
+ * by its path relative to the using calc. `moved` lists the results (indices
+ * into Diff.results) that read it, directly or through another used file. */
+typedef enum UseChangeKind { USE_CHANGED, USE_ADDED, USE_REMOVED } UseChangeKind;
+
+typedef struct UseChange {
+    UseChangeKind kind;
+    const char *name;        /* relative to the using calc: "basis.calc.md" */
+    const char *old_digest, *new_digest;   /* NULL on the side that lacks it */
+    size_t *moved;
+    size_t nmoved;
+} UseChange;
+
 typedef struct Diff {
     Arena arena;
     const Evaluated *old_ev, *new_ev;
@@ -129,6 +142,7 @@ typedef struct Diff {
     StmtChange *stmts;      size_t nstmts;     /* renamed, added (order of NEW), removed (order of OLD) */
     CiteChange *cites;      size_t ncites;
     ProseChange *prose;     size_t nprose;
+    UseChange *uses;        size_t nuses;      /* used files whose digest changed, order of NEW */
     DiffMark *stmt_marks;   /* one per statement of NEW */
     BlockMark *block_marks; /* prose blocks of NEW (top level), sorted by address */
     size_t nblock_marks;
@@ -136,6 +150,13 @@ typedef struct Diff {
     int *new_to_old;
     bool changed;           /* anything above that is not display-only */
 } Diff;
+
+/* One part of two package revisions, matched by its entry of `parts:`. */
+typedef struct PartDiff {
+    const char *file;        /* as listed in parts: */
+    const Diff *diff;        /* NULL when the part is only on one side */
+    bool added, removed;
+} PartDiff;
 
 /* Compare two evaluated documents that had no errors. */
 Diff *diff_compute(const Evaluated *old_ev, const Evaluated *new_ev, const DiffOptions *opt);
@@ -150,5 +171,10 @@ DiffMark diff_block_mark(const Diff *d, const Block *b);
  * README). False on a write error. */
 bool render_diff_text(const Diff *d, FILE *out);
 bool render_diff_json(const Diff *d, FILE *out);
+/* `diff` of two package indexes: the index's own changes, then every part
+ * under a line "== part.calc.md" (JSON: {old, new, changed, index, parts:
+ * [{file, change, diff}]}, change one of same, changed, added, removed). */
+bool render_package_diff_text(const Diff *index, const PartDiff *parts, size_t n, FILE *out);
+bool render_package_diff_json(const Diff *index, const PartDiff *parts, size_t n, FILE *out);
 
 #endif

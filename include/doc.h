@@ -69,7 +69,8 @@ typedef enum StmtKind {
     STMT_CHECK,  /* check LABEL: A OP B                            */
     STMT_NOTE,   /* a whole-line comment                           */
     STMT_PATH,   /* a ```path NAME block: binds the record NAME    */
-    STMT_FIGURE  /* figure KIND(args)  # caption                   */
+    STMT_FIGURE, /* figure KIND(args)  # caption                   */
+    STMT_CURVE   /* a ```curve NAME block: binds the curve NAME    */
 } StmtKind;
 
 /* One entry of a path's fittings cell: "2 elbow 90 std". */
@@ -85,6 +86,8 @@ typedef struct PathSegment {
     const char *field;       /* its record field name ("S_1") */
     Pos pos;
     Expr *flow, *pipe, *length, *rise, *K, *C;
+    Expr *device;            /* a device at the segment's outlet (DESIGN 2.10) */
+    const char *device_text; /* its cell as written */
     FittingItem *fittings;
     size_t nfittings;
 } PathSegment;
@@ -101,6 +104,16 @@ typedef struct PathSpec {
     PathSegment *segs;
     size_t nsegs;
 } PathSpec;
+
+/* A ```curve NAME block (DESIGN 2.10): an interpolate: line and a
+ * two-column table, the argument and the value, one point a row. */
+typedef struct CurveSpec {
+    bool loglog;             /* interpolate: loglog (default linear) */
+    const char *x_head, *y_head;   /* the column headings as written */
+    Expr **x, **y;           /* npoints cells each */
+    Pos *row_pos;
+    size_t npoints;
+} CurveSpec;
 
 typedef enum CmpOp { CMP_LE, CMP_LT, CMP_GE, CMP_GT } CmpOp;
 
@@ -133,6 +146,7 @@ typedef struct Stmt {
     Cite *cites;
     size_t ncites;
     PathSpec *path;          /* PATH */
+    CurveSpec *curve;        /* CURVE */
     const char *figure;      /* FIGURE: hgl, moody or pump */
     Expr **args;             /* FIGURE: its arguments */
     size_t nargs;
@@ -183,6 +197,7 @@ typedef enum BlockKind {
     BLK_HTML,
     BLK_CALC,                /* ```calc: statements [first_stmt, first_stmt + nstmts) */
     BLK_PATH,                /* ```path NAME: one statement, first_stmt */
+    BLK_CURVE,               /* ```curve NAME: one statement, first_stmt */
     BLK_CASES,               /* ```cases: Document.cases[first_stmt] */
     BLK_SOURCES              /* ```sources */
 } BlockKind;
@@ -214,6 +229,12 @@ typedef struct Revision {
     const char *rev, *date, *by, *note;
 } Revision;
 
+/* One entry of a package index's `parts:` list (DESIGN 2.13). */
+typedef struct Part {
+    const char *file;        /* as written, relative to the index */
+    Pos pos;
+} Part;
+
 typedef enum Paper { PAPER_LETTER, PAPER_A4 } Paper;
 
 typedef struct Meta {
@@ -226,6 +247,9 @@ typedef struct Meta {
     const char *code;        /* `code:` the model plumbing code's key ("IPC 2018"); NULL: the default */
     Revision *revisions;
     size_t nrevisions;
+    Part *parts;             /* a package index: its calc files, in order */
+    size_t nparts;
+    bool has_parts;          /* the key was given (an index, even with an empty list) */
     bool present;            /* the file had front matter */
 } Meta;
 
@@ -258,6 +282,8 @@ typedef struct CaseTable {
 /* ---- the document ------------------------------------------------------ */
 
 typedef struct NameTable NameTable;
+struct UseSet;
+
 
 typedef struct Document {
     Arena arena;
@@ -276,6 +302,8 @@ typedef struct Document {
     NameTable *names;        /* name -> statement slot */
     size_t *line_start;      /* byte offset of each line (index 0 = line 1) */
     size_t nlines;
+    bool from_git;           /* read as REV:path: its uses are read from the same revision */
+    struct UseSet *own_uses; /* the used files of eval_document() without a shared set */
 } Document;
 
 /* Read a whole calc file (or standard input for "-") into a Document: front
@@ -295,6 +323,16 @@ const char *cmp_op_text(CmpOp op, bool typeset);
  * a callable record)? Such an expression has a substituted form worth
  * showing; pi and literals alone do not. */
 bool expr_reads_names(const Expr *e);
+
+/* The file a `NAME = use("file.calc.md")` statement reads, as written; NULL
+ * for any other statement. Lets tools list a document's uses without
+ * evaluating it. */
+const char *doc_stmt_use(const Stmt *s);
+
+/* Does the expression substitute to nothing more than its own value (a name,
+ * a field, a literal, perhaps negated or in parentheses)? A row whose sides
+ * are all simple needs no line of substituted values. */
+bool expr_is_simple(const Expr *e);
 
 /* Name table: NULL/-1 when absent. */
 int doc_lookup(const Document *doc, const char *name);

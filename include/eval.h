@@ -28,7 +28,12 @@ typedef struct SegmentResult {
     double V, Re, f, K;      /* K: fittings plus the K column */
     double h_f, h_m;         /* friction and fitting head loss */
     double dp_static;        /* rho*g*rise */
-    double p_in, p_out;
+    bool has_device;         /* a device at the outlet (DESIGN 2.10) */
+    const char *device;      /* its cell as written */
+    int device_status;       /* its DeviceStatus (methods/devices.h) */
+    double p_device_in;      /* static pressure just before the device */
+    double dp_device;        /* static drop across it (negative: a pump's gain); 0 without */
+    double p_in, p_out;      /* p_out: after the device, if any */
     double x_in, x_out;      /* distance along the path */
     double z_in, z_out;      /* elevation */
 } SegmentResult;
@@ -40,6 +45,8 @@ typedef struct PathResult {
     double p_end, p_min, V_max, loss;
     size_t p_min_seg;        /* the segment whose outlet (or first inlet) is lowest */
     bool p_min_at_inlet;
+    bool p_min_before_device;/* the lowest is just before that segment's device */
+    size_t ndevices;
 } PathResult;
 
 /* A figure's data, in SI; the renderers convert with x_unit / y_unit. */
@@ -67,6 +74,15 @@ typedef struct FigureData {
     double band_lo, band_hi; /* a shaded band along x (NAN when none) */
 } FigureData;
 
+/* A value an equation read, as it stood where the row's result was found:
+ * a solve records what its equation reads at the root, so the row can show
+ * the equation substituted there (never at the trial value). */
+typedef struct ReadValue {
+    int slot;
+    Value value;
+    Unit shown;
+} ReadValue;
+
 typedef struct StmtResult {
     ResultState state;
     Value value;             /* DEF, SOLVE: the bound value */
@@ -77,7 +93,10 @@ typedef struct StmtResult {
     bool holds;              /* CHECK */
     double utilization;      /* CHECK: lhs/rhs for <, <=; rhs/lhs for >, >= */
     SolveReport solve;       /* SOLVE */
+    const ReadValue *at_root;/* SOLVE: every name the equation reads, at the root */
+    size_t nat_root;
     const PathResult *path;  /* PATH */
+    const ResultTable *table;/* CURVE: its points; DEF: a table a function laid out */
     const FigureData *figure;/* FIGURE */
     const Method *methods[CALL_MAX_METHODS];  /* published methods the line used */
     size_t nmethods;
@@ -115,16 +134,40 @@ typedef struct Evaluated {
     CaseResult *cases;       /* doc->ncases */
     size_t ncases;
     size_t case_rows_failing;/* over every case table: rows where a check fails */
+    struct UseSet *uses;     /* where used calcs are cached (uses.h) */
+    const struct UsedFile **used; /* every file it used, directly or through another, in order */
+    size_t nused;
 } Evaluated;
 
-/* Evaluate every statement. Errors and validity warnings go to `diags`. */
+/* Evaluate every statement. Errors and validity warnings go to `diags`.
+ * Used calcs are cached in a set the document owns. */
 Evaluated *eval_document(Document *doc, DiagList *diags);
+/* The same with a set shared by several documents (a package's parts), so
+ * a file they all use is read and evaluated once. The set must outlive the
+ * Evaluated. */
+Evaluated *eval_document_in(Document *doc, struct UseSet *uses, DiagList *diags);
+
+/* The value an expression that only names a value shows (a name, or fields
+ * of a record read with '.', however deep: basis.w.rho); NULL otherwise.
+ * `shown` gets the unit it is shown in. For renderers' substitutions. */
+const Value *eval_named_value(const Evaluated *ev, const Expr *e, Unit *shown);
+/* The same as row `row` substitutes it (a solve row: at its root; see eval_read). */
+const Value *eval_named_value_at(const Evaluated *ev, const StmtResult *row, const Expr *e,
+                                 Unit *shown);
 
 /* Re-evaluate, in order, the statements that depend (directly or through
  * others) on any slot in `changed`, stopping before statement `upto`. The
  * caller has already stored the new values of the changed slots. Used by
  * `solve` and by parametric cases. */
 void eval_recompute(Evaluated *ev, const int *changed, size_t nchanged, size_t upto, DiagList *diags);
+
+/* The built-in constants pi and g (SLOT_PI, SLOT_G): true with the value. */
+bool eval_constant(int slot, Value *out);
+
+/* The value of statement `slot` as row `row` substitutes it: a solve row
+ * reads the values at its root, any other row (or NULL) the statement's own
+ * result. NULL when there is no value to show; *shown gets its unit. */
+const Value *eval_read(const Evaluated *ev, const StmtResult *row, int slot, Unit *shown);
 
 /* The unit a number is shown in: `as` wins, then the value's hint for the
  * document's unit system, then the system's default for the dimension. */

@@ -31,6 +31,19 @@ struct Diff;
 bool render_pdf_since(const Evaluated *ev, const struct Diff *since, const char *since_label,
                       const char *path, DiagList *diags);
 
+/* A package (package.h): the text listing of every part in order under the
+ * package's heading, and the one PDF of DESIGN 2.13 — the package cover
+ * (every check of every part, the governing one across the package, the
+ * index's revision table, one seal box, the cautions), a contents table,
+ * then each part's sheets with its own title block, references, design
+ * criteria and source appendix, numbered "Sheet N of M" through the whole
+ * package. `since` (may be NULL) holds one Diff per part, NULL for a part
+ * new since revision `since_label`. */
+struct Package;
+bool render_package_text(const struct Package *pkg, FILE *out);
+bool render_package_pdf(const struct Package *pkg, const struct Diff *const *since,
+                        const char *since_label, const char *path, DiagList *diags);
+
 /* How a name is shown: a leading Greek word becomes the letter and the part
  * after the first '_' a subscript: "rho_w" -> base "ρ", sub "w"; "h_f" ->
  * "h", "f". Delta is the difference operator, so "Delta_z" -> base "Δz" and

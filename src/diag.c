@@ -187,15 +187,42 @@ void diag_print_escaped(FILE *out, const char *s)
 {
     put_escaped(out, s, strlen(s), NULL);
 }
+static void print_one(FILE *out, const Diag *d, const char *text, size_t text_len, bool color,
+                      const char **at, int *at_line);
 
 void diag_print(FILE *out, const DiagList *dl, const char *text, size_t text_len, bool color)
 {
-    static const char *const word[] = {"error", "warning", "note"};
-    static const char *const hue[] = {"\033[1;31m", "\033[1;35m", "\033[1;36m"};
     const char *at = NULL;
+    int at_line = 0;
+    for (size_t i = 0; i < dl->len; i++)
+        print_one(out, &dl->items[i], text, text_len, color, &at, &at_line);
+}
+
+void diag_print_sources(FILE *out, const DiagList *dl, const DiagSource *src, size_t nsrc, bool color)
+{
+    const char *at = NULL, *cur = NULL;
     int at_line = 0;
     for (size_t i = 0; i < dl->len; i++) {
         const Diag *d = &dl->items[i];
+        const DiagSource *s = NULL;
+        for (size_t k = 0; k < nsrc && !s; k++)
+            if (d->pos.file && src[k].file && strcmp(d->pos.file, src[k].file) == 0)
+                s = &src[k];
+        if (!s || s->text != cur) {
+            at = NULL; /* another file: the line cursor starts over */
+            at_line = 0;
+            cur = s ? s->text : NULL;
+        }
+        print_one(out, d, s ? s->text : NULL, s ? s->len : 0, color, &at, &at_line);
+    }
+}
+
+static void print_one(FILE *out, const Diag *d, const char *text, size_t text_len, bool color,
+                      const char **at, int *at_line)
+{
+    static const char *const word[] = {"error", "warning", "note"};
+    static const char *const hue[] = {"\033[1;31m", "\033[1;35m", "\033[1;36m"};
+    {
         const char *file = d->pos.file ? d->pos.file : "headroom";
         fputs(color ? "\033[1m" : "", out);
         diag_print_escaped(out, file);
@@ -209,9 +236,9 @@ void diag_print(FILE *out, const DiagList *dl, const char *text, size_t text_len
         diag_print_escaped(out, d->message);
         fputc('\n', out);
         size_t len = 0;
-        const char *line = find_line(text, text_len, d->pos.line, &len, &at, &at_line);
+        const char *line = find_line(text, text_len, d->pos.line, &len, at, at_line);
         if (!line)
-            continue;
+            return;
         /* Long lines are shown around the column so a 1 MB line stays readable. */
         size_t col = d->pos.col > 0 ? (size_t)d->pos.col - 1 : 0;
         size_t from = 0;

@@ -19,6 +19,7 @@
 #include <string.h>
 
 #include "numfmt.h"
+#include "uses.h"
 
 DiffOptions diff_options_default(void)
 {
@@ -202,7 +203,8 @@ static bool path_same(const Diff *d, const PathSpec *a, const PathSpec *b)
         const PathSegment *x = &a->segs[i], *y = &b->segs[i];
         if (!str_same(x->id, y->id) || x->nfittings != y->nfittings || !expr_same(d, x->flow, y->flow) ||
             !expr_same(d, x->pipe, y->pipe) || !expr_same(d, x->length, y->length) ||
-            !expr_same(d, x->rise, y->rise) || !expr_same(d, x->K, y->K) || !expr_same(d, x->C, y->C))
+            !expr_same(d, x->rise, y->rise) || !expr_same(d, x->K, y->K) || !expr_same(d, x->C, y->C) ||
+            !expr_same(d, x->device, y->device))
             return false;
         for (size_t k = 0; k < x->nfittings; k++)
             if (x->fittings[k].count != y->fittings[k].count || !str_same(x->fittings[k].kind, y->fittings[k].kind))
@@ -225,6 +227,13 @@ static bool stmt_same(const Diff *d, const Stmt *a, const Stmt *b)
         return a->cmp == b->cmp && expr_same(d, a->lhs, b->lhs) && expr_same(d, a->rhs, b->rhs);
     case STMT_PATH:
         return path_same(d, a->path, b->path);
+    case STMT_CURVE:
+        if (a->curve->loglog != b->curve->loglog || a->curve->npoints != b->curve->npoints)
+            return false;
+        for (size_t i = 0; i < a->curve->npoints; i++)
+            if (!expr_same(d, a->curve->x[i], b->curve->x[i]) || !expr_same(d, a->curve->y[i], b->curve->y[i]))
+                return false;
+        return true;
     default:
         return true;
     }
@@ -232,7 +241,8 @@ static bool stmt_same(const Diff *d, const Stmt *a, const Stmt *b)
 
 static bool is_named(const Stmt *s)
 {
-    return (s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH) && s->name && !s->parse_failed;
+    return (s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH || s->kind == STMT_CURVE) && s->name &&
+           !s->parse_failed;
 }
 
 static bool is_check(const Stmt *s)
@@ -739,7 +749,7 @@ static Section *sections_of(Arena *a, const Document *doc, size_t *count)
             }
             continue;
         }
-        if (b->kind == BLK_PATH || b->kind == BLK_CASES || b->kind == BLK_SOURCES || b->kind == BLK_RULE)
+        if (b->kind == BLK_PATH || b->kind == BLK_CURVE || b->kind == BLK_CASES || b->kind == BLK_SOURCES || b->kind == BLK_RULE)
             continue;
         sb_clear(&sb);
         const Block one = {.kind = b->kind, .inlines = b->inlines, .text = b->text, .children = b->children};
@@ -871,6 +881,87 @@ static void mark_readers(Diff *d, const Document *nd)
     }
 }
 
+/* A used file's name relative to the directory of the calc that uses it,
+ * so old/basis.calc.md and new/basis.calc.md (or two revisions) match. */
+static const char *use_name(const Document *user, const UsedFile *u)
+{
+    const char *base = user->file, *slash = strrchr(base, '/');
+    const char *colon = user->from_git ? strchr(base, ':') : NULL;
+    const char *end = slash ? slash + 1 : colon ? colon + 1 : base;
+    size_t n = (size_t)(end - base);
+    if (strncmp(u->file, base, n) == 0)
+        return u->file + n;
+    return u->file;
+}
+
+static const UsedFile *use_find(const Evaluated *ev, const char *name)
+{
+    for (size_t i = 0; i < ev->nused; i++)
+        if (strcmp(use_name(ev->doc, ev->used[i]), name) == 0)
+            return ev->used[i];
+    return NULL;
+}
+
+/* Does a use statement's file read `u` (it is u, or uses it)? */
+static bool reads_file(const Record *rec, const UsedFile *u)
+{
+    const UsedFile *f = use_of_record(rec);
+    if (!f)
+        return false;
+    if (f == u)
+        return true;
+    for (size_t i = 0; i < f->ev->nused; i++)
+        if (f->ev->used[i] == u)
+            return true;
+    return false;
+}
+
+/* The results of NEW that depend on the used file `u`. */
+static void moved_by(Diff *d, const Document *nd, const UsedFile *u, UseChange *c)
+{
+    bool *dep = xcalloc(nd->nstmts + 1, sizeof *dep);
+    for (size_t i = 0; i < nd->nstmts; i++) {
+        const StmtResult *r = &d->new_ev->results[i];
+        dep[i] = doc_stmt_use(nd->stmts[i]) && r->state == RES_OK && r->value.kind == VAL_RECORD &&
+                 reads_file(r->value.rec, u);
+        for (size_t k = 0; k < nd->stmts[i]->ndeps && !dep[i]; k++)
+            dep[i] = dep[nd->stmts[i]->deps[k]];
+    }
+    c->moved = arena_alloc(&d->arena, (d->nresults + 1) * sizeof *c->moved);
+    for (size_t i = 0; i < d->nresults; i++)
+        if (d->results[i].new_slot >= 0 && dep[d->results[i].new_slot])
+            c->moved[c->nmoved++] = i;
+    free(dep);
+}
+
+static void compare_uses(Diff *d)
+{
+    const Evaluated *o = d->old_ev, *n = d->new_ev;
+    d->uses = arena_alloc(&d->arena, (o->nused + n->nused + 1) * sizeof *d->uses);
+    for (size_t i = 0; i < n->nused; i++) {
+        const UsedFile *nu = n->used[i];
+        const char *name = use_name(n->doc, nu);
+        const UsedFile *ou = use_find(o, name);
+        if (ou && strcmp(ou->doc->digest, nu->doc->digest) == 0)
+            continue;
+        UseChange *c = &d->uses[d->nuses++];
+        c->kind = ou ? USE_CHANGED : USE_ADDED;
+        c->name = name;
+        c->old_digest = ou ? ou->doc->digest : NULL;
+        c->new_digest = nu->doc->digest;
+        moved_by(d, n->doc, nu, c);
+    }
+    for (size_t i = 0; i < o->nused; i++) {
+        const char *name = use_name(o->doc, o->used[i]);
+        if (use_find(n, name))
+            continue;
+        UseChange *c = &d->uses[d->nuses++];
+        c->kind = USE_REMOVED;
+        c->name = name;
+        c->old_digest = o->used[i]->doc->digest;
+    }
+}
+
 Diff *diff_compute(const Evaluated *old_ev, const Evaluated *new_ev, const DiffOptions *opt)
 {
     Diff *d = xcalloc(1, sizeof *d);
@@ -908,6 +999,7 @@ Diff *diff_compute(const Evaluated *old_ev, const Evaluated *new_ev, const DiffO
     d->stmts = to_arena(d, d->stmts, d->nstmts, sizeof *d->stmts);
     d->cites = to_arena(d, d->cites, d->ncites, sizeof *d->cites);
     d->prose = to_arena(d, d->prose, d->nprose, sizeof *d->prose);
+    compare_uses(d);
 
     bool meta_changed = false;
     for (size_t i = 0; i < d->nmeta; i++)

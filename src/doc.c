@@ -18,6 +18,7 @@
 #include "source.h"
 #include "lookalike.h"
 #include "strmap.h"
+#include "uses.h"
 
 /* ---- name table: open addressing, names -> slots ---------------------- */
 
@@ -115,6 +116,18 @@ bool expr_reads_names(const Expr *e)
     }
 }
 
+bool expr_is_simple(const Expr *e)
+{
+    while (e && e->kind == EXPR_PAREN)
+        e = e->lhs;
+    if (e && e->kind == EXPR_NEG)
+        e = e->lhs;
+    while (e && e->kind == EXPR_PAREN)
+        e = e->lhs;
+    return e && (e->kind == EXPR_NAME || e->kind == EXPR_FIELD || e->kind == EXPR_NUMBER ||
+                 e->kind == EXPR_STRING);
+}
+
 /* ---- resolution --------------------------------------------------------- */
 
 typedef struct Resolver {
@@ -122,6 +135,7 @@ typedef struct Resolver {
     DiagList *diags;
     int current;             /* statement being resolved */
     Vec deps;                /* slots read, as (void *)(intptr_t)(slot + 1) */
+    const Expr *use_top;     /* the whole right-hand side of a definition: where use() may stand */
 } Resolver;
 
 static size_t edit_distance(const char *a, const char *b)
@@ -231,6 +245,21 @@ static int resolve_expr(Resolver *r, Expr *e)
         ok = resolve_expr(r, e->rhs) && ok;
         break;
     case EXPR_CALL:
+        if (strcmp(e->text, "use") == 0 && doc_lookup(r->doc, e->text) < 0) {
+            /* use() reads a file: a statement of its own, with the name in quotes */
+            if (e != r->use_top)
+                diag_error(r->diags, e->pos, "use(...) binds another calc file and stands alone: "
+                                             "NAME = use(\"file.calc.md\")");
+            else if (e->nargs != 1 || e->nkw != 0 || e->args[0]->kind != EXPR_STRING)
+                diag_error(r->diags, e->pos, "use takes one file name in quotes: NAME = "
+                                             "use(\"basis.calc.md\")");
+            else if (!e->args[0]->text[0])
+                diag_error(r->diags, e->args[0]->pos, "use: the file name is empty");
+            else
+                break;
+            ok = 0;
+            break;
+        }
         if (!builtin_lookup(e->text)) {
             int slot = doc_lookup(r->doc, e->text);
             if (slot >= 0 && slot < r->current) {
@@ -253,6 +282,15 @@ static int resolve_expr(Resolver *r, Expr *e)
         break;
     }
     return ok;
+}
+
+const char *doc_stmt_use(const Stmt *s)
+{
+    const Expr *e = s && s->kind == STMT_DEF && !s->parse_failed ? s->expr : NULL;
+    if (!e || e->kind != EXPR_CALL || strcmp(e->text, "use") != 0 || e->callee_slot >= 0 ||
+        e->nargs != 1 || e->nkw != 0 || e->args[0]->kind != EXPR_STRING)
+        return NULL;
+    return e->args[0]->text;
 }
 
 static int cmp_int(const void *a, const void *b)
@@ -311,7 +349,7 @@ static void resolve_statements(Document *doc, DiagList *diags)
      * the later line. A name defined twice keeps its first definition. */
     for (size_t i = 0; i < doc->nstmts; i++) {
         Stmt *s = doc->stmts[i];
-        if ((s->kind != STMT_DEF && s->kind != STMT_SOLVE && s->kind != STMT_PATH) || !s->name)
+        if ((s->kind != STMT_DEF && s->kind != STMT_SOLVE && s->kind != STMT_PATH && s->kind != STMT_CURVE) || !s->name)
             continue;
         size_t k = names_find(doc->names, s->name);
         if (doc->names->keys[k]) {
@@ -346,7 +384,7 @@ static void resolve_statements(Document *doc, DiagList *diags)
     StrMap source_keys = {0};
     for (size_t k = 0; k < doc->nsources; k++)
         strmap_add(&source_keys, doc->sources[k].key, k, NULL);
-    Resolver r = {doc, diags, 0, {0}};
+    Resolver r = {doc, diags, 0, {0}, NULL};
     for (size_t i = 0; i < doc->nstmts; i++) {
         Stmt *s = doc->stmts[i];
         r.current = (int)i;
@@ -369,7 +407,9 @@ static void resolve_statements(Document *doc, DiagList *diags)
             continue;
         int ok = 1;
         if (s->kind == STMT_DEF) {
+            r.use_top = s->expr;
             ok = resolve_expr(&r, s->expr);
+            r.use_top = NULL;
         } else if (s->kind == STMT_CHECK) {
             ok = resolve_expr(&r, s->lhs);
             ok = resolve_expr(&r, s->rhs) && ok;
@@ -379,10 +419,16 @@ static void resolve_statements(Document *doc, DiagList *diags)
             ok = resolve_expr(&r, ps->start) && ok;
             for (size_t k = 0; k < ps->nsegs; k++) {
                 PathSegment *g = &ps->segs[k];
-                Expr *cells[] = {g->flow, g->pipe, g->length, g->rise, g->K, g->C};
+                Expr *cells[] = {g->flow, g->pipe, g->length, g->rise, g->K, g->C, g->device};
                 for (size_t c = 0; c < sizeof cells / sizeof cells[0]; c++)
                     if (cells[c])
                         ok = resolve_expr(&r, cells[c]) && ok;
+            }
+        } else if (s->kind == STMT_CURVE) {
+            CurveSpec *cs = s->curve;
+            for (size_t k = 0; k < cs->npoints; k++) {
+                ok = resolve_expr(&r, cs->x[k]) && ok;
+                ok = resolve_expr(&r, cs->y[k]) && ok;
             }
         } else if (s->kind == STMT_FIGURE) {
             for (size_t k = 0; k < s->nargs; k++)
@@ -442,7 +488,7 @@ static void resolve_inlines(Document *doc, Inline *in, DiagList *diags)
  * (they are evaluated after the whole calc). */
 static void resolve_cases(Document *doc, DiagList *diags)
 {
-    Resolver r = {doc, diags, (int)doc->nstmts, {0}};
+    Resolver r = {doc, diags, (int)doc->nstmts, {0}, NULL};
     size_t work = 0;
     for (size_t c = 0; c < doc->ncases; c++) {
         CaseTable *ct = doc->cases[c];
@@ -467,7 +513,7 @@ static void resolve_cases(Document *doc, DiagList *diags)
                     diag_error(diags, ct->input_pos[k], "cases column '%s' is not an input of the calc", ct->inputs[k]);
             } else if (doc->stmts[slot]->kind != STMT_DEF) {
                 diag_error(diags, ct->input_pos[k], "cases column '%s' must name a definition, not a %s", ct->inputs[k],
-                           doc->stmts[slot]->kind == STMT_SOLVE ? "solve" : "path");
+                           doc->stmts[slot]->kind == STMT_SOLVE ? "solve" : doc->stmts[slot]->kind == STMT_CURVE ? "curve" : "path");
                 slot = SLOT_UNRESOLVED;
             }
             for (size_t j = 0; j < k; j++)
@@ -532,7 +578,7 @@ Document *doc_from_text(const char *display_name, const char *text, size_t len, 
     resolve_statements(doc, diags);
     resolve_cases(doc, diags);
     resolve_blocks(doc, doc->blocks, diags);
-    if (doc->nstmts == 0 && diags->errors == 0) {
+    if (doc->nstmts == 0 && diags->errors == 0 && !doc->meta.has_parts) {
         Pos p = {doc->file, 1, 1};
         diag_warning(diags, p, "the file has no calc statements (no ```calc block)");
     }
@@ -563,6 +609,7 @@ void doc_free(Document *doc)
 {
     if (!doc)
         return;
+    use_set_free(doc->own_uses);
     arena_free(&doc->arena);
     free(doc);
 }

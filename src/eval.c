@@ -16,7 +16,9 @@
 #include <string.h>
 
 #include "flow.h"
+#include "methods/devices_lib.h"
 #include "numfmt.h"
+#include "uses.h"
 
 typedef struct Ctx {
     Evaluated *ev;
@@ -212,8 +214,38 @@ static bool eval_binary(Ctx *c, const Expr *e, Value *out)
     return false;
 }
 
+/* NAME = use("file.calc.md"): the used calc's values as a record. The
+ * files it used are the user's too, so the list stays transitive. */
+static bool eval_use(Ctx *c, const Expr *e, Value *out)
+{
+    Evaluated *ev = c->ev;
+    const UsedFile *u = use_set_resolve(ev->uses, c->doc, e->args[0]->text, e->args[0]->pos, c->diags);
+    if (!u)
+        return false;
+    size_t add = 1 + u->ev->nused;
+    const UsedFile **list = arena_alloc(&c->doc->arena, (ev->nused + add) * sizeof *list);
+    if (ev->nused)
+        memcpy(list, ev->used, ev->nused * sizeof *list);
+    size_t n = ev->nused;
+    for (size_t i = 0; i < add; i++) {
+        const UsedFile *f = i + 1 < add ? u->ev->used[i] : u;
+        bool seen = false;
+        for (size_t k = 0; k < n && !seen; k++)
+            seen = list[k] == f;
+        if (!seen)
+            list[n++] = f;
+    }
+    ev->used = list;
+    ev->nused = n;
+    *out = u->record;
+    return true;
+}
+
 static bool eval_call(Ctx *c, const Expr *e, Value *out)
 {
+    if (e->callee_slot < 0 && strcmp(e->text, "use") == 0 && e->nargs == 1 &&
+        e->args[0]->kind == EXPR_STRING)
+        return eval_use(c, e, out);
     size_t n = e->nargs, nk = e->nkw;
     Value *args = arena_alloc(&c->doc->arena, (n + 1) * sizeof *args);
     Pos *apos = arena_alloc(&c->doc->arena, (n + 1) * sizeof *apos);
@@ -305,14 +337,8 @@ static bool eval_expr(Ctx *c, const Expr *e, Value *out)
         *out = value_string(e->text);
         return true;
     case EXPR_NAME:
-        if (e->slot == SLOT_PI) {
-            *out = value_number(qty_number(3.14159265358979323846));
+        if (eval_constant(e->slot, out))
             return true;
-        }
-        if (e->slot == SLOT_G) {
-            *out = value_number(qty(STANDARD_GRAVITY, DIM_ACCEL));
-            return true;
-        }
         if (e->slot < 0 || c->ev->results[e->slot].state != RES_OK)
             return fail_upstream(c);
         *out = c->ev->results[e->slot].value;
@@ -503,7 +529,7 @@ static void set_var(Evaluated *ev, const Stmt *s, double x, DiagList *diags)
 /* Evaluate both sides of the equation as they stand. */
 static bool equation_sides(Evaluated *ev, const Stmt *s, DiagList *diags, Value *l, Value *r)
 {
-    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code};
+    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL};
     Ctx c = {ev, ev->doc, diags, &cc, 0};
     bool ok = eval_expr(&c, s->lhs, l);
     ok = eval_expr(&c, s->rhs, r) && ok;
@@ -578,6 +604,85 @@ static bool equation_reads(const Document *doc, const Stmt *s, int var)
     free(seen);
     vec_free(&stack);
     return found;
+}
+
+/* The slots an expression reads directly (names, the base of a field, a
+ * record called as a function), each once, appended to *out. */
+static void collect_reads(const Expr *e, int **out, size_t *n, size_t *cap)
+{
+    if (!e)
+        return;
+    int slot = -1;
+    if (e->kind == EXPR_NAME)
+        slot = e->slot;
+    else if (e->kind == EXPR_CALL)
+        slot = e->callee_slot;
+    if (slot >= 0) {
+        bool seen = false;
+        for (size_t i = 0; i < *n && !seen; i++)
+            seen = (*out)[i] == slot;
+        if (!seen) {
+            if (*n == *cap) {
+                *cap = *cap ? 2 * *cap : 8;
+                *out = xrealloc(*out, *cap * sizeof **out);
+            }
+            (*out)[(*n)++] = slot;
+        }
+    }
+    collect_reads(e->lhs, out, n, cap);
+    collect_reads(e->rhs, out, n, cap);
+    for (size_t i = 0; i < e->nargs; i++)
+        collect_reads(e->args[i], out, n, cap);
+    for (size_t i = 0; i < e->nkw; i++)
+        collect_reads(e->kw[i], out, n, cap);
+}
+
+/* Keep what the equation reads at the root (set there by the caller). */
+static void record_root_reads(Evaluated *ev, const Stmt *s, StmtResult *res)
+{
+    int *slots = NULL;
+    size_t n = 0, cap = 0;
+    collect_reads(s->lhs, &slots, &n, &cap);
+    collect_reads(s->rhs, &slots, &n, &cap);
+    ReadValue *rv = n ? arena_alloc(&ev->doc->arena, n * sizeof *rv) : NULL;
+    size_t k = 0;
+    for (size_t i = 0; i < n; i++) {
+        const StmtResult *r = &ev->results[slots[i]];
+        if (r->state != RES_OK)
+            continue;
+        rv[k++] = (ReadValue){slots[i], r->value, r->shown};
+    }
+    free(slots);
+    res->at_root = rv;
+    res->nat_root = k;
+}
+
+bool eval_constant(int slot, Value *out)
+{
+    if (slot == SLOT_PI)
+        *out = value_number(qty_number(3.14159265358979323846));
+    else if (slot == SLOT_G)
+        *out = value_number(qty(STANDARD_GRAVITY, DIM_ACCEL));
+    else
+        return false;
+    return true;
+}
+
+const Value *eval_read(const Evaluated *ev, const StmtResult *row, int slot, Unit *shown)
+{
+    if (!ev || slot < 0 || (size_t)slot >= ev->doc->nstmts)
+        return NULL;
+    if (row)
+        for (size_t i = 0; i < row->nat_root; i++)
+            if (row->at_root[i].slot == slot) {
+                *shown = row->at_root[i].shown;
+                return &row->at_root[i].value;
+            }
+    const StmtResult *r = &ev->results[slot];
+    if (r->state != RES_OK)
+        return NULL;
+    *shown = r->shown;
+    return &r->value;
 }
 
 static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, DiagList *diags)
@@ -662,6 +767,7 @@ static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *c
         bool okr = equation_sides(ev, s, diags, &lr, &rr);
         diags->muted--;
         if (okr) {
+            record_root_reads(ev, s, res);
             res->lhs = lr;
             res->rhs = rr;
             res->lhs_shown = eval_display_unit(ev, &lr, NULL);
@@ -821,6 +927,10 @@ static void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
             in[i].has_C = true;
             ok = eval_expr(c, g->C, &in[i].C) && ok;
         }
+        if (g->device) {
+            in[i].has_device = true;
+            ok = eval_expr(c, g->device, &in[i].device) && ok;
+        }
     }
     if (!ok) {
         res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
@@ -832,6 +942,109 @@ static void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
         return;
     }
     res->path = pr;
+    res->state = RES_OK;
+}
+
+/* A curve: every cell a number, each column of one dimension, the argument
+ * strictly increasing (and for log-log both above zero); the record it
+ * binds reads the table (methods/devices_lib.c). Each problem is reported
+ * at its cell. */
+static void eval_curve(const Stmt *s, StmtResult *res, Ctx *c)
+{
+    const CurveSpec *cs = s->curve;
+    Arena *a = &c->doc->arena;
+    size_t n = cs->npoints;
+    Value *v = arena_alloc(a, (2 * n + 1) * sizeof *v);
+    bool ok = true;
+    for (size_t i = 0; i < n; i++) {
+        ok = eval_expr(c, cs->x[i], &v[2 * i]) && ok;
+        ok = eval_expr(c, cs->y[i], &v[2 * i + 1]) && ok;
+    }
+    if (!ok) {
+        res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
+        return;
+    }
+    CurveData *cd = arena_alloc(a, sizeof *cd);
+    double *x = arena_alloc(a, (n + 1) * sizeof *x), *y = arena_alloc(a, (n + 1) * sizeof *y);
+    const char *head[2] = {cs->x_head, cs->y_head};
+    for (size_t i = 0; i < n && ok; i++) {
+        for (size_t k = 0; k < 2; k++) {
+            const Expr *e = k ? cs->y[i] : cs->x[i];
+            const Value *cv = &v[2 * i + k], *first = &v[k];
+            if (!need_number(c, e, cv, "a curve's cell")) {
+                ok = false;
+                break;
+            }
+            if (!dim_eq(cv->q.dim, first->q.dim) || (cv->q.temp == TEMP_NONE) != (first->q.temp == TEMP_NONE)) {
+                char d1[128], d2[128];
+                describe_operand(c, k ? cs->y[0] : cs->x[0], first, d1, sizeof d1);
+                describe_operand(c, e, cv, d2, sizeof d2);
+                diag_error(c->diags, e->pos, "column '%s' mixes dimensions: the first row is %s, this cell is %s", head[k],
+                           d1, d2);
+                ok = false;
+                break;
+            }
+            (k ? y : x)[i] = cv->q.si;
+        }
+    }
+    if (!ok) {
+        res->state = RES_FAILED;
+        return;
+    }
+    cd->name = s->name;
+    cd->curve = (Curve){x, y, n, cs->loglog ? CURVE_LOGLOG : CURVE_LINEAR};
+    cd->x_dim = v[0].q.dim;
+    cd->x_temp = v[0].q.temp;
+    cd->y_dim = v[1].q.dim;
+    cd->y_temp = v[1].q.temp;
+    size_t bad = 0;
+    char b1[112], b2[112];
+    switch (curve_check(&cd->curve, &bad)) {
+    case CURVE_OK:
+        break;
+    case CURVE_NOT_INCREASING: {
+        Unit u = eval_display_unit(c->ev, &v[0], written_unit(c->ev, cs->x[0]));
+        bool diff = v[0].q.temp == TEMP_NONE, unitless = !u.text[0] || strcmp(u.text, "1") == 0;
+        char n1[48], n2[48];
+        num_sig(unit_from_si(v[2 * bad].q.si, &u, diff), 4, n1, sizeof n1);
+        num_sig(unit_from_si(v[2 * (bad - 1)].q.si, &u, diff), 4, n2, sizeof n2);
+        snprintf(b1, sizeof b1, "%s%s%s", n1, unitless ? "" : " ", unitless ? "" : u.text);
+        snprintf(b2, sizeof b2, "%s%s%s", n2, unitless ? "" : " ", unitless ? "" : u.text);
+        diag_error(c->diags, cs->x[bad]->pos,
+                   "the argument column '%s' must increase strictly: %s here is not above %s in the row before",
+                   cs->x_head, b1, b2);
+        res->state = RES_FAILED;
+        return;
+    }
+    case CURVE_NOT_POSITIVE: {
+        bool xs = !(x[bad] > 0);
+        diag_error(c->diags, xs ? cs->x[bad]->pos : cs->y[bad]->pos,
+                   "interpolate: loglog needs values above zero in both columns; this '%s' cell is not",
+                   xs ? cs->x_head : cs->y_head);
+        res->state = RES_FAILED;
+        return;
+    }
+    case CURVE_NOT_FINITE:
+    case CURVE_TOO_FEW:
+        diag_error(c->diags, cs->x[bad]->pos, "this point of curve '%s' is not a finite number", s->name);
+        res->state = RES_FAILED;
+        return;
+    }
+    /* the table for the report, in the units the first row was written in */
+    ResultTable *t = arena_alloc(a, sizeof *t);
+    t->title = arena_printf(a, "Curve %s, %s interpolation", s->name, cs->loglog ? "log-log" : "linear");
+    t->ncols = 2;
+    t->nrows = n;
+    t->heads = arena_alloc(a, 2 * sizeof *t->heads);
+    t->heads[0] = cs->x_head;
+    t->heads[1] = cs->y_head;
+    t->units = arena_alloc(a, 2 * sizeof *t->units);
+    for (size_t k = 0; k < 2; k++)
+        t->units[k] = eval_display_unit(c->ev, &v[k], written_unit(c->ev, k ? cs->y[0] : cs->x[0]));
+    t->cells = v;
+    res->table = t;
+    res->value = (Value){.kind = VAL_RECORD, .rec = curve_record_new(a, cd)};
+    call_use_method(c->call, curve_method(cd->curve.interp));
     res->state = RES_OK;
 }
 
@@ -864,7 +1077,7 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
     for (size_t k = 0; k < s->ndeps; k++)
         if (ev->results[s->deps[k]].state != RES_OK)
             return; /* not evaluated: an input failed */
-    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code};
+    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL};
     Ctx c = {ev, ev->doc, diags, &cc, 0};
     switch (s->kind) {
     case STMT_DEF: {
@@ -903,11 +1116,16 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
     case STMT_FIGURE:
         eval_figure(s, res, &c);
         break;
+    case STMT_CURVE:
+        eval_curve(s, res, &c);
+        break;
     case STMT_NOTE:
         break;
     }
     memcpy(res->methods, cc.methods, sizeof res->methods);
     res->nmethods = cc.nmethods;
+    if (!res->table)
+        res->table = res->state == RES_OK ? cc.table : NULL;
 }
 
 void eval_recompute(Evaluated *ev, const int *changed, size_t nchanged, size_t upto, DiagList *diags)
@@ -986,7 +1204,7 @@ static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagL
             return; /* reported already, or the input itself failed */
         base[k] = ev->results[slots[k]].value;
     }
-    CallCtx cc = {a, diags, ev->units, {0}, 0, ev->doc->meta.code};
+    CallCtx cc = {a, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL};
     Ctx c = {ev, doc, diags, &cc, 0};
     /* The shown expressions are checked once, with the calc's own values and
      * errors reported, so a bad field or dimension is an error, not a
@@ -1067,10 +1285,45 @@ static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagL
     }
 }
 
+const Value *eval_named_value_at(const Evaluated *ev, const StmtResult *row, const Expr *e,
+                                 Unit *shown)
+{
+    while (e && e->kind == EXPR_PAREN)
+        e = e->lhs;
+    if (!e)
+        return NULL;
+    if (e->kind == EXPR_NAME)
+        return eval_read(ev, row, e->slot, shown);
+    if (e->kind != EXPR_FIELD)
+        return NULL;
+    Unit ignored;
+    const Value *base = eval_named_value_at(ev, row, e->lhs, &ignored);
+    if (!base || base->kind != VAL_RECORD || !base->rec)
+        return NULL;
+    const Value *f = record_get(base->rec, e->text);
+    if (f)
+        *shown = eval_display_unit(ev, f, NULL);
+    return f;
+}
+
+const Value *eval_named_value(const Evaluated *ev, const Expr *e, Unit *shown)
+{
+    return eval_named_value_at(ev, NULL, e, shown);
+}
+
 Evaluated *eval_document(Document *doc, DiagList *diags)
+{
+    if (!doc->own_uses)
+        doc->own_uses = use_set_new();
+    return eval_document_in(doc, doc->own_uses, diags);
+}
+
+Evaluated *eval_document_in(Document *doc, UseSet *uses, DiagList *diags)
 {
     Evaluated *ev = arena_alloc(&doc->arena, sizeof *ev);
     ev->doc = doc;
+    ev->uses = uses;
+    use_set_enter(uses, doc);
     ev->units = doc->meta.units;
     ev->digits = doc->meta.digits;
     ev->results = arena_alloc(&doc->arena, (doc->nstmts + 1) * sizeof *ev->results);
@@ -1097,5 +1350,6 @@ Evaluated *eval_document(Document *doc, DiagList *diags)
     for (size_t i = 0; i < all.len; i++)
         ev->methods[i] = all.items[i];
     vec_free(&all);
+    use_set_leave(uses);
     return ev;
 }

@@ -7,6 +7,8 @@
 #include "frontmatter.h"
 #include "methods/demand.h"
 
+#include "bounds.h"
+
 #include <ctype.h>
 #include <stdlib.h>
 #include <string.h>
@@ -132,6 +134,37 @@ static void revisions(FmCtx *c, yaml_node_t *n)
     }
 }
 
+/* parts: a list of calc files, relative to the index (DESIGN 2.13). */
+static void parts(FmCtx *c, yaml_node_t *n)
+{
+    Meta *m = &c->doc->meta;
+    m->has_parts = true;
+    if (n->type != YAML_SEQUENCE_NODE) {
+        diag_error(c->diags, node_pos(c, n), "front matter: 'parts' must be a list of calc files "
+                                             "(- riser.calc.md), relative to this index");
+        return;
+    }
+    size_t count = (size_t)(n->data.sequence.items.top - n->data.sequence.items.start);
+    if (count > PACKAGE_MAX_PARTS) {
+        diag_error(c->diags, node_pos(c, n), "front matter: 'parts' lists %zu files; the limit is %d",
+                   count, PACKAGE_MAX_PARTS);
+        return;
+    }
+    m->parts = arena_alloc(&c->doc->arena, (count + 1) * sizeof *m->parts);
+    for (yaml_node_item_t *it = n->data.sequence.items.start; it < n->data.sequence.items.top; it++) {
+        yaml_node_t *v = yaml_document_get_node(c->y, *it);
+        if (!v)
+            continue;
+        const char *f = v->type == YAML_SCALAR_NODE ? scalar(c, v, "parts") : NULL;
+        if (!f || !*f) {
+            diag_error(c->diags, node_pos(c, v), "front matter: each entry of 'parts' is a calc "
+                                                 "file name");
+            continue;
+        }
+        m->parts[m->nparts++] = (Part){f, node_pos(c, v)}; /* repeats: package_load */
+    }
+}
+
 static int ieq(const char *a, const char *b)
 {
     for (; *a && *b; a++, b++)
@@ -198,11 +231,13 @@ static void one_key(FmCtx *c, const char *key, yaml_node_t *k, yaml_node_t *v)
         }
     } else if (strcmp(key, "revisions") == 0) {
         revisions(c, v);
+    } else if (strcmp(key, "parts") == 0) {
+        parts(c, v);
     } else {
         diag_error(c->diags, node_pos(c, k),
                    "front matter: unknown key '%s' (known: title, project, client, number, subject, "
                    "revision, date, prepared, checked, approved, engineer, license, status, units, "
-                   "paper, digits, code, revisions)", key);
+                   "paper, digits, code, revisions, parts)", key);
     }
 }
 

@@ -23,9 +23,11 @@
 #include "lsp.h"
 #include "numfmt.h"
 #include "outfile.h"
+#include "package.h"
 #include "parse.h"
 #include "render.h"
 #include "revision.h"
+#include "uses.h"
 #include "watch.h"
 
 #ifndef HEADROOM_VERSION
@@ -41,8 +43,8 @@ static const char usage_text[] =
     "      evaluate; print diagnostics and a summary of the checks\n"
     "  headroom build FILE [-o OUT] [--format pdf|text|json] [--strict] [--since OLD]\n"
     "      write the report (default: FILE without .md/.calc, plus .pdf)\n"
-    "  headroom new KIND [FILE]\n"
-    "      write a commented starter calc (riser, pump-line, pipe-rating)\n"
+    "  headroom new KIND [FILE]  |  headroom new package DIR\n"
+    "      write a commented starter calc (riser, pump-line, pipe-rating) or package\n"
     "  headroom diff OLD NEW [--json] [--rel-tol X]\n"
     "      what changed in meaning between two revisions (a file or REV:path)\n"
     "  headroom watch FILE [-o OUT]\n"
@@ -97,11 +99,31 @@ static bool use_color(void)
     return !(nc && nc[0]) && isatty(fileno(stderr));
 }
 
-static void print_diags(DiagList *dl, const Document *doc)
+/* Diagnostics of a calc and of the files it used (in `set`), each shown
+ * with the line of its own file. */
+static void print_diags_in(DiagList *dl, const Document *doc, const UseSet *set)
 {
     diag_sort(dl);
-    diag_print(stderr, dl, doc ? doc->text : NULL, doc ? doc->len : 0, use_color());
+    size_t n = 1 + (set ? set->nfiles : 0), k = 0;
+    DiagSource *src = calloc(n, sizeof *src);
+    if (!src)
+        return;
+    if (doc)
+        src[k++] = (DiagSource){doc->file, doc->text, doc->len};
+    for (size_t i = 0; set && i < set->nfiles; i++)
+        if (set->files[i]->doc)
+            src[k++] = (DiagSource){set->files[i]->file, set->files[i]->doc->text,
+                                    set->files[i]->doc->len};
+    diag_print_sources(stderr, dl, src, k, use_color());
+    free(src);
 }
+
+static void print_diags(DiagList *dl, const Document *doc)
+{
+    print_diags_in(dl, doc, doc ? doc->own_uses : NULL);
+}
+
+
 
 /* Where `build` writes by default: riser.calc.md -> riser.pdf. */
 static char *default_output(const char *in, const char *ext)
@@ -129,7 +151,9 @@ typedef enum CheckFormat { CHK_TEXT, CHK_JSON, CHK_JUNIT, CHK_SARIF, CHK_GITHUB 
 
 static const char check_help[] =
     "usage: headroom check FILE... [--format text|json|junit|sarif|github] [--json]\n"
-    "Evaluate each calc file, print diagnostics and the checks.\n"
+    "Evaluate each calc file, print diagnostics and the checks. A package\n"
+    "index (front matter with parts:) checks every part, then prints the\n"
+    "package's combined summary.\n"
     "--format picks what goes to standard output: text (the default: one line\n"
     "per check), json (the results; --json is the same), junit (JUnit XML, one\n"
     "test case per check), sarif (SARIF 2.1.0) or github (workflow annotations).\n"
@@ -156,6 +180,56 @@ static void print_check_text(const Evaluated *ev, const DiagList *dl)
             printf("  %-5s %s (utilisation %s)\n", r->holds ? "holds" : "FAILS", s->label, u);
         }
     }
+}
+
+static int worse(int a, int b)
+{
+    return a > b ? a : b;
+}
+
+/* Every diagnostic of a package once, each with its own file's lines. */
+static void print_package_diags(const Package *pkg, const DiagList *index_dl)
+{
+    DiagList all = {0};
+    package_diags(pkg, index_dl, &all);
+    print_diags_in(&all, pkg->index, pkg->uses);
+    diag_free(&all);
+}
+
+/* check INDEX: every part, then the package's combined summary. The parts
+ * join `evs` (for JSON) and `runs` (for the CI formats); the package is
+ * kept in `pkgs` until the output is written. */
+static int check_package(Document *index, DiagList *dl, CheckFormat fmt, Vec *evs, Vec *runs,
+                         Vec *pkgs)
+{
+    Package *pkg = package_load(index, dl);
+    vec_push(pkgs, pkg);
+    print_package_diags(pkg, dl);
+    for (size_t i = 0; i < pkg->nparts; i++) {
+        const PackagePart *pp = &pkg->parts[i];
+        if (!pp->ev)
+            continue;
+        vec_push(evs, pp->ev);
+        CheckRun *r = calloc(1, sizeof *r);
+        if (r) {
+            *r = (CheckRun){pp->file, pp->ev, pp->diags};
+            vec_push(runs, r);
+        }
+        if (fmt == CHK_TEXT)
+            print_check_text(pp->ev, pp->diags);
+    }
+    for (size_t i = 0; i < pkg->nextra && fmt == CHK_TEXT; i++) {
+        printf("(used by a part) ");
+        print_check_text(pkg->extra[i]->ev, &pkg->extra[i]->diags);
+    }
+    if (fmt == CHK_TEXT)
+        printf("package %s: %zu part%s, %zu check%s, %zu hold%s, %zu fail%s%s\n", index->file,
+               pkg->nparts, pkg->nparts == 1 ? "" : "s", pkg->nchecks, pkg->nchecks == 1 ? "" : "s",
+               pkg->nchecks - pkg->nfailed, pkg->nchecks - pkg->nfailed == 1 ? "s" : "",
+               pkg->nfailed, pkg->nfailed == 1 ? "s" : "", pkg->errors ? " (input has errors)" : "");
+    if (pkg->errors)
+        return EXIT_INPUT;
+    return pkg->nfailed || pkg->case_rows_failing ? EXIT_CHECK_FAILS : EXIT_HOLDS;
 }
 
 static int cmd_check(int argc, char **argv)
@@ -197,23 +271,33 @@ static int cmd_check(int argc, char **argv)
     int status = EXIT_HOLDS;
     DiagList all = {0};
     Document **docs = calloc(nfiles, sizeof *docs);
-    Evaluated **evs = calloc(nfiles, sizeof *evs);
     DiagList *dls = calloc(nfiles, sizeof *dls);
-    CheckRun *runs = calloc(nfiles, sizeof *runs);
-    size_t nev = 0;
+    Vec evs = {0}, runs = {0}, pkgs = {0};  /* runs: CheckRun *, owned here */
     for (size_t f = 0; f < nfiles; f++) {
         DiagList *dl = &dls[f];
         Document *doc = doc_load(files[f], dl);
         docs[f] = doc;
-        runs[f] = (CheckRun){files[f], NULL, dl};
+        CheckRun *run = calloc(1, sizeof *run);
+        if (!run)
+            break;
+        *run = (CheckRun){files[f], NULL, dl};
         if (!doc) {
+            vec_push(&runs, run);
             print_diags(dl, NULL);
             status = EXIT_IO;
             continue;
         }
+        if (package_is_index(doc) && !dl->errors) {
+            free(run);
+            status = worse(status, check_package(doc, dl, fmt, &evs, &runs, &pkgs));
+            for (size_t i = 0; i < dl->len; i++)
+                diag_add(&all, dl->items[i].severity, dl->items[i].pos, "%s", dl->items[i].message);
+            continue;
+        }
+        vec_push(&runs, run);
         Evaluated *ev = eval_document(doc, dl);
-        evs[nev++] = ev;
-        runs[f].ev = ev;
+        vec_push(&evs, ev);
+        run->ev = ev;
         print_diags(dl, doc);
         if (dl->errors) {
             if (status < EXIT_INPUT)
@@ -228,25 +312,34 @@ static int cmd_check(int argc, char **argv)
             diag_add(&all, dl->items[i].severity, dl->items[i].pos, "%s", dl->items[i].message);
     }
     bool ok = true;
-    if (fmt == CHK_JSON && nev > 0 && !ferror(stdout))
-        ok = render_json((const Evaluated *const *)evs, &all, nev, stdout);
+    CheckRun *rv = calloc(runs.len + 1, sizeof *rv);
+    for (size_t i = 0; rv && i < runs.len; i++)
+        rv[i] = *(CheckRun *)runs.items[i];
+    if (fmt == CHK_JSON && evs.len > 0 && !ferror(stdout))
+        ok = render_json((const Evaluated *const *)evs.items, &all, evs.len, stdout);
     else if (fmt == CHK_JUNIT)
-        ok = render_junit(runs, nfiles, stdout);
+        ok = rv && render_junit(rv, runs.len, stdout);
     else if (fmt == CHK_SARIF)
-        ok = render_sarif(runs, nfiles, stdout);
+        ok = rv && render_sarif(rv, runs.len, stdout);
     else if (fmt == CHK_GITHUB)
-        ok = render_github(runs, nfiles, stdout);
+        ok = rv && render_github(rv, runs.len, stdout);
     if ((!ok || !stdout_ok()) && status < EXIT_IO)
         status = EXIT_IO;
     diag_free(&all);
+    free(rv);
+    for (size_t i = 0; i < runs.len; i++)
+        free(runs.items[i]);
+    vec_free(&runs);
+    for (size_t i = 0; i < pkgs.len; i++)
+        package_free(pkgs.items[i]);
+    vec_free(&pkgs);
     for (size_t f = 0; f < nfiles; f++) {
         diag_free(&dls[f]);
         doc_free(docs[f]);
     }
-    free(runs);
     free(dls);
     free(docs);
-    free(evs);
+    vec_free(&evs);
     free(files);
     return status;
 }
@@ -255,25 +348,48 @@ static int cmd_check(int argc, char **argv)
 
 typedef enum Format { FMT_PDF, FMT_TEXT, FMT_JSON } Format;
 
+/* What one `build` writes: a calc, or a package of calcs. */
+typedef struct ReportJob {
+    const Evaluated *ev;     /* a single calc, else NULL */
+    const Package *pkg;      /* a package, else NULL */
+    const Diff *since;       /* a calc's changes since an earlier revision (PDF) */
+    const Diff *const *part_since;  /* a package's: one per part, NULL for a new part */
+    const char *since_label;
+    const char *const *inputs; /* the calc and the files it reads: never OUT */
+    size_t ninputs;
+} ReportJob;
+
+static bool job_stream(const ReportJob *job, Format fmt, DiagList *dl, FILE *f)
+{
+    if (job->pkg) {
+        if (fmt == FMT_TEXT)
+            return render_package_text(job->pkg, f);
+        Vec evs = {0};
+        for (size_t i = 0; i < job->pkg->nparts; i++)
+            vec_push(&evs, job->pkg->parts[i].ev);
+        bool ok = render_json((const Evaluated *const *)evs.items, dl, evs.len, f);
+        vec_free(&evs);
+        return ok;
+    }
+    return fmt == FMT_TEXT ? render_text(job->ev, f) : render_json(&job->ev, dl, 1, f);
+}
+
 /* Render into a temporary file, then move it into place: renamed over a
  * regular (or absent) OUT, copied into one that is not a regular file (a
  * device, a FIFO) or into standard output ("-"), which are never replaced.
- * `inputs`: the calc and every file it reads, which OUT must not be.
- * `since` (PDF only): the changes to mark, since revision `since_label`. */
-static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagList *dl,
-                        const Diff *since, const char *since_label, const char *const *inputs,
-                        size_t ninputs)
+ * OUT is never one of job->inputs (device and inode). */
+static int write_report(const ReportJob *job, Format fmt, const char *out, DiagList *dl)
 {
     OutKind kind;
     char why[512];
-    if (!outfile_classify(out, inputs, ninputs, &kind, why, sizeof why)) {
+    if (!outfile_classify(out, job->inputs, job->ninputs, &kind, why, sizeof why)) {
         fprintf(stderr, "headroom: will not write the report: ");
         diag_print_escaped(stderr, why);
         fputc('\n', stderr);
         return EXIT_INPUT;
     }
     if (fmt != FMT_PDF && kind == OUT_STDOUT) {
-        bool ok = fmt == FMT_TEXT ? render_text(ev, stdout) : render_json(&ev, dl, 1, stdout);
+        bool ok = job_stream(job, fmt, dl, stdout);
         return stdout_ok() && ok ? 0 : EXIT_IO; /* main() names the failure */
     }
     if (fmt == FMT_PDF && kind == OUT_STDOUT && isatty(STDOUT_FILENO)) {
@@ -292,7 +408,8 @@ static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagLi
     int err = 0;
     if (fmt == FMT_PDF) {
         close(fd);
-        ok = render_pdf_since(ev, since, since_label, tmp, dl);
+        ok = job->pkg ? render_package_pdf(job->pkg, job->part_since, job->since_label, tmp, dl)
+                      : render_pdf_since(job->ev, job->since, job->since_label, tmp, dl);
     } else {
         FILE *f = fdopen(fd, "wb");
         if (!f) {
@@ -300,7 +417,7 @@ static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagLi
             close(fd);
             ok = false;
         } else {
-            ok = fmt == FMT_TEXT ? render_text(ev, f) : render_json(&ev, dl, 1, f);
+            ok = job_stream(job, fmt, dl, f);
             if (!ok || ferror(f))
                 err = errno, ok = false;
             if (fclose(f) != 0 && ok)
@@ -326,7 +443,7 @@ static int write_report(const Evaluated *ev, Format fmt, const char *out, DiagLi
     outfile_temp_release();
     if (!ok) {
         if (dl->len)
-            print_diags(dl, ev->doc);
+            print_diags(dl, job->ev ? job->ev->doc : job->pkg->index);
         fprintf(stderr, "headroom: failed to %s '%s'%s%s\n", failed,
                 kind == OUT_STDOUT ? "standard output" : shown(out), err ? ": " : "",
                 err ? strerror(err) : "");
@@ -345,6 +462,87 @@ static Evaluated *load_revision(const char *arg, DiagList *dl, Document **doc)
         ev = eval_document(*doc, dl);
     print_diags(dl, *doc);
     return *doc && !dl->errors ? ev : NULL;
+}
+
+/* The earlier revision of a package for build --since: every part of NEW
+ * gets the diff from the part of OLD listed under the same name (NULL: the
+ * part is new). NULL with the reason printed when OLD cannot be used. */
+static const Diff **package_since(const Package *pkg, const char *since, Package **old_pkg,
+                                  Document **old_index, DiagList *old_dl)
+{
+    *old_index = revision_load(since, old_dl);
+    if (*old_index && !old_dl->errors && !package_is_index(*old_index))
+        diag_error(old_dl, ((Pos){(*old_index)->file, 1, 1}),
+                   "--since of a package needs the earlier index (front matter with parts:)");
+    if (!*old_index || old_dl->errors) {
+        print_diags(old_dl, *old_index);
+        return NULL;
+    }
+    *old_pkg = package_load(*old_index, old_dl);
+    if ((*old_pkg)->errors) {
+        print_package_diags(*old_pkg, old_dl);
+        return NULL;
+    }
+    const Diff **d = calloc(pkg->nparts + 1, sizeof *d);
+    DiffOptions opt = diff_options_default();
+    for (size_t i = 0; d && i < pkg->nparts; i++) {
+        int k = package_find_part(*old_pkg, pkg->index->meta.parts[i].file);
+        if (k >= 0 && (*old_pkg)->parts[k].ev)
+            d[i] = diff_compute((*old_pkg)->parts[k].ev, pkg->parts[i].ev, &opt);
+    }
+    return d;
+}
+
+/* build INDEX: one report of every part, behind the package's cover. */
+static int build_package(Document *index, DiagList *dl, Format fmt, const char *file,
+                         const char *out, bool strict, const char *since)
+{
+    Package *pkg = package_load(index, dl);
+    Package *old_pkg = NULL;
+    Document *old_index = NULL;
+    DiagList old_dl = {0};
+    const Diff **diffs = NULL;
+    bool old_bad = false;
+    if (!pkg->errors && since) {
+        if (!index->meta.revision || !index->meta.revision[0]) {
+            diag_error(dl, ((Pos){index->file, 1, 1}),
+                       "--since needs a 'revision' in the front matter: the letter that marks "
+                       "the changes");
+            pkg->errors++;
+        } else if (!(diffs = package_since(pkg, since, &old_pkg, &old_index, &old_dl))) {
+            fprintf(stderr, "headroom build: the earlier revision '%s' cannot be used; nothing "
+                            "written\n", since);
+            old_bad = true;
+        }
+    }
+    print_package_diags(pkg, dl);
+    int status;
+    if (pkg->errors || old_bad) {
+        status = EXIT_INPUT;
+    } else {
+        char *def = !out && fmt == FMT_PDF ? default_output(file, ".pdf") : NULL;
+        const char *label = !diffs ? NULL
+                            : old_index->meta.revision && old_index->meta.revision[0]
+                                ? old_index->meta.revision
+                                : since;
+        const char *inputs[] = {file, since};
+        ReportJob job = {NULL, pkg, NULL, (const Diff *const *)diffs, label, inputs, 2};
+        DiagList wl = {0};
+        status = write_report(&job, fmt, out ? out : def ? def : "-", &wl);
+        diag_free(&wl);
+        free(def);
+        if (status == 0 && strict && (pkg->nfailed || pkg->case_rows_failing))
+            status = EXIT_CHECK_FAILS;
+    }
+    for (size_t i = 0; diffs && i < pkg->nparts; i++)
+        if (diffs[i])
+            diff_free((Diff *)diffs[i]);
+    free(diffs);
+    package_free(old_pkg);
+    doc_free(old_index);
+    diag_free(&old_dl);
+    package_free(pkg);
+    return status;
 }
 
 static int cmd_build(int argc, char **argv)
@@ -410,6 +608,12 @@ static int cmd_build(int argc, char **argv)
         diag_free(&dl);
         return EXIT_IO;
     }
+    if (package_is_index(doc) && !dl.errors) {
+        int st = build_package(doc, &dl, fmt, file, out, strict, since);
+        diag_free(&dl);
+        doc_free(doc);
+        return st;
+    }
     Evaluated *ev = eval_document(doc, &dl);
     int status;
     DiagList old_dl = {0};
@@ -449,8 +653,16 @@ static int cmd_build(int argc, char **argv)
         const char *label = !diff ? NULL
                             : old_doc->meta.revision && old_doc->meta.revision[0] ? old_doc->meta.revision
                                                                                   : since;
-        const char *inputs[] = {file, since};
-        status = out ? write_report(ev, fmt, out, &wl, diff, label, inputs, 2) : EXIT_IO;
+        /* OUT is never the calc, the earlier revision or a file it uses. */
+        size_t nused = doc->own_uses ? doc->own_uses->nfiles : 0;
+        const char **inputs = xcalloc(nused + 2, sizeof *inputs);
+        inputs[0] = file;
+        inputs[1] = since;
+        for (size_t u = 0; u < nused; u++)
+            inputs[u + 2] = doc->own_uses->files[u]->file;
+        ReportJob job = {ev, NULL, diff, NULL, label, inputs, nused + 2};
+        status = out ? write_report(&job, fmt, out, &wl) : EXIT_IO;
+        free(inputs);
         diag_free(&wl);
         free(def);
         if (status == 0 && strict && (ev->nfailed || ev->case_rows_failing))
@@ -473,43 +685,27 @@ static const struct {
     const char *text;
 } starters[] = {
 #define STARTER(kind, text) {kind, text},
+#define PACKAGE_FILE(kind, name, text)
 #include "starters.inc"
+#undef PACKAGE_FILE
 #undef STARTER
 };
 
-static int cmd_new(int argc, char **argv)
+/* The starter package: files written into a new directory. */
+static const struct {
+    const char *name;
+    const char *text;
+} package_files[] = {
+#define STARTER(kind, text)
+#define PACKAGE_FILE(kind, name, text) {name, text},
+#include "starters.inc"
+#undef PACKAGE_FILE
+#undef STARTER
+};
+
+/* Write `text` to a new file (never over an existing one). */
+static int write_new(const char *path, const char *text)
 {
-    size_t n = sizeof starters / sizeof starters[0];
-    if (argc == 0 || strcmp(argv[0], "--help") == 0 || argc > 2) {
-        FILE *out = argc == 0 || argc > 2 ? stderr : stdout;
-        fputs("usage: headroom new KIND [FILE]\n"
-              "Write a commented starter calc of KIND to FILE (default KIND.calc.md).\n"
-              "An existing file is never overwritten. Kinds:",
-              out);
-        for (size_t i = 0; i < n; i++)
-            fprintf(out, " %s", starters[i].kind);
-        fputc('\n', out);
-        return out == stdout ? 0 : EXIT_INPUT;
-    }
-    const char *text = NULL;
-    for (size_t i = 0; i < n; i++)
-        if (strcmp(starters[i].kind, argv[0]) == 0)
-            text = starters[i].text;
-    if (!text) {
-        fprintf(stderr, "headroom new: unknown kind '%s' (kinds:", shown(argv[0]));
-        for (size_t i = 0; i < n; i++)
-            fprintf(stderr, " %s", starters[i].kind);
-        fputs(")\n", stderr);
-        return EXIT_INPUT;
-    }
-    char def[256];
-    snprintf(def, sizeof def, "%s.calc.md", argv[0]);
-    const char *path = argc == 2 ? argv[1] : def;
-    if (strcmp(path, "-") == 0) {
-        fputs(text, stdout);
-        return stdout_ok() ? 0 : EXIT_IO;
-    }
-    /* O_EXCL: never overwrite somebody's calc. */
     int fd = open(path, O_WRONLY | O_CREAT | O_EXCL, 0666);
     if (fd < 0) {
         fprintf(stderr, "headroom new: cannot create '%s': %s\n", shown(path), strerror(errno));
@@ -523,6 +719,77 @@ static int cmd_new(int argc, char **argv)
         fprintf(stderr, "headroom new: failed to write '%s'\n", shown(path));
         return EXIT_IO;
     }
+    return 0;
+}
+
+/* new package DIR: a basis, one part and the index, in a directory that
+ * does not exist yet (or is empty), so nothing of anybody's is touched. */
+static int new_package(const char *dir)
+{
+    if (mkdir(dir, 0777) != 0 && errno != EEXIST) {
+        fprintf(stderr, "headroom new: cannot create '%s': %s\n", dir, strerror(errno));
+        return EXIT_IO;
+    }
+    size_t n = sizeof package_files / sizeof package_files[0];
+    char path[4096];
+    for (size_t i = 0; i < n; i++) {
+        snprintf(path, sizeof path, "%s/%s", dir, package_files[i].name);
+        if (access(path, F_OK) == 0) {
+            fprintf(stderr, "headroom new: '%s' exists; a starter package goes in a new directory\n", path);
+            return EXIT_INPUT;
+        }
+    }
+    for (size_t i = 0; i < n; i++) {
+        snprintf(path, sizeof path, "%s/%s", dir, package_files[i].name);
+        int st = write_new(path, package_files[i].text);
+        if (st)
+            return st;
+    }
+    printf("wrote %s/ (index.calc.md and its parts); build it with: headroom build %s/index.calc.md\n",
+           dir, dir);
+    return 0;
+}
+
+static int cmd_new(int argc, char **argv)
+{
+    size_t n = sizeof starters / sizeof starters[0];
+    if (argc == 0 || strcmp(argv[0], "--help") == 0 || argc > 2) {
+        FILE *out = argc == 0 || argc > 2 ? stderr : stdout;
+        fputs("usage: headroom new KIND [FILE]\n"
+              "Write a commented starter calc of KIND to FILE (default KIND.calc.md).\n"
+              "'headroom new package DIR' writes a starter package (index.calc.md, a\n"
+              "basis of design and one part) into DIR (default: package).\n"
+              "An existing file is never overwritten. Kinds: package",
+              out);
+        for (size_t i = 0; i < n; i++)
+            fprintf(out, " %s", starters[i].kind);
+        fputc('\n', out);
+        return out == stdout ? 0 : EXIT_INPUT;
+    }
+    if (strcmp(argv[0], "package") == 0)
+        return new_package(argc == 2 ? argv[1] : "package");
+    const char *text = NULL;
+    for (size_t i = 0; i < n; i++)
+        if (strcmp(starters[i].kind, argv[0]) == 0)
+            text = starters[i].text;
+    if (!text) {
+        fprintf(stderr, "headroom new: unknown kind '%s' (kinds:", argv[0]);
+        for (size_t i = 0; i < n; i++)
+            fprintf(stderr, " %s", starters[i].kind);
+        fputs(" package)\n", stderr);
+        return EXIT_INPUT;
+    }
+    char def[256];
+    snprintf(def, sizeof def, "%s.calc.md", argv[0]);
+    const char *path = argc == 2 ? argv[1] : def;
+    if (strcmp(path, "-") == 0) {
+        fputs(text, stdout);
+        return fflush(stdout) == 0 ? 0 : EXIT_IO;
+    }
+    /* O_EXCL: never overwrite somebody's calc. */
+    int st = write_new(path, text);
+    if (st)
+        return st;
     printf("wrote %s; build it with: headroom build %s\n", path, path);
     return 0;
 }
@@ -540,6 +807,57 @@ static const char diff_help[] =
     "as a file is read as the file.\n"
     "Exit 0 when nothing changed in meaning, 1 when something did, 2 on input\n"
     "errors in either side, 3 on an output failure.\n";
+
+/* diff of two package indexes: the index, then part by part under each
+ * part's name as the indexes list it. */
+static int diff_packages(Evaluated *ev[2], DiagList dl[2], bool json, const DiffOptions *opt)
+{
+    if (!package_is_index(ev[0]->doc) || !package_is_index(ev[1]->doc)) {
+        fprintf(stderr, "headroom diff: %s is a package index and %s is not; compare two indexes "
+                        "or two calcs\n", package_is_index(ev[0]->doc) ? ev[0]->doc->file : ev[1]->doc->file,
+                package_is_index(ev[0]->doc) ? ev[1]->doc->file : ev[0]->doc->file);
+        return EXIT_INPUT;
+    }
+    Package *pkg[2];
+    int status = 0;
+    for (int k = 0; k < 2; k++) {
+        pkg[k] = package_load(ev[k]->doc, &dl[k]);
+        print_package_diags(pkg[k], &dl[k]);
+        if (pkg[k]->errors)
+            status = EXIT_INPUT;
+    }
+    if (status == 0) {
+        const Package *o = pkg[0], *n = pkg[1];
+        PartDiff *parts = calloc(o->nparts + n->nparts + 1, sizeof *parts);
+        size_t np = 0;
+        for (size_t i = 0; parts && i < n->nparts; i++) {
+            int k = package_find_part(o, n->index->meta.parts[i].file);
+            PartDiff *p = &parts[np++];
+            p->file = n->index->meta.parts[i].file;
+            if (k < 0)
+                p->added = true;
+            else
+                p->diff = diff_compute(o->parts[k].ev, n->parts[i].ev, opt);
+        }
+        for (size_t i = 0; parts && i < o->nparts; i++)
+            if (package_find_part(n, o->index->meta.parts[i].file) < 0)
+                parts[np++] = (PartDiff){o->index->meta.parts[i].file, NULL, false, true};
+        Diff *ix = diff_compute(o->index_ev, n->index_ev, opt);
+        bool changed = ix->changed;
+        for (size_t i = 0; i < np; i++)
+            changed |= parts[i].added || parts[i].removed || parts[i].diff->changed;
+        bool ok = parts && (json ? render_package_diff_json(ix, parts, np, stdout)
+                                 : render_package_diff_text(ix, parts, np, stdout));
+        status = ok && fflush(stdout) == 0 ? (changed ? 1 : 0) : EXIT_IO;
+        for (size_t i = 0; i < np; i++)
+            diff_free((Diff *)parts[i].diff);
+        diff_free(ix);
+        free(parts);
+    }
+    package_free(pkg[0]);
+    package_free(pkg[1]);
+    return status;
+}
 
 static int cmd_diff(int argc, char **argv)
 {
@@ -583,7 +901,9 @@ static int cmd_diff(int argc, char **argv)
     for (int k = 0; k < 2; k++)
         if (!(ev[k] = load_revision(side[k], &dl[k], &doc[k])))
             status = EXIT_INPUT;
-    if (status == 0) {
+    if (status == 0 && (package_is_index(doc[0]) || package_is_index(doc[1]))) {
+        status = diff_packages(ev, dl, json, &opt);
+    } else if (status == 0) {
         Diff *d = diff_compute(ev[0], ev[1], &opt);
         bool ok = json ? render_diff_json(d, stdout) : render_diff_text(d, stdout);
         status = stdout_ok() && ok ? (d->changed ? 1 : 0) : EXIT_IO;
@@ -712,12 +1032,18 @@ static void watch_build(void *vctx, Vec *inputs)
         } else {
             DiagList wl = {0};
             const char *ins[] = {w->file};
-            if (write_report(ev, FMT_PDF, w->out, &wl, NULL, NULL, ins, 1) == 0)
+            ReportJob job = {ev, NULL, NULL, NULL, NULL, ins, 1};
+            if (write_report(&job, FMT_PDF, w->out, &wl) == 0)
                 printf("wrote %s\n", w->out);
             diag_free(&wl);
         }
-        /* Files the calc uses are watched too, once the Document lists them
-         * (use("file"), DESIGN 2.13): push each of their paths here. */
+        /* The files the calc uses (use("file"), DESIGN 2.13), directly or
+         * through another, are watched too. */
+        for (size_t i = 0; doc->own_uses && i < doc->own_uses->nfiles; i++) {
+            const UsedFile *u = doc->own_uses->files[i];
+            if (u->file && !u->doc->from_git)
+                vec_push(inputs, xstrdup(u->file));
+        }
     }
     fflush(stderr);
     diag_free(&dl);

@@ -143,6 +143,7 @@ Document *revision_load(const char *arg, DiagList *diags)
         return NULL;
     }
     Document *doc = doc_from_text(arg, text, len, diags);
+    doc->from_git = true;
     free(text);
     return doc;
 }

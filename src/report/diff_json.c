@@ -106,6 +106,7 @@ static const char *stmt_kind(const Stmt *s)
     case STMT_CHECK: return "check";
     case STMT_SOLVE: return "solve";
     case STMT_PATH: return "path";
+    case STMT_CURVE: return "curve";
     default: return "value";
     }
 }
@@ -148,7 +149,7 @@ static json_t *citation_json(const Diff *d, const CiteChange *c)
     return o;
 }
 
-bool render_diff_json(const Diff *d, FILE *out)
+static json_t *diff_json(const Diff *d)
 {
     json_t *root = json_object();
     json_object_set_new(root, "old", side_json(d->old_ev->doc));
@@ -231,8 +232,63 @@ bool render_diff_json(const Diff *d, FILE *out)
     }
     json_object_set_new(root, "prose", prose);
 
+    if (d->nuses) {
+        static const char *const uk[] = {"changed", "added", "removed"};
+        json_t *uses = json_array();
+        for (size_t i = 0; i < d->nuses; i++) {
+            const UseChange *c = &d->uses[i];
+            json_t *o = json_object();
+            json_object_set_new(o, "file", json_string(c->name));
+            json_object_set_new(o, "change", json_string(uk[c->kind]));
+            json_object_set_new(o, "old_digest", text_or_null(c->old_digest));
+            json_object_set_new(o, "new_digest", text_or_null(c->new_digest));
+            json_t *moved = json_array();
+            for (size_t k = 0; k < c->nmoved; k++) {
+                const ValueChange *v = &d->results[c->moved[k]];
+                json_array_append_new(moved, json_string(v->name));
+            }
+            json_object_set_new(o, "moved", moved);
+            json_array_append_new(uses, o);
+        }
+        json_object_set_new(root, "uses", uses);
+    }
+
+    return root;
+}
+
+static bool dump(json_t *root, FILE *out)
+{
     int rc = json_dumpf(root, out, JSON_INDENT(2) | JSON_PRESERVE_ORDER | JSON_REAL_PRECISION(17));
     fputc('\n', out);
     json_decref(root);
     return rc == 0;
+}
+
+bool render_diff_json(const Diff *d, FILE *out)
+{
+    return dump(diff_json(d), out);
+}
+
+bool render_package_diff_json(const Diff *index, const PartDiff *parts, size_t n, FILE *out)
+{
+    json_t *root = json_object();
+    json_object_set_new(root, "old", side_json(index->old_ev->doc));
+    json_object_set_new(root, "new", side_json(index->new_ev->doc));
+    bool changed = index->changed;
+    json_t *arr = json_array();
+    static const char *const kind[] = {"same", "changed", "added", "removed"};
+    for (size_t i = 0; i < n; i++) {
+        const PartDiff *p = &parts[i];
+        int k = p->added ? 2 : p->removed ? 3 : p->diff && p->diff->changed ? 1 : 0;
+        changed |= k != 0;
+        json_t *o = json_object();
+        json_object_set_new(o, "file", json_string(p->file));
+        json_object_set_new(o, "change", json_string(kind[k]));
+        json_object_set_new(o, "diff", p->diff ? diff_json(p->diff) : json_null());
+        json_array_append_new(arr, o);
+    }
+    json_object_set_new(root, "changed", json_boolean(changed));
+    json_object_set_new(root, "index", diff_json(index));
+    json_object_set_new(root, "parts", arr);
+    return dump(root, out);
 }

@@ -194,6 +194,9 @@ static void stmt_text(const Evaluated *ev, const Stmt *s, StrBuf *out)
     case STMT_PATH:
         sb_printf(out, "path %s (%zu segments)", s->name, s->path ? s->path->nsegs : (size_t)0);
         break;
+    case STMT_CURVE:
+        sb_printf(out, "curve %s (%zu points)", s->name, s->curve ? s->curve->npoints : (size_t)0);
+        break;
     default:
         break;
     }
@@ -328,6 +331,38 @@ static void put_side(const char *which, const Document *doc, StrBuf *out)
     sb_printf(out, "  sha256 %.12s\n", doc->digest);
 }
 
+/* Used files whose bytes changed, and the results that read them. */
+static void put_uses(const Diff *d, StrBuf *out)
+{
+    static const char *const kind[] = {"changed", "now used", "no longer used"};
+    sb_puts(out, "\nused files:\n");
+    for (size_t i = 0; i < d->nuses; i++) {
+        const UseChange *c = &d->uses[i];
+        sb_printf(out, "  %s  %s", c->name, kind[c->kind]);
+        if (c->old_digest && c->new_digest)
+            sb_printf(out, ": sha256 %.12s → %.12s", c->old_digest, c->new_digest);
+        else
+            sb_printf(out, ": sha256 %.12s", c->new_digest ? c->new_digest : c->old_digest);
+        sb_putc(out, '\n');
+        if (c->kind == USE_REMOVED)
+            continue;
+        if (c->nmoved == 0) {
+            sb_puts(out, "    no result of this calc moved\n");
+            continue;
+        }
+        sb_printf(out, "    %zu result%s moved because of it:", c->nmoved, c->nmoved == 1 ? "" : "s");
+        const char *last = NULL;
+        for (size_t k = 0; k < c->nmoved; k++) {
+            const char *name = d->results[c->moved[k]].name;
+            if (last && strcmp(last, name) == 0)
+                continue; /* fields of one record: its name once */
+            sb_printf(out, "%s %s", last ? "," : "", name);
+            last = name;
+        }
+        sb_putc(out, '\n');
+    }
+}
+
 static void count(StrBuf *out, const char **sep, size_t n, const char *one, const char *many)
 {
     if (!n)
@@ -341,6 +376,8 @@ bool render_diff_text(const Diff *d, FILE *out)
     StrBuf sb = {0};
     put_side("old", d->old_ev->doc, &sb);
     put_side("new", d->new_ev->doc, &sb);
+    if (d->nuses)
+        put_uses(d, &sb);
     size_t nmeta = 0;
     if (d->nmeta) {
         sb_puts(&sb, "\nfront matter:\n");
@@ -384,5 +421,30 @@ bool render_diff_text(const Diff *d, FILE *out)
     }
     bool ok = fwrite(sb.data ? sb.data : "", 1, sb.len, out) == sb.len;
     sb_free(&sb);
+    return ok;
+}
+
+bool render_package_diff_text(const Diff *index, const PartDiff *parts, size_t n, FILE *out)
+{
+    bool ok = fprintf(out, "package: %s → %s\n", index->old_ev->doc->file, index->new_ev->doc->file) > 0;
+    if (index->changed) {
+        ok = fputs("\n== the index\n", out) >= 0 && ok;
+        ok = render_diff_text(index, out) && ok;
+    }
+    size_t changed = 0;
+    for (size_t i = 0; i < n; i++) {
+        const PartDiff *p = &parts[i];
+        if (p->added || p->removed) {
+            ok = fprintf(out, "\n== %s  %s the package\n", p->file,
+                         p->added ? "added to" : "removed from") > 0 && ok;
+            changed++;
+            continue;
+        }
+        ok = fprintf(out, "\n== %s\n", p->file) > 0 && ok;
+        ok = render_diff_text(p->diff, out) && ok;
+        changed += p->diff->changed;
+    }
+    ok = fprintf(out, "\npackage: %zu of %zu part%s changed in meaning%s\n", changed, n,
+                 n == 1 ? "" : "s", index->changed ? ", and the index" : "") > 0 && ok;
     return ok;
 }

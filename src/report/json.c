@@ -13,6 +13,7 @@
 
 #include "numfmt.h"
 #include "render.h"
+#include "uses.h"
 
 static json_t *real_or_null(double x)
 {
@@ -58,6 +59,11 @@ static json_t *value_json(const Evaluated *ev, const Value *v, const Unit *shown
         json_t *o = json_object();
         json_object_set_new(o, "kind", json_string("record"));
         json_object_set_new(o, "type", json_string(v->rec->type));
+        const UsedFile *u = use_of_record(v->rec);
+        if (u) {
+            json_object_set_new(o, "file", json_string(u->file));
+            json_object_set_new(o, "digest", json_string(u->doc->digest));
+        }
         json_t *fields = json_object();
         for (size_t i = 0; i < v->rec->nfields; i++)
             json_object_set_new(fields, v->rec->fields[i].name, value_json(ev, &v->rec->fields[i].value, NULL));
@@ -106,6 +112,12 @@ static json_t *meta_json(const Meta *m)
             json_array_append_new(revs, r);
         }
         json_object_set_new(o, "revisions", revs);
+    }
+    if (m->has_parts) {
+        json_t *parts = json_array();
+        for (size_t i = 0; i < m->nparts; i++)
+            json_array_append_new(parts, json_string(m->parts[i].file));
+        json_object_set_new(o, "parts", parts);
     }
     return o;
 }
@@ -173,6 +185,28 @@ static json_t *figure_json(const Stmt *s, const FigureData *fd)
     return o;
 }
 
+/* A table a statement laid out: title, heads, units and rows of values. */
+static json_t *table_json(const Evaluated *ev, const ResultTable *t)
+{
+    json_t *o = json_object();
+    json_object_set_new(o, "title", json_string(t->title));
+    json_t *heads = json_array(), *units = json_array(), *rows = json_array();
+    for (size_t k = 0; k < t->ncols; k++) {
+        json_array_append_new(heads, json_string(t->heads[k]));
+        json_array_append_new(units, json_string(strcmp(t->units[k].text, "1") == 0 ? "" : t->units[k].text));
+    }
+    for (size_t r = 0; r < t->nrows; r++) {
+        json_t *row = json_array();
+        for (size_t k = 0; k < t->ncols; k++)
+            json_array_append_new(row, value_json(ev, &t->cells[r * t->ncols + k], &t->units[k]));
+        json_array_append_new(rows, row);
+    }
+    json_object_set_new(o, "heads", heads);
+    json_object_set_new(o, "units", units);
+    json_object_set_new(o, "rows", rows);
+    return o;
+}
+
 /* A case table: per row, the inputs, the shown results and every check. */
 static json_t *cases_json(const Evaluated *ev, size_t which)
 {
@@ -226,6 +260,17 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
     json_t *o = json_object();
     json_object_set_new(o, "file", json_string(doc->file));
     json_object_set_new(o, "digest", json_string(doc->digest));
+    json_t *uses = json_array();
+    for (size_t i = 0; i < ev->nused; i++) {
+        json_t *u = json_object();
+        json_object_set_new(u, "file", json_string(ev->used[i]->file));
+        json_object_set_new(u, "digest", json_string(ev->used[i]->doc->digest));
+        json_array_append_new(uses, u);
+    }
+    if (ev->nused)
+        json_object_set_new(o, "uses", uses);
+    else
+        json_decref(uses);
     json_object_set_new(o, "meta", meta_json(&doc->meta));
     json_t *values = json_object();
     json_t *checks = json_array();
@@ -239,7 +284,7 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
                 json_array_append_new(figures, figure_json(s, r->figure));
             continue;
         }
-        if ((s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH) && s->name) {
+        if ((s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH || s->kind == STMT_CURVE) && s->name) {
             json_t *v;
             if (r->state == RES_OK) {
                 v = value_json(ev, &r->value, &r->shown);
@@ -254,6 +299,8 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
                     json_array_append_new(order, json_string(s->path->segs[k].field));
                 json_object_set_new(v, "segments", order);
             }
+            if (r->state == RES_OK && r->table)
+                json_object_set_new(v, "table", table_json(ev, r->table));
             if (s->kind == STMT_SOLVE && r->state == RES_OK) {
                 json_object_set_new(v, "residual", real_or_null(r->solve.residual));
                 json_object_set_new(v, "iterations", json_integer(r->solve.iterations));

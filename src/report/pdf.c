@@ -235,6 +235,7 @@ void item_add(Vec *items, Pdf *P, ItemFn fn, const void *p, int aux, double spac
     it->p = p;
     it->aux = aux;
     it->layout.space_before = space_before;
+    it->scope = P->scope;
     vec_push(items, it);
 }
 
@@ -320,9 +321,17 @@ static const char *base_name(const char *path)
  * (without /Type /Filespec), so the embedded-file stream, its file
  * specification and the name-tree entry are made here from libharu's
  * object layer, straight from the source bytes in memory. */
-static HPDF_Dict attach_source(Pdf *P)
+HPDF_Dict pdf_attach_source(Pdf *P)
 {
-    const Document *d = P->d;
+    const char *base = strcmp(P->d->file, "-") == 0 ? "stdin.calc.md" : base_name(P->d->file);
+    return pdf_attach_named(P, P->d, base);
+}
+
+/* `name` is the attachment's file name; a package attaches its files in
+ * the name tree's sorted order, each under a distinct name. Returns the
+ * file specification (NULL on failure). */
+HPDF_Dict pdf_attach_named(Pdf *P, const Document *d, const char *base)
+{
     HPDF_Doc pdf = P->doc;
     HPDF_MMgr mm = pdf->mmgr;
     HPDF_Xref xref = pdf->xref;
@@ -352,7 +361,6 @@ static HPDF_Dict attach_source(Pdf *P)
     HPDF_Stream_Write(file->stream, (const HPDF_BYTE *)d->text, (HPDF_UINT)d->len);
 
     /* an ASCII file name: the source's, with anything else replaced */
-    const char *base = strcmp(d->file, "-") == 0 ? "stdin.calc.md" : base_name(d->file);
     char name[256];
     size_t n = 0;
     for (const char *c = base; *c && n + 1 < sizeof name; c++)
@@ -366,7 +374,17 @@ static HPDF_Dict attach_source(Pdf *P)
     HPDF_Dict_Add(spec, "Desc", HPDF_String_New(mm, desc, NULL));
     HPDF_Dict_Add(ef, "F", file);
     HPDF_Dict_Add(spec, "EF", ef);
-    HPDF_NameTree_Add(tree, HPDF_String_New(mm, name, NULL), spec);
+    if (!P->pkg) {
+        HPDF_NameTree_Add(tree, HPDF_String_New(mm, name, NULL), spec);
+        return spec;
+    }
+    /* a package adds its files in sorted order, so each entry is appended to
+     * the tree's Names array directly, key then value */
+    HPDF_Array items = HPDF_Dict_GetItem(tree, "Names", HPDF_OCLASS_ARRAY);
+    if (items) {
+        HPDF_Array_Add(items, HPDF_String_New(mm, name, NULL));
+        HPDF_Array_Add(items, spec);
+    }
     return spec;
 }
 
@@ -405,30 +423,38 @@ static bool build(Pdf *P, const char *path)
     pdf_sheet_geometry(P);
     pdf_revision_geometry(P);
     P->metrics = (MathMetrics){metric_width, P, 0.72, 0.22, 0.26};
-    P->env = (MathEnv){&P->arena, &P->metrics, P->ev, P->ev->digits > 0 ? P->ev->digits : 4};
+    P->env = (MathEnv){&P->arena, &P->metrics, P->ev, P->ev->digits > 0 ? P->ev->digits : 4, NULL};
     P->painter = (MathPainter){paint_text, paint_line, paint_curve, P};
     pdf_number_references(P);
     pdf_number_figures(P);
 
     /* collect and measure */
     Vec items = {0};
-    pdf_cover_items(P, &items);
-    pdf_body_items(P, &items);
-    pdf_end_items(P, &items);
-    pdf_revision_items(P, &items);
+    if (P->pkg) {
+        pdf_package_items(P, &items);
+    } else {
+        pdf_cover_items(P, &items);
+        pdf_body_items(P, &items);
+        pdf_end_items(P, &items);
+        pdf_revision_items(P, &items);
+    }
     size_t n = items.len;
     PageItem *pi = xcalloc(n ? n : 1, sizeof *pi);
     PagePlace *place = xcalloc(n ? n : 1, sizeof *place);
     P->page = NULL;
     for (size_t i = 0; i < n; i++) {
         Item *it = items.items[i];
+        pdf_scope_load(P, it->scope);
         it->layout.height = it->fn(P, it, 0);
         pi[i] = it->layout;
     }
     double body_h = P->sheet.body_top - P->sheet.body_bottom;
     P->npages = pagelayout_assign(pi, n, body_h, place);
+    if (P->pkg)
+        pdf_package_placed(P, &items, place);
     for (size_t i = 0; i < n; i++) {
         Item *it = items.items[i];
+        pdf_scope_load(P, it->scope);
         if (it->ref > 0 && it->ref <= P->nrefs) {
             P->ref_page[it->ref] = place[i].page;
             P->ref_y[it->ref] = P->sheet.body_top - place[i].y + 12;
@@ -447,11 +473,13 @@ static bool build(Pdf *P, const char *path)
     if (!P->error) {
         for (int s = 0; s < P->npages; s++) {
             P->page = P->pages[s];
+            pdf_scope_load(P, P->sheet_scope ? P->sheet_scope[s] : 0);
             pdf_sheet_frame(P, s);
         }
         P->root = NULL;
         for (size_t i = 0; i < n; i++) {
             Item *it = items.items[i];
+            pdf_scope_load(P, it->scope);
             P->page = P->pages[place[i].page];
             double top = P->sheet.body_top - place[i].y;
             if (it->outline)
@@ -465,6 +493,7 @@ static bool build(Pdf *P, const char *path)
     free(place);
     vec_free(&items);
 
+    pdf_scope_load(P, 0);
     /* labels, information, attachment */
     HPDF_AddPageLabel(P->doc, 0, HPDF_PAGE_NUM_STYLE_DECIMAL, 1, "Sheet ");
     HPDF_SetPageMode(P->doc, HPDF_PAGE_MODE_USE_OUTLINE);
@@ -480,8 +509,15 @@ static bool build(Pdf *P, const char *path)
     set_info(P, HPDF_INFO_SUBJECT, info.subject);
     set_info(P, HPDF_INFO_KEYWORDS, info.keywords);
     set_info(P, HPDF_INFO_CREATOR, info.creator);
-    HPDF_Dict spec = attach_source(P);
-    if (P->error || !pdf_archive_prepare(P, &info, spec))
+    HPDF_Dict one = NULL, *specs = &one;
+    size_t nspecs = 0;
+    if (P->pkg) {
+        nspecs = pdf_attach_sources(P, &specs);
+    } else {
+        one = pdf_attach_source(P);
+        nspecs = one != NULL;
+    }
+    if (P->error || !pdf_archive_prepare(P, &info, specs, nspecs))
         return false;
     if (HPDF_SaveToFile(P->doc, path) != HPDF_OK || P->error) {
         diag_error(P->diags, ((Pos){NULL, 0, 0}), "cannot write '%s' (libharu error 0x%04X)",
@@ -499,7 +535,15 @@ bool render_pdf(const Evaluated *ev, const char *path, DiagList *diags)
 bool render_pdf_since(const Evaluated *ev, const Diff *since, const char *since_label,
                       const char *path, DiagList *diags)
 {
+    return pdf_render(ev, NULL, NULL, since, since_label, path, diags);
+}
+
+bool pdf_render(const Evaluated *ev, const struct Package *pkg, const Diff *const *pkg_since,
+                const Diff *since, const char *since_label, const char *path, DiagList *diags)
+{
     Pdf *P = xcalloc(1, sizeof *P);
+    P->pkg = pkg;
+    P->pkg_since = pkg_since;
     P->ev = ev;
     P->since = since;
     P->since_label = since_label;

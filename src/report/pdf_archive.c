@@ -231,7 +231,7 @@ static bool add_output_intent(Pdf *P)
 
 /* ---- the whole ---------------------------------------------------------------- */
 
-bool pdf_archive_prepare(Pdf *P, const PdfInfo *info, HPDF_Dict source_spec)
+bool pdf_archive_prepare(Pdf *P, const PdfInfo *info, HPDF_Dict *source_specs, size_t nspecs)
 {
     HPDF_Doc pdf = P->doc;
     HPDF_MMgr mm = pdf->mmgr;
@@ -258,27 +258,34 @@ bool pdf_archive_prepare(Pdf *P, const PdfInfo *info, HPDF_Dict source_spec)
     if (!add_output_intent(P))
         return false;
 
-    /* the source as the associated file the report was made from */
-    if (source_spec) {
+    /* the sources as the associated files the report was made from (a
+     * package's: the index, every part and the files they use) */
+    HPDF_Array af = nspecs ? HPDF_Array_New(mm) : NULL;
+    if (nspecs && !af)
+        return false;
+    for (size_t i = 0; i < nspecs; i++) {
+        HPDF_Dict source_spec = source_specs[i];
+        if (!source_spec)
+            continue;
         HPDF_Dict_AddName(source_spec, "AFRelationship", "Source");
-        HPDF_Array af = HPDF_Array_New(mm);
-        if (!af)
-            return false;
         HPDF_Array_Add(af, source_spec);
-        HPDF_Dict_Add(pdf->catalog, "AF", af);
         HPDF_Dict ef = HPDF_Dict_GetItem(source_spec, "EF", HPDF_OCLASS_DICT);
         HPDF_Dict file = ef ? HPDF_Dict_GetItem(ef, "F", HPDF_OCLASS_DICT) : NULL;
         HPDF_Dict params = file ? HPDF_Dict_GetItem(file, "Params", HPDF_OCLASS_DICT) : NULL;
         if (params && dated)
             HPDF_Dict_Add(params, "ModDate", HPDF_String_New(mm, pdf_date, NULL));
     }
+    if (af)
+        HPDF_Dict_Add(pdf->catalog, "AF", af);
 
-    /* the file identifier: the first 16 bytes of the source's SHA-256, so
-     * the same source gives the same file and a changed one a new ID */
+    /* the file identifier: the first 16 bytes of the source's SHA-256 (a
+     * package's: of all its sources' digests), so the same source gives the
+     * same file and a changed one a new ID */
+    const char *digest = P->pkg_digest[0] ? P->pkg_digest : P->d->digest;
     HPDF_BYTE id[16];
     for (int i = 0; i < 16; i++) {
         unsigned v = 0;
-        sscanf(P->d->digest + 2 * i, "%2x", &v);
+        sscanf(digest + 2 * i, "%2x", &v);
         id[i] = (HPDF_BYTE)v;
     }
     HPDF_Array ids = HPDF_Array_New(mm);

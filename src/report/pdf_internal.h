@@ -35,7 +35,31 @@ struct Item {
     int outline_level;       /* 1..6 */
     int ref;                 /* references: the entry's number, else 0 */
     int rev_mark;            /* revision marks: 0 none, 1 bar and triangle, 2 bar only */
+    int scope;               /* a package report: whose item it is (PdfScope index) */
 };
+
+/* A package report draws items of several calcs. Each calc's state that
+ * the item functions read through the Pdf (its document and results, math
+ * environment, reference and figure numbers, revision diff) is one scope;
+ * scope 0 is the package's own (the index), scope k the k-th part. Items
+ * record their scope, and the renderer loads it before measuring or
+ * drawing each item and each sheet's frame. */
+typedef struct PdfScope {
+    const Evaluated *ev;
+    const Document *d;
+    MathEnv env;
+    int governing;
+    bool preliminary;
+    int *source_ref, *method_ref, *method_first;
+    int nrefs;
+    int *ref_page;
+    double *ref_y;
+    int *figure_no;
+    int nfigures;
+    const Diff *since;
+    size_t first_item;       /* a part: its title's index in the item list */
+    int first_sheet, last_sheet;   /* the part's sheets, 0-based; -1 before layout */
+} PdfScope;
 
 typedef struct Rgb {
     double r, g, b;
@@ -82,6 +106,15 @@ struct Pdf {
     /* revision marks (build --since): the diff from the earlier revision, its name */
     const Diff *since;
     const char *since_label;
+    /* a package report (pdf_package.c); pkg is NULL for one calc */
+    const struct Package *pkg;
+    PdfScope *scopes;        /* 1 + number of parts */
+    int nscopes;
+    int scope;               /* loaded now */
+    int *sheet_scope;        /* by sheet: whose title block and trace line it carries */
+    size_t pkg_failed;       /* failing checks and case rows over the package */
+    const Diff *const *pkg_since;  /* build --since: one Diff per part, NULL for a new part */
+    char pkg_digest[65];     /* a package: SHA-256 of every source's digest, for the file ID */
     HPDF_STATUS error;       /* first libharu error */
     HPDF_STATUS error_detail;
     /* a path or cases table is split into chunks that share one column
@@ -134,6 +167,9 @@ double pdf_fn_figure(Pdf *P, const Item *it, double top);
 void pdf_path_items(Pdf *P, Vec *items, const Stmt *st);
 /* The items of a cases block: a table of inputs, results and verdicts. */
 void pdf_cases_items(Pdf *P, Vec *items, size_t which);
+/* pdf_table.c: a statement's laid-out table (ResultTable), a curve block */
+void pdf_table_items(Pdf *P, Vec *items, const Stmt *st);
+void pdf_curve_items(Pdf *P, Vec *items, const Stmt *st);
 /* Case tables with a failing row, for the cover: items after the check summary. */
 void pdf_cases_cover_items(Pdf *P, Vec *items);
 /* The number of case rows, over all case tables, in which a check fails. */
@@ -148,6 +184,27 @@ void pdf_number_references(Pdf *P);
 bool pdf_status_issued(const char *status);
 /* A section title of the end matter (kept with what follows). */
 Item *pdf_section(Pdf *P, Vec *items, const char *title, bool new_sheet, bool outline);
+
+/* ---- packages (pdf_package.c) ------------------------------------------ */
+/* Render one calc (pkg NULL) or a package (ev: the index's) to `path`. */
+bool pdf_render(const Evaluated *ev, const struct Package *pkg, const Diff *const *pkg_since,
+                const Diff *since, const char *since_label, const char *path, DiagList *diags);
+/* Load scope `k` (no-op for a single calc's report). */
+void pdf_scope_load(Pdf *P, int k);
+/* The items of a package report: cover, contents, then every part. */
+void pdf_package_items(Pdf *P, Vec *items);
+/* After layout: each sheet's scope and each part's sheets. */
+void pdf_package_placed(Pdf *P, Vec *items, const PagePlace *place);
+/* The package cover's items (pdf_sheet.c): cover, every check of every part
+ * grouped by part, the cautions. */
+void pdf_package_cover_items(Pdf *P, Vec *items);
+/* Attach the source of every calc of the package; *specs gets their file
+ * specifications (in the Pdf's arena), the count is returned. */
+size_t pdf_attach_sources(Pdf *P, HPDF_Dict **specs);
+/* One calc's source under its own name, or under `name`; its file
+ * specification, NULL on failure. */
+HPDF_Dict pdf_attach_source(Pdf *P);
+HPDF_Dict pdf_attach_named(Pdf *P, const Document *d, const char *name);
 
 /* ---- revision marks (pdf_revision.c) ------------------------------------- */
 /* With P->since: narrow the body for the column of marks. */
@@ -174,7 +231,7 @@ typedef struct PdfInfo {
 /* Make the file archival just before it is saved: XMP, the sRGB output
  * intent, valid ToUnicode maps, the source as associated file (its file
  * specification `source_spec`, may be NULL), dates and the file ID. */
-bool pdf_archive_prepare(Pdf *P, const PdfInfo *info, HPDF_Dict source_spec);
+bool pdf_archive_prepare(Pdf *P, const PdfInfo *info, HPDF_Dict *source_specs, size_t nspecs);
 extern const char *const PDF_ICC_PROFILE;
 
 #endif

@@ -11,6 +11,8 @@
  * fixed wording lives in templates/ (compiled in as pdf_texts.inc). */
 #include "report/pdf_internal.h"
 
+#include "uses.h"
+
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -123,11 +125,17 @@ static void draw_watermark(Pdf *P, const char *text)
 /* A check fails in the calc itself or in one of its cases. */
 static bool any_failed(const Pdf *P)
 {
+    if (P->pkg)
+        return P->pkg_failed > 0;
     return P->ev->nfailed > 0 || pdf_case_rows_failing(P) > 0;
 }
 
 static const char *marking(const Pdf *P)
 {
+    if (P->pkg)
+        return any_failed(P) ? "CHECKS NOT SATISFIED"
+               : P->preliminary ? "PRELIMINARY — NOT FOR CONSTRUCTION"
+                                : NULL;
     size_t cases = pdf_case_rows_failing(P);
     if (P->ev->nfailed == 0 && cases > 0)
         return cases == 1 ? "CHECKS NOT SATISFIED IN ONE CASE" : "CHECKS NOT SATISFIED IN SOME CASES";
@@ -182,8 +190,31 @@ void pdf_sheet_frame(Pdf *P, int sheet)
     pdf_text_color(P, FONT_SANS, 6.8, fx, s->frame_b + 4.8, "SHA-256", GREY);
     fx += pdf_width(P, FONT_SANS, 6.8, "SHA-256") + 4;
     pdf_text_color(P, FONT_MONO, 6.8, fx, s->frame_b + 4.8, dig, INK);
+    fx += pdf_width(P, FONT_MONO, 6.8, dig) + 10;
     snprintf(buf, sizeof buf, "headroom %s", HEADROOM_VERSION);
     double vw = pdf_width(P, FONT_SANS, 6.8, buf);
+    /* every used file's digest beside the source's, as far as the line holds
+     * them; the rest are counted (the cover's contents lists them all) */
+    double room = x0 + W - vw - 14;
+    for (size_t i = 0; i < P->ev->nused; i++) {
+        const UsedFile *u = P->ev->used[i];
+        const char *us = strrchr(u->file, '/');
+        char ub[160], ud[13];
+        snprintf(ub, sizeof ub, "uses %s", us ? us + 1 : u->file);
+        memcpy(ud, u->doc->digest, 12);
+        ud[12] = '\0';
+        double need = pdf_width(P, FONT_SANS, 6.8, ub) + 4 + pdf_width(P, FONT_MONO, 6.8, ud);
+        char more[32];
+        snprintf(more, sizeof more, "+%zu used", P->ev->nused - i);
+        if (fx + need + (i + 1 < P->ev->nused ? pdf_width(P, FONT_SANS, 6.8, more) + 10 : 0) > room) {
+            pdf_text_color(P, FONT_SANS, 6.8, fx, s->frame_b + 4.8, more, GREY);
+            break;
+        }
+        pdf_text_color(P, FONT_SANS, 6.8, fx, s->frame_b + 4.8, ub, GREY);
+        fx += pdf_width(P, FONT_SANS, 6.8, ub) + 4;
+        pdf_text_color(P, FONT_MONO, 6.8, fx, s->frame_b + 4.8, ud, INK);
+        fx += pdf_width(P, FONT_MONO, 6.8, ud) + 10;
+    }
     pdf_text_color(P, FONT_SANS, 6.8, x0 + W - vw - 4, s->frame_b + 4.8, buf, GREY);
 }
 
@@ -376,11 +407,24 @@ static double fn_cover(Pdf *P, const Item *it, double top)
     double sh = seal_box(P, x + W - sw, y, sw);
     y -= (rh > sh ? rh : sh) + 10;
 
-    snprintf(buf, sizeof buf,
-             "Computed and typeset by headroom %s from %s; the source file is attached "
-             "to this PDF and listed in the appendix. SHA-256 of the source: %s.",
-             HEADROOM_VERSION, base_of(P->d->file), P->d->digest);
-    y -= pdf_wrap(P, FONT_SERIF_ITALIC, 7.5, 9.5, x, y, W - sw - gap, buf);
+    StrBuf tr = {0};
+    if (P->pkg)
+        sb_printf(&tr,
+                  "Computed and typeset by headroom %s from the package index %s and the %d "
+                  "calcs it lists; every source file is attached to this PDF and listed in its "
+                  "part's appendix, with its SHA-256 in the contents. SHA-256 of the index: %s.",
+                  HEADROOM_VERSION, base_of(P->d->file), P->nscopes > 0 ? P->nscopes - 1 : 0,
+                  P->d->digest);
+    else
+        sb_printf(&tr,
+                  "Computed and typeset by headroom %s from %s; the source file is attached "
+                  "to this PDF and listed in the appendix. SHA-256 of the source: %s.",
+                  HEADROOM_VERSION, base_of(P->d->file), P->d->digest);
+    for (size_t i = 0; i < P->ev->nused; i++)
+        sb_printf(&tr, "%s %s, SHA-256 %s%s", i ? ";" : " It uses", base_of(P->ev->used[i]->file),
+                  P->ev->used[i]->doc->digest, i + 1 == P->ev->nused ? "." : "");
+    y -= pdf_wrap(P, FONT_SERIF_ITALIC, 7.5, 9.5, x, y, W - sw - gap, sb_str(&tr));
+    sb_free(&tr);
     return top - y;
 }
 
@@ -594,6 +638,54 @@ void pdf_cover_items(Pdf *P, Vec *items)
     pdf_cases_cover_items(P, items);
     section(P, items, "Cautions", false, false);
     caution_items(P, items, true);
+}
+
+/* A part's heading row in the package's summary of checks. */
+static double fn_summary_part(Pdf *P, const Item *it, double top)
+{
+    const Sheet *s = &P->sheet;
+    const Document *d = P->scopes[it->aux].d;
+    const char *slash = strrchr(d->file, '/');
+    char *t = arena_printf(&P->arena, "Part %d · %s — %s", it->aux, slash ? slash + 1 : d->file,
+                           d->meta.subject ? d->meta.subject : d->meta.title ? d->meta.title : "");
+    double h = 14;
+    if (P->page) {
+        pdf_fill(P, s->body_l, top - h, s->body_r - s->body_l, h, (Rgb){0.96, 0.96, 0.94});
+        pdf_text(P, FONT_SANS_BOLD, 7.5, s->body_l + 3, top - 9.8, t);
+        pdf_line(P, s->body_l, top - h, s->body_r, top - h, 0.3);
+    }
+    return h;
+}
+
+void pdf_package_cover_items(Pdf *P, Vec *items)
+{
+    P->preliminary = !pdf_status_issued(P->d->meta.status);
+    P->scopes[0].preliminary = P->preliminary;
+    item_add(items, P, fn_cover, NULL, 0, 0);
+    Item *cov = items->items[items->len - 1];
+    cov->outline = "Cover";
+    cov->outline_level = 1;
+    section(P, items, "Summary of checks, every part", false, false);
+    item_add(items, P, fn_summary_head, NULL, 0, 0);
+    ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
+    int no = 0;
+    for (int k = 1; k < P->nscopes; k++) {
+        item_add(items, P, fn_summary_part, NULL, k, 0);
+        Item *head = items->items[items->len - 1];
+        head->layout.keep_with_next = true;
+        const Document *d = P->scopes[k].d;
+        pdf_scope_load(P, k);
+        int before = no;
+        for (size_t i = 0; i < d->nstmts; i++)
+            if (d->stmts[i]->kind == STMT_CHECK && !d->stmts[i]->parse_failed)
+                item_add(items, P, fn_summary_row, d->stmts[i], ++no, 0);
+        if (no == before)
+            item_add(items, P, fn_summary_none, NULL, 0, 0);
+        pdf_cases_cover_items(P, items);
+        pdf_scope_load(P, 0);
+    }
+    section(P, items, "Cautions", false, true);
+    caution_items(P, items, false);
 }
 
 /* ---- references ------------------------------------------------------------------- */
@@ -899,9 +991,11 @@ void pdf_end_items(Pdf *P, Vec *items)
     if (!nchecks)
         item_add(items, P, fn_summary_none, NULL, 0, 0);
 
-    section(P, items, "Cautions", false, true);
-    caution_items(P, items, false);
-    item_add(items, P, fn_gap, NULL, 6, 0);
+    if (!P->pkg) { /* a package states its cautions once, on its cover */
+        section(P, items, "Cautions", false, true);
+        caution_items(P, items, false);
+        item_add(items, P, fn_gap, NULL, 6, 0);
+    }
 
     section(P, items, "Appendix A — Source listing", true, true);
     item_add(items, P, fn_listing_intro, NULL, 0, 0);

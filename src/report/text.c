@@ -11,6 +11,8 @@
 
 #include "numfmt.h"
 #include "render.h"
+#include "package.h"
+#include "uses.h"
 
 void render_quantity(const Evaluated *ev, const Value *v, const Unit *unit, char *buf, size_t n)
 {
@@ -85,7 +87,9 @@ static void put_value(const Evaluated *ev, const Value *v, const Unit *u, int pa
         sb_putc(out, ')');
 }
 
-static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, int parent_prec)
+/* `row` is the statement being listed (a solve substitutes its root values), or NULL. */
+static void put_expr(const Evaluated *ev, const StmtResult *row, const Expr *e, bool sub, StrBuf *out,
+                     int parent_prec)
 {
     switch (e->kind) {
     case EXPR_NUMBER:
@@ -97,36 +101,35 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
     case EXPR_STRING:
         sb_printf(out, "\"%s\"", e->text);
         break;
-    case EXPR_NAME:
-        if (sub && e->slot >= 0 && ev->results[e->slot].state == RES_OK &&
-            ev->results[e->slot].value.kind == VAL_NUMBER) {
-            const StmtResult *r = &ev->results[e->slot];
-            put_value(ev, &r->value, &r->shown, parent_prec, out);
-        } else if (sub && e->slot == SLOT_PI) {
-            sb_puts(out, "3.142");
-        } else if (sub && e->slot == SLOT_G) {
-            Value gv = value_number(qty(9.80665, DIM_ACCEL));
-            Unit u = eval_display_unit(ev, &gv, NULL);
-            put_value(ev, &gv, &u, parent_prec, out);
+    case EXPR_NAME: {
+        Unit shown;
+        Value cv;
+        const Value *v = sub ? eval_read(ev, row, e->slot, &shown) : NULL;
+        if (v && v->kind == VAL_NUMBER) {
+            put_value(ev, v, &shown, parent_prec, out);
+        } else if (sub && eval_constant(e->slot, &cv)) {
+            Unit u = eval_display_unit(ev, &cv, NULL);
+            put_value(ev, &cv, &u, parent_prec, out);
         } else {
             sb_puts(out, e->text);
         }
         break;
+    }
     case EXPR_PAREN:
         sb_putc(out, '(');
-        put_expr(ev, e->lhs, sub, out, PREC_TOP);
+        put_expr(ev, row, e->lhs, sub, out, PREC_TOP);
         sb_putc(out, ')');
         break;
     case EXPR_NEG:
         sb_putc(out, '-');
-        put_expr(ev, e->lhs, sub, out, PREC_NEG);
+        put_expr(ev, row, e->lhs, sub, out, PREC_NEG);
         break;
     case EXPR_BINARY: {
         int p = precedence(e);
         bool wrap = p < parent_prec;
         if (wrap)
             sb_putc(out, '(');
-        put_expr(ev, e->lhs, sub, out, e->op == OP_POW ? PREC_ATOM : p);
+        put_expr(ev, row, e->lhs, sub, out, e->op == OP_POW ? PREC_ATOM : p);
         switch (e->op) {
         case OP_ADD: sb_puts(out, " + "); break;
         case OP_SUB: sb_puts(out, " - "); break;
@@ -134,7 +137,7 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
         case OP_DIV: sb_puts(out, "/"); break;
         case OP_POW: sb_puts(out, "^"); break;
         }
-        put_expr(ev, e->rhs, sub, out,
+        put_expr(ev, row, e->rhs, sub, out,
                  e->op == OP_POW ? PREC_NEG : p + (e->op == OP_SUB || e->op == OP_DIV));
         if (wrap)
             sb_putc(out, ')');
@@ -142,19 +145,16 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
     }
     case EXPR_FIELD:
         if (sub) {
-            /* Substitute the field's value when the base is a plain name. */
-            const Expr *b = e->lhs;
-            if (b->kind == EXPR_NAME && b->slot >= 0 && ev->results[b->slot].state == RES_OK &&
-                ev->results[b->slot].value.kind == VAL_RECORD) {
-                const Value *f = record_get(ev->results[b->slot].value.rec, e->text);
-                if (f && f->kind == VAL_NUMBER) {
-                    Unit u = eval_display_unit(ev, f, NULL);
-                    put_value(ev, f, &u, parent_prec, out);
-                    break;
-                }
+            /* Substitute the field's value (basis.p_city, basis.w.rho); a
+             * solve row reads its record at the root. */
+            Unit u;
+            const Value *f = eval_named_value_at(ev, row, e, &u);
+            if (f && f->kind == VAL_NUMBER) {
+                put_value(ev, f, &u, parent_prec, out);
+                break;
             }
         }
-        put_expr(ev, e->lhs, false, out, PREC_ATOM);
+        put_expr(ev, row, e->lhs, false, out, PREC_ATOM);
         sb_printf(out, ".%s", e->text);
         break;
     case EXPR_CALL:
@@ -163,13 +163,13 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
         for (size_t i = 0; i < e->nargs; i++) {
             if (i)
                 sb_puts(out, ", ");
-            put_expr(ev, e->args[i], sub, out, PREC_TOP);
+            put_expr(ev, row, e->args[i], sub, out, PREC_TOP);
         }
         for (size_t i = 0; i < e->nkw; i++) {
             if (i || e->nargs)
                 sb_puts(out, ", ");
             sb_printf(out, "%s=", e->kw_names[i]);
-            put_expr(ev, e->kw[i], sub, out, PREC_TOP);
+            put_expr(ev, row, e->kw[i], sub, out, PREC_TOP);
         }
         sb_putc(out, ')');
         break;
@@ -178,7 +178,7 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
 
 void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBuf *out)
 {
-    put_expr(ev, e, substitute, out, PREC_TOP);
+    put_expr(ev, NULL, e, substitute, out, PREC_TOP);
 }
 
 static void put_comment(const Stmt *s, StrBuf *out)
@@ -224,10 +224,13 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
     unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
     sb_printf(out, ": %zu segments, %s loss\n", pr->nsegs,
               s->path->loss == LOSS_DARCY ? "Darcy-Weisbach" : "Hazen-Williams");
-    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "segment", "Q", "D", "L",
-              "rise", "V", "Re", "f", "K", "h_f", "h_m", "p_in", "p_out");
-    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "", uQ.text, uD.text,
-              uL.text, uL.text, uV.text, "", "", "", uL.text, uL.text, uP.text, uP.text);
+    bool dev = pr->ndevices > 0;
+    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s", "segment", "Q", "D", "L",
+              "rise", "V", "Re", "f", "K", "h_f", "h_m", "p_in");
+    sb_printf(out, dev ? " %10s %10s  %s\n" : " %10s\n", dev ? "dp_device" : "p_out", "p_out", "device");
+    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s", "", uQ.text, uD.text,
+              uL.text, uL.text, uV.text, "", "", "", uL.text, uL.text, uP.text);
+    sb_printf(out, dev ? " %10s %10s\n" : " %10s\n", uP.text, uP.text);
     for (size_t i = 0; i < pr->nsegs; i++) {
         const SegmentResult *g = &pr->segs[i];
         sb_printf(out, "  %-10s", g->id);
@@ -245,7 +248,15 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
         put_cell(ev, g->h_f, &uL, true, out);
         put_cell(ev, g->h_m, &uL, true, out);
         put_cell(ev, g->p_in, &uP, true, out);
+        if (dev) {
+            if (g->has_device)
+                put_cell(ev, g->dp_device, &uP, true, out);
+            else
+                sb_printf(out, " %10s", "-");
+        }
         put_cell(ev, g->p_out, &uP, true, out);
+        if (g->has_device)
+            sb_printf(out, "  %s", g->device);
         sb_putc(out, '\n');
     }
     const Record *rec = r->value.rec;
@@ -259,6 +270,53 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
         render_value_text(ev, v, &u, out);
         sb_putc(out, '\n');
     }
+    for (size_t k = 0; k < r->nmethods; k++)
+        sb_printf(out, "      method: %s\n", r->methods[k]->title);
+}
+
+/* A table a statement laid out (a curve's points, select_pipe's
+ * candidates): a heading line, the column heads and units, a row a line. */
+static void put_table(const Evaluated *ev, const ResultTable *t, StrBuf *out)
+{
+    sb_printf(out, "  %s\n ", t->title);
+    int w[16];
+    for (size_t k = 0; k < t->ncols && k < 16; k++) {
+        size_t n = strlen(t->heads[k]);
+        for (size_t r = 0; r < t->nrows; r++) {
+            const Value *v = &t->cells[r * t->ncols + k];
+            if (v->kind == VAL_STRING && strlen(v->str) > n)
+                n = strlen(v->str);
+        }
+        w[k] = n > 12 ? (int)n : 12;
+    }
+    for (size_t k = 0; k < t->ncols && k < 16; k++)
+        sb_printf(out, " %*s", w[k], t->heads[k]);
+    sb_puts(out, "\n ");
+    for (size_t k = 0; k < t->ncols && k < 16; k++)
+        sb_printf(out, " %*s", w[k], strcmp(t->units[k].text, "1") == 0 ? "" : t->units[k].text);
+    sb_putc(out, '\n');
+    for (size_t r = 0; r < t->nrows; r++) {
+        sb_putc(out, ' ');
+        for (size_t k = 0; k < t->ncols && k < 16; k++) {
+            const Value *v = &t->cells[r * t->ncols + k];
+            char num[48] = "";
+            if (v->kind == VAL_NUMBER)
+                num_sig(unit_from_si(v->q.si, &t->units[k], v->q.temp == TEMP_NONE), ev->digits, num, sizeof num);
+            sb_printf(out, " %*s", w[k], v->kind == VAL_STRING ? v->str : num);
+        }
+        sb_putc(out, '\n');
+    }
+}
+
+static void put_curve(const Evaluated *ev, const Stmt *s, const StmtResult *r, StrBuf *out)
+{
+    sb_printf(out, "curve %s", s->name);
+    if (r->state != RES_OK || !r->table) {
+        sb_puts(out, " = (not evaluated)\n");
+        return;
+    }
+    sb_printf(out, ": %zu points, %s interpolation\n", s->curve->npoints, s->curve->loglog ? "log-log" : "linear");
+    put_table(ev, r->table, out);
     for (size_t k = 0; k < r->nmethods; k++)
         sb_printf(out, "      method: %s\n", r->methods[k]->title);
 }
@@ -295,7 +353,8 @@ static void put_figure(const Evaluated *ev, const Stmt *s, const StmtResult *r, 
         char x[40], y[40];
         num_sig(unit_from_si(fd->markers[k].x, &fd->x_unit, true), ev->digits, x, sizeof x);
         num_sig(unit_from_si(fd->markers[k].y, &fd->y_unit, true), ev->digits, y, sizeof y);
-        sb_printf(out, "  point %s: (%s, %s)\n", fd->markers[k].label, x, y);
+        const char *label = fd->markers[k].label ? fd->markers[k].label : "";
+        sb_printf(out, "  point%s%s: (%s, %s)\n", label[0] ? " " : "", label, x, y);
     }
 }
 
@@ -348,6 +407,9 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
     case STMT_PATH:
         put_path(ev, s, r, out);
         return;
+    case STMT_CURVE:
+        put_curve(ev, s, r, out);
+        return;
     case STMT_FIGURE:
         put_figure(ev, s, r, out);
         return;
@@ -384,7 +446,15 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
         sb_free(&f);
         sb_free(&v);
         put_comment(s, out);
-        if (r->state == RES_OK && r->value.kind == VAL_RECORD) {
+        const UsedFile *used = r->state == RES_OK && r->value.kind == VAL_RECORD
+                                   ? use_of_record(r->value.rec)
+                                   : NULL;
+        if (used) {
+            /* a used calc: its file and digest; its values are listed in its own report */
+            sb_printf(out, "\n      the values of %s (sha256 %.12s), %zu names",
+                      doc_stmt_use(s) ? doc_stmt_use(s) : used->file, used->doc->digest,
+                      r->value.rec->nfields);
+        } else if (r->state == RES_OK && r->value.kind == VAL_RECORD) {
             const Record *rec = r->value.rec;
             for (size_t i = 0; i < rec->nfields; i++) {
                 sb_printf(out, "\n      %s.%s = ", s->name, rec->fields[i].name);
@@ -396,6 +466,8 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
         if (r->state == RES_OK)
             put_methods(r, out);
         sb_putc(out, '\n');
+        if (r->state == RES_OK && r->table)
+            put_table(ev, r->table, out);
         return;
     }
     case STMT_SOLVE: {
@@ -418,6 +490,12 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
             sb_printf(out, "\n      at %s = ", s->var);
             render_value_text(ev, &r->value, &r->shown, out);
             sb_puts(out, ": ");
+            if (!(expr_is_simple(s->lhs) && expr_is_simple(s->rhs))) {
+                put_expr(ev, r, s->lhs, true, out, PREC_TOP);
+                sb_puts(out, " = ");
+                put_expr(ev, r, s->rhs, true, out, PREC_TOP);
+                sb_puts(out, " = ");
+            }
             render_value_text(ev, &r->lhs, &r->lhs_shown, out);
             sb_puts(out, " = ");
             render_value_text(ev, &r->rhs, &r->lhs_shown, out);
@@ -505,6 +583,7 @@ static void put_blocks(const Evaluated *ev, const Block *b, StrBuf *out)
             break;
         case BLK_CALC:
         case BLK_PATH:
+        case BLK_CURVE:
             for (size_t i = 0; i < b->nstmts; i++)
                 put_statement(ev, ev->doc->stmts[b->first_stmt + i], out);
             break;
@@ -533,10 +612,36 @@ bool render_text(const Evaluated *ev, FILE *out)
     if (m->number || m->revision)
         sb_printf(&sb, "calc: %s  revision: %s\n", m->number ? m->number : "-", m->revision ? m->revision : "-");
     sb_printf(&sb, "source: %s  sha256: %s\n", doc->file, doc->digest);
+    for (size_t i = 0; i < ev->nused; i++)
+        sb_printf(&sb, "uses: %s  sha256: %s\n", ev->used[i]->file, ev->used[i]->doc->digest);
     put_blocks(ev, doc->blocks, &sb);
     size_t holds = ev->nchecks - ev->nfailed;
     sb_printf(&sb, "\nchecks: %zu hold, %zu fail\n", holds, ev->nfailed);
     bool ok = fwrite(sb.data ? sb.data : "", 1, sb.len, out) == sb.len;
     sb_free(&sb);
+    return ok;
+}
+
+bool render_package_text(const Package *pkg, FILE *out)
+{
+    const Document *ix = pkg->index;
+    const Meta *m = &ix->meta;
+    bool ok = fprintf(out, "%s\npackage: %s  sha256: %s\n", m->title ? m->title : ix->file, ix->file,
+                      ix->digest) > 0;
+    if (m->project)
+        ok = fprintf(out, "project: %s\n", m->project) > 0 && ok;
+    if (m->number || m->revision)
+        ok = fprintf(out, "calc: %s  revision: %s\n", m->number ? m->number : "-",
+                     m->revision ? m->revision : "-") > 0 && ok;
+    for (size_t i = 0; i < pkg->nparts; i++) {
+        ok = fprintf(out, "\n==== part %zu of %zu: %s\n", i + 1, pkg->nparts, pkg->parts[i].file) > 0 && ok;
+        ok = render_text(pkg->parts[i].ev, out) && ok;
+    }
+    for (size_t i = 0; i < pkg->nextra; i++)
+        ok = fprintf(out, "\nused by a part, not a part: %s  sha256: %s  (%zu checks, %zu fail)\n",
+                     pkg->extra[i]->file, pkg->extra[i]->doc->digest, pkg->extra[i]->ev->nchecks,
+                     pkg->extra[i]->ev->nfailed) > 0 && ok;
+    ok = fprintf(out, "\npackage checks: %zu hold, %zu fail\n", pkg->nchecks - pkg->nfailed,
+                 pkg->nfailed) > 0 && ok;
     return ok;
 }
