@@ -1024,7 +1024,8 @@ static void watch_package(Document *index, DiagList *dl, const char *out, Vec *i
         printf("%s: not written: the input has errors\n", out);
     } else {
         DiagList wl = {0};
-        ReportJob job = {NULL, pkg, NULL, NULL, NULL};
+        const char *ins[] = {index->file};
+        ReportJob job = {NULL, pkg, NULL, NULL, NULL, ins, 1};
         if (write_report(&job, FMT_PDF, out, &wl) == 0)
             printf("wrote %s\n", out);
         diag_free(&wl);
