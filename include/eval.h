@@ -42,6 +42,40 @@ typedef struct PathResult {
     bool p_min_at_inlet;
 } PathResult;
 
+/* An evaluated network (DESIGN 2.12), in SI units. */
+typedef enum NetDevice { NET_DEVICE_NONE, NET_DEVICE_CHECK, NET_DEVICE_PUMP, NET_DEVICE_PRV } NetDevice;
+
+typedef struct NodeResult {
+    const char *id;
+    bool supply;
+    double z, head, p, demand;   /* demand: the flow leaving (a supply: what it delivers, negative) */
+    double x, y;                 /* when the table has coordinates */
+} NodeResult;
+
+typedef struct LinkResult {
+    const char *id;
+    size_t from, to;             /* node indices */
+    double Q, D, A, L, V, Re, f, K, C;
+    double h_f, h_m;             /* friction and fitting head loss (in the flow direction) */
+    double dp_device;            /* pressure drop across the device (a pump's is negative) */
+    NetDevice device;
+    int state;                   /* GradientLinkState: open, closed, active, wide open */
+} LinkResult;
+
+typedef struct NetworkResult {
+    NodeResult *nodes;
+    size_t nnodes;
+    LinkResult *links;
+    size_t nlinks;
+    double rho;
+    bool darcy, has_xy;
+    double p_min, V_max;
+    size_t p_min_node, V_max_link;
+    int iterations;
+    double tolerance, imbalance, last_change, energy_residual;
+    size_t imbalance_node;
+} NetworkResult;
+
 /* A figure's data, in SI; the renderers convert with x_unit / y_unit. */
 typedef struct Series {
     const char *name;
@@ -78,6 +112,7 @@ typedef struct StmtResult {
     double utilization;      /* CHECK: lhs/rhs for <, <=; rhs/lhs for >, >= */
     SolveReport solve;       /* SOLVE */
     const PathResult *path;  /* PATH */
+    const NetworkResult *network; /* NETWORK */
     const FigureData *figure;/* FIGURE */
     const Method *methods[CALL_MAX_METHODS];  /* published methods the line used */
     size_t nmethods;

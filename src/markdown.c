@@ -317,10 +317,12 @@ static void collect_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
     ll->items[ll->len++] = (FenceLine){s, len, pos};
 }
 
-/* "path NAME": the name is an identifier, like any defined name. */
+/* "path NAME" / "network NAME": the name is an identifier, like any
+ * defined name. */
 static const char *path_name(Md *m, const char *info, Pos at)
 {
-    const char *p = info + 4;
+    const char *kind = strncmp(info, "network", 7) == 0 ? "network" : "path";
+    const char *p = info + strlen(kind);
     while (*p == ' ' || *p == '\t')
         p++;
     size_t n = strlen(p);
@@ -332,7 +334,8 @@ static const char *path_name(Md *m, const char *info, Pos at)
         ok = c == '_' || c >= 0x80 || (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || (c >= '0' && c <= '9');
     }
     if (!ok) {
-        diag_error(m->diags, at, "a path block is opened with ```path NAME, NAME a plain name such as riser_cw2");
+        diag_error(m->diags, at, "a %s block is opened with ```%s NAME, NAME a plain name such as %s", kind, kind,
+                   kind[0] == 'n' ? "cw_main" : "riser_cw2");
         return NULL;
     }
     return arena_strndup(&m->doc->arena, p, n);
@@ -489,8 +492,9 @@ static Block *convert_block(Md *m, cmark_node *n, int depth)
         char fence_char = 0;
         int fenced = cmark_node_get_fenced(n, &fence_len, &fence_off, &fence_char);
         bool is_path = strncmp(info, "path", 4) == 0 && (info[4] == ' ' || info[4] == '\t' || info[4] == '\0');
+        bool is_network = strncmp(info, "network", 7) == 0 && (info[7] == ' ' || info[7] == '\t' || info[7] == '\0');
         bool is_cases = strcmp(info, "cases") == 0;
-        if (fenced && (is_path || is_cases)) {
+        if (fenced && (is_path || is_network || is_cases)) {
             Pos at_fence = at(m, cmark_node_get_start_line(n), cmark_node_get_start_column(n));
             if (!fence_closed(m, n)) {
                 diag_error(m->diags, at_fence, "unterminated ```%s fence: expected a closing ``` line", info);
@@ -505,6 +509,14 @@ static Block *convert_block(Md *m, cmark_node *n, int depth)
                     b->first_stmt = m->stmts.len;
                     b->nstmts = 1;
                     vec_push(&m->stmts, tables_parse_path(&m->doc->arena, name, at_fence, ll.items, ll.len, m->diags));
+                }
+            } else if (is_network) {
+                const char *name = path_name(m, info, at_fence);
+                if (name && stmt_room(m, at_fence)) {
+                    b = new_block(m, BLK_NETWORK, n);
+                    b->first_stmt = m->stmts.len;
+                    b->nstmts = 1;
+                    vec_push(&m->stmts, tables_parse_network(&m->doc->arena, name, at_fence, ll.items, ll.len, m->diags));
                 }
             } else {
                 CaseTable *ct = tables_parse_cases(&m->doc->arena, at_fence, ll.items, ll.len, m->diags);
