@@ -25,6 +25,7 @@
 #include "methods/friction.h"
 #include "methods/gradient.h"
 #include "methods/pumps.h"
+#include "numfmt.h"
 
 static const double G = 9.80665; /* standard gravity, m/s^2 */
 static const double PI = 3.14159265358979323846;
@@ -431,10 +432,13 @@ bool network_solve(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *
     case GRADIENT_NO_CONVERGENCE: {
         const NetNode *w = &ns->nodes[gr.imbalance_node];
         Unit u = unit_default(DIM_FLOW, TEMP_NONE, cx->units);
+        char b1[48], b2[48];
+        num_sig(unit_from_si(gr.imbalance, &u, true), 4, b1, sizeof b1);
+        num_sig(unit_from_si(tol, &u, true), 4, b2, sizeof b2);
         diag_error(cx->diags, w->pos,
-                   "network '%s' did not converge in %d iterations: the largest imbalance is %.4g %s at node '%s' "
-                   "(tolerance %.4g %s)",
-                   s->name, gr.iterations, gr.imbalance / u.factor, u.text, w->id, tol / u.factor, u.text);
+                   "network '%s' did not converge in %d iterations: the largest imbalance is %s %s at node '%s' "
+                   "(tolerance %s %s)",
+                   s->name, gr.iterations, b1, u.text, w->id, b2, u.text);
         return false;
     }
     case GRADIENT_SINGULAR:

@@ -161,6 +161,9 @@ double pdf_fn_figure(Pdf *P, const Item *it, double top);
 /* ---- path and case tables (pdf_flow.c) ------------------------------------ */
 /* The items of a path block: its heading, the segment table, the summary. */
 void pdf_path_items(Pdf *P, Vec *items, const Stmt *st);
+/* The items of a network block (pdf_network.c): heading, node and link
+ * tables, the convergence record and methods. */
+void pdf_network_items(Pdf *P, Vec *items, const Stmt *st);
 /* The items of a cases block: a table of inputs, results and verdicts. */
 void pdf_cases_items(Pdf *P, Vec *items, size_t which);
 /* Case tables with a failing row, for the cover: items after the check summary. */

@@ -1,0 +1,388 @@
+/* pdf_network.c — a network block in the report (DESIGN 2.12).
+ *
+ * A heading (what the network is, its fluid, loss law and solver), the
+ * node table and the link table in chunks that fit a sheet and repeat
+ * their header (quantities in words, symbols, display units), and a
+ * summary: the lowest junction pressure and where, the highest velocity
+ * and where, the convergence record (iterations, largest continuity error
+ * against the tolerance, largest energy residual) and the published
+ * methods. Everything is read from the evaluated NetworkResult. */
+#include "report/pdf_internal.h"
+
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "numfmt.h"
+
+enum { NET_CHUNK = 30, NODE_COLS = 5, LINK_COLS = 14, MAX_NET_COLS = 14 };
+#define NT_SIZE 7.6
+#define NT_WORD 5.6
+
+typedef struct NetCols {
+    int n;
+    const char *word[MAX_NET_COLS];
+    const char *symbol[MAX_NET_COLS];
+    Unit unit[MAX_NET_COLS];
+    bool has_unit[MAX_NET_COLS];
+    bool text[MAX_NET_COLS];   /* an id or a word, left aligned */
+} NetCols;
+
+static double full_width(const Pdf *P)
+{
+    return P->sheet.body_r - P->sheet.body_l;
+}
+
+static void units_of(const Pdf *P, Unit *uQ, Unit *uL, Unit *uV, Unit *uP, Unit *uD)
+{
+    UnitSystem us = P->ev->units;
+    *uQ = unit_default(DIM_FLOW, TEMP_NONE, us);
+    *uL = unit_default(DIM_L, TEMP_NONE, us);
+    *uV = unit_default(DIM_VELOCITY, TEMP_NONE, us);
+    *uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
+    size_t bo, bl;
+    *uD = *uL;
+    unit_parse(us == UNITS_US ? "in" : "mm", 2, uD, &bo, &bl);
+}
+
+static NetCols node_cols(const Pdf *P)
+{
+    NetCols c;
+    memset(&c, 0, sizeof c);
+    Unit uQ, uL, uV, uP, uD;
+    units_of(P, &uQ, &uL, &uV, &uP, &uD);
+    static const char *const W[NODE_COLS] = {"node", "elevation", "demand", "head", "pressure"};
+    static const char *const S[NODE_COLS] = {"", "z", "q", "H", "p"};
+    c.n = NODE_COLS;
+    for (int i = 0; i < c.n; i++) {
+        c.word[i] = W[i];
+        c.symbol[i] = S[i];
+        c.has_unit[i] = i > 0;
+    }
+    c.text[0] = true;
+    c.unit[1] = c.unit[3] = uL;
+    c.unit[2] = uQ;
+    c.unit[4] = uP;
+    return c;
+}
+
+static NetCols link_cols(const Pdf *P)
+{
+    NetCols c;
+    memset(&c, 0, sizeof c);
+    Unit uQ, uL, uV, uP, uD;
+    units_of(P, &uQ, &uL, &uV, &uP, &uD);
+    static const char *const W[LINK_COLS] = {"link",          "from",       "to",          "flow",
+                                             "bore",          "length",     "velocity",    "Reynolds number",
+                                             "friction factor", "fittings K", "friction loss", "fitting loss",
+                                             "device drop",   "device"};
+    static const char *const S[LINK_COLS] = {"", "", "", "Q", "D", "L", "V", "Re", "f", "K", "h_f", "h_m",
+                                             "Delta_p", ""};
+    c.n = LINK_COLS;
+    for (int i = 0; i < c.n; i++) {
+        c.word[i] = W[i];
+        c.symbol[i] = S[i];
+    }
+    c.text[0] = c.text[1] = c.text[2] = c.text[13] = true;
+    c.has_unit[3] = c.has_unit[4] = c.has_unit[5] = c.has_unit[6] = true;
+    c.has_unit[10] = c.has_unit[11] = c.has_unit[12] = true;
+    c.unit[3] = uQ;
+    c.unit[4] = uD;
+    c.unit[5] = c.unit[10] = c.unit[11] = uL;
+    c.unit[6] = uV;
+    c.unit[12] = uP;
+    return c;
+}
+
+static void number_cell(const Pdf *P, double si, const NetCols *c, int i, char *buf, size_t n)
+{
+    if (!isfinite(si)) {
+        snprintf(buf, n, "—");
+        return;
+    }
+    double v = c->has_unit[i] ? unit_from_si(si, &c->unit[i], true) : si;
+    num_sig(v, P->env.digits, buf, n);
+    if (buf[0] == '-') {
+        char t[64];
+        snprintf(t, sizeof t, "−%s", buf + 1);
+        snprintf(buf, n, "%s", t);
+    }
+}
+
+static void node_cell(const Pdf *P, const NetworkResult *nr, const NetCols *c, size_t k, int i, char *buf,
+                      size_t n)
+{
+    const NodeResult *g = &nr->nodes[k];
+    double si[NODE_COLS] = {0, g->z, g->demand, g->head, g->p};
+    if (i == 0)
+        snprintf(buf, n, "%s", g->id);
+    else
+        number_cell(P, si[i], c, i, buf, n);
+}
+
+static const char *device_word(const LinkResult *g)
+{
+    static const char *const states[] = {"", " (closed)", " (regulating)", " (wide open)"};
+    const char *d = g->device == NET_DEVICE_CHECK ? "check valve"
+                    : g->device == NET_DEVICE_PUMP ? "pump"
+                    : g->device == NET_DEVICE_PRV  ? "PRV"
+                                                   : NULL;
+    if (!d)
+        return "";
+    static char buf[64];
+    snprintf(buf, sizeof buf, "%s%s", d, states[g->state]);
+    return buf;
+}
+
+static void link_cell(const Pdf *P, const NetworkResult *nr, const NetCols *c, size_t k, int i, char *buf,
+                      size_t n)
+{
+    const LinkResult *g = &nr->links[k];
+    double si[LINK_COLS] = {0, 0, 0, g->Q, g->D, g->L, g->V, g->Re, g->f, g->K, g->h_f, g->h_m, g->dp_device, 0};
+    switch (i) {
+    case 0: snprintf(buf, n, "%s", g->id); return;
+    case 1: snprintf(buf, n, "%s", nr->nodes[g->from].id); return;
+    case 2: snprintf(buf, n, "%s", nr->nodes[g->to].id); return;
+    case 13: snprintf(buf, n, "%s", device_word(g)); return;
+    case 12:
+        if (g->device == NET_DEVICE_NONE) {
+            snprintf(buf, n, "—");
+            return;
+        }
+        break;
+    default: break;
+    }
+    number_cell(P, si[i], c, i, buf, n);
+}
+
+typedef struct NetLayout {
+    double x[MAX_NET_COLS + 1];
+    double size;
+} NetLayout;
+
+typedef void (*CellFn)(const Pdf *P, const NetworkResult *nr, const NetCols *c, size_t k, int i, char *buf, size_t n);
+
+static NetLayout net_layout(Pdf *P, const NetCols *c, const NetworkResult *nr, size_t rows, CellFn cell, double W)
+{
+    NetLayout L;
+    double nat[MAX_NET_COLS], sum = 0;
+    for (int i = 0; i < c->n; i++) {
+        char ut[48] = "";
+        if (c->has_unit[i])
+            mbox_unit_text(c->unit[i].text, ut, sizeof ut);
+        double w = fmax(pdf_width(P, FONT_SANS, 6.4, ut), 18);
+        for (size_t k = 0; k < rows; k++) {
+            char buf[96];
+            cell(P, nr, c, k, i, buf, sizeof buf);
+            w = fmax(w, pdf_width(P, i == 0 ? FONT_SANS_BOLD : FONT_SERIF, NT_SIZE, buf));
+        }
+        nat[i] = w + 8;
+        sum += nat[i];
+    }
+    double extra = (W - sum) / c->n;
+    L.size = sum > W ? NT_SIZE * W / sum : NT_SIZE;
+    L.x[0] = P->sheet.body_l;
+    for (int i = 0; i < c->n; i++)
+        L.x[i + 1] = L.x[i] + (sum > W ? nat[i] * W / sum : nat[i] + extra);
+    return L;
+}
+
+static double net_header(Pdf *P, const NetCols *c, const NetLayout *L, double top)
+{
+    double h_word = 15, h_sym = 13, h_unit = 10, h = h_word + h_sym + h_unit;
+    double x0 = L->x[0], x1 = L->x[c->n];
+    if (P->page)
+        pdf_fill(P, x0, top - h, x1 - x0, h, SHADE);
+    for (int i = 0; i < c->n; i++) {
+        double a = L->x[i], w = L->x[i + 1] - a;
+        const char *word = c->word[i];
+        const char *sp = strchr(word, ' ');
+        char l1[40], l2[40] = "";
+        if (sp && pdf_width(P, FONT_SANS, NT_WORD, word) > w - 3) {
+            snprintf(l1, sizeof l1, "%.*s", (int)(sp - word), word);
+            snprintf(l2, sizeof l2, "%s", sp + 1);
+        } else {
+            snprintf(l1, sizeof l1, "%s", word);
+        }
+        double w1 = pdf_width(P, FONT_SANS, NT_WORD, l1), w2 = pdf_width(P, FONT_SANS, NT_WORD, l2);
+        pdf_text_color(P, FONT_SANS, NT_WORD, a + (w - w1) / 2, top - (l2[0] ? 6.2 : 9.5), l1, GREY);
+        if (l2[0])
+            pdf_text_color(P, FONT_SANS, NT_WORD, a + (w - w2) / 2, top - 12.6, l2, GREY);
+        if (c->symbol[i][0]) {
+            MathBox *b = mbox_symbol(&P->env, c->symbol[i], 8.6);
+            if (P->page)
+                mbox_draw(b, &P->painter, a + (w - b->w) / 2, top - h_word - 9.2);
+        }
+        if (c->has_unit[i]) {
+            char ut[48];
+            mbox_unit_text(c->unit[i].text, ut, sizeof ut);
+            double uw = pdf_width(P, FONT_SANS, 6.4, ut);
+            pdf_text_color(P, FONT_SANS, 6.4, a + (w - uw) / 2, top - h + 3, ut, GREY);
+        }
+        if (i > 0)
+            pdf_line(P, a, top, a, top - h, 0.3);
+    }
+    pdf_line(P, x0, top, x1, top, 0.9);
+    pdf_line(P, x0, top - h, x1, top - h, 0.5);
+    return h;
+}
+
+/* A chunk of rows of the node table (it->depth > 0) or the link table
+ * (it->depth < 0); it->aux is the first row. */
+static double fn_net_table(Pdf *P, const Item *it, double top)
+{
+    const Stmt *st = it->p;
+    const NetworkResult *nr = P->ev->results[st->index].network;
+    bool nodes = it->depth > 0;
+    size_t count = (size_t)(nodes ? it->depth : -it->depth);
+    NetCols c = nodes ? node_cols(P) : link_cols(P);
+    CellFn cell = nodes ? node_cell : link_cell;
+    size_t rows = nodes ? nr->nnodes : nr->nlinks;
+    double W = nodes ? fmin(full_width(P), 330) : full_width(P);
+    NetLayout L = net_layout(P, &c, nr, rows, cell, W);
+    double y = top - net_header(P, &c, &L, top);
+    double rh = L.size + 5;
+    size_t first = (size_t)it->aux;
+    for (size_t k = first; k < first + count && k < rows; k++) {
+        for (int i = 0; i < c.n; i++) {
+            char buf[96];
+            cell(P, nr, &c, k, i, buf, sizeof buf);
+            bool strong = nodes ? (i == 4 && k == nr->p_min_node && !nr->nodes[k].supply)
+                                : (i == 6 && k == nr->V_max_link);
+            FontRole f = i == 0 ? FONT_SANS_BOLD : strong ? FONT_SERIF_BOLD : c.text[i] ? FONT_SANS : FONT_SERIF;
+            double w = pdf_width(P, f, L.size, buf);
+            double x = c.text[i] ? L.x[i] + 4 : L.x[i + 1] - 4 - w;
+            pdf_text(P, f, L.size, x, y - rh + 3.2, buf);
+            if (i > 0)
+                pdf_line(P, L.x[i], y, L.x[i], y - rh, 0.3);
+        }
+        if (nodes && nr->nodes[k].supply) {
+            /* supplies are marked in the margin of the row */
+            pdf_text_color(P, FONT_SANS, 6.4, L.x[c.n] + 4, y - rh + 3.4, "supply", GREY);
+        } else if (nodes && k == nr->p_min_node) {
+            pdf_text_color(P, FONT_SANS, 6.4, L.x[c.n] + 4, y - rh + 3.4, "lowest pressure", GREY);
+        }
+        y -= rh;
+        if (P->page)
+            HPDF_Page_SetRGBStroke(P->page, 0.72f, 0.72f, 0.72f);
+        if (k + 1 < first + count && k + 1 < rows)
+            pdf_line(P, L.x[0], y, L.x[c.n], y, 0.25);
+        if (P->page)
+            HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)INK.r, (HPDF_REAL)INK.g, (HPDF_REAL)INK.b);
+    }
+    pdf_line(P, L.x[0], y, L.x[c.n], y, 0.9);
+    return top - y;
+}
+
+static double fn_net_head(Pdf *P, const Item *it, double top)
+{
+    const Stmt *st = it->p;
+    const NetworkSpec *ns = st->network;
+    const StmtResult *r = &P->ev->results[st->index];
+    const NetworkResult *nr = r->network;
+    double x = P->sheet.body_l, w = full_width(P) - P->sheet.margin_w - 6, y = top - 1;
+    y -= pdf_wrap(P, FONT_SERIF_BOLD, 9.6, 12, x, y, w, arena_printf(&P->arena, "Network: %s", st->name));
+    StrBuf sb = {0};
+    if (nr) {
+        size_t supplies = 0;
+        for (size_t i = 0; i < nr->nnodes; i++)
+            supplies += nr->nodes[i].supply;
+        sb_printf(&sb, "%zu nodes (%zu suppl%s), %zu links, %s head loss", nr->nnodes, supplies,
+                  supplies == 1 ? "y" : "ies", nr->nlinks, nr->darcy ? "Darcy-Weisbach" : "Hazen-Williams");
+        if (ns->friction)
+            sb_printf(&sb, ", friction factor by the %s method", ns->friction);
+        if (ns->fittings)
+            sb_printf(&sb, ", fitting K by the %s method", ns->fittings);
+        sb_puts(&sb, ". ");
+    }
+    sb_puts(&sb, "Fluid ");
+    render_expr_text(P->ev, ns->fluid, false, &sb);
+    sb_puts(&sb, ". Flows and heads solved together by the global gradient algorithm (Todini and Pilati 1988): "
+                 "on every link the fall in head from its 'from' node to its 'to' node equals its friction and "
+                 "fitting loss less any pump head, and at every junction inflow equals outflow plus demand. Heads are hydraulic grade z + p/(ρg); a "
+                 "negative flow runs from the link's 'to' node to its 'from' node; a supply's demand is what it "
+                 "delivers, shown negative.");
+    y -= pdf_wrap(P, FONT_SERIF, 9, 11.5, x, y, w, sb_str(&sb)) + 3;
+    sb_free(&sb);
+    if (!nr)
+        y -= pdf_wrap_color(P, FONT_SERIF_ITALIC, 9, 11.5, x, y, w, "(not evaluated)", FAIL);
+    double mh = pdf_row_margin(P, st, top - 1);
+    return fmax(top - y, mh + 2);
+}
+
+static double fn_net_summary(Pdf *P, const Item *it, double top)
+{
+    const Stmt *st = it->p;
+    const StmtResult *r = &P->ev->results[st->index];
+    const NetworkResult *nr = r->network;
+    double x = P->sheet.body_l, W = full_width(P), y = top - 2;
+    Unit uQ = unit_default(DIM_FLOW, TEMP_NONE, P->ev->units), uP = unit_default(DIM_PRESSURE, TEMP_NONE, P->ev->units);
+    Unit uV = unit_default(DIM_VELOCITY, TEMP_NONE, P->ev->units), uL = unit_default(DIM_L, TEMP_NONE, P->ev->units);
+    char a[48], b[48], c[48], ut[4][32];
+    mbox_unit_text(uP.text, ut[0], sizeof ut[0]);
+    mbox_unit_text(uV.text, ut[1], sizeof ut[1]);
+    mbox_unit_text(uQ.text, ut[2], sizeof ut[2]);
+    mbox_unit_text(uL.text, ut[3], sizeof ut[3]);
+    StrBuf sb = {0};
+    num_sig(unit_from_si(nr->p_min, &uP, true), P->env.digits, a, sizeof a);
+    num_sig(unit_from_si(nr->V_max, &uV, true), P->env.digits, b, sizeof b);
+    sb_printf(&sb, "Lowest junction pressure %s %s at node %s (the critical node); highest velocity %s %s in link %s.",
+              a, ut[0], nr->nodes[nr->p_min_node].id, b, ut[1], nr->links[nr->V_max_link].id);
+    y -= pdf_wrap(P, FONT_SERIF, 9, 11.5, x + 4, y, W - 4, sb_str(&sb)) + 2;
+    sb_free(&sb);
+    NumParts im = num_parts(unit_from_si(nr->imbalance, &uQ, true), 3);
+    NumParts tl = num_parts(unit_from_si(nr->tolerance, &uQ, true), 3);
+    NumParts er = num_parts(unit_from_si(nr->energy_residual, &uL, true), 3);
+    if (im.exp10)
+        snprintf(a, sizeof a, "%s×10^%d", im.mantissa, im.exp10);
+    else
+        snprintf(a, sizeof a, "%s", im.mantissa);
+    if (tl.exp10)
+        snprintf(b, sizeof b, "%s×10^%d", tl.mantissa, tl.exp10);
+    else
+        snprintf(b, sizeof b, "%s", tl.mantissa);
+    if (er.exp10)
+        snprintf(c, sizeof c, "%s×10^%d", er.mantissa, er.exp10);
+    else
+        snprintf(c, sizeof c, "%s", er.mantissa);
+    sb_printf(&sb, "Convergence: %d iterations; largest continuity error %s %s at node %s (tolerance %s %s); "
+                   "largest energy residual on a link %s %s.",
+              nr->iterations, a, ut[2], nr->nodes[nr->imbalance_node].id, b, ut[2], c, ut[3]);
+    y -= pdf_wrap(P, FONT_SERIF, 9, 11.5, x + 4, y, W - 4, sb_str(&sb)) + 2;
+    sb_free(&sb);
+    sb_puts(&sb, "Bold in the tables: the lowest junction pressure and the highest velocity.");
+    char figs[96];
+    pdf_figures_of(P, st->index, figs, sizeof figs);
+    if (figs[0])
+        sb_printf(&sb, " Drawn in %s.", figs);
+    y -= pdf_wrap_color(P, FONT_SERIF, 8, 10, x, y - 1, W, sb_str(&sb), GREY) + 3;
+    sb_free(&sb);
+    for (size_t m = 0; m < r->nmethods; m++)
+        for (size_t j = 0; j < P->ev->nmethods; j++)
+            if (P->ev->methods[j] == r->methods[m] && P->method_first[j] == st->index)
+                y -= pdf_method_line(P, r->methods[m], P->method_ref[j], x + 4, y, W - 4);
+    return top - y + 3;
+}
+
+void pdf_network_items(Pdf *P, Vec *items, const Stmt *st)
+{
+    const StmtResult *r = &P->ev->results[st->index];
+    item_add(items, P, fn_net_head, st, 0, 8);
+    Item *head = items->items[items->len - 1];
+    if (r->state != RES_OK || !r->network)
+        return;
+    head->layout.keep_with_next = true;
+    const NetworkResult *nr = r->network;
+    for (size_t k = 0; k < nr->nnodes; k += NET_CHUNK) {
+        item_add(items, P, fn_net_table, st, (int)k, k ? 6 : 3);
+        Item *it = items->items[items->len - 1];
+        it->depth = (int)(nr->nnodes - k < NET_CHUNK ? nr->nnodes - k : NET_CHUNK);
+    }
+    for (size_t k = 0; k < nr->nlinks; k += NET_CHUNK) {
+        item_add(items, P, fn_net_table, st, (int)k, 6);
+        Item *it = items->items[items->len - 1];
+        it->depth = -(int)(nr->nlinks - k < NET_CHUNK ? nr->nlinks - k : NET_CHUNK);
+        it->layout.keep_with_next = k + NET_CHUNK >= nr->nlinks;
+    }
+    item_add(items, P, fn_net_summary, st, 0, 3);
+}
