@@ -46,13 +46,28 @@ typedef struct Physics {
     FrictionMethod method;
 } Physics;
 
+/* The friction factor a link uses: 64/Re below Re 2000, the calc's method
+ * from Re 4000, and between them a straight line in Re from the laminar
+ * value at 2000 to the method's value at 4000. No correlation holds in the
+ * transition zone; the line keeps h(Q) continuous, without which a link
+ * whose flow sits near Re 2000 makes Newton's method cycle between the
+ * laminar and the turbulent branch. Churchill (1977) spans all regimes
+ * itself and is used as it is. */
 static double darcy_f(const Physics *ph, double Re, double rr)
 {
-    double f;
+    double f, f4;
     FrictionMethod used;
-    if (friction_factor(ph->method, Re, rr, &f, &used) != FRICTION_OK)
+    if (ph->method == FRICTION_CHURCHILL || Re < FRICTION_RE_LAMINAR || Re >= FRICTION_RE_TURBULENT)
+        return friction_factor(ph->method, Re, rr, &f, &used) == FRICTION_OK ? f : NAN;
+    if (friction_factor(ph->method, FRICTION_RE_TURBULENT, rr, &f4, &used) != FRICTION_OK)
         return NAN;
-    return f;
+    double f2 = 64 / FRICTION_RE_LAMINAR;
+    return f2 + (f4 - f2) * (Re - FRICTION_RE_LAMINAR) / (FRICTION_RE_TURBULENT - FRICTION_RE_LAMINAR);
+}
+
+static bool in_transition(const Physics *ph, double Re)
+{
+    return ph->method != FRICTION_CHURCHILL && Re >= FRICTION_RE_LAMINAR && Re < FRICTION_RE_TURBULENT;
 }
 
 /* Pipe friction plus minor loss at Q, and its slope. */
@@ -474,14 +489,30 @@ bool network_solve(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *
         Value v;
         if (nr->darcy) {
             if (o->Re > 0) {
-                Value args[2] = {value_number(qty_number(o->Re)), value_number(qty_number(lp->eps / lp->D))};
-                Pos pos[2] = {lk->pos, lk->pipe->pos};
-                Value kw = value_string(ns->friction ? ns->friction : "colebrook");
-                if (!call_builtin(cx, "friction_factor", lk->pos, args, pos, 2, "method", ns->friction ? &kw : NULL, &v)) {
-                    ok = false;
-                    continue;
+                /* Through the library, for the method, its reference and
+                 * its validity warnings; in the transition zone at both
+                 * ends of the line the link's f is taken from. */
+                bool tr = in_transition(&ph, o->Re);
+                double at[2] = {tr ? FRICTION_RE_LAMINAR * (1 - 1e-9) : o->Re, FRICTION_RE_TURBULENT};
+                for (int e = 0; e < (tr ? 2 : 1) && ok; e++) {
+                    Value args[2] = {value_number(qty_number(at[e])), value_number(qty_number(lp->eps / lp->D))};
+                    Pos pos[2] = {lk->pos, lk->pipe->pos};
+                    Value kw = value_string(ns->friction ? ns->friction : "colebrook");
+                    if (!call_builtin(cx, "friction_factor", lk->pos, args, pos, 2, "method", ns->friction ? &kw : NULL,
+                                      &v))
+                        ok = false;
                 }
-                o->f = v.q.si;
+                if (!ok)
+                    continue;
+                o->f = tr ? darcy_f(&ph, o->Re, lp->eps / lp->D) : v.q.si;
+                if (tr) {
+                    char b1[48];
+                    num_sig(o->Re, 4, b1, sizeof b1);
+                    diag_warning(cx->diags, lk->pos,
+                                 "link '%s': Re = %s is in the transition zone 2000 <= Re < 4000, where no correlation is "
+                                 "reliable; f is taken on a straight line in Re from 64/Re at 2000 to %s at 4000",
+                                 lk->id, b1, friction_method_name(ph.method));
+                }
             } else {
                 o->f = NAN;
             }
@@ -548,7 +579,7 @@ bool network_solve(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *
             nr->V_max_link = l;
         }
 
-    Record *r = record_new(a, "network", 8 + nn + nl);
+    Record *r = record_new(a, "network", 7 + nn + nl);
     size_t k = 0;
     record_set(r, k++, "p_min", value_number(qty(nr->p_min, DIM_PRESSURE)));
     record_set(r, k++, "p_min_at", value_string(any ? nr->nodes[nr->p_min_node].id : ""));
@@ -557,7 +588,6 @@ bool network_solve(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *
     record_set(r, k++, "iterations", value_number(qty_number(nr->iterations)));
     record_set(r, k++, "imbalance", value_number(qty(nr->imbalance, DIM_FLOW)));
     record_set(r, k++, "tolerance", value_number(qty(nr->tolerance, DIM_FLOW)));
-    record_set(r, k++, "energy_residual", value_number(qty(nr->energy_residual, DIM_L)));
     for (size_t i = 0; i < nn; i++) {
         Value nv = {0};
         nv.kind = VAL_RECORD;

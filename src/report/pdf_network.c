@@ -94,6 +94,35 @@ static NetCols link_cols(const Pdf *P)
     return c;
 }
 
+/* A number as the report prints it: plain, or mantissa ×10 and a
+ * superscript power ("1.73×10⁻¹⁵"), never "e-15". */
+static void sheet_number(double x, int digits, char *buf, size_t n)
+{
+    static const char *const sup[10] = {"⁰", "¹", "²", "³", "⁴", "⁵", "⁶", "⁷", "⁸", "⁹"};
+    NumParts np = num_parts(x, digits);
+    const char *m = np.mantissa;
+    StrBuf sb = {0};
+    if (m[0] == '-') {
+        sb_puts(&sb, "−");
+        m++;
+    }
+    sb_puts(&sb, m);
+    if (np.exp10) {
+        sb_puts(&sb, "×10");
+        int e = np.exp10;
+        if (e < 0) {
+            sb_puts(&sb, "⁻");
+            e = -e;
+        }
+        char d[16];
+        snprintf(d, sizeof d, "%d", e);
+        for (char *p = d; *p; p++)
+            sb_puts(&sb, sup[*p - '0']);
+    }
+    snprintf(buf, n, "%s", sb_str(&sb));
+    sb_free(&sb);
+}
+
 static void number_cell(const Pdf *P, double si, const NetCols *c, int i, char *buf, size_t n)
 {
     if (!isfinite(si)) {
@@ -101,12 +130,7 @@ static void number_cell(const Pdf *P, double si, const NetCols *c, int i, char *
         return;
     }
     double v = c->has_unit[i] ? unit_from_si(si, &c->unit[i], true) : si;
-    num_sig(v, P->env.digits, buf, n);
-    if (buf[0] == '-') {
-        char t[64];
-        snprintf(t, sizeof t, "−%s", buf + 1);
-        snprintf(buf, n, "%s", t);
-    }
+    sheet_number(v, P->env.digits, buf, n);
 }
 
 static void node_cell(const Pdf *P, const NetworkResult *nr, const NetCols *c, size_t k, int i, char *buf,
@@ -330,21 +354,9 @@ static double fn_net_summary(Pdf *P, const Item *it, double top)
               a, ut[0], nr->nodes[nr->p_min_node].id, b, ut[1], nr->links[nr->V_max_link].id);
     y -= pdf_wrap(P, FONT_SERIF, 9, 11.5, x + 4, y, W - 4, sb_str(&sb)) + 2;
     sb_free(&sb);
-    NumParts im = num_parts(unit_from_si(nr->imbalance, &uQ, true), 3);
-    NumParts tl = num_parts(unit_from_si(nr->tolerance, &uQ, true), 3);
-    NumParts er = num_parts(unit_from_si(nr->energy_residual, &uL, true), 3);
-    if (im.exp10)
-        snprintf(a, sizeof a, "%s×10^%d", im.mantissa, im.exp10);
-    else
-        snprintf(a, sizeof a, "%s", im.mantissa);
-    if (tl.exp10)
-        snprintf(b, sizeof b, "%s×10^%d", tl.mantissa, tl.exp10);
-    else
-        snprintf(b, sizeof b, "%s", tl.mantissa);
-    if (er.exp10)
-        snprintf(c, sizeof c, "%s×10^%d", er.mantissa, er.exp10);
-    else
-        snprintf(c, sizeof c, "%s", er.mantissa);
+    sheet_number(unit_from_si(nr->imbalance, &uQ, true), 3, a, sizeof a);
+    sheet_number(unit_from_si(nr->tolerance, &uQ, true), 3, b, sizeof b);
+    sheet_number(unit_from_si(nr->energy_residual, &uL, true), 3, c, sizeof c);
     sb_printf(&sb, "Convergence: %d iterations; largest continuity error %s %s at node %s (tolerance %s %s); "
                    "largest energy residual on a link %s %s.",
               nr->iterations, a, ut[2], nr->nodes[nr->imbalance_node].id, b, ut[2], c, ut[3]);
@@ -385,4 +397,234 @@ void pdf_network_items(Pdf *P, Vec *items, const Stmt *st)
         it->layout.keep_with_next = k + NET_CHUNK >= nr->nlinks;
     }
     item_add(items, P, fn_net_summary, st, 0, 3);
+}
+
+/* ---- the network figure --------------------------------------------------- */
+
+/* Velocity shading: pale blue for the slowest link through deep blue to
+ * red for the fastest. */
+static Rgb speed_colour(double t)
+{
+    static const Rgb stops[3] = {{0.62, 0.76, 0.92}, {0.16, 0.32, 0.72}, {0.80, 0.14, 0.10}};
+    t = t < 0 ? 0 : t > 1 ? 1 : t;
+    int k = t < 0.5 ? 0 : 1;
+    double u = t < 0.5 ? t / 0.5 : (t - 0.5) / 0.5;
+    Rgb a = stops[k], b = stops[k + 1];
+    return (Rgb){a.r + (b.r - a.r) * u, a.g + (b.g - a.g) * u, a.b + (b.b - a.b) * u};
+}
+
+static void set_stroke(Pdf *P, Rgb c)
+{
+    if (P->page)
+        HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+}
+
+static void set_fill(Pdf *P, Rgb c)
+{
+    if (P->page)
+        HPDF_Page_SetRGBFill(P->page, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+}
+
+double pdf_network_figure(Pdf *P, const Stmt *st, const NetworkResult *nr, int number, const char *default_caption,
+                          double top)
+{
+    const Sheet *s = &P->sheet;
+    double x0 = s->body_l, W = s->body_r - s->body_l - s->margin_w;
+    double xmin = INFINITY, xmax = -INFINITY, ymin = INFINITY, ymax = -INFINITY;
+    for (size_t i = 0; i < nr->nnodes; i++) {
+        xmin = fmin(xmin, nr->nodes[i].x);
+        xmax = fmax(xmax, nr->nodes[i].x);
+        ymin = fmin(ymin, nr->nodes[i].y);
+        ymax = fmax(ymax, nr->nodes[i].y);
+    }
+    double sx = xmax - xmin, sy = ymax - ymin;
+    if (!(sx > 0))
+        sx = 1;
+    if (!(sy > 0))
+        sy = 1;
+    /* one scale for both axes, so the plan is not distorted */
+    double pad = 18, avail_w = W - 2 * pad, avail_h = fmin(0.62 * W, 300) - 2 * pad;
+    double scale = fmin(avail_w / sx, avail_h / sy);
+    double plot_w = sx * scale + 2 * pad, plot_h = sy * scale + 2 * pad;
+    double pl = x0 + (W - plot_w) / 2, pt = top - 6, pb = pt - plot_h;
+    double vmax = 0, vmin = INFINITY;
+    for (size_t l = 0; l < nr->nlinks; l++) {
+        vmax = fmax(vmax, fabs(nr->links[l].V));
+        vmin = fmin(vmin, fabs(nr->links[l].V));
+    }
+    if (!(vmax > vmin))
+        vmax = vmin + 1e-12;
+    HPDF_Page pg = P->page;
+#define PX(v) (pl + pad + ((v) - xmin) * scale)
+#define PY(v) (pb + pad + ((v) - ymin) * scale)
+    if (pg) {
+        pdf_rect(P, pl, pb, plot_w, plot_h, 0.5);
+        /* links, then arrows, then nodes on top */
+        for (size_t l = 0; l < nr->nlinks; l++) {
+            const LinkResult *g = &nr->links[l];
+            const NodeResult *a = &nr->nodes[g->from], *b = &nr->nodes[g->to];
+            double ax = PX(a->x), ay = PY(a->y), bx = PX(b->x), by = PY(b->y);
+            bool closed = g->state == 1;
+            Rgb c = closed ? GREY : speed_colour((fabs(g->V) - vmin) / (vmax - vmin));
+            set_stroke(P, c);
+            if (closed)
+                HPDF_Page_SetDash(pg, (HPDF_UINT16[]){3, 2}, 2, 0);
+            pdf_line(P, ax, ay, bx, by, closed ? 0.8 : 2.2);
+            if (closed)
+                HPDF_Page_SetDash(pg, NULL, 0, 0);
+            double dx = bx - ax, dy = by - ay, len = sqrt(dx * dx + dy * dy);
+            if (len > 14 && !closed && g->Q != 0) {
+                double ux = dx / len * (g->Q > 0 ? 1 : -1), uy = dy / len * (g->Q > 0 ? 1 : -1);
+                double mx = (ax + bx) / 2, my = (ay + by) / 2, h = 4.2, w = 2.6;
+                set_fill(P, c);
+                HPDF_Page_MoveTo(pg, (HPDF_REAL)(mx + ux * h), (HPDF_REAL)(my + uy * h));
+                HPDF_Page_LineTo(pg, (HPDF_REAL)(mx - ux * h - uy * w), (HPDF_REAL)(my - uy * h + ux * w));
+                HPDF_Page_LineTo(pg, (HPDF_REAL)(mx - ux * h + uy * w), (HPDF_REAL)(my - uy * h - ux * w));
+                HPDF_Page_ClosePath(pg);
+                HPDF_Page_Fill(pg);
+                /* the link's id beside its middle */
+                double tw = pdf_width(P, FONT_SANS, 5.6, g->id);
+                pdf_text_color(P, FONT_SANS, 5.6, mx - uy * 7 - tw / 2, my + ux * 7 - 2, g->id, GREY);
+            }
+        }
+        set_stroke(P, INK);
+        set_fill(P, INK);
+        for (size_t i = 0; i < nr->nnodes; i++) {
+            const NodeResult *n = &nr->nodes[i];
+            double cx = PX(n->x), cy = PY(n->y);
+            if (n->supply) {
+                set_fill(P, INK);
+                HPDF_Page_Rectangle(pg, (HPDF_REAL)(cx - 3.4), (HPDF_REAL)(cy - 3.4), 6.8f, 6.8f);
+                HPDF_Page_Fill(pg);
+            } else {
+                set_fill(P, (Rgb){1, 1, 1});
+                HPDF_Page_SetLineWidth(pg, 0.7f);
+                HPDF_Page_Circle(pg, (HPDF_REAL)cx, (HPDF_REAL)cy, 2.6f);
+                HPDF_Page_FillStroke(pg);
+            }
+            set_fill(P, INK);
+            pdf_text_color(P, FONT_SANS_BOLD, 6, cx + 4.5, cy + 3.5, n->id, INK);
+        }
+        /* the critical node */
+        const NodeResult *c = &nr->nodes[nr->p_min_node];
+        set_stroke(P, FAIL);
+        HPDF_Page_SetLineWidth(pg, 1.2f);
+        HPDF_Page_Circle(pg, (HPDF_REAL)PX(c->x), (HPDF_REAL)PY(c->y), 6.0f);
+        HPDF_Page_Stroke(pg);
+        set_stroke(P, INK);
+        set_fill(P, INK);
+        HPDF_Page_SetLineWidth(pg, 1);
+    }
+#undef PX
+#undef PY
+    /* legend: the velocity scale, the symbols */
+    double y = pb - 8;
+    Unit uV = unit_default(DIM_VELOCITY, TEMP_NONE, P->ev->units), uP = unit_default(DIM_PRESSURE, TEMP_NONE, P->ev->units);
+    char a[48], b[48], ut[32], up[32];
+    num_sig(unit_from_si(vmin, &uV, true), 3, a, sizeof a);
+    num_sig(unit_from_si(vmax, &uV, true), 3, b, sizeof b);
+    mbox_unit_text(uV.text, ut, sizeof ut);
+    mbox_unit_text(uP.text, up, sizeof up);
+    double lx = x0 + 4;
+    char *lead = arena_printf(&P->arena, "velocity  %s %s", a, ut);
+    pdf_text_color(P, FONT_SANS, 6.8, lx, y - 7, lead, INK);
+    lx += pdf_width(P, FONT_SANS, 6.8, lead) + 4;
+    for (int k = 0; k < 24 && pg; k++) {
+        set_fill(P, speed_colour(k / 23.0));
+        HPDF_Page_Rectangle(pg, (HPDF_REAL)(lx + k * 3), (HPDF_REAL)(y - 8), 3.1f, 6);
+        HPDF_Page_Fill(pg);
+    }
+    set_fill(P, INK);
+    lx += 24 * 3 + 4;
+    char *tail = arena_printf(&P->arena, "%s %s;  ■ supply,  ○ junction,  arrow: direction of flow", b, ut);
+    pdf_text_color(P, FONT_SANS, 6.8, lx, y - 7, tail, INK);
+    y -= 12;
+    const NodeResult *c = &nr->nodes[nr->p_min_node];
+    num_sig(unit_from_si(c->p, &uP, true), P->env.digits, a, sizeof a);
+    char *crit = arena_printf(&P->arena, "Red ring: the critical node %s, lowest junction pressure %s %s.", c->id, a, up);
+    pdf_text_color(P, FONT_SANS, 6.8, x0 + 4, y - 7, crit, FAIL);
+    y -= 14;
+    char *num = arena_printf(&P->arena, "Figure %d", number);
+    const char *cap = st->description && *st->description ? st->description : default_caption;
+    double nw = pdf_width(P, FONT_SERIF_BOLD, 9, num);
+    char *rest = arena_printf(&P->arena, " — %s", cap);
+    double rw = pdf_width(P, FONT_SERIF, 9, rest);
+    if (nw + rw <= W) {
+        double cx = x0 + (W - nw - rw) / 2;
+        pdf_text(P, FONT_SERIF_BOLD, 9, cx, y - 9, num);
+        pdf_text(P, FONT_SERIF, 9, cx + nw, y - 9, rest);
+        y -= 13;
+    } else {
+        pdf_text(P, FONT_SERIF_BOLD, 9, x0, y - 9, num);
+        y -= 11.5;
+        y -= pdf_wrap(P, FONT_SERIF, 9, 11.5, x0 + 12, y, W - 12, cap);
+    }
+    return top - y + 4;
+}
+
+/* ---- the cover: each network's critical node --------------------------- */
+
+/* Does the expression read NAME.p_min of the network? */
+static bool reads_p_min(const Expr *e, const char *name)
+{
+    if (!e)
+        return false;
+    if (e->kind == EXPR_FIELD && e->text && strcmp(e->text, "p_min") == 0 && e->lhs && e->lhs->kind == EXPR_NAME &&
+        strcmp(e->lhs->text, name) == 0)
+        return true;
+    if (reads_p_min(e->lhs, name) || reads_p_min(e->rhs, name))
+        return true;
+    for (size_t i = 0; i < e->nargs; i++)
+        if (reads_p_min(e->args[i], name))
+            return true;
+    return false;
+}
+
+static double fn_network_cover(Pdf *P, const Item *it, double top)
+{
+    const Stmt *st = it->p;
+    const NetworkResult *nr = P->ev->results[st->index].network;
+    const NodeResult *c = &nr->nodes[nr->p_min_node];
+    double x = P->sheet.body_l, W = full_width(P);
+    Unit uP = unit_default(DIM_PRESSURE, TEMP_NONE, P->ev->units);
+    char v[48], ut[32];
+    sheet_number(unit_from_si(c->p, &uP, true), P->env.digits, v, sizeof v);
+    mbox_unit_text(uP.text, ut, sizeof ut);
+    StrBuf sb = {0};
+    sb_printf(&sb, "Network %s: the critical node is %s, lowest junction pressure %s %s", st->name, c->id, v, ut);
+    bool any = false, fails = false;
+    for (size_t i = 0; i < P->d->nstmts; i++) {
+        const Stmt *k = P->d->stmts[i];
+        if (k->kind != STMT_CHECK || k->parse_failed || !(reads_p_min(k->lhs, st->name) || reads_p_min(k->rhs, st->name)))
+            continue;
+        const StmtResult *r = &P->ev->results[i];
+        if (r->state != RES_OK)
+            continue;
+        sb_printf(&sb, "%s check %s %s", any ? ";" : " —", k->label, r->holds ? "holds" : "FAILS");
+        if (isfinite(r->utilization))
+            sb_printf(&sb, " (utilisation %.0f %%)", r->utilization * 100);
+        fails = fails || !r->holds;
+        any = true;
+    }
+    if (!any)
+        sb_puts(&sb, " — no check reads its p_min");
+    sb_printf(&sb, ". Solved in %d iterations.", nr->iterations);
+    const char *tag = fails ? "FAILS" : any ? "HOLDS" : "NOTE";
+    double tw = pdf_width(P, FONT_SANS_BOLD, 7.5, "FAILS") + 10;
+    double h = pdf_wrap_color(P, FONT_SERIF, 8.5, 10.5, x + tw, top - 3, W - tw, sb_str(&sb), fails ? FAIL : INK);
+    pdf_text_color(P, FONT_SANS_BOLD, 7.5, x + 3, top - 3 - 8.5 * 0.85, tag, fails ? FAIL : any ? PASS : GREY);
+    sb_free(&sb);
+    h += 6;
+    pdf_line(P, x, top - h, x + W, top - h, 0.3);
+    return h;
+}
+
+void pdf_network_cover_items(Pdf *P, Vec *items)
+{
+    for (size_t i = 0; i < P->d->nstmts; i++) {
+        const Stmt *st = P->d->stmts[i];
+        if (st->kind == STMT_NETWORK && P->ev->results[i].state == RES_OK && P->ev->results[i].network &&
+            P->ev->results[i].network->nnodes > 0)
+            item_add(items, P, fn_network_cover, st, 0, 0);
+    }
 }

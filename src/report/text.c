@@ -326,10 +326,19 @@ static void put_network(const Evaluated *ev, const Stmt *s, const StmtResult *r,
         if (!v)
             continue;
         sb_printf(out, "  %s.%s = ", s->name, summary[k]);
+        if (strcmp(summary[k], "iterations") == 0) {
+            sb_printf(out, "%d\n", nr->iterations); /* a count, not a measured number */
+            continue;
+        }
         Unit u = v->kind == VAL_NUMBER ? eval_display_unit(ev, v, NULL) : (Unit){0};
         render_value_text(ev, v, &u, out);
         sb_putc(out, '\n');
     }
+    sb_printf(out, "  convergence: %d iterations, largest continuity error at node %s, largest energy residual ",
+              nr->iterations, nr->nodes[nr->imbalance_node].id);
+    Value er = value_number(qty(nr->energy_residual, DIM_L));
+    render_value_text(ev, &er, &uL, out);
+    sb_putc(out, '\n');
     for (size_t k = 0; k < r->nmethods; k++)
         sb_printf(out, "      method: %s\n", r->methods[k]->title);
 }

@@ -18,7 +18,9 @@ the root of h(Q) = H_from - H_to found by bracketing (brentq), and the
 heads are those that make the continuity residual at every junction zero,
 found by Powell's hybrid method. Per link,
   h(Q) = (f*L/D + K) * Q*|Q| / (2*g*A^2),  f = 64/Re below Re 2000, else
-         Colebrook(Re, eps/D) (fluids)
+         Colebrook(Re, eps/D) (fluids) from Re 4000, and between them the
+         straight line in Re from 64/2000 to Colebrook at 4000 that the
+         program uses in the transition zone
   h(Q) = 10.67*L*|Q|^1.852/(C^1.852*D^4.87) * sign(Q) + K*Q*|Q|/(2*g*A^2)
          (Hazen-Williams, SI form)
 Pipe bores and roughnesses are read from our own pipe() output (they are
@@ -70,7 +72,12 @@ def link_h(Q, L, D, eps, K, rho, mu, hw_C=None):
     if q == 0:
         return 0.0
     Re = rho * (q / A) * D / mu
-    f = 64 / Re if Re < 2000 else Colebrook(Re, eps / D)
+    if Re < 2000:
+        f = 64 / Re
+    elif Re < 4000:  # the transition line of src/network.c
+        f = 64 / 2000 + (Colebrook(4000, eps / D) - 64 / 2000) * (Re - 2000) / 2000
+    else:
+        f = Colebrook(Re, eps / D)
     return (f * L / D + K) * Q * q / (2 * G * A * A)
 
 
