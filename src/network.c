@@ -179,7 +179,7 @@ static bool fittings_K(CallCtx *cx, const NetworkSpec *ns, const NetLink *lk, do
                 return false;
             Kf = v.q.si;
         } else {
-            FittingInput in = {fk, D, Re, 0, -1};
+            FittingInput in = {fk, D, Re, 0, -1, 0};
             if (fk == FIT_NONE || fitting_k((FittingMethod)m, &in, &Kf) != FIT_OK) {
                 /* The reporting pass names the problem; start from the K column. */
                 Value args[3] = {value_string(it->kind), value_number(qty(D, DIM_L)), value_number(qty_number(Re))};
