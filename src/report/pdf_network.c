@@ -94,35 +94,6 @@ static NetCols link_cols(const Pdf *P)
     return c;
 }
 
-/* A number as the report prints it: plain, or mantissa ×10 and a
- * superscript power ("1.73×10⁻¹⁵"), never "e-15". */
-static void sheet_number(double x, int digits, char *buf, size_t n)
-{
-    static const char *const sup[10] = {"⁰", "¹", "²", "³", "⁴", "⁵", "⁶", "⁷", "⁸", "⁹"};
-    NumParts np = num_parts(x, digits);
-    const char *m = np.mantissa;
-    StrBuf sb = {0};
-    if (m[0] == '-') {
-        sb_puts(&sb, "−");
-        m++;
-    }
-    sb_puts(&sb, m);
-    if (np.exp10) {
-        sb_puts(&sb, "×10");
-        int e = np.exp10;
-        if (e < 0) {
-            sb_puts(&sb, "⁻");
-            e = -e;
-        }
-        char d[16];
-        snprintf(d, sizeof d, "%d", e);
-        for (char *p = d; *p; p++)
-            sb_puts(&sb, sup[*p - '0']);
-    }
-    snprintf(buf, n, "%s", sb_str(&sb));
-    sb_free(&sb);
-}
-
 static void number_cell(const Pdf *P, double si, const NetCols *c, int i, char *buf, size_t n)
 {
     if (!isfinite(si)) {
@@ -130,7 +101,7 @@ static void number_cell(const Pdf *P, double si, const NetCols *c, int i, char *
         return;
     }
     double v = c->has_unit[i] ? unit_from_si(si, &c->unit[i], true) : si;
-    sheet_number(v, P->env.digits, buf, n);
+    num_typeset(v, P->env.digits, buf, n);
 }
 
 static void node_cell(const Pdf *P, const NetworkResult *nr, const NetCols *c, size_t k, int i, char *buf,
@@ -348,15 +319,15 @@ static double fn_net_summary(Pdf *P, const Item *it, double top)
     mbox_unit_text(uQ.text, ut[2], sizeof ut[2]);
     mbox_unit_text(uL.text, ut[3], sizeof ut[3]);
     StrBuf sb = {0};
-    num_sig(unit_from_si(nr->p_min, &uP, true), P->env.digits, a, sizeof a);
-    num_sig(unit_from_si(nr->V_max, &uV, true), P->env.digits, b, sizeof b);
+    num_typeset(unit_from_si(nr->p_min, &uP, true), P->env.digits, a, sizeof a);
+    num_typeset(unit_from_si(nr->V_max, &uV, true), P->env.digits, b, sizeof b);
     sb_printf(&sb, "Lowest junction pressure %s %s at node %s (the critical node); highest velocity %s %s in link %s.",
               a, ut[0], nr->nodes[nr->p_min_node].id, b, ut[1], nr->links[nr->V_max_link].id);
     y -= pdf_wrap(P, FONT_SERIF, 9, 11.5, x + 4, y, W - 4, sb_str(&sb)) + 2;
     sb_free(&sb);
-    sheet_number(unit_from_si(nr->imbalance, &uQ, true), 3, a, sizeof a);
-    sheet_number(unit_from_si(nr->tolerance, &uQ, true), 3, b, sizeof b);
-    sheet_number(unit_from_si(nr->energy_residual, &uL, true), 3, c, sizeof c);
+    num_typeset(unit_from_si(nr->imbalance, &uQ, true), 3, a, sizeof a);
+    num_typeset(unit_from_si(nr->tolerance, &uQ, true), 3, b, sizeof b);
+    num_typeset(unit_from_si(nr->energy_residual, &uL, true), 3, c, sizeof c);
     sb_printf(&sb, "Convergence: %d iterations; largest continuity error %s %s at node %s (tolerance %s %s); "
                    "largest energy residual on a link %s %s.",
               nr->iterations, a, ut[2], nr->nodes[nr->imbalance_node].id, b, ut[2], c, ut[3]);
@@ -521,8 +492,8 @@ double pdf_network_figure(Pdf *P, const Stmt *st, const NetworkResult *nr, int n
     double y = pb - 8;
     Unit uV = unit_default(DIM_VELOCITY, TEMP_NONE, P->ev->units), uP = unit_default(DIM_PRESSURE, TEMP_NONE, P->ev->units);
     char a[48], b[48], ut[32], up[32];
-    num_sig(unit_from_si(vmin, &uV, true), 3, a, sizeof a);
-    num_sig(unit_from_si(vmax, &uV, true), 3, b, sizeof b);
+    num_typeset(unit_from_si(vmin, &uV, true), 3, a, sizeof a);
+    num_typeset(unit_from_si(vmax, &uV, true), 3, b, sizeof b);
     mbox_unit_text(uV.text, ut, sizeof ut);
     mbox_unit_text(uP.text, up, sizeof up);
     double lx = x0 + 4;
@@ -540,7 +511,7 @@ double pdf_network_figure(Pdf *P, const Stmt *st, const NetworkResult *nr, int n
     pdf_text_color(P, FONT_SANS, 6.8, lx, y - 7, tail, INK);
     y -= 12;
     const NodeResult *c = &nr->nodes[nr->p_min_node];
-    num_sig(unit_from_si(c->p, &uP, true), P->env.digits, a, sizeof a);
+    num_typeset(unit_from_si(c->p, &uP, true), P->env.digits, a, sizeof a);
     char *crit = arena_printf(&P->arena, "Red ring: the critical node %s, lowest junction pressure %s %s.", c->id, a, up);
     pdf_text_color(P, FONT_SANS, 6.8, x0 + 4, y - 7, crit, FAIL);
     y -= 14;
@@ -588,7 +559,7 @@ static double fn_network_cover(Pdf *P, const Item *it, double top)
     double x = P->sheet.body_l, W = full_width(P);
     Unit uP = unit_default(DIM_PRESSURE, TEMP_NONE, P->ev->units);
     char v[48], ut[32];
-    sheet_number(unit_from_si(c->p, &uP, true), P->env.digits, v, sizeof v);
+    num_typeset(unit_from_si(c->p, &uP, true), P->env.digits, v, sizeof v);
     mbox_unit_text(uP.text, ut, sizeof ut);
     StrBuf sb = {0};
     sb_printf(&sb, "Network %s: the critical node is %s, lowest junction pressure %s %s", st->name, c->id, v, ut);
