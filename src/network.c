@@ -509,7 +509,7 @@ bool network_solve(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *
                     char b1[48];
                     num_sig(o->Re, 4, b1, sizeof b1);
                     diag_warning(cx->diags, lk->pos,
-                                 "link '%s': Re = %s is in the transition zone 2000 <= Re < 4000, where no correlation is "
+                                 "link '%s': Re = %s is in the transition zone 2000 ≤ Re < 4000, where no correlation is "
                                  "reliable; f is taken on a straight line in Re from 64/Re at 2000 to %s at 4000",
                                  lk->id, b1, friction_method_name(ph.method));
                 }
