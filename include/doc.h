@@ -68,7 +68,8 @@ typedef enum StmtKind {
     STMT_NOTE,   /* a whole-line comment                           */
     STMT_PATH,   /* a ```path NAME block: binds the record NAME    */
     STMT_NETWORK,/* a ```network NAME block: binds the record NAME */
-    STMT_FIGURE  /* figure KIND(args)  # caption                   */
+    STMT_FIGURE, /* figure KIND(args)  # caption                   */
+    STMT_CURVE   /* a ```curve NAME block: binds the curve NAME    */
 } StmtKind;
 
 /* One entry of a path's fittings cell: "2 elbow 90 std". */
@@ -84,6 +85,8 @@ typedef struct PathSegment {
     const char *field;       /* its record field name ("S_1") */
     Pos pos;
     Expr *flow, *pipe, *length, *rise, *K, *C;
+    Expr *device;            /* a device at the segment's outlet (DESIGN 2.10) */
+    const char *device_text; /* its cell as written */
     FittingItem *fittings;
     size_t nfittings;
 } PathSegment;
@@ -135,6 +138,15 @@ typedef struct NetworkSpec {
     size_t nlinks;
     bool has_xy;             /* the node table has x and y columns */
 } NetworkSpec;
+/* A ```curve NAME block (DESIGN 2.10): an interpolate: line and a
+ * two-column table, the argument and the value, one point a row. */
+typedef struct CurveSpec {
+    bool loglog;             /* interpolate: loglog (default linear) */
+    const char *x_head, *y_head;   /* the column headings as written */
+    Expr **x, **y;           /* npoints cells each */
+    Pos *row_pos;
+    size_t npoints;
+} CurveSpec;
 
 typedef enum CmpOp { CMP_LE, CMP_LT, CMP_GE, CMP_GT } CmpOp;
 
@@ -168,6 +180,7 @@ typedef struct Stmt {
     size_t ncites;
     PathSpec *path;          /* PATH */
     NetworkSpec *network;    /* NETWORK */
+    CurveSpec *curve;        /* CURVE */
     const char *figure;      /* FIGURE: hgl, moody or pump */
     Expr **args;             /* FIGURE: its arguments */
     size_t nargs;
@@ -219,6 +232,7 @@ typedef enum BlockKind {
     BLK_CALC,                /* ```calc: statements [first_stmt, first_stmt + nstmts) */
     BLK_PATH,                /* ```path NAME: one statement, first_stmt */
     BLK_NETWORK,             /* ```network NAME: one statement, first_stmt */
+    BLK_CURVE,               /* ```curve NAME: one statement, first_stmt */
     BLK_CASES,               /* ```cases: Document.cases[first_stmt] */
     BLK_SOURCES              /* ```sources */
 } BlockKind;

@@ -28,7 +28,12 @@ typedef struct SegmentResult {
     double V, Re, f, K;      /* K: fittings plus the K column */
     double h_f, h_m;         /* friction and fitting head loss */
     double dp_static;        /* rho*g*rise */
-    double p_in, p_out;
+    bool has_device;         /* a device at the outlet (DESIGN 2.10) */
+    const char *device;      /* its cell as written */
+    int device_status;       /* its DeviceStatus (methods/devices.h) */
+    double p_device_in;      /* static pressure just before the device */
+    double dp_device;        /* static drop across it (negative: a pump's gain); 0 without */
+    double p_in, p_out;      /* p_out: after the device, if any */
     double x_in, x_out;      /* distance along the path */
     double z_in, z_out;      /* elevation */
 } SegmentResult;
@@ -40,10 +45,12 @@ typedef struct PathResult {
     double p_end, p_min, V_max, loss;
     size_t p_min_seg;        /* the segment whose outlet (or first inlet) is lowest */
     bool p_min_at_inlet;
+    bool p_min_before_device;/* the lowest is just before that segment's device */
+    size_t ndevices;
 } PathResult;
 
 /* An evaluated network (DESIGN 2.12), in SI units. */
-typedef enum NetDevice { NET_DEVICE_NONE, NET_DEVICE_CHECK, NET_DEVICE_PUMP, NET_DEVICE_PRV } NetDevice;
+typedef enum NetDevice { NET_DEVICE_NONE, NET_DEVICE_CHECK, NET_DEVICE_PUMP, NET_DEVICE_PRV, NET_DEVICE_LOSS } NetDevice;
 
 typedef struct NodeResult {
     const char *id;
@@ -113,6 +120,7 @@ typedef struct StmtResult {
     SolveReport solve;       /* SOLVE */
     const PathResult *path;  /* PATH */
     const NetworkResult *network; /* NETWORK */
+    const ResultTable *table;/* CURVE: its points; DEF: a table a function laid out */
     const FigureData *figure;/* FIGURE */
     const Method *methods[CALL_MAX_METHODS];  /* published methods the line used */
     size_t nmethods;

@@ -11,8 +11,8 @@
 
 /* The evaluated cells of one segment; `have` says which optional ones. */
 typedef struct SegmentInput {
-    Value flow, pipe, length, rise, K, C;
-    bool has_K, has_C;
+    Value flow, pipe, length, rise, K, C, device;
+    bool has_K, has_C, has_device;
 } SegmentInput;
 
 /* Compute the path; on success *out is the path record (its native data

@@ -39,6 +39,17 @@ typedef struct CallArgs {
 
 #define CALL_MAX_METHODS 8
 
+/* A table a statement lays out for the report: a curve's points,
+ * select_pipe's candidate sizes. Cells are numbers (shown in their column's
+ * unit) or strings, row-major; the renderers print it as it is. */
+typedef struct ResultTable {
+    const char *title;
+    size_t ncols, nrows;
+    const char **heads;      /* column headings */
+    Unit *units;             /* per column; text "" for strings and pure numbers */
+    Value *cells;            /* nrows * ncols */
+} ResultTable;
+
 typedef struct CallCtx {
     Arena *arena;
     DiagList *diags;
@@ -46,6 +57,7 @@ typedef struct CallCtx {
     const Method *methods[CALL_MAX_METHODS];   /* methods used by this statement */
     size_t nmethods;
     const char *code;       /* the front matter's `code:` key, or NULL for the default */
+    const ResultTable *table;                  /* a table for the report, or NULL */
 } CallCtx;
 
 typedef bool (*BuiltinFn)(CallCtx *cx, const CallArgs *a, Value *out);

@@ -1,5 +1,5 @@
-/* tables.h — the two fenced blocks that hold tables: ```path NAME and
- * ```cases (DESIGN 2.2a).
+/* tables.h — the fenced blocks that hold tables: ```path NAME and
+ * ```cases (DESIGN 2.2a), ```curve NAME (DESIGN 2.10).
  *
  * Their contents are `key: value` option lines and a pipe table whose cells
  * are calc expressions. The markdown stage hands over the fence's lines with
@@ -25,6 +25,9 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
  * no supply, a node no supply reaches) are found here, at their cells.
  * Returns a STMT_NETWORK (parse_failed set after errors). */
 Stmt *tables_parse_network(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags);
+/* A curve block named `name`; returns a STMT_CURVE (parse_failed set after
+ * errors, so the name is still known). */
+Stmt *tables_parse_curve(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags);
 
 /* A cases block; NULL after reporting when it is unusable. */
 CaseTable *tables_parse_cases(Arena *a, Pos at, const FenceLine *lines, size_t n, DiagList *diags);

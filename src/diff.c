@@ -203,7 +203,8 @@ static bool path_same(const Diff *d, const PathSpec *a, const PathSpec *b)
         const PathSegment *x = &a->segs[i], *y = &b->segs[i];
         if (!str_same(x->id, y->id) || x->nfittings != y->nfittings || !expr_same(d, x->flow, y->flow) ||
             !expr_same(d, x->pipe, y->pipe) || !expr_same(d, x->length, y->length) ||
-            !expr_same(d, x->rise, y->rise) || !expr_same(d, x->K, y->K) || !expr_same(d, x->C, y->C))
+            !expr_same(d, x->rise, y->rise) || !expr_same(d, x->K, y->K) || !expr_same(d, x->C, y->C) ||
+            !expr_same(d, x->device, y->device))
             return false;
         for (size_t k = 0; k < x->nfittings; k++)
             if (x->fittings[k].count != y->fittings[k].count || !str_same(x->fittings[k].kind, y->fittings[k].kind))
@@ -256,6 +257,13 @@ static bool stmt_same(const Diff *d, const Stmt *a, const Stmt *b)
         return path_same(d, a->path, b->path);
     case STMT_NETWORK:
         return network_same(d, a->network, b->network);
+    case STMT_CURVE:
+        if (a->curve->loglog != b->curve->loglog || a->curve->npoints != b->curve->npoints)
+            return false;
+        for (size_t i = 0; i < a->curve->npoints; i++)
+            if (!expr_same(d, a->curve->x[i], b->curve->x[i]) || !expr_same(d, a->curve->y[i], b->curve->y[i]))
+                return false;
+        return true;
     default:
         return true;
     }
@@ -263,7 +271,8 @@ static bool stmt_same(const Diff *d, const Stmt *a, const Stmt *b)
 
 static bool is_named(const Stmt *s)
 {
-    return (s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH || s->kind == STMT_NETWORK) && s->name &&
+    return (s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH || s->kind == STMT_NETWORK ||
+            s->kind == STMT_CURVE) && s->name &&
            !s->parse_failed;
 }
 
@@ -771,7 +780,8 @@ static Section *sections_of(Arena *a, const Document *doc, size_t *count)
             }
             continue;
         }
-        if (b->kind == BLK_PATH || b->kind == BLK_NETWORK || b->kind == BLK_CASES || b->kind == BLK_SOURCES || b->kind == BLK_RULE)
+        if (b->kind == BLK_PATH || b->kind == BLK_NETWORK || b->kind == BLK_CURVE || b->kind == BLK_CASES ||
+            b->kind == BLK_SOURCES || b->kind == BLK_RULE)
             continue;
         sb_clear(&sb);
         const Block one = {.kind = b->kind, .inlines = b->inlines, .text = b->text, .children = b->children};

@@ -292,7 +292,8 @@ static void resolve_statements(Document *doc, DiagList *diags)
      * the later line. A name defined twice keeps its first definition. */
     for (size_t i = 0; i < doc->nstmts; i++) {
         Stmt *s = doc->stmts[i];
-        if ((s->kind != STMT_DEF && s->kind != STMT_SOLVE && s->kind != STMT_PATH && s->kind != STMT_NETWORK) ||
+        if ((s->kind != STMT_DEF && s->kind != STMT_SOLVE && s->kind != STMT_PATH && s->kind != STMT_NETWORK &&
+             s->kind != STMT_CURVE) ||
             !s->name)
             continue;
         size_t k = names_find(doc->names, s->name);
@@ -359,10 +360,16 @@ static void resolve_statements(Document *doc, DiagList *diags)
             ok = resolve_expr(&r, ps->start) && ok;
             for (size_t k = 0; k < ps->nsegs; k++) {
                 PathSegment *g = &ps->segs[k];
-                Expr *cells[] = {g->flow, g->pipe, g->length, g->rise, g->K, g->C};
+                Expr *cells[] = {g->flow, g->pipe, g->length, g->rise, g->K, g->C, g->device};
                 for (size_t c = 0; c < sizeof cells / sizeof cells[0]; c++)
                     if (cells[c])
                         ok = resolve_expr(&r, cells[c]) && ok;
+            }
+        } else if (s->kind == STMT_CURVE) {
+            CurveSpec *cs = s->curve;
+            for (size_t k = 0; k < cs->npoints; k++) {
+                ok = resolve_expr(&r, cs->x[k]) && ok;
+                ok = resolve_expr(&r, cs->y[k]) && ok;
             }
         } else if (s->kind == STMT_NETWORK) {
             NetworkSpec *ns = s->network;
@@ -465,7 +472,8 @@ static void resolve_cases(Document *doc, DiagList *diags)
                     diag_error(diags, ct->input_pos[k], "cases column '%s' is not an input of the calc", ct->inputs[k]);
             } else if (doc->stmts[slot]->kind != STMT_DEF) {
                 diag_error(diags, ct->input_pos[k], "cases column '%s' must name a definition, not a %s", ct->inputs[k],
-                           doc->stmts[slot]->kind == STMT_SOLVE   ? "solve"
+                           doc->stmts[slot]->kind == STMT_SOLVE     ? "solve"
+                           : doc->stmts[slot]->kind == STMT_CURVE   ? "curve"
                            : doc->stmts[slot]->kind == STMT_NETWORK ? "network"
                                                                     : "path");
                 slot = SLOT_UNRESOLVED;

@@ -16,6 +16,7 @@
 
 #include "flow.h"
 #include "network.h"
+#include "methods/devices_lib.h"
 #include "numfmt.h"
 #include "uses.h"
 
@@ -510,7 +511,7 @@ static void set_var(Evaluated *ev, const Stmt *s, double x, DiagList *diags)
 /* Evaluate both sides of the equation as they stand. */
 static bool equation_sides(Evaluated *ev, const Stmt *s, DiagList *diags, Value *l, Value *r)
 {
-    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code};
+    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL};
     Ctx c = {ev, ev->doc, diags, &cc, 0};
     bool ok = eval_expr(&c, s->lhs, l);
     ok = eval_expr(&c, s->rhs, r) && ok;
@@ -775,6 +776,10 @@ static void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
             in[i].has_C = true;
             ok = eval_expr(c, g->C, &in[i].C) && ok;
         }
+        if (g->device) {
+            in[i].has_device = true;
+            ok = eval_expr(c, g->device, &in[i].device) && ok;
+        }
     }
     if (!ok) {
         res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
@@ -786,6 +791,109 @@ static void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
         return;
     }
     res->path = pr;
+    res->state = RES_OK;
+}
+
+/* A curve: every cell a number, each column of one dimension, the argument
+ * strictly increasing (and for log-log both above zero); the record it
+ * binds reads the table (methods/devices_lib.c). Each problem is reported
+ * at its cell. */
+static void eval_curve(const Stmt *s, StmtResult *res, Ctx *c)
+{
+    const CurveSpec *cs = s->curve;
+    Arena *a = &c->doc->arena;
+    size_t n = cs->npoints;
+    Value *v = arena_alloc(a, (2 * n + 1) * sizeof *v);
+    bool ok = true;
+    for (size_t i = 0; i < n; i++) {
+        ok = eval_expr(c, cs->x[i], &v[2 * i]) && ok;
+        ok = eval_expr(c, cs->y[i], &v[2 * i + 1]) && ok;
+    }
+    if (!ok) {
+        res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
+        return;
+    }
+    CurveData *cd = arena_alloc(a, sizeof *cd);
+    double *x = arena_alloc(a, (n + 1) * sizeof *x), *y = arena_alloc(a, (n + 1) * sizeof *y);
+    const char *head[2] = {cs->x_head, cs->y_head};
+    for (size_t i = 0; i < n && ok; i++) {
+        for (size_t k = 0; k < 2; k++) {
+            const Expr *e = k ? cs->y[i] : cs->x[i];
+            const Value *cv = &v[2 * i + k], *first = &v[k];
+            if (!need_number(c, e, cv, "a curve's cell")) {
+                ok = false;
+                break;
+            }
+            if (!dim_eq(cv->q.dim, first->q.dim) || (cv->q.temp == TEMP_NONE) != (first->q.temp == TEMP_NONE)) {
+                char d1[128], d2[128];
+                describe_operand(c, k ? cs->y[0] : cs->x[0], first, d1, sizeof d1);
+                describe_operand(c, e, cv, d2, sizeof d2);
+                diag_error(c->diags, e->pos, "column '%s' mixes dimensions: the first row is %s, this cell is %s", head[k],
+                           d1, d2);
+                ok = false;
+                break;
+            }
+            (k ? y : x)[i] = cv->q.si;
+        }
+    }
+    if (!ok) {
+        res->state = RES_FAILED;
+        return;
+    }
+    cd->name = s->name;
+    cd->curve = (Curve){x, y, n, cs->loglog ? CURVE_LOGLOG : CURVE_LINEAR};
+    cd->x_dim = v[0].q.dim;
+    cd->x_temp = v[0].q.temp;
+    cd->y_dim = v[1].q.dim;
+    cd->y_temp = v[1].q.temp;
+    size_t bad = 0;
+    char b1[112], b2[112];
+    switch (curve_check(&cd->curve, &bad)) {
+    case CURVE_OK:
+        break;
+    case CURVE_NOT_INCREASING: {
+        Unit u = eval_display_unit(c->ev, &v[0], written_unit(c->ev, cs->x[0]));
+        bool diff = v[0].q.temp == TEMP_NONE, unitless = !u.text[0] || strcmp(u.text, "1") == 0;
+        char n1[48], n2[48];
+        num_sig(unit_from_si(v[2 * bad].q.si, &u, diff), 4, n1, sizeof n1);
+        num_sig(unit_from_si(v[2 * (bad - 1)].q.si, &u, diff), 4, n2, sizeof n2);
+        snprintf(b1, sizeof b1, "%s%s%s", n1, unitless ? "" : " ", unitless ? "" : u.text);
+        snprintf(b2, sizeof b2, "%s%s%s", n2, unitless ? "" : " ", unitless ? "" : u.text);
+        diag_error(c->diags, cs->x[bad]->pos,
+                   "the argument column '%s' must increase strictly: %s here is not above %s in the row before",
+                   cs->x_head, b1, b2);
+        res->state = RES_FAILED;
+        return;
+    }
+    case CURVE_NOT_POSITIVE: {
+        bool xs = !(x[bad] > 0);
+        diag_error(c->diags, xs ? cs->x[bad]->pos : cs->y[bad]->pos,
+                   "interpolate: loglog needs values above zero in both columns; this '%s' cell is not",
+                   xs ? cs->x_head : cs->y_head);
+        res->state = RES_FAILED;
+        return;
+    }
+    case CURVE_NOT_FINITE:
+    case CURVE_TOO_FEW:
+        diag_error(c->diags, cs->x[bad]->pos, "this point of curve '%s' is not a finite number", s->name);
+        res->state = RES_FAILED;
+        return;
+    }
+    /* the table for the report, in the units the first row was written in */
+    ResultTable *t = arena_alloc(a, sizeof *t);
+    t->title = arena_printf(a, "Curve %s, %s interpolation", s->name, cs->loglog ? "log-log" : "linear");
+    t->ncols = 2;
+    t->nrows = n;
+    t->heads = arena_alloc(a, 2 * sizeof *t->heads);
+    t->heads[0] = cs->x_head;
+    t->heads[1] = cs->y_head;
+    t->units = arena_alloc(a, 2 * sizeof *t->units);
+    for (size_t k = 0; k < 2; k++)
+        t->units[k] = eval_display_unit(c->ev, &v[k], written_unit(c->ev, k ? cs->y[0] : cs->x[0]));
+    t->cells = v;
+    res->table = t;
+    res->value = (Value){.kind = VAL_RECORD, .rec = curve_record_new(a, cd)};
+    call_use_method(c->call, curve_method(cd->curve.interp));
     res->state = RES_OK;
 }
 
@@ -858,7 +966,7 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
     for (size_t k = 0; k < s->ndeps; k++)
         if (ev->results[s->deps[k]].state != RES_OK)
             return; /* not evaluated: an input failed */
-    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code};
+    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL};
     Ctx c = {ev, ev->doc, diags, &cc, 0};
     switch (s->kind) {
     case STMT_DEF: {
@@ -900,11 +1008,16 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
     case STMT_FIGURE:
         eval_figure(s, res, &c);
         break;
+    case STMT_CURVE:
+        eval_curve(s, res, &c);
+        break;
     case STMT_NOTE:
         break;
     }
     memcpy(res->methods, cc.methods, sizeof res->methods);
     res->nmethods = cc.nmethods;
+    if (!res->table)
+        res->table = res->state == RES_OK ? cc.table : NULL;
 }
 
 void eval_recompute(Evaluated *ev, const int *changed, size_t nchanged, size_t upto, DiagList *diags)
@@ -983,7 +1096,7 @@ static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagL
             return; /* reported already, or the input itself failed */
         base[k] = ev->results[slots[k]].value;
     }
-    CallCtx cc = {a, diags, ev->units, {0}, 0, ev->doc->meta.code};
+    CallCtx cc = {a, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL};
     Ctx c = {ev, doc, diags, &cc, 0};
     /* The shown expressions are checked once, with the calc's own values and
      * errors reported, so a bad field or dimension is an error, not a

@@ -7,7 +7,10 @@
  * the flow changes, the static pressure changes by the difference of the
  * velocity heads, p_in(i) = p_out(i-1) + rho*(V(i-1)^2 - V(i)^2)/2.
  * Energy is lost only to pipe friction (Darcy-Weisbach with the chosen
- * friction method, or Hazen-Williams) and to the K of fittings. Every
+ * friction method, or Hazen-Williams), to the K of fittings, and across a
+ * device at a segment's outlet (DESIGN 2.10: a PRV, a valve or meter by Cv
+ * or Kv, a loss curve, or a pump that adds head), which changes the static
+ * pressure there and steps the energy grade line by the same amount. Every
  * correlation is reached through the library functions of builtins.def, so
  * a path uses exactly the methods, warnings and references a calc line
  * would. */
@@ -17,6 +20,7 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "methods/devices_lib.h"
 #include "methods/fittings.h"
 #include "methods/friction.h"
 #include "methods/pumps.h"
@@ -64,9 +68,9 @@ static Value hinted(double si, Dim d, const char *us, const char *si_unit)
     return us ? value_hinted(qty(si, d), us, si_unit) : value_number(qty(si, d));
 }
 
-static Record *segment_record(CallCtx *cx, const SegmentResult *g)
+static Record *segment_record(CallCtx *cx, const SegmentResult *g, const PathSegment *sp)
 {
-    Record *r = record_new(cx->arena, "segment", 12);
+    Record *r = record_new(cx->arena, "segment", g->has_device ? 15 : 13);
     size_t k = 0;
     record_set(r, k++, "Q", value_number(qty(g->Q, DIM_FLOW)));
     record_set(r, k++, "D", hinted(g->D, DIM_L, "in", "mm"));
@@ -80,6 +84,11 @@ static Record *segment_record(CallCtx *cx, const SegmentResult *g)
     record_set(r, k++, "h_m", value_number(qty(g->h_m, DIM_L)));
     record_set(r, k++, "p_in", value_number(qty(g->p_in, DIM_PRESSURE)));
     record_set(r, k++, "p_out", value_number(qty(g->p_out, DIM_PRESSURE)));
+    record_set(r, k++, "dp_device", value_number(qty(g->dp_device, DIM_PRESSURE)));
+    if (g->has_device) {
+        record_set(r, k++, "p_device_in", value_number(qty(g->p_device_in, DIM_PRESSURE)));
+        record_set(r, k++, "device", value_string(sp->device_text));
+    }
     return r;
 }
 
@@ -209,6 +218,25 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
         else
             g->p_in = pr->segs[i - 1].p_out + rho * (pr->segs[i - 1].V * pr->segs[i - 1].V - g->V * g->V) / 2;
         g->p_out = g->p_in - rho * G * (g->h_f + g->h_m) - g->dp_static;
+        g->p_device_in = g->p_out;
+
+        /* A device at the outlet, after the pipe and fitting losses. */
+        if (si->has_device) {
+            Device dev;
+            DeviceStatus st;
+            double after;
+            if (!device_from_value(cx, &si->device, sp->device->pos, "device", &dev) ||
+                !device_step(cx, &dev, sp->device->pos, g->Q, g->p_out, rho, &after, &st)) {
+                ok = false;
+                continue;
+            }
+            g->has_device = true;
+            g->device = sp->device_text;
+            g->device_status = (int)st;
+            g->dp_device = g->p_out - after;
+            g->p_out = after;
+            pr->ndevices++;
+        }
         g->x_in = x;
         g->z_in = z;
         x += g->L;
@@ -228,11 +256,19 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
             pr->p_min = g->p_in;
             pr->p_min_seg = i;
             pr->p_min_at_inlet = true;
+            pr->p_min_before_device = false;
+        }
+        if (g->has_device && g->p_device_in < pr->p_min) {
+            pr->p_min = g->p_device_in;
+            pr->p_min_seg = i;
+            pr->p_min_at_inlet = false;
+            pr->p_min_before_device = true;
         }
         if (g->p_out < pr->p_min) {
             pr->p_min = g->p_out;
             pr->p_min_seg = i;
             pr->p_min_at_inlet = false;
+            pr->p_min_before_device = false;
         }
         if (g->V > pr->V_max)
             pr->V_max = g->V;
@@ -246,14 +282,15 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
     record_set(r, k++, "p_min", value_number(qty(pr->p_min, DIM_PRESSURE)));
     const SegmentResult *at = &pr->segs[pr->p_min_seg];
     record_set(r, k++, "p_min_at",
-               value_string(arena_printf(cx->arena, "%s %s", at->id, pr->p_min_at_inlet ? "inlet" : "outlet")));
+               value_string(arena_printf(cx->arena, "%s %s", at->id,
+                                         pr->p_min_at_inlet ? "inlet" : pr->p_min_before_device ? "device inlet" : "outlet")));
     record_set(r, k++, "V_max", value_number(qty(pr->V_max, DIM_VELOCITY)));
     record_set(r, k++, "loss", value_number(qty(pr->loss, DIM_L)));
     record_set(r, k++, "length", value_number(qty(x, DIM_L)));
     for (size_t i = 0; i < pr->nsegs; i++) {
         Value sv = {0};
         sv.kind = VAL_RECORD;
-        sv.rec = segment_record(cx, &pr->segs[i]);
+        sv.rec = segment_record(cx, &pr->segs[i], &ps->segs[i]);
         record_set(r, k++, ps->segs[i].field, sv);
     }
     r->native = pr;
@@ -303,30 +340,42 @@ static bool figure_hgl(CallCtx *cx, const Stmt *s, const Value *args, FigureData
     fd->x_unit = unit_default(DIM_L, TEMP_NONE, cx->units);
     fd->y_unit = fd->x_unit;
     fd->series = arena_alloc(cx->arena, 3 * sizeof *fd->series);
-    size_t n = 2 * pr->nsegs;
+    /* two points a segment, and a third where a device steps the lines */
+    size_t n = 2 * pr->nsegs + pr->ndevices;
     Series *pipe = add_series(cx, fd, 3, "pipe elevation", n, 3);
     Series *hgl = add_series(cx, fd, 3, "hydraulic grade line", n, 0);
     Series *egl = add_series(cx, fd, 3, "energy grade line", n, 1);
     double rg = pr->rho * G;
+    /* markers: the lowest pressure first, then each device */
+    fd->markers = arena_alloc(cx->arena, (pr->ndevices + 1) * sizeof *fd->markers);
+    fd->nmarkers = 1;
+    size_t a = 0;
     for (size_t i = 0; i < pr->nsegs; i++) {
         const SegmentResult *g = &pr->segs[i];
         double hv = g->V * g->V / (2 * G);
-        size_t a = 2 * i, b = 2 * i + 1;
-        pipe->x[a] = hgl->x[a] = egl->x[a] = g->x_in;
-        pipe->x[b] = hgl->x[b] = egl->x[b] = g->x_out;
-        pipe->y[a] = g->z_in;
-        pipe->y[b] = g->z_out;
-        hgl->y[a] = g->z_in + g->p_in / rg;
-        hgl->y[b] = g->z_out + g->p_out / rg;
-        egl->y[a] = hgl->y[a] + hv;
-        egl->y[b] = hgl->y[b] + hv;
+        double xs[3] = {g->x_in, g->x_out, g->x_out}, zs[3] = {g->z_in, g->z_out, g->z_out};
+        double ps[3] = {g->p_in, g->p_device_in, g->p_out};
+        size_t np = g->has_device ? 3 : 2;
+        if (!g->has_device)
+            ps[1] = g->p_out;
+        for (size_t k = 0; k < np; k++, a++) {
+            pipe->x[a] = hgl->x[a] = egl->x[a] = xs[k];
+            pipe->y[a] = zs[k];
+            hgl->y[a] = zs[k] + ps[k] / rg;
+            egl->y[a] = hgl->y[a] + hv;
+        }
+        if (g->has_device) {
+            Marker *mk = &fd->markers[fd->nmarkers++];
+            mk->x = g->x_out;
+            mk->y = g->z_out + g->p_out / rg;
+            mk->label = arena_printf(cx->arena, "%s at %s", g->device, g->id);
+        }
     }
     const SegmentResult *m = &pr->segs[pr->p_min_seg];
-    fd->markers = arena_alloc(cx->arena, sizeof *fd->markers);
-    fd->markers[0].x = pr->p_min_at_inlet ? m->x_in : m->x_out;
-    fd->markers[0].y = (pr->p_min_at_inlet ? m->z_in : m->z_out) + pr->p_min / rg;
-    fd->markers[0].label = "minimum pressure";
-    fd->nmarkers = 1;
+    Marker *mk = &fd->markers[0];
+    mk->x = pr->p_min_at_inlet ? m->x_in : m->x_out;
+    mk->y = (pr->p_min_at_inlet ? m->z_in : m->z_out) + pr->p_min / rg;
+    mk->label = "minimum pressure";
     return true;
 }
 
@@ -398,6 +447,54 @@ static bool figure_moody(CallCtx *cx, const Stmt *s, const Value *args, FigureDa
     return true;
 }
 
+static const char *capitalised(CallCtx *cx, const char *word)
+{
+    char *s = arena_strdup(cx->arena, word);
+    if (s[0] >= 'a' && s[0] <= 'z')
+        s[0] = (char)(s[0] - 'a' + 'A');
+    return s;
+}
+
+/* A curve read between and beyond its points: the interpolated line from
+ * its first to its last point (sampled, so a log-log curve shows its power
+ * laws), on logarithmic axes for a log-log curve, and each table point. */
+static bool figure_curve(CallCtx *cx, const Stmt *s, const Value *args, FigureData *fd)
+{
+    const CurveData *cd = s->nargs == 1 ? curve_of(&args[0]) : NULL;
+    if (!cd) {
+        char got[96] = "nothing";
+        if (s->nargs == 1)
+            value_describe(&args[0], cx->units, got, sizeof got);
+        diag_error(cx->diags, s->nargs ? s->args[0]->pos : s->name_pos,
+                   "figure curve takes one curve (a ```curve NAME block), found %s", s->nargs == 1 ? got : "");
+        return false;
+    }
+    const Curve *c = &cd->curve;
+    fd->x_unit = unit_default(cd->x_dim, cd->x_temp, cx->units);
+    fd->y_unit = unit_default(cd->y_dim, cd->y_temp, cx->units);
+    fd->log_x = fd->log_y = c->interp == CURVE_LOGLOG;
+    fd->x_title = capitalised(cx, dim_name(cd->x_dim) ? dim_name(cd->x_dim) : "argument");
+    fd->y_title = capitalised(cx, dim_name(cd->y_dim) ? dim_name(cd->y_dim) : "value");
+    enum { PER = 12 };
+    size_t n = (c->n - 1) * PER + 1;
+    fd->series = arena_alloc(cx->arena, sizeof *fd->series);
+    Series *line = add_series(cx, fd, 1, arena_printf(cx->arena, "curve %s", cd->name), n, 0);
+    for (size_t i = 0; i + 1 < c->n; i++)
+        for (size_t k = 0; k < PER; k++) {
+            double t = (double)k / PER;
+            double x = c->interp == CURVE_LOGLOG ? c->x[i] * pow(c->x[i + 1] / c->x[i], t)
+                                                 : c->x[i] + t * (c->x[i + 1] - c->x[i]);
+            line->x[i * PER + k] = x;
+            line->y[i * PER + k] = curve_eval(c, x, NULL);
+        }
+    line->x[n - 1] = c->x[c->n - 1];
+    line->y[n - 1] = c->y[c->n - 1];
+    fd->markers = arena_alloc(cx->arena, (c->n + 1) * sizeof *fd->markers);
+    for (size_t i = 0; i < c->n; i++)
+        fd->markers[fd->nmarkers++] = (Marker){c->x[i], c->y[i], ""};
+    return true;
+}
+
 /* Pump curve, system curve H = H_static + k*Q^2, and where they cross. */
 static bool figure_pump(CallCtx *cx, const Stmt *s, const Value *args, FigureData *fd)
 {
@@ -405,19 +502,26 @@ static bool figure_pump(CallCtx *cx, const Stmt *s, const Value *args, FigureDat
         diag_error(cx->diags, s->name_pos, "figure pump takes a pump, H_static and k, found %zu arguments", s->nargs);
         return false;
     }
-    if (args[0].kind != VAL_RECORD || strcmp(args[0].rec->type, "pump") != 0 || !args[0].rec->native) {
+    const CurveData *cd = curve_of(&args[0]);
+    if (cd && !(dim_eq(cd->x_dim, DIM_FLOW) && dim_eq(cd->y_dim, DIM_L))) {
+        diag_error(cx->diags, s->args[0]->pos, "figure pump: curve '%s' must give head (a length) against flow",
+                   cd->name);
+        return false;
+    }
+    if (!cd && (args[0].kind != VAL_RECORD || strcmp(args[0].rec->type, "pump") != 0 || !args[0].rec->native)) {
         char got[96];
         value_describe(&args[0], cx->units, got, sizeof got);
-        diag_error(cx->diags, s->args[0]->pos, "figure pump: argument 1 must be a pump (pump_curve(...)), found %s", got);
+        diag_error(cx->diags, s->args[0]->pos,
+                   "figure pump: argument 1 must be a pump (pump_curve(...)) or a curve of head against flow, found %s", got);
         return false;
     }
     Dim k_dim = dim_div(DIM_L, dim_mul(DIM_FLOW, DIM_FLOW));
     if (!need(cx, &args[1], DIM_L, s->args[1]->pos, "figure pump: H_static") ||
         !need(cx, &args[2], k_dim, s->args[2]->pos, "figure pump: k"))
         return false;
-    const PumpCurve *pc = args[0].rec->native;
+    const PumpCurve *pc = cd ? NULL : args[0].rec->native;
     double hs = args[1].q.si, k = args[2].q.si;
-    double q_end = pc->q_max * 1.15;
+    double q_end = (cd ? cd->curve.x[cd->curve.n - 1] : pc->q_max) * 1.15;
     enum { NPTS = 41 };
     fd->x_title = "Flow rate";
     fd->y_title = "Head";
@@ -429,12 +533,14 @@ static bool figure_pump(CallCtx *cx, const Stmt *s, const Value *args, FigureDat
     for (size_t i = 0; i < NPTS; i++) {
         double q = q_end * (double)i / (NPTS - 1);
         pump->x[i] = sys->x[i] = q;
-        pump->y[i] = pump_head(pc, q);
+        pump->y[i] = cd ? curve_eval(&cd->curve, q, NULL) : pump_head(pc, q);
         sys->y[i] = hs + k * q * q;
     }
-    double Q, H;
+    double Q = NAN, H;
     int count = 0;
-    if (pump_operating_point(pc, hs, k, &Q, &H, &count) == PUMP_OK) {
+    bool met = cd ? curve_pump_crossing(&cd->curve, hs, k, &Q) > 0 : pump_operating_point(pc, hs, k, &Q, &H, &count) == PUMP_OK;
+    H = hs + k * Q * Q;
+    if (met) {
         fd->markers = arena_alloc(cx->arena, sizeof *fd->markers);
         fd->markers[0] = (Marker){Q, H, "operating point"};
         fd->nmarkers = 1;
@@ -496,10 +602,12 @@ bool flow_figure(CallCtx *cx, const Stmt *s, const Value *args, FigureData **out
         ok = figure_moody(cx, s, args, fd);
     else if (strcmp(s->figure, "pump") == 0)
         ok = figure_pump(cx, s, args, fd);
+    else if (strcmp(s->figure, "curve") == 0)
+        ok = figure_curve(cx, s, args, fd);
     else if (strcmp(s->figure, "network") == 0)
         ok = figure_network(cx, s, args, fd);
     else {
-        diag_error(cx->diags, s->name_pos, "unknown figure '%s' (hgl, moody, pump or network)", s->figure);
+        diag_error(cx->diags, s->name_pos, "unknown figure '%s' (hgl, moody, pump, curve or network)", s->figure);
         ok = false;
     }
     *out = ok ? fd : NULL;

@@ -21,6 +21,7 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "methods/devices_lib.h"
 #include "methods/fittings.h"
 #include "methods/friction.h"
 #include "methods/gradient.h"
@@ -36,12 +37,13 @@ static const int MAX_FITTING_PASSES = 8;
 
 typedef struct LinkPhys {
     double D, A, L, eps, K, C;
-    const PumpCurve *pump;
+    bool has_device;
+    Device device;           /* methods/devices.h; a PRV is handled by the solver */
 } LinkPhys;
 
 typedef struct Physics {
     LinkPhys *links;
-    double nu;
+    double nu, rho;
     bool darcy;
     FrictionMethod method;
 } Physics;
@@ -105,16 +107,40 @@ static void pipe_loss(const Physics *ph, const LinkPhys *lp, double Q, double *h
     *d = HW_EXP * r * pow(q, HW_EXP - 1) + 2 * minor * q;
 }
 
+/* The pressure drop of a link's device at Q, and its slope, in head: a
+ * valve or meter by its flow coefficient, a loss curve, a check valve
+ * (its cracking pressure when closed, so it reopens only past it), or a
+ * pump (a negative drop, read at Q >= 0). A PRV is the solver's. */
+static void device_head(const Physics *ph, const LinkPhys *lp, double Q, double *h, double *d)
+{
+    *h = *d = 0;
+    const Device *dv = &lp->device;
+    if (!lp->has_device || dv->kind == DEVICE_PRV)
+        return;
+    double rg = ph->rho * G, dp = 0, slope = 0;
+    DeviceStatus st;
+    bool one_way = dv->kind == DEVICE_PUMP || dv->kind == DEVICE_HEAD_CURVE || dv->kind == DEVICE_CHECK_VALVE;
+    if (dv->kind == DEVICE_CHECK_VALVE && Q <= 0) {
+        *h = dv->cracking / rg;
+        return;
+    }
+    if (!device_loss(dv, one_way && Q < 0 ? 0 : Q, ph->rho, &dp, &slope, &st)) {
+        *h = NAN;
+        return;
+    }
+    *h = dp / rg;
+    *d = slope / rg;
+}
+
 static bool link_loss(void *ctx, size_t l, double Q, double *h, double *d)
 {
     const Physics *ph = ctx;
     const LinkPhys *lp = &ph->links[l];
     pipe_loss(ph, lp, Q, h, d);
-    if (lp->pump) {
-        double q = Q > 0 ? Q : 0;
-        *h -= pump_head(lp->pump, q);
-        *d -= lp->pump->b + 2 * lp->pump->c * q;
-    }
+    double hd, dd;
+    device_head(ph, lp, Q, &hd, &dd);
+    *h += hd;
+    *d += dd;
     return isfinite(*h) && isfinite(*d);
 }
 
@@ -318,21 +344,30 @@ static bool read_inputs(CallCtx *cx, const NetworkSpec *ns, const NetNodeInput *
         o->L = lp->L;
         o->C = lp->C;
         if (lk->device) {
-            const Value *dv = &li[l].device;
-            const char *type = dv->kind == VAL_RECORD ? dv->rec->type : "";
-            if (strcmp(type, "check_valve") == 0) {
+            /* prv(), cv(), kv(), check_valve(), a curve or a pump record */
+            if (!device_from_value(cx, &li[l].device, lk->device->pos, "device", &lp->device)) {
+                ok = false;
+                continue;
+            }
+            lp->has_device = true;
+            switch (lp->device.kind) {
+            case DEVICE_PRV:
+                kind[l] = GRADIENT_LINK_PRV;
+                o->device = NET_DEVICE_PRV;
+                break;
+            case DEVICE_CHECK_VALVE:
                 kind[l] = GRADIENT_LINK_ONE_WAY;
                 o->device = NET_DEVICE_CHECK;
-            } else if (strcmp(type, "pump") == 0 && dv->rec->native) {
+                break;
+            case DEVICE_PUMP:
+            case DEVICE_HEAD_CURVE:
                 kind[l] = GRADIENT_LINK_ONE_WAY;
                 o->device = NET_DEVICE_PUMP;
-                lp->pump = dv->rec->native;
-            } else {
-                char got[96];
-                value_describe(dv, cx->units, got, sizeof got);
-                diag_error(cx->diags, lk->device->pos,
-                           "device must be check_valve() or a pump (pump_curve(...)), found %s", got);
-                ok = false;
+                break;
+            case DEVICE_FLOW_COEFF:
+            case DEVICE_LOSS_CURVE:
+                o->device = NET_DEVICE_LOSS;
+                break;
             }
         }
     }
@@ -374,7 +409,7 @@ bool network_solve(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *
     nr->has_xy = ns->has_xy;
     nr->tolerance = tol;
 
-    Physics ph = {arena_alloc(a, (nl + 1) * sizeof *ph.links), mu / rho, nr->darcy, FRICTION_COLEBROOK};
+    Physics ph = {arena_alloc(a, (nl + 1) * sizeof *ph.links), mu / rho, rho, nr->darcy, FRICTION_COLEBROOK};
     if (ns->friction)
         ph.method = (FrictionMethod)friction_method_lookup(ns->friction);
     GradientLinkKind *kind = arena_alloc(a, (nl + 1) * sizeof *kind);
@@ -395,7 +430,16 @@ bool network_solve(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *
             H[i] = Hmax;
     double *Q = arena_alloc(a, (nl + 1) * sizeof *Q);
     double *drop = arena_alloc(a, (nl + 1) * sizeof *drop);
-    double *zero = arena_alloc(a, (nl + 1) * sizeof *zero);
+    /* A PRV holds its outlet node at z + (set - falloff)/(rho*g) and takes
+     * at least dp_min (methods/devices.h), both as heads. */
+    double *set_head = arena_alloc(a, (nl + 1) * sizeof *set_head);
+    double *min_drop = arena_alloc(a, (nl + 1) * sizeof *min_drop);
+    for (size_t l = 0; l < nl; l++)
+        if (kind[l] == GRADIENT_LINK_PRV) {
+            const Device *dv = &ph.links[l].device;
+            set_head[l] = nr->nodes[nr->links[l].to].z + (dv->set - dv->falloff) / (rho * G);
+            min_drop[l] = dv->dp_min / (rho * G);
+        }
     GradientLinkState *state = arena_alloc(a, (nl + 1) * sizeof *state);
     for (size_t l = 0; l < nl; l++)
         Q[l] = 0.3 * ph.links[l].A;
@@ -407,7 +451,7 @@ bool network_solve(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *
             return false;
     }
 
-    GradientNetwork net = {nn, nl, NULL, NULL, fixed, demand, kind, zero, zero, link_loss, &ph, tol, MAX_ITERATIONS};
+    GradientNetwork net = {nn, nl, NULL, NULL, fixed, demand, kind, set_head, min_drop, link_loss, &ph, tol, MAX_ITERATIONS};
     size_t *from = arena_alloc(a, (nl + 1) * sizeof *from), *to = arena_alloc(a, (nl + 1) * sizeof *to);
     for (size_t l = 0; l < nl; l++) {
         from[l] = nr->links[l].from;
@@ -541,10 +585,26 @@ bool network_solve(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *
         if (!lk->nfittings)
             o->K = lp->K;
         o->h_m = o->K * hv;
-        if (lp->pump) {
-            o->dp_device = state[l] == GRADIENT_STATE_CLOSED ? 0 : -rho * G * pump_head(lp->pump, q);
-        } else {
-            o->dp_device = rho * G * drop[l];
+        if (lp->has_device) {
+            /* Through the library, for its method and its warnings (a pump
+             * read outside its points, a PRV that cannot reach its
+             * setting); the valve sits at the link's outlet. */
+            double p_in = rho * G * (H[o->from] - o->h_f - o->h_m - nr->nodes[o->to].z), p_out;
+            DeviceStatus dst;
+            if (state[l] != GRADIENT_STATE_CLOSED &&
+                !device_step(cx, &lp->device, lk->device->pos, o->Q, p_in, rho, &p_out, &dst)) {
+                ok = false;
+                continue;
+            }
+            if (lp->device.kind == DEVICE_PRV) {
+                o->dp_device = rho * G * drop[l];
+            } else if (state[l] == GRADIENT_STATE_CLOSED) {
+                o->dp_device = 0;
+            } else {
+                double hd, dd;
+                device_head(&ph, lp, o->Q, &hd, &dd);
+                o->dp_device = rho * G * hd;
+            }
         }
     }
     if (!ok)

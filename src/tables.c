@@ -244,9 +244,9 @@ static bool parse_fittings(Arena *a, const Cell *c, PathSegment *seg, DiagList *
     return ok;
 }
 
-enum { COL_SEGMENT, COL_FLOW, COL_PIPE, COL_LENGTH, COL_RISE, COL_FITTINGS, COL_K, COL_C, NCOLS };
-static const char *const column_names[NCOLS] = {"segment", "flow", "pipe", "length", "rise", "fittings", "K", "C"};
-static const bool column_required[NCOLS] = {true, true, true, true, true, false, false, false};
+enum { COL_SEGMENT, COL_FLOW, COL_PIPE, COL_LENGTH, COL_RISE, COL_FITTINGS, COL_K, COL_C, COL_DEVICE, NCOLS };
+static const char *const column_names[NCOLS] = {"segment", "flow", "pipe", "length", "rise", "fittings", "K", "C", "device"};
+static const bool column_required[NCOLS] = {true, true, true, true, true, false, false, false, false};
 
 /* A segment id as a record field: letters, digits and '_' kept, anything
  * else becomes '_' ("S-1" -> "S_1"); a leading digit gets "s_" ("3" -> "s_3"). */
@@ -369,7 +369,7 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
             if (cell_is(&cells[k], column_names[c]))
                 which = c;
         if (which < 0) {
-            diag_error(diags, cells[k].pos, "unknown path column '%.*s' (segment, flow, pipe, length, rise, fittings, K, C)",
+            diag_error(diags, cells[k].pos, "unknown path column '%.*s' (segment, flow, pipe, length, rise, fittings, K, C, device)",
                        (int)cells[k].len, cells[k].text);
             ok = false;
         } else if (col_of[which] >= 0) {
@@ -460,6 +460,10 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
             case COL_RISE: seg->rise = e; break;
             case COL_K: seg->K = e; break;
             case COL_C: seg->C = e; break;
+            case COL_DEVICE:
+                seg->device = e;
+                seg->device_text = arena_strndup(a, cell->text, cell->len);
+                break;
             default: break;
             }
         }
@@ -616,6 +620,126 @@ CaseTable *tables_parse_cases(Arena *a, Pos at, const FenceLine *lines, size_t n
         ok = false;
     }
     return ok ? ct : NULL;
+}
+
+/* ```curve NAME: an optional `interpolate: linear | loglog` line, then a
+ * two-column table, the argument and the value. Each cell is an
+ * expression; units and order are checked when the curve is evaluated,
+ * where the values are known. */
+Stmt *tables_parse_curve(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags)
+{
+    Stmt *st = arena_alloc(a, sizeof *st);
+    st->kind = STMT_CURVE;
+    st->pos = at;
+    st->name = name;
+    st->name_pos = at;
+    st->var_slot = SLOT_UNRESOLVED;
+    st->line = arena_printf(a, "curve %s", name);
+    CurveSpec *cs = arena_alloc(a, sizeof *cs);
+    st->curve = cs;
+    bool ok = true;
+    size_t i = 0;
+    for (; i < n && !is_table_line(&lines[i]); i++) {
+        const FenceLine *l = &lines[i];
+        if (is_blank(l))
+            continue;
+        size_t lead = 0;
+        while (lead < l->len && (l->text[lead] == ' ' || l->text[lead] == '\t'))
+            lead++;
+        if (lead < l->len && l->text[lead] == '#')
+            continue;
+        Cell key, value;
+        if (!split_option(l, &key, &value)) {
+            Pos p = l->pos;
+            p.col += (int)lead;
+            diag_error(diags, p, "expected 'interpolate: linear' or 'interpolate: loglog', or the curve's table");
+            ok = false;
+        } else if (!cell_is(&key, "interpolate")) {
+            diag_error(diags, key.pos, "unknown curve option '%.*s' (interpolate)", (int)key.len, key.text);
+            ok = false;
+        } else if (cell_is(&value, "loglog")) {
+            cs->loglog = true;
+        } else if (!cell_is(&value, "linear")) {
+            diag_error(diags, value.pos, "interpolate must be linear or loglog, found '%.*s'", (int)value.len,
+                       value.text);
+            ok = false;
+        }
+    }
+    if (i >= n) {
+        diag_error(diags, at, "curve '%s' has no table (| argument | value |, one point a row)", name);
+        st->parse_failed = true;
+        return st;
+    }
+    Cell cells[MAX_COLUMNS];
+    bool too_many;
+    size_t ncols = split_row(&lines[i], cells, MAX_COLUMNS, &too_many);
+    Pos header_pos = lines[i].pos;
+    if (ncols != 2) {
+        diag_error(diags, header_pos, "a curve table has two columns, the argument and the value; this one has %zu",
+                   ncols);
+        st->parse_failed = true;
+        return st;
+    }
+    Cell header[2] = {cells[0], cells[1]};
+    cs->x_head = arena_strndup(a, cells[0].text, cells[0].len);
+    cs->y_head = arena_strndup(a, cells[1].text, cells[1].len);
+    i++;
+    if (i < n) {
+        Cell sep[MAX_COLUMNS];
+        size_t ns = split_row(&lines[i], sep, MAX_COLUMNS, &too_many);
+        if (is_table_line(&lines[i]) && is_separator_row(sep, ns))
+            i++;
+        else {
+            diag_error(diags, lines[i].pos, "expected the table's separator row (|---|---|) under the header");
+            ok = false;
+        }
+    }
+    size_t cap = n - i + 1;
+    cs->x = arena_alloc(a, cap * sizeof *cs->x);
+    cs->y = arena_alloc(a, cap * sizeof *cs->y);
+    cs->row_pos = arena_alloc(a, cap * sizeof *cs->row_pos);
+    for (; i < n; i++) {
+        const FenceLine *l = &lines[i];
+        if (is_blank(l))
+            continue;
+        if (!is_table_line(l)) {
+            diag_error(diags, l->pos, "expected a table row starting with '|'");
+            ok = false;
+            continue;
+        }
+        if (cs->npoints == CURVE_MAX_POINTS) {
+            diag_error(diags, l->pos, "too many points: the limit is %d in a curve", CURVE_MAX_POINTS);
+            ok = false;
+            break;
+        }
+        size_t nc = split_row(l, cells, MAX_COLUMNS, &too_many);
+        if (nc != 2) {
+            report_row_width(diags, l, cells, nc, header, 2);
+            ok = false;
+            continue;
+        }
+        Expr *e[2] = {NULL, NULL};
+        for (size_t k = 0; k < 2; k++) {
+            if (cell_empty(&cells[k])) {
+                diag_error(diags, cells[k].pos, "the '%s' cell is empty: every point needs both values",
+                           k ? cs->y_head : cs->x_head);
+                ok = false;
+                continue;
+            }
+            e[k] = parse_expression_at(a, cells[k].text, cells[k].len, cells[k].pos, diags);
+            ok = e[k] && ok;
+        }
+        cs->x[cs->npoints] = e[0];
+        cs->y[cs->npoints] = e[1];
+        cs->row_pos[cs->npoints] = l->pos;
+        cs->npoints++;
+    }
+    if (ok && cs->npoints < 2) {
+        diag_error(diags, header_pos, "curve '%s' needs at least two points, found %zu", name, cs->npoints);
+        ok = false;
+    }
+    st->parse_failed = !ok;
+    return st;
 }
 
 /* ---- network blocks (DESIGN 2.12) ---------------------------------------- */

@@ -389,6 +389,22 @@ GradientStatus gradient_solve(const GradientNetwork *n, double *H, double *Q, Gr
             if (w.row[i] >= 0)
                 H[i] += dH[w.row[i]];
         cholmod_l_free_dense(&x, &w.cm);
+        /* Device states: one-way links first, so a PRV's flow is taken
+         * from its outlet's continuity with the check valves already shut. */
+        bool changed = false;
+        for (size_t l = 0; l < nl; l++) {
+            if (n->kind[l] != GRADIENT_LINK_ONE_WAY)
+                continue;
+            double dh = H[n->from[l]] - H[n->to[l]], h0, d0;
+            GradientLinkState was = state[l];
+            if (state[l] == GRADIENT_STATE_OPEN && Q[l] < 0) {
+                state[l] = GRADIENT_STATE_CLOSED;
+                Q[l] = 0;
+            } else if (state[l] == GRADIENT_STATE_CLOSED && n->loss(n->ctx, l, 0, &h0, &d0) && dh > h0) {
+                state[l] = GRADIENT_STATE_OPEN;
+            }
+            changed = changed || state[l] != was;
+        }
         /* An active PRV passes what its outlet needs. */
         for (size_t l = 0; l < nl; l++) {
             if (state[l] != GRADIENT_STATE_ACTIVE)
@@ -405,39 +421,31 @@ GradientStatus gradient_solve(const GradientNetwork *n, double *H, double *Q, Gr
                 change = fabs(q - Q[l]);
             Q[l] = q;
         }
-        /* Device states. */
-        bool changed = false;
         for (size_t l = 0; l < nl; l++) {
-            double dh = H[n->from[l]] - H[n->to[l]], h0, d0;
+            if (n->kind[l] != GRADIENT_LINK_PRV)
+                continue;
+            double dh = H[n->from[l]] - H[n->to[l]];
             GradientLinkState was = state[l];
-            if (n->kind[l] == GRADIENT_LINK_ONE_WAY) {
-                if (state[l] == GRADIENT_STATE_OPEN && Q[l] < 0) {
+            double hp = 0, dp = 0;
+            if (!n->loss(n->ctx, l, Q[l] > 0 ? Q[l] : 0, &hp, &dp))
+                hp = 0;
+            double slack = 1e-9 * (1 + fabs(n->set_head[l]));
+            if (state[l] == GRADIENT_STATE_ACTIVE) {
+                if (Q[l] < 0) {
                     state[l] = GRADIENT_STATE_CLOSED;
                     Q[l] = 0;
-                } else if (state[l] == GRADIENT_STATE_CLOSED && n->loss(n->ctx, l, 0, &h0, &d0) && dh > h0) {
-                    state[l] = GRADIENT_STATE_OPEN;
+                } else if (H[n->from[l]] - hp - H[n->to[l]] < n->min_drop[l]) {
+                    state[l] = GRADIENT_STATE_WIDE_OPEN;
                 }
-            } else if (n->kind[l] == GRADIENT_LINK_PRV) {
-                double hp = 0, dp = 0;
-                if (!n->loss(n->ctx, l, Q[l] > 0 ? Q[l] : 0, &hp, &dp))
-                    hp = 0;
-                if (state[l] == GRADIENT_STATE_ACTIVE) {
-                    if (Q[l] < 0) {
-                        state[l] = GRADIENT_STATE_CLOSED;
-                        Q[l] = 0;
-                    } else if (H[n->from[l]] - hp - H[n->to[l]] < n->min_drop[l]) {
-                        state[l] = GRADIENT_STATE_WIDE_OPEN;
-                    }
-                } else if (state[l] == GRADIENT_STATE_WIDE_OPEN) {
-                    if (Q[l] < 0) {
-                        state[l] = GRADIENT_STATE_CLOSED;
-                        Q[l] = 0;
-                    } else if (H[n->to[l]] > n->set_head[l]) {
-                        state[l] = GRADIENT_STATE_ACTIVE;
-                    }
-                } else if (dh > n->min_drop[l] && H[n->to[l]] < n->set_head[l]) {
+            } else if (state[l] == GRADIENT_STATE_WIDE_OPEN) {
+                if (Q[l] < 0) {
+                    state[l] = GRADIENT_STATE_CLOSED;
+                    Q[l] = 0;
+                } else if (H[n->to[l]] > n->set_head[l] + slack) {
                     state[l] = GRADIENT_STATE_ACTIVE;
                 }
+            } else if (dh > n->min_drop[l] && H[n->to[l]] <= n->set_head[l] + slack) {
+                state[l] = GRADIENT_STATE_ACTIVE;
             }
             changed = changed || state[l] != was;
         }

@@ -10,6 +10,7 @@
  * a valid input outside a correlation's fitted range is a warning. */
 #include "library.h"
 
+#include "methods/devices_lib.h"
 #include "methods/friction.h"
 #include "methods/pumps.h"
 #include "methods/ratings.h"
@@ -719,6 +720,25 @@ bool fn_pressure_rating(CallCtx *cx, const CallArgs *a, Value *out)
     if (!arg_record(cx, a, 0, "pipe", "pipe", &pipe) || !arg_temperature(cx, a, 1, &T))
         return false;
     const char *material = field_string(pipe, "material");
+    if (material && strcmp(material, "bore") == 0) {
+        /* A bore(...) names no material, so no derating table applies: it
+         * is rated by the metallic pressure-design formula, which needs
+         * only the geometry and the stress the engineer gives. */
+        Pos hp;
+        if (!record_get(pipe, "wall")) {
+            diag_error(cx->diags, arg_at(a, 0),
+                       "%s: this bore has no wall to rate; give bore(D, roughness, od=..., wall=...)", a->name);
+            return false;
+        }
+        if (kw_get(a, "HDS", &hp)) {
+            diag_error(cx->diags, hp,
+                       "%s: a bore names no thermoplastic material with a derating table; rate it with S= and E= "
+                       "(the pressure-design formula) or use the manufacturer's rating",
+                       a->name);
+            return false;
+        }
+        return rating_metal(cx, a, pipe, "bore", T, out);
+    }
     switch (rating_kind(material)) {
     case RATING_THERMOPLASTIC:
         return rating_thermoplastic(cx, a, pipe, rating_plastic_lookup(material), T, out);
@@ -746,6 +766,14 @@ bool fn_wave_speed(CallCtx *cx, const CallArgs *a, Value *out)
         !arg_record(cx, a, 1, "water", "fluid", &fluid))
         return false;
     double E, D, e, K, rho;
+    const char *material = field_string(pipe, "material");
+    if (material && strcmp(material, "bore") == 0 && (!record_get(pipe, "wall") || !record_get(pipe, "E"))) {
+        diag_error(cx->diags, arg_at(a, 0),
+                   "%s: a bore needs its wall and the pipe material's elastic modulus for the wave speed; give "
+                   "bore(D, roughness, wall=..., E=...)",
+                   a->name);
+        return false;
+    }
     if (!record_get(pipe, "E") && field_string(pipe, "standard")) {
         const char *mat = field_string(pipe, "material");
         diag_error(cx->diags, arg_at(a, 0),
@@ -978,6 +1006,21 @@ bool fn_operating_point(CallCtx *cx, const CallArgs *a, Value *out)
 {
     const Record *pump;
     double Hs, k;
+    const CurveData *cd = a->n > 0 ? curve_of(&a->args[0]) : NULL;
+    if (cd) {
+        /* a tabulated pump curve (```curve NAME) */
+        if (!arg_number(cx, a, 1, DIM_L, "static head", &Hs) ||
+            !arg_number(cx, a, 2, dim_div(DIM_L, dim_flow2()), "system coefficient k", &k))
+            return false;
+        if (!(k >= 0.0) || !isfinite(k)) {
+            char b1[64];
+            diag_error(cx->diags, arg_at(a, 2),
+                       "%s: k must be zero or positive (system head rises with flow), found %s", a->name,
+                       show_num(k, b1, sizeof b1));
+            return false;
+        }
+        return curve_operating_point(cx, a, cd, Hs, k, out);
+    }
     if (!arg_record(cx, a, 0, "pump", "pump curve", &pump) ||
         !arg_number(cx, a, 1, DIM_L, "static head", &Hs) ||
         !arg_number(cx, a, 2, dim_div(DIM_L, dim_flow2()), "system coefficient k", &k))

@@ -185,6 +185,28 @@ static json_t *figure_json(const Stmt *s, const FigureData *fd)
     return o;
 }
 
+/* A table a statement laid out: title, heads, units and rows of values. */
+static json_t *table_json(const Evaluated *ev, const ResultTable *t)
+{
+    json_t *o = json_object();
+    json_object_set_new(o, "title", json_string(t->title));
+    json_t *heads = json_array(), *units = json_array(), *rows = json_array();
+    for (size_t k = 0; k < t->ncols; k++) {
+        json_array_append_new(heads, json_string(t->heads[k]));
+        json_array_append_new(units, json_string(strcmp(t->units[k].text, "1") == 0 ? "" : t->units[k].text));
+    }
+    for (size_t r = 0; r < t->nrows; r++) {
+        json_t *row = json_array();
+        for (size_t k = 0; k < t->ncols; k++)
+            json_array_append_new(row, value_json(ev, &t->cells[r * t->ncols + k], &t->units[k]));
+        json_array_append_new(rows, row);
+    }
+    json_object_set_new(o, "heads", heads);
+    json_object_set_new(o, "units", units);
+    json_object_set_new(o, "rows", rows);
+    return o;
+}
+
 /* A case table: per row, the inputs, the shown results and every check. */
 static json_t *cases_json(const Evaluated *ev, size_t which)
 {
@@ -262,7 +284,8 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
                 json_array_append_new(figures, figure_json(s, r->figure));
             continue;
         }
-        if ((s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH || s->kind == STMT_NETWORK) &&
+        if ((s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH || s->kind == STMT_NETWORK ||
+             s->kind == STMT_CURVE) &&
             s->name) {
             json_t *v;
             if (r->state == RES_OK) {
@@ -303,6 +326,8 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
                 json_object_set_new(conv, "energy_residual_m", real_or_null(nr->energy_residual));
                 json_object_set_new(v, "convergence", conv);
             }
+            if (r->state == RES_OK && r->table)
+                json_object_set_new(v, "table", table_json(ev, r->table));
             if (s->kind == STMT_SOLVE && r->state == RES_OK) {
                 json_object_set_new(v, "residual", real_or_null(r->solve.residual));
                 json_object_set_new(v, "iterations", json_integer(r->solve.iterations));

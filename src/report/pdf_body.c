@@ -451,6 +451,7 @@ static double render_block(Pdf *P, const Block *b, double x, double top, double 
     case BLK_SOURCES:
     case BLK_PATH:
     case BLK_NETWORK:
+    case BLK_CURVE:
     case BLK_CASES:
         return 0;
     }
@@ -739,8 +740,11 @@ void pdf_body_items(Pdf *P, Vec *items)
                     item_add(items, P, fn_note, st, 0, 4);
                 else if (st->kind == STMT_FIGURE && !st->parse_failed)
                     item_add(items, P, pdf_fn_figure, st, P->figure_no[st->index], 10);
-                else if (!st->parse_failed)
+                else if (!st->parse_failed) {
                     item_add(items, P, fn_stmt, st, 0, i == 0 ? 8 : 2);
+                    if (P->ev->results[st->index].table)
+                        pdf_table_items(P, items, st);
+                }
             }
             break;
         case BLK_PATH:
@@ -750,6 +754,10 @@ void pdf_body_items(Pdf *P, Vec *items)
         case BLK_NETWORK:
             if (b->first_stmt < d->nstmts && !d->stmts[b->first_stmt]->parse_failed)
                 pdf_network_items(P, items, d->stmts[b->first_stmt]);
+            break;
+        case BLK_CURVE:
+            if (b->first_stmt < d->nstmts && !d->stmts[b->first_stmt]->parse_failed)
+                pdf_curve_items(P, items, d->stmts[b->first_stmt]);
             break;
         case BLK_CASES:
             if (b->first_stmt < d->ncases)

@@ -306,6 +306,8 @@ static size_t legend_entries(Pdf *P, const FigureData *fd, const Axis *ax, Legen
         out[n++] = (LegendEntry){1, 0,
                                  strcmp(fd->kind, "moody") == 0 ? "operating points of the calc"
                                  : fd->nmarkers == 1            ? fd->markers[0].label
+                                 : strcmp(fd->kind, "hgl") == 0 ? "minimum pressure; devices in the path"
+                                 : strcmp(fd->kind, "curve") == 0 ? "points of the table"
                                                                 : "marked points"};
     return n;
 }
@@ -427,7 +429,7 @@ static void draw_markers(Pdf *P, const FigureData *fd, const Axis *ax, const Axi
             sb_printf(&sb, " (%s %s, %s %s)", xs, has_unit(&fd->x_unit) ? xu : "", ys,
                       has_unit(&fd->y_unit) ? yu : "");
         }
-        if (suffix && *suffix)
+        if (suffix && *suffix && m == 0)
             sb_puts(&sb, suffix);
         const char *label = arena_strdup(&P->arena, sb_str(&sb));
         sb_free(&sb);
@@ -490,10 +492,11 @@ static void draw_segments(Pdf *P, const Stmt *st, const Axis *ax, const Axis *ay
     }
 }
 
-/* The grade-line figure's one marker also states the lowest pressure. */
+/* The grade-line figure's first marker (the lowest point) also states the
+ * lowest pressure; the others mark the path's devices. */
 static const char *hgl_suffix(Pdf *P, const Stmt *st, const FigureData *fd)
 {
-    if (strcmp(fd->kind, "hgl") != 0 || fd->nmarkers != 1 || st->nargs < 1 || !st->args[0] ||
+    if (strcmp(fd->kind, "hgl") != 0 || fd->nmarkers < 1 || st->nargs < 1 || !st->args[0] ||
         st->args[0]->kind != EXPR_NAME || st->args[0]->slot < 0 || (size_t)st->args[0]->slot >= P->d->nstmts)
         return NULL;
     const PathResult *pr = P->ev->results[st->args[0]->slot].path;
@@ -530,6 +533,8 @@ static const char *default_caption(const Pdf *P, const Stmt *st)
         return arena_printf(a, "Pump curve of %s and system curve", arg);
     if (strcmp(st->figure, "network") == 0)
         return arena_printf(a, "Network %s: links shaded by velocity, arrows in the direction of flow", arg);
+    if (strcmp(st->figure, "curve") == 0)
+        return arena_printf(a, "Curve %s with its table points", arg);
     return st->figure;
 }
 

@@ -39,23 +39,29 @@ static void stroke(Pdf *P, Rgb c)
 
 /* ---- the segment table ---------------------------------------------------- */
 
-enum { PATH_COLS = 13, PATH_CHUNK = 28 };
+enum { PATH_COLS = 14, PATH_CHUNK = 28 };
 
+/* The columns shown: every quantity of a segment, the device loss only when
+ * the path has a device. map[i] is the quantity column i shows. */
 typedef struct PathCols {
+    int n;
+    int map[PATH_COLS];
     const char *word[PATH_COLS];
     const char *symbol[PATH_COLS];
     Unit unit[PATH_COLS];
     bool has_unit[PATH_COLS];
 } PathCols;
 
-static PathCols path_cols(const Pdf *P)
+enum { PC_SEGMENT, PC_Q, PC_D, PC_L, PC_RISE, PC_V, PC_RE, PC_F, PC_K, PC_HF, PC_HM, PC_PIN, PC_DPDEV, PC_POUT };
+
+static PathCols path_cols(const Pdf *P, const PathResult *pr)
 {
     static const char *const WORD[PATH_COLS] = {
         "segment",         "flow",       "bore",          "length",       "rise",
         "velocity",        "Reynolds number", "friction factor", "fittings K", "friction loss",
-        "fitting loss",    "inlet pressure",  "outlet pressure"};
+        "fitting loss",    "inlet pressure",  "device loss",    "outlet pressure"};
     static const char *const SYMBOL[PATH_COLS] = {"",  "Q",   "D",   "L",   "Delta_z", "V",    "Re",
-                                                  "f", "K",   "h_f", "h_m", "p_in",    "p_out"};
+                                                  "f", "K",   "h_f", "h_m", "p_in",    "Delta_p_dev", "p_out"};
     UnitSystem us = P->ev->units;
     PathCols c;
     memset(&c, 0, sizeof c);
@@ -64,16 +70,23 @@ static PathCols path_cols(const Pdf *P)
     Unit uD = uL;
     size_t bo, bl;
     unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
-    for (int i = 0; i < PATH_COLS; i++) {
-        c.word[i] = WORD[i];
-        c.symbol[i] = SYMBOL[i];
-        c.has_unit[i] = i != 0 && i != 6 && i != 7 && i != 8;
+    for (int q = 0; q < PATH_COLS; q++) {
+        if (q == PC_DPDEV && (!pr || pr->ndevices == 0))
+            continue;
+        int i = c.n++;
+        c.map[i] = q;
+        c.word[i] = WORD[q];
+        c.symbol[i] = SYMBOL[q];
+        c.has_unit[i] = q != PC_SEGMENT && q != PC_RE && q != PC_F && q != PC_K;
+        switch (q) {
+        case PC_Q: c.unit[i] = uQ; break;
+        case PC_D: c.unit[i] = uD; break;
+        case PC_L: case PC_RISE: case PC_HF: case PC_HM: c.unit[i] = uL; break;
+        case PC_V: c.unit[i] = uV; break;
+        case PC_PIN: case PC_DPDEV: case PC_POUT: c.unit[i] = uP; break;
+        default: break;
+        }
     }
-    c.unit[1] = uQ;
-    c.unit[2] = uD;
-    c.unit[3] = c.unit[4] = c.unit[9] = c.unit[10] = uL;
-    c.unit[5] = uV;
-    c.unit[11] = c.unit[12] = uP;
     return c;
 }
 
@@ -81,16 +94,17 @@ static PathCols path_cols(const Pdf *P)
 static void path_cell(const Pdf *P, const PathCols *c, const SegmentResult *g, int i, char *buf, size_t n)
 {
     double si[PATH_COLS] = {0,      g->Q, g->D, g->L,   g->rise, g->V,    g->Re,
-                            g->f,   g->K, g->h_f, g->h_m, g->p_in, g->p_out};
-    if (i == 0) {
+                            g->f,   g->K, g->h_f, g->h_m, g->p_in, g->has_device ? g->dp_device : NAN, g->p_out};
+    int q = c->map[i];
+    if (q == PC_SEGMENT) {
         snprintf(buf, n, "%s", g->id ? g->id : "");
         return;
     }
-    if (!isfinite(si[i])) {
+    if (!isfinite(si[q])) {
         snprintf(buf, n, "—");
         return;
     }
-    double v = c->has_unit[i] ? unit_from_si(si[i], &c->unit[i], true) : si[i];
+    double v = c->has_unit[i] ? unit_from_si(si[q], &c->unit[i], true) : si[q];
     num_typeset(v, P->env.digits, buf, n);
 }
 
@@ -106,7 +120,7 @@ static PathLayout path_layout(Pdf *P, const PathCols *c, const PathResult *pr)
 {
     PathLayout L;
     double nat[PATH_COLS], sum = 0, W = full_width(P);
-    for (int i = 0; i < PATH_COLS; i++) {
+    for (int i = 0; i < c->n; i++) {
         char ut[48] = "";
         if (c->has_unit[i])
             mbox_unit_text(c->unit[i].text, ut, sizeof ut);
@@ -120,10 +134,10 @@ static PathLayout path_layout(Pdf *P, const PathCols *c, const PathResult *pr)
         sum += nat[i];
     }
     /* spread the spare width evenly, or shrink everything to fit */
-    double extra = (W - sum) / PATH_COLS;
+    double extra = (W - sum) / c->n;
     L.size = sum > W ? PT_SIZE * W / sum : PT_SIZE;
     L.x[0] = P->sheet.body_l;
-    for (int i = 0; i < PATH_COLS; i++)
+    for (int i = 0; i < c->n; i++)
         L.x[i + 1] = L.x[i] + (sum > W ? nat[i] * W / sum : nat[i] + extra);
     return L;
 }
@@ -132,10 +146,10 @@ static PathLayout path_layout(Pdf *P, const PathCols *c, const PathResult *pr)
 static double path_header(Pdf *P, const PathCols *c, const PathLayout *L, double top)
 {
     double h_word = 15, h_sym = 13, h_unit = 10, h = h_word + h_sym + h_unit;
-    double x0 = L->x[0], x1 = L->x[PATH_COLS];
+    double x0 = L->x[0], x1 = L->x[c->n];
     if (P->page)
         pdf_fill(P, x0, top - h, x1 - x0, h, SHADE);
-    for (int i = 0; i < PATH_COLS; i++) {
+    for (int i = 0; i < c->n; i++) {
         double a = L->x[i], w = L->x[i + 1] - a;
         /* the word, one or two centred lines */
         const char *word = c->word[i];
@@ -175,20 +189,21 @@ static double fn_path_table(Pdf *P, const Item *it, double top)
 {
     const Stmt *st = it->p;
     const PathResult *pr = P->ev->results[st->index].path;
-    PathCols c = path_cols(P);
+    PathCols c = path_cols(P, pr);
     PathLayout L = path_layout(P, &c, pr);
     double y = top - path_header(P, &c, &L, top);
     double rh = L.size + 5;
     size_t first = (size_t)it->aux, last = first + (size_t)it->depth;
     for (size_t k = first; k < last && k < pr->nsegs; k++) {
         const SegmentResult *g = &pr->segs[k];
-        for (int i = 0; i < PATH_COLS; i++) {
+        for (int i = 0; i < c.n; i++) {
             char buf[64];
             path_cell(P, &c, g, i, buf, sizeof buf);
             /* the lowest pressure and the highest velocity in bold */
-            bool strong = (i == 12 && k == pr->p_min_seg && !pr->p_min_at_inlet) ||
-                          (i == 11 && k == pr->p_min_seg && pr->p_min_at_inlet) ||
-                          (i == 5 && g->V == pr->V_max);
+            int q = c.map[i];
+            bool strong = (q == PC_POUT && k == pr->p_min_seg && !pr->p_min_at_inlet && !pr->p_min_before_device) ||
+                          (q == PC_PIN && k == pr->p_min_seg && pr->p_min_at_inlet) ||
+                          (q == PC_V && g->V == pr->V_max);
             FontRole f = i == 0 ? FONT_SANS_BOLD : strong ? FONT_SERIF_BOLD : FONT_SERIF;
             double w = pdf_width(P, f, L.size, buf);
             double x = i == 0 ? L.x[0] + 4 : L.x[i + 1] - 4 - w;
@@ -199,10 +214,10 @@ static double fn_path_table(Pdf *P, const Item *it, double top)
         y -= rh;
         stroke(P, (Rgb){0.72, 0.72, 0.72});
         if (k + 1 < last && k + 1 < pr->nsegs)
-            pdf_line(P, L.x[0], y, L.x[PATH_COLS], y, 0.25);
+            pdf_line(P, L.x[0], y, L.x[c.n], y, 0.25);
         stroke(P, INK);
     }
-    pdf_line(P, L.x[0], y, L.x[PATH_COLS], y, 0.9);
+    pdf_line(P, L.x[0], y, L.x[c.n], y, 0.9);
     return top - y;
 }
 
@@ -243,6 +258,10 @@ static double fn_path_head(Pdf *P, const Item *it, double top)
     sb_puts(&sb, " (static) at the inlet of the first segment; fluid ");
     render_expr_text(P->ev, st->path->fluid, false, &sb);
     sb_puts(&sb, ". Pressures are static; rise is the gain in elevation along the flow.");
+    if (pr && pr->ndevices)
+        sb_puts(&sb, " A device at a segment's outlet changes the static pressure after the segment's pipe and "
+                     "fitting losses; its loss is the drop across it (negative where a pump adds head), and the "
+                     "outlet pressure is the pressure after it.");
     y -= pdf_wrap(P, FONT_SERIF, 9, 11.5, x, y, w, sb_str(&sb)) + 3;
     sb_free(&sb);
     if (!pr)
@@ -282,14 +301,23 @@ static double fn_path_summary(Pdf *P, const Item *it, double top)
                   {"Lowest pressure", "p_min", "p_min", where},
                   {"Highest velocity", "V_max", "V_max", NULL},
                   {"Total head loss", "loss", "h_L", "friction and fittings"}};
-        /* two entries a line, in two columns */
-        for (int i = 0; i < 4; i += 2) {
+        /* two entries a line, in two columns; one a line when an entry is
+         * wider than its column (a long segment id in a remark) */
+        MathBox *box[4] = {0};
+        bool wide = false;
+        for (int j = 0; j < 4; j++) {
+            const Value *v = record_get(rec, e[j].field);
+            if (v)
+                box[j] = summary_entry(P, e[j].words, e[j].sym, v, e[j].remark, size);
+            wide = wide || (box[j] && box[j]->w > W / 2 - 8);
+        }
+        int per = wide ? 1 : 2;
+        for (int i = 0; i < 4; i += per) {
             double h = 0;
-            for (int j = i; j < i + 2; j++) {
-                const Value *v = record_get(rec, e[j].field);
-                if (!v)
+            for (int j = i; j < i + per; j++) {
+                MathBox *b = box[j];
+                if (!b)
                     continue;
-                MathBox *b = summary_entry(P, e[j].words, e[j].sym, v, e[j].remark, size);
                 if (P->page)
                     mbox_draw(b, &P->painter, x + 4 + (j - i) * W / 2, y - b->h - 1);
                 h = fmax(h, b->h + b->d + 3);
@@ -316,6 +344,10 @@ static double fn_path_summary(Pdf *P, const Item *it, double top)
         if (sg->C) {
             sb_puts(&sb, ", C ");
             render_expr_text(P->ev, sg->C, false, &sb);
+        }
+        if (sg->device) {
+            sb_puts(&sb, ", device at the outlet ");
+            render_expr_text(P->ev, sg->device, false, &sb);
         }
     }
     sb_puts(&sb, ". Bold in the table: the lowest pressure and the highest velocity.");

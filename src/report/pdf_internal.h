@@ -174,6 +174,9 @@ double pdf_network_figure(Pdf *P, const Stmt *st, const NetworkResult *nr, int n
 void pdf_network_cover_items(Pdf *P, Vec *items);
 /* The items of a cases block: a table of inputs, results and verdicts. */
 void pdf_cases_items(Pdf *P, Vec *items, size_t which);
+/* pdf_table.c: a statement's laid-out table (ResultTable), a curve block */
+void pdf_table_items(Pdf *P, Vec *items, const Stmt *st);
+void pdf_curve_items(Pdf *P, Vec *items, const Stmt *st);
 /* Case tables with a failing row, for the cover: items after the check summary. */
 void pdf_cases_cover_items(Pdf *P, Vec *items);
 /* The number of case rows, over all case tables, in which a check fails. */

@@ -121,6 +121,7 @@ static const char *device_word(const LinkResult *g)
     const char *d = g->device == NET_DEVICE_CHECK ? "check valve"
                     : g->device == NET_DEVICE_PUMP ? "pump"
                     : g->device == NET_DEVICE_PRV  ? "PRV"
+                          : g->device == NET_DEVICE_LOSS ? "valve"
                                                    : NULL;
     if (!d)
         return "";

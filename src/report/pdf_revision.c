@@ -77,7 +77,7 @@ void pdf_revision_tag(Pdf *P, Vec *items, size_t from, const Block *b)
     if (!d)
         return;
     DiffMark whole = MARK_SAME;
-    if (b->kind == BLK_PATH) {
+    if (b->kind == BLK_PATH || b->kind == BLK_CURVE) {
         if (b->first_stmt < P->d->nstmts)
             whole = diff_stmt_mark(d, b->first_stmt);
     } else if (b->kind != BLK_CALC) {
@@ -89,7 +89,7 @@ void pdf_revision_tag(Pdf *P, Vec *items, size_t from, const Block *b)
     for (size_t i = from; i < items->len; i++) {
         Item *it = items->items[i];
         DiffMark m = b->kind == BLK_CALC ? diff_stmt_mark(d, ((const Stmt *)it->p)->index) : whole;
-        if (m == MARK_SAME && b->kind != BLK_CALC && b->kind != BLK_PATH && b->kind != BLK_CASES &&
+        if (m == MARK_SAME && b->kind != BLK_CALC && b->kind != BLK_PATH && b->kind != BLK_CURVE && b->kind != BLK_CASES &&
             block_shows_changed(d, it->p))
             m = MARK_CHANGED;
         if (m == MARK_SAME)

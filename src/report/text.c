@@ -222,10 +222,13 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
     unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
     sb_printf(out, ": %zu segments, %s loss\n", pr->nsegs,
               s->path->loss == LOSS_DARCY ? "Darcy-Weisbach" : "Hazen-Williams");
-    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "segment", "Q", "D", "L",
-              "rise", "V", "Re", "f", "K", "h_f", "h_m", "p_in", "p_out");
-    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "", uQ.text, uD.text,
-              uL.text, uL.text, uV.text, "", "", "", uL.text, uL.text, uP.text, uP.text);
+    bool dev = pr->ndevices > 0;
+    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s", "segment", "Q", "D", "L",
+              "rise", "V", "Re", "f", "K", "h_f", "h_m", "p_in");
+    sb_printf(out, dev ? " %10s %10s  %s\n" : " %10s\n", dev ? "dp_device" : "p_out", "p_out", "device");
+    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s", "", uQ.text, uD.text,
+              uL.text, uL.text, uV.text, "", "", "", uL.text, uL.text, uP.text);
+    sb_printf(out, dev ? " %10s %10s\n" : " %10s\n", uP.text, uP.text);
     for (size_t i = 0; i < pr->nsegs; i++) {
         const SegmentResult *g = &pr->segs[i];
         sb_printf(out, "  %-10s", g->id);
@@ -243,7 +246,15 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
         put_cell(ev, g->h_f, &uL, true, out);
         put_cell(ev, g->h_m, &uL, true, out);
         put_cell(ev, g->p_in, &uP, true, out);
+        if (dev) {
+            if (g->has_device)
+                put_cell(ev, g->dp_device, &uP, true, out);
+            else
+                sb_printf(out, " %10s", "-");
+        }
         put_cell(ev, g->p_out, &uP, true, out);
+        if (g->has_device)
+            sb_printf(out, "  %s", g->device);
         sb_putc(out, '\n');
     }
     const Record *rec = r->value.rec;
@@ -314,6 +325,7 @@ static void put_network(const Evaluated *ev, const Stmt *s, const StmtResult *r,
         const char *dev = g->device == NET_DEVICE_CHECK ? "check valve"
                           : g->device == NET_DEVICE_PUMP ? "pump"
                           : g->device == NET_DEVICE_PRV  ? "PRV"
+                          : g->device == NET_DEVICE_LOSS ? "valve"
                                                          : "";
         if (dev[0])
             sb_printf(out, "  %s%s%s", dev, states[g->state][0] ? " " : "", states[g->state]);
@@ -339,6 +351,53 @@ static void put_network(const Evaluated *ev, const Stmt *s, const StmtResult *r,
     Value er = value_number(qty(nr->energy_residual, DIM_L));
     render_value_text(ev, &er, &uL, out);
     sb_putc(out, '\n');
+    for (size_t k = 0; k < r->nmethods; k++)
+        sb_printf(out, "      method: %s\n", r->methods[k]->title);
+}
+
+/* A table a statement laid out (a curve's points, select_pipe's
+ * candidates): a heading line, the column heads and units, a row a line. */
+static void put_table(const Evaluated *ev, const ResultTable *t, StrBuf *out)
+{
+    sb_printf(out, "  %s\n ", t->title);
+    int w[16];
+    for (size_t k = 0; k < t->ncols && k < 16; k++) {
+        size_t n = strlen(t->heads[k]);
+        for (size_t r = 0; r < t->nrows; r++) {
+            const Value *v = &t->cells[r * t->ncols + k];
+            if (v->kind == VAL_STRING && strlen(v->str) > n)
+                n = strlen(v->str);
+        }
+        w[k] = n > 12 ? (int)n : 12;
+    }
+    for (size_t k = 0; k < t->ncols && k < 16; k++)
+        sb_printf(out, " %*s", w[k], t->heads[k]);
+    sb_puts(out, "\n ");
+    for (size_t k = 0; k < t->ncols && k < 16; k++)
+        sb_printf(out, " %*s", w[k], strcmp(t->units[k].text, "1") == 0 ? "" : t->units[k].text);
+    sb_putc(out, '\n');
+    for (size_t r = 0; r < t->nrows; r++) {
+        sb_putc(out, ' ');
+        for (size_t k = 0; k < t->ncols && k < 16; k++) {
+            const Value *v = &t->cells[r * t->ncols + k];
+            char num[48] = "";
+            if (v->kind == VAL_NUMBER)
+                num_sig(unit_from_si(v->q.si, &t->units[k], v->q.temp == TEMP_NONE), ev->digits, num, sizeof num);
+            sb_printf(out, " %*s", w[k], v->kind == VAL_STRING ? v->str : num);
+        }
+        sb_putc(out, '\n');
+    }
+}
+
+static void put_curve(const Evaluated *ev, const Stmt *s, const StmtResult *r, StrBuf *out)
+{
+    sb_printf(out, "curve %s", s->name);
+    if (r->state != RES_OK || !r->table) {
+        sb_puts(out, " = (not evaluated)\n");
+        return;
+    }
+    sb_printf(out, ": %zu points, %s interpolation\n", s->curve->npoints, s->curve->loglog ? "log-log" : "linear");
+    put_table(ev, r->table, out);
     for (size_t k = 0; k < r->nmethods; k++)
         sb_printf(out, "      method: %s\n", r->methods[k]->title);
 }
@@ -375,7 +434,8 @@ static void put_figure(const Evaluated *ev, const Stmt *s, const StmtResult *r, 
         char x[40], y[40];
         num_sig(unit_from_si(fd->markers[k].x, &fd->x_unit, true), ev->digits, x, sizeof x);
         num_sig(unit_from_si(fd->markers[k].y, &fd->y_unit, true), ev->digits, y, sizeof y);
-        sb_printf(out, "  point %s: (%s, %s)\n", fd->markers[k].label, x, y);
+        const char *label = fd->markers[k].label ? fd->markers[k].label : "";
+        sb_printf(out, "  point%s%s: (%s, %s)\n", label[0] ? " " : "", label, x, y);
     }
 }
 
@@ -430,6 +490,9 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
         return;
     case STMT_NETWORK:
         put_network(ev, s, r, out);
+        return;
+    case STMT_CURVE:
+        put_curve(ev, s, r, out);
         return;
     case STMT_FIGURE:
         put_figure(ev, s, r, out);
@@ -487,6 +550,8 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
         if (r->state == RES_OK)
             put_methods(r, out);
         sb_putc(out, '\n');
+        if (r->state == RES_OK && r->table)
+            put_table(ev, r->table, out);
         return;
     }
     case STMT_SOLVE: {
@@ -597,6 +662,7 @@ static void put_blocks(const Evaluated *ev, const Block *b, StrBuf *out)
         case BLK_CALC:
         case BLK_PATH:
         case BLK_NETWORK:
+        case BLK_CURVE:
             for (size_t i = 0; i < b->nstmts; i++)
                 put_statement(ev, ev->doc->stmts[b->first_stmt + i], out);
             break;
