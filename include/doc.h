@@ -364,6 +364,11 @@ bool expr_reads_names(const Expr *e);
  * evaluating it. */
 const char *doc_stmt_use(const Stmt *s);
 
+/* Does the expression substitute to nothing more than its own value (a name,
+ * a field, a literal, perhaps negated or in parentheses)? A row whose sides
+ * are all simple needs no line of substituted values. */
+bool expr_is_simple(const Expr *e);
+
 /* Name table: NULL/-1 when absent. */
 int doc_lookup(const Document *doc, const char *name);
 const char *doc_source_line(const Document *doc, int line, size_t *len);

@@ -108,6 +108,15 @@ typedef struct FigureData {
     double band_lo, band_hi; /* a shaded band along x (NAN when none) */
 } FigureData;
 
+/* A value an equation read, as it stood where the row's result was found:
+ * a solve records what its equation reads at the root, so the row can show
+ * the equation substituted there (never at the trial value). */
+typedef struct ReadValue {
+    int slot;
+    Value value;
+    Unit shown;
+} ReadValue;
+
 typedef struct StmtResult {
     ResultState state;
     Value value;             /* DEF, SOLVE: the bound value */
@@ -118,6 +127,8 @@ typedef struct StmtResult {
     bool holds;              /* CHECK */
     double utilization;      /* CHECK: lhs/rhs for <, <=; rhs/lhs for >, >= */
     SolveReport solve;       /* SOLVE */
+    const ReadValue *at_root;/* SOLVE: every name the equation reads, at the root */
+    size_t nat_root;
     const PathResult *path;  /* PATH */
     const NetworkResult *network; /* NETWORK */
     const ResultTable *table;/* CURVE: its points; DEF: a table a function laid out */
@@ -175,12 +186,23 @@ Evaluated *eval_document_in(Document *doc, struct UseSet *uses, DiagList *diags)
  * of a record read with '.', however deep: basis.w.rho); NULL otherwise.
  * `shown` gets the unit it is shown in. For renderers' substitutions. */
 const Value *eval_named_value(const Evaluated *ev, const Expr *e, Unit *shown);
+/* The same as row `row` substitutes it (a solve row: at its root; see eval_read). */
+const Value *eval_named_value_at(const Evaluated *ev, const StmtResult *row, const Expr *e,
+                                 Unit *shown);
 
 /* Re-evaluate, in order, the statements that depend (directly or through
  * others) on any slot in `changed`, stopping before statement `upto`. The
  * caller has already stored the new values of the changed slots. Used by
  * `solve` and by parametric cases. */
 void eval_recompute(Evaluated *ev, const int *changed, size_t nchanged, size_t upto, DiagList *diags);
+
+/* The built-in constants pi and g (SLOT_PI, SLOT_G): true with the value. */
+bool eval_constant(int slot, Value *out);
+
+/* The value of statement `slot` as row `row` substitutes it: a solve row
+ * reads the values at its root, any other row (or NULL) the statement's own
+ * result. NULL when there is no value to show; *shown gets its unit. */
+const Value *eval_read(const Evaluated *ev, const StmtResult *row, int slot, Unit *shown);
 
 /* The unit a number is shown in: `as` wins, then the value's hint for the
  * document's unit system, then the system's default for the dimension. */

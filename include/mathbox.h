@@ -85,6 +85,7 @@ typedef struct MathEnv {
     const MathMetrics *m;
     const Evaluated *ev;
     int digits;
+    const StmtResult *row;   /* the row being set: a solve substitutes its root values (eval_read) */
 } MathEnv;
 
 /* ---- primitives: each measures itself and places its children ---------- */

@@ -114,6 +114,18 @@ bool expr_reads_names(const Expr *e)
     }
 }
 
+bool expr_is_simple(const Expr *e)
+{
+    while (e && e->kind == EXPR_PAREN)
+        e = e->lhs;
+    if (e && e->kind == EXPR_NEG)
+        e = e->lhs;
+    while (e && e->kind == EXPR_PAREN)
+        e = e->lhs;
+    return e && (e->kind == EXPR_NAME || e->kind == EXPR_FIELD || e->kind == EXPR_NUMBER ||
+                 e->kind == EXPR_STRING);
+}
+
 /* ---- resolution --------------------------------------------------------- */
 
 typedef struct Resolver {

@@ -337,14 +337,8 @@ static bool eval_expr(Ctx *c, const Expr *e, Value *out)
         *out = value_string(e->text);
         return true;
     case EXPR_NAME:
-        if (e->slot == SLOT_PI) {
-            *out = value_number(qty_number(3.14159265358979323846));
+        if (eval_constant(e->slot, out))
             return true;
-        }
-        if (e->slot == SLOT_G) {
-            *out = value_number(qty(STANDARD_GRAVITY, DIM_ACCEL));
-            return true;
-        }
         if (e->slot < 0 || c->ev->results[e->slot].state != RES_OK)
             return fail_upstream(c);
         *out = c->ev->results[e->slot].value;
@@ -543,6 +537,85 @@ static void format_si(const Evaluated *ev, double si, Dim d, char *buf, size_t n
         snprintf(buf, n, "%s %s", num, u.text);
 }
 
+/* The slots an expression reads directly (names, the base of a field, a
+ * record called as a function), each once, appended to *out. */
+static void collect_reads(const Expr *e, int **out, size_t *n, size_t *cap)
+{
+    if (!e)
+        return;
+    int slot = -1;
+    if (e->kind == EXPR_NAME)
+        slot = e->slot;
+    else if (e->kind == EXPR_CALL)
+        slot = e->callee_slot;
+    if (slot >= 0) {
+        bool seen = false;
+        for (size_t i = 0; i < *n && !seen; i++)
+            seen = (*out)[i] == slot;
+        if (!seen) {
+            if (*n == *cap) {
+                *cap = *cap ? 2 * *cap : 8;
+                *out = xrealloc(*out, *cap * sizeof **out);
+            }
+            (*out)[(*n)++] = slot;
+        }
+    }
+    collect_reads(e->lhs, out, n, cap);
+    collect_reads(e->rhs, out, n, cap);
+    for (size_t i = 0; i < e->nargs; i++)
+        collect_reads(e->args[i], out, n, cap);
+    for (size_t i = 0; i < e->nkw; i++)
+        collect_reads(e->kw[i], out, n, cap);
+}
+
+/* Keep what the equation reads at the root (set there by the caller). */
+static void record_root_reads(Evaluated *ev, const Stmt *s, StmtResult *res)
+{
+    int *slots = NULL;
+    size_t n = 0, cap = 0;
+    collect_reads(s->lhs, &slots, &n, &cap);
+    collect_reads(s->rhs, &slots, &n, &cap);
+    ReadValue *rv = n ? arena_alloc(&ev->doc->arena, n * sizeof *rv) : NULL;
+    size_t k = 0;
+    for (size_t i = 0; i < n; i++) {
+        const StmtResult *r = &ev->results[slots[i]];
+        if (r->state != RES_OK)
+            continue;
+        rv[k++] = (ReadValue){slots[i], r->value, r->shown};
+    }
+    free(slots);
+    res->at_root = rv;
+    res->nat_root = k;
+}
+
+bool eval_constant(int slot, Value *out)
+{
+    if (slot == SLOT_PI)
+        *out = value_number(qty_number(3.14159265358979323846));
+    else if (slot == SLOT_G)
+        *out = value_number(qty(STANDARD_GRAVITY, DIM_ACCEL));
+    else
+        return false;
+    return true;
+}
+
+const Value *eval_read(const Evaluated *ev, const StmtResult *row, int slot, Unit *shown)
+{
+    if (!ev || slot < 0 || (size_t)slot >= ev->doc->nstmts)
+        return NULL;
+    if (row)
+        for (size_t i = 0; i < row->nat_root; i++)
+            if (row->at_root[i].slot == slot) {
+                *shown = row->at_root[i].shown;
+                return &row->at_root[i].value;
+            }
+    const StmtResult *r = &ev->results[slot];
+    if (r->state != RES_OK)
+        return NULL;
+    *shown = r->shown;
+    return &r->value;
+}
+
 static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, DiagList *diags)
 {
     Ctx c = {ev, ev->doc, diags, cc, 0};
@@ -617,6 +690,7 @@ static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *c
         bool okr = equation_sides(ev, s, diags, &lr, &rr);
         diags->muted--;
         if (okr) {
+            record_root_reads(ev, s, res);
             res->lhs = lr;
             res->rhs = rr;
             res->lhs_shown = eval_display_unit(ev, &lr, NULL);
@@ -1177,31 +1251,30 @@ static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagL
     }
 }
 
-const Value *eval_named_value(const Evaluated *ev, const Expr *e, Unit *shown)
+const Value *eval_named_value_at(const Evaluated *ev, const StmtResult *row, const Expr *e,
+                                 Unit *shown)
 {
     while (e && e->kind == EXPR_PAREN)
         e = e->lhs;
     if (!e)
         return NULL;
-    if (e->kind == EXPR_NAME) {
-        if (e->slot < 0 || (size_t)e->slot >= ev->doc->nstmts)
-            return NULL;
-        const StmtResult *r = &ev->results[e->slot];
-        if (r->state != RES_OK)
-            return NULL;
-        *shown = r->shown;
-        return &r->value;
-    }
+    if (e->kind == EXPR_NAME)
+        return eval_read(ev, row, e->slot, shown);
     if (e->kind != EXPR_FIELD)
         return NULL;
     Unit ignored;
-    const Value *base = eval_named_value(ev, e->lhs, &ignored);
+    const Value *base = eval_named_value_at(ev, row, e->lhs, &ignored);
     if (!base || base->kind != VAL_RECORD || !base->rec)
         return NULL;
     const Value *f = record_get(base->rec, e->text);
     if (f)
         *shown = eval_display_unit(ev, f, NULL);
     return f;
+}
+
+const Value *eval_named_value(const Evaluated *ev, const Expr *e, Unit *shown)
+{
+    return eval_named_value_at(ev, NULL, e, shown);
 }
 
 Evaluated *eval_document(Document *doc, DiagList *diags)

@@ -929,6 +929,32 @@ typedef struct WatchCtx {
     int builds;
 } WatchCtx;
 
+/* One build of `watch` for a package index: every part and every file the
+ * parts use are watched. */
+static void watch_package(Document *index, DiagList *dl, const char *out, Vec *inputs)
+{
+    Package *pkg = package_load(index, dl);
+    print_package_diags(pkg, dl);
+    for (size_t i = 0; i < pkg->nparts; i++)
+        if (pkg->parts[i].ev)
+            print_check_text(pkg->parts[i].ev, pkg->parts[i].diags);
+    if (pkg->errors) {
+        printf("%s: not written: the input has errors\n", out);
+    } else {
+        DiagList wl = {0};
+        ReportJob job = {NULL, pkg, NULL, NULL, NULL};
+        if (write_report(&job, FMT_PDF, out, &wl) == 0)
+            printf("wrote %s\n", out);
+        diag_free(&wl);
+    }
+    for (size_t i = 0; i < pkg->uses->nfiles; i++) {
+        const UsedFile *u = pkg->uses->files[i];
+        if (u->file && !u->doc->from_git)
+            vec_push(inputs, xstrdup(u->file));
+    }
+    package_free(pkg);
+}
+
 /* One build of `watch`: diagnostics, the check summary, the PDF replaced
  * atomically (write_report: a temporary beside it, then rename). */
 static void watch_build(void *vctx, Vec *inputs)
@@ -941,6 +967,8 @@ static void watch_build(void *vctx, Vec *inputs)
     if (!doc) {
         print_diags(&dl, NULL);
         printf("%s: cannot be read; waiting for it to be saved\n", w->file);
+    } else if (package_is_index(doc) && !dl.errors) {
+        watch_package(doc, &dl, w->out, inputs);
     } else {
         Evaluated *ev = eval_document(doc, &dl);
         print_diags(&dl, doc);

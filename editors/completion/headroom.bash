@@ -1,5 +1,6 @@
 # bash completion for headroom: commands, their options, the kinds of
-# `headroom new`, the formats of --format, and calc files (*.calc.md, *.md).
+# `headroom new` (a folder after `new package`), the formats of --format,
+# and calc files (*.calc.md, *.md).
 # Installed by `make install` as share/bash-completion/completions/headroom;
 # it needs nothing from the bash-completion package.
 
@@ -36,7 +37,9 @@ _headroom()
         [[ $cur == -* ]] && COMPREPLY=($(compgen -W "--json --rel-tol --help" -- "$cur")) || _headroom_files "$cur" ;;
     new)
         if [ "$COMP_CWORD" -eq 2 ]; then
-            COMPREPLY=($(compgen -W "riser pump-line pipe-rating --help" -- "$cur"))
+            COMPREPLY=($(compgen -W "package riser pump-line pipe-rating --help" -- "$cur"))
+        elif [ "${COMP_WORDS[2]}" = package ]; then
+            COMPREPLY=($(compgen -d -S / -- "$cur"))
         else
             _headroom_files "$cur"
         fi ;;

@@ -25,4 +25,5 @@ complete -c headroom -n "__fish_seen_subcommand_from build" -l strict -d 'Exit 1
 complete -c headroom -n "__fish_seen_subcommand_from build" -l since -r -F -d 'Mark the changes since an earlier revision'
 complete -c headroom -n "__fish_seen_subcommand_from diff" -l json -d 'The changes as JSON'
 complete -c headroom -n "__fish_seen_subcommand_from diff" -l rel-tol -x -d 'Relative tolerance for results'
-complete -c headroom -n "__fish_seen_subcommand_from new; and not __fish_seen_subcommand_from riser pump-line pipe-rating" -a "riser pump-line pipe-rating" -d 'Starter kind'
+complete -c headroom -n "__fish_seen_subcommand_from new; and not __fish_seen_subcommand_from package riser pump-line pipe-rating" -a "package riser pump-line pipe-rating" -d 'Starter kind'
+complete -c headroom -n "__fish_seen_subcommand_from new; and __fish_seen_subcommand_from package" -a "(__fish_complete_directories)" -d 'Folder of the package'

@@ -107,7 +107,10 @@ static void put_results(const Diff *d, StrBuf *out)
         value_pair(d, &c->old_value, &c->old_unit, &c->new_value, &c->new_unit, &a, &b);
         bool same = !c->dim_changed && strcmp(sb_str(&a), sb_str(&b)) == 0 &&
                     (c->new_value.kind == VAL_RECORD || !c->ninputs);
-        if (c->formula_changed && (same || c->new_value.kind == VAL_RECORD))
+        bool curve = c->new_value.kind == VAL_RECORD && c->new_value.rec && strcmp(c->new_value.rec->type, "curve") == 0;
+        if (c->formula_changed && curve)
+            sb_printf(out, "  %s: curve table changed", c->name);
+        else if (c->formula_changed && (same || c->new_value.kind == VAL_RECORD))
             sb_printf(out, "  %s: formula changed, value unchanged", c->name);
         else {
             sb_printf(out, "  %s = %s → %s", c->name, sb_str(&a), sb_str(&b));

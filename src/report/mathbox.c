@@ -505,19 +505,9 @@ static MathBox *paren(const MathEnv *env, MathBox *inner, double size)
 /* The value a name or field stands for, and the unit to show it in. */
 static const Value *subst_value(const MathEnv *env, const Expr *e, Unit *unit)
 {
-    const Evaluated *ev = env->ev;
-    if (!ev)
+    if (!env->ev || (e->kind != EXPR_NAME && e->kind != EXPR_FIELD))
         return NULL;
-    if (e->kind == EXPR_NAME && e->slot >= 0 && (size_t)e->slot < ev->doc->nstmts) {
-        const StmtResult *r = &ev->results[e->slot];
-        if (r->state != RES_OK)
-            return NULL;
-        *unit = r->shown;
-        return &r->value;
-    }
-    if (e->kind == EXPR_FIELD)
-        return eval_named_value(ev, e, unit); /* basis.p_city, basis.w.rho */
-    return NULL;
+    return eval_named_value_at(env->ev, env->row, e, unit); /* x, basis.p_city, basis.w.rho */
 }
 
 typedef enum Ctx { CTX_TOP, CTX_ADD_RIGHT, CTX_FACTOR, CTX_POW_BASE } Ctx;
@@ -776,8 +766,17 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row
         row_add(row, rel(env, "=", mbox_expr(env, st->rhs, size, false), size), false);
         if (!ok)
             return;
-        row_add(row, mbox_expr(env, st->lhs, size, true), true);
-        row_add(row, rel(env, "=", mbox_expr(env, st->rhs, size, true), size), false);
+        /* substituted at the root (unless both sides are a name or a
+         * literal, which the line of values shows), then both sides' values */
+        MathEnv at = *env;
+        at.row = r;
+        if (!(expr_is_simple(st->lhs) && expr_is_simple(st->rhs))) {
+            row_add(row, mbox_expr(&at, st->lhs, size, true), true);
+            row_add(row, rel(env, "=", mbox_expr(&at, st->rhs, size, true), size), false);
+        }
+        row_add(row, mbox_quantity(env, &r->lhs, &r->lhs_shown, size, true), true);
+        row_add(row, rel(env, "=", mbox_quantity(env, &r->rhs, &r->lhs_shown, size, true), size),
+                false);
         row_add(row, mbox_symbol(env, st->name, size), true);
         row_add(row, rel(env, "=", mbox_quantity(env, &r->value, &r->shown, size, true), size),
                 false);
@@ -791,11 +790,7 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row
             return;
         if (expr_reads_names(st->lhs) || expr_reads_names(st->rhs)) {
             /* a name or a literal substitutes to its value: no middle line needed */
-            bool lsimple = strip(st->lhs)->kind == EXPR_NAME || strip(st->lhs)->kind == EXPR_FIELD ||
-                           is_literal(st->lhs);
-            bool rsimple = strip(st->rhs)->kind == EXPR_NAME || strip(st->rhs)->kind == EXPR_FIELD ||
-                           is_literal(st->rhs);
-            if (!(lsimple && rsimple)) {
+            if (!(expr_is_simple(st->lhs) && expr_is_simple(st->rhs))) {
                 row_add(row, mbox_expr(env, st->lhs, size, true), true);
                 row_add(row, rel(env, op, mbox_expr(env, st->rhs, size, true), size), false);
             }

@@ -423,7 +423,7 @@ static bool build(Pdf *P, const char *path)
     pdf_sheet_geometry(P);
     pdf_revision_geometry(P);
     P->metrics = (MathMetrics){metric_width, P, 0.72, 0.22, 0.26};
-    P->env = (MathEnv){&P->arena, &P->metrics, P->ev, P->ev->digits > 0 ? P->ev->digits : 4};
+    P->env = (MathEnv){&P->arena, &P->metrics, P->ev, P->ev->digits > 0 ? P->ev->digits : 4, NULL};
     P->painter = (MathPainter){paint_text, paint_line, paint_curve, P};
     pdf_number_references(P);
     pdf_number_figures(P);

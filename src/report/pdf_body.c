@@ -527,28 +527,24 @@ double pdf_row_margin(Pdf *P, const Stmt *st, double top)
         pdf_text_color(P, FONT_SANS, 6.6, x, y - 6.5, u, GREY);
         y -= 9;
     }
+    /* the references the row cites, by their numbers in the reference list */
     for (size_t i = 0; i < st->ncites; i++) {
         int si = st->cites[i].source;
-        char *k = arena_printf(&P->arena, "[%s]", st->cites[i].key);
+        bool known = si >= 0 && (size_t)si < P->d->nsources;
+        char *k = known ? arena_printf(&P->arena, "[%d]", P->source_ref[si])
+                        : arena_printf(&P->arena, "[%s]", st->cites[i].key);
         double kw = pdf_width(P, FONT_MONO, 6.8, k);
         pdf_text_color(P, FONT_MONO, 6.8, x, y - 7, k, LINK);
-        if (si >= 0 && (size_t)si < P->d->nsources)
+        if (known)
             pdf_link(P, x, y - 9, kw, 9, P->source_ref[si]);
         y -= 9;
     }
-    double room = s->body_r - x + 8;
     for (size_t m = 0; m < r->nmethods; m++) {
         for (size_t j = 0; j < P->ev->nmethods; j++)
             if (method_same(P->ev->methods[j], r->methods[m])) {
-                char *k = arena_printf(&P->arena, "[%d] %s", P->method_ref[j], r->methods[m]->key);
-                double ks = 6.8;
-                while (ks > 5 && pdf_width(P, FONT_MONO, ks, k) > room)
-                    ks -= 0.2;
-                /* still too long: the number alone */
-                if (pdf_width(P, FONT_MONO, ks, k) > room)
-                    k = arena_printf(&P->arena, "[%d]", P->method_ref[j]);
-                pdf_text_color(P, FONT_MONO, ks, x, y - 7, k, LINK);
-                pdf_link(P, x, y - 9, pdf_width(P, FONT_MONO, ks, k), 9, P->method_ref[j]);
+                char *k = arena_printf(&P->arena, "[%d]", P->method_ref[j]);
+                pdf_text_color(P, FONT_MONO, 6.8, x, y - 7, k, LINK);
+                pdf_link(P, x, y - 9, pdf_width(P, FONT_MONO, 6.8, k), 9, P->method_ref[j]);
                 y -= 9;
             }
     }

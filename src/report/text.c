@@ -87,7 +87,9 @@ static void put_value(const Evaluated *ev, const Value *v, const Unit *u, int pa
         sb_putc(out, ')');
 }
 
-static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, int parent_prec)
+/* `row` is the statement being listed (a solve substitutes its root values), or NULL. */
+static void put_expr(const Evaluated *ev, const StmtResult *row, const Expr *e, bool sub, StrBuf *out,
+                     int parent_prec)
 {
     switch (e->kind) {
     case EXPR_NUMBER:
@@ -99,36 +101,35 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
     case EXPR_STRING:
         sb_printf(out, "\"%s\"", e->text);
         break;
-    case EXPR_NAME:
-        if (sub && e->slot >= 0 && ev->results[e->slot].state == RES_OK &&
-            ev->results[e->slot].value.kind == VAL_NUMBER) {
-            const StmtResult *r = &ev->results[e->slot];
-            put_value(ev, &r->value, &r->shown, parent_prec, out);
-        } else if (sub && e->slot == SLOT_PI) {
-            sb_puts(out, "3.142");
-        } else if (sub && e->slot == SLOT_G) {
-            Value gv = value_number(qty(9.80665, DIM_ACCEL));
-            Unit u = eval_display_unit(ev, &gv, NULL);
-            put_value(ev, &gv, &u, parent_prec, out);
+    case EXPR_NAME: {
+        Unit shown;
+        Value cv;
+        const Value *v = sub ? eval_read(ev, row, e->slot, &shown) : NULL;
+        if (v && v->kind == VAL_NUMBER) {
+            put_value(ev, v, &shown, parent_prec, out);
+        } else if (sub && eval_constant(e->slot, &cv)) {
+            Unit u = eval_display_unit(ev, &cv, NULL);
+            put_value(ev, &cv, &u, parent_prec, out);
         } else {
             sb_puts(out, e->text);
         }
         break;
+    }
     case EXPR_PAREN:
         sb_putc(out, '(');
-        put_expr(ev, e->lhs, sub, out, PREC_TOP);
+        put_expr(ev, row, e->lhs, sub, out, PREC_TOP);
         sb_putc(out, ')');
         break;
     case EXPR_NEG:
         sb_putc(out, '-');
-        put_expr(ev, e->lhs, sub, out, PREC_NEG);
+        put_expr(ev, row, e->lhs, sub, out, PREC_NEG);
         break;
     case EXPR_BINARY: {
         int p = precedence(e);
         bool wrap = p < parent_prec;
         if (wrap)
             sb_putc(out, '(');
-        put_expr(ev, e->lhs, sub, out, e->op == OP_POW ? PREC_ATOM : p);
+        put_expr(ev, row, e->lhs, sub, out, e->op == OP_POW ? PREC_ATOM : p);
         switch (e->op) {
         case OP_ADD: sb_puts(out, " + "); break;
         case OP_SUB: sb_puts(out, " - "); break;
@@ -136,7 +137,7 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
         case OP_DIV: sb_puts(out, "/"); break;
         case OP_POW: sb_puts(out, "^"); break;
         }
-        put_expr(ev, e->rhs, sub, out,
+        put_expr(ev, row, e->rhs, sub, out,
                  e->op == OP_POW ? PREC_NEG : p + (e->op == OP_SUB || e->op == OP_DIV));
         if (wrap)
             sb_putc(out, ')');
@@ -144,15 +145,16 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
     }
     case EXPR_FIELD:
         if (sub) {
-            /* Substitute the field's value (basis.p_city, basis.w.rho). */
+            /* Substitute the field's value (basis.p_city, basis.w.rho); a
+             * solve row reads its record at the root. */
             Unit u;
-            const Value *f = eval_named_value(ev, e, &u);
+            const Value *f = eval_named_value_at(ev, row, e, &u);
             if (f && f->kind == VAL_NUMBER) {
                 put_value(ev, f, &u, parent_prec, out);
                 break;
             }
         }
-        put_expr(ev, e->lhs, false, out, PREC_ATOM);
+        put_expr(ev, row, e->lhs, false, out, PREC_ATOM);
         sb_printf(out, ".%s", e->text);
         break;
     case EXPR_CALL:
@@ -161,13 +163,13 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
         for (size_t i = 0; i < e->nargs; i++) {
             if (i)
                 sb_puts(out, ", ");
-            put_expr(ev, e->args[i], sub, out, PREC_TOP);
+            put_expr(ev, row, e->args[i], sub, out, PREC_TOP);
         }
         for (size_t i = 0; i < e->nkw; i++) {
             if (i || e->nargs)
                 sb_puts(out, ", ");
             sb_printf(out, "%s=", e->kw_names[i]);
-            put_expr(ev, e->kw[i], sub, out, PREC_TOP);
+            put_expr(ev, row, e->kw[i], sub, out, PREC_TOP);
         }
         sb_putc(out, ')');
         break;
@@ -176,7 +178,7 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, StrBuf *out, 
 
 void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBuf *out)
 {
-    put_expr(ev, e, substitute, out, PREC_TOP);
+    put_expr(ev, NULL, e, substitute, out, PREC_TOP);
 }
 
 static void put_comment(const Stmt *s, StrBuf *out)
@@ -574,6 +576,12 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
             sb_printf(out, "\n      at %s = ", s->var);
             render_value_text(ev, &r->value, &r->shown, out);
             sb_puts(out, ": ");
+            if (!(expr_is_simple(s->lhs) && expr_is_simple(s->rhs))) {
+                put_expr(ev, r, s->lhs, true, out, PREC_TOP);
+                sb_puts(out, " = ");
+                put_expr(ev, r, s->rhs, true, out, PREC_TOP);
+                sb_puts(out, " = ");
+            }
             render_value_text(ev, &r->lhs, &r->lhs_shown, out);
             sb_puts(out, " = ");
             render_value_text(ev, &r->rhs, &r->lhs_shown, out);

@@ -198,6 +198,22 @@ static void test_solve_reevaluates_dependents(void **state)
     const StmtResult *r = &ev->results[doc_lookup(doc, "r")];
     assert_true(fabs(r->solve.residual) < 1e-12);
     assert_close(r->lhs.q.si, 10, 1e-14);
+    /* The row substitutes what the equation read at the root, never the
+     * trial: z = 3^2 + 1 = 10 m^2 there (x = 2 m gives 5 m^2). */
+    Unit shown;
+    const Value *zr = eval_read(ev, r, doc_lookup(doc, "z"), &shown);
+    assert_non_null(zr);
+    assert_close(zr->q.si, 10, 1e-14);
+    const Value *zt = eval_read(ev, NULL, doc_lookup(doc, "z"), &shown);
+    assert_close(zt->q.si, 5, 1e-15);
+    /* x itself is not read by `z = 10 m^2`: it stays the trial value */
+    assert_close(eval_read(ev, r, doc_lookup(doc, "x"), &shown)->q.si, 2, 0);
+    load("x = 2 m\n"
+         "y = x^2\n"
+         "r = solve x where x*x + y = 18 m^2 between 0 m and 10 m\n");
+    r = &ev->results[doc_lookup(doc, "r")];
+    assert_close(eval_read(ev, r, doc_lookup(doc, "x"), &shown)->q.si, 3, 1e-14);
+    assert_close(eval_read(ev, r, doc_lookup(doc, "y"), &shown)->q.si, 9, 1e-14);
 
     /* A root far below the trial value is still resolved to its own
      * precision: x^(1/3) = 1e-30 has the root 1e-90. */

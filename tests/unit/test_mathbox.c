@@ -49,7 +49,7 @@ static int setup(void **state)
 {
     (void)state;
     arena_init(&arena);
-    env = (MathEnv){&arena, &FAKE, NULL, 4};
+    env = (MathEnv){&arena, &FAKE, NULL, 4, NULL};
     return 0;
 }
 
@@ -252,7 +252,7 @@ static void test_statement_row_breaks_at_equals(void **state)
     assert_non_null(doc);
     Evaluated *ev = eval_document(doc, &dl);
     assert_int_equal(dl.errors, 0);
-    MathEnv e = {&doc->arena, &FAKE, ev, 4};
+    MathEnv e = {&doc->arena, &FAKE, ev, 4, NULL};
     MathRow row;
     mbox_stmt_row(&e, doc->stmts[2], 10, &row);
     assert_int_equal(row.n, 4);
