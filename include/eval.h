@@ -129,6 +129,8 @@ typedef struct StmtResult {
     SolveReport solve;       /* SOLVE */
     const ReadValue *at_root;/* SOLVE: every name the equation reads, at the root */
     size_t nat_root;
+    const char *const *warnings; /* what evaluating the row warned of, in order */
+    size_t nwarnings;
     const PathResult *path;  /* PATH */
     const NetworkResult *network; /* NETWORK */
     const ResultTable *table;/* CURVE: its points; DEF: a table a function laid out */
@@ -166,6 +168,7 @@ typedef struct Evaluated {
     const Method **methods;  /* every method used, in order of first use */
     size_t nmethods;
     size_t nchecks, nfailed; /* checks evaluated, checks that fail */
+    size_t nwarnings;        /* warnings on statements, over all of them */
     CaseResult *cases;       /* doc->ncases */
     size_t ncases;
     size_t case_rows_failing;/* over every case table: rows where a check fails */

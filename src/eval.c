@@ -1034,7 +1034,13 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
 {
     const Stmt *s = ev->doc->stmts[i];
     StmtResult *res = &ev->results[i];
+    /* a re-evaluation (solve trials, case rows) keeps the warnings of the
+     * evaluation the report shows */
+    const char *const *warnings = res->warnings;
+    size_t nwarnings = res->nwarnings;
     memset(res, 0, sizeof *res);
+    res->warnings = warnings;
+    res->nwarnings = nwarnings;
     if (s->parse_failed || s->kind == STMT_NOTE)
         return;
     for (size_t k = 0; k < s->ndeps; k++)
@@ -1277,6 +1283,25 @@ const Value *eval_named_value(const Evaluated *ev, const Expr *e, Unit *shown)
     return eval_named_value_at(ev, NULL, e, shown);
 }
 
+/* The warnings statement i's evaluation added (diagnostics from `before`
+ * on), kept with its result so every report shows them beside the row. */
+static void keep_warnings(Evaluated *ev, size_t i, const DiagList *diags, size_t before)
+{
+    size_t n = 0;
+    for (size_t k = before; k < diags->len; k++)
+        n += diags->items[k].severity == SEV_WARNING;
+    if (!n)
+        return;
+    const char **w = arena_alloc(&ev->doc->arena, n * sizeof *w);
+    size_t j = 0;
+    for (size_t k = before; k < diags->len; k++)
+        if (diags->items[k].severity == SEV_WARNING)
+            w[j++] = arena_strdup(&ev->doc->arena, diags->items[k].message);
+    ev->results[i].warnings = w;
+    ev->results[i].nwarnings = n;
+    ev->nwarnings += n;
+}
+
 Evaluated *eval_document(Document *doc, DiagList *diags)
 {
     if (!doc->own_uses)
@@ -1295,7 +1320,9 @@ Evaluated *eval_document_in(Document *doc, UseSet *uses, DiagList *diags)
     ev->results = arena_alloc(&doc->arena, (doc->nstmts + 1) * sizeof *ev->results);
     Vec all = {0};
     for (size_t i = 0; i < doc->nstmts; i++) {
+        size_t before = diags->len;
         eval_statement(ev, i, diags);
+        keep_warnings(ev, i, diags, before);
         const StmtResult *r = &ev->results[i];
         note_methods(ev, r, &all);
         if (doc->stmts[i]->kind == STMT_CHECK && r->state == RES_OK) {

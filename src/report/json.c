@@ -254,6 +254,15 @@ static json_t *cases_json(const Evaluated *ev, size_t which)
     return o;
 }
 
+/* A row's warnings, as the sheets show them beside it. */
+static json_t *warnings_json(const StmtResult *r)
+{
+    json_t *a = json_array();
+    for (size_t i = 0; i < r->nwarnings; i++)
+        json_array_append_new(a, json_string(r->warnings[i]));
+    return a;
+}
+
 static json_t *document_json(const Evaluated *ev, const DiagList *diags)
 {
     const Document *doc = ev->doc;
@@ -332,6 +341,8 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
                 json_object_set_new(v, "residual", real_or_null(r->solve.residual));
                 json_object_set_new(v, "iterations", json_integer(r->solve.iterations));
             }
+            if (r->nwarnings)
+                json_object_set_new(v, "warnings", warnings_json(r));
             json_object_set_new(values, s->name, v);
         } else if (s->kind == STMT_CHECK && s->label) {
             json_t *c = json_object();
@@ -350,6 +361,8 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
             } else {
                 json_object_set_new(c, "holds", json_null());
             }
+            if (r->nwarnings)
+                json_object_set_new(c, "warnings", warnings_json(r));
             json_array_append_new(checks, c);
         }
     }

@@ -30,6 +30,7 @@ const Rgb FAIL = {0.70, 0.05, 0.05};
 const Rgb PASS = {0.05, 0.38, 0.15};
 const Rgb SHADE = {0.93, 0.93, 0.90};
 const Rgb LINK = {0.05, 0.20, 0.50};
+const Rgb WARN = {0.62, 0.32, 0.00};
 
 /* fonts/README.md names the same files. */
 static const char *const FONT_FILE[FONT_ROLE_COUNT] = {
@@ -148,6 +149,16 @@ void pdf_uri(Pdf *P, double x, double y, double w, double h, const char *url)
     HPDF_Annotation a = HPDF_Page_CreateURILinkAnnot(P->page, r, url);
     HPDF_LinkAnnot_SetBorderStyle(a, 0, 0, 0);
     print_flag(a);
+}
+
+double pdf_warnings(Pdf *P, const StmtResult *r, double x, double top, double width)
+{
+    double y = top;
+    for (size_t i = 0; i < r->nwarnings; i++) {
+        char *t = arena_printf(&P->arena, "Warning: %s", r->warnings[i]);
+        y -= pdf_wrap_color(P, FONT_SANS, 8, 10, x, y, width, t, WARN) + 1;
+    }
+    return top - y;
 }
 
 /* Plain text wrapped at spaces (a word longer than the line is cut); a
@@ -439,6 +450,8 @@ static bool build(Pdf *P, const char *path)
         pdf_revision_items(P, &items);
     }
     size_t n = items.len;
+    for (size_t i = 0; i < n; i++)
+        P->nwarnings += (size_t)((Item *)items.items[i])->warnings;
     PageItem *pi = xcalloc(n ? n : 1, sizeof *pi);
     PagePlace *place = xcalloc(n ? n : 1, sizeof *place);
     P->page = NULL;
@@ -452,6 +465,14 @@ static bool build(Pdf *P, const char *path)
     P->npages = pagelayout_assign(pi, n, body_h, place);
     if (P->pkg)
         pdf_package_placed(P, &items, place);
+    /* the sheets that show a warning, for the cover */
+    P->warning_sheets = xcalloc(n ? n : 1, sizeof *P->warning_sheets);
+    for (size_t i = 0; i < n; i++) {
+        int sheet = place[i].page + 1;
+        if (((Item *)items.items[i])->warnings > 0 &&
+            (P->nwarning_sheets == 0 || P->warning_sheets[P->nwarning_sheets - 1] != sheet))
+            P->warning_sheets[P->nwarning_sheets++] = sheet;
+    }
     for (size_t i = 0; i < n; i++) {
         Item *it = items.items[i];
         pdf_scope_load(P, it->scope);
@@ -565,6 +586,7 @@ bool pdf_render(const Evaluated *ev, const struct Package *pkg, const Diff *cons
         HPDF_Free(P->doc);
     }
     free(P->pages);
+    free(P->warning_sheets);
     arena_free(&P->arena);
     free(P);
     return ok;

@@ -680,6 +680,7 @@ static double fn_stmt(Pdf *P, const Item *it, double top)
                                sr->iterations, lo, hi, vt, res, ut);
         y -= pdf_wrap(P, FONT_SERIF_ITALIC, 8, 10, x + indent0, y, w - indent0, t) + 1;
     }
+    y -= pdf_warnings(P, r, x + indent0, y, w - indent0);
     /* the published methods the line used: the formula at first use, the
      * reference number in the margin every time */
     for (size_t m = 0; m < r->nmethods; m++)
@@ -738,6 +739,8 @@ void pdf_body_items(Pdf *P, Vec *items)
                     item_add(items, P, pdf_fn_figure, st, P->figure_no[st->index], 10);
                 else if (!st->parse_failed) {
                     item_add(items, P, fn_stmt, st, 0, i == 0 ? 8 : 2);
+                    ((Item *)items->items[items->len - 1])->warnings =
+                        (int)P->ev->results[st->index].nwarnings;
                     if (P->ev->results[st->index].table)
                         pdf_table_items(P, items, st);
                 }

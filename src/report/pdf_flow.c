@@ -357,6 +357,7 @@ static double fn_path_summary(Pdf *P, const Item *it, double top)
         sb_printf(&sb, " Drawn in %s.", figs);
     y -= pdf_wrap_color(P, FONT_SERIF, 8, 10, x, y - 1, W, sb_str(&sb), GREY) + 3;
     sb_free(&sb);
+    y -= pdf_warnings(P, r, x, y, W);
     /* the methods */
     for (size_t m = 0; m < r->nmethods; m++)
         for (size_t j = 0; j < P->ev->nmethods; j++)
@@ -388,6 +389,7 @@ void pdf_path_items(Pdf *P, Vec *items, const Stmt *st)
         it->layout.keep_with_next = k + PATH_CHUNK >= pr->nsegs;
     }
     item_add(items, P, fn_path_summary, st, 0, 3);
+    ((Item *)items->items[items->len - 1])->warnings = (int)P->ev->results[st->index].nwarnings;
 }
 
 /* ---- case tables -------------------------------------------------------------- */

@@ -36,6 +36,7 @@ struct Item {
     int ref;                 /* references: the entry's number, else 0 */
     int rev_mark;            /* revision marks: 0 none, 1 bar and triangle, 2 bar only */
     int scope;               /* a package report: whose item it is (PdfScope index) */
+    int warnings;            /* how many warnings the item shows beside its row */
 };
 
 /* A package report draws items of several calcs. Each calc's state that
@@ -90,6 +91,9 @@ struct Pdf {
     char date[32];           /* the report date, "" when none */
     bool preliminary;        /* status not issued */
     int governing;           /* statement index of the governing check, -1 */
+    size_t nwarnings;        /* warnings shown beside rows, over the whole report */
+    int *warning_sheets;     /* the sheets (1-based) that show them, ascending */
+    int nwarning_sheets;
     /* references: numbers per source and per used method, and where they sit */
     int *source_ref;
     int *method_ref;
@@ -135,7 +139,11 @@ double pdf_wrap_color(Pdf *P, FontRole f, double size, double lead, double x, do
                       double width, const char *s, Rgb color);
 void item_add(Vec *items, Pdf *P, ItemFn fn, const void *p, int aux, double space_before);
 
-extern const Rgb INK, GREY, RULE, FAIL, PASS, SHADE, LINK;
+extern const Rgb INK, GREY, RULE, FAIL, PASS, SHADE, LINK, WARN;
+
+/* Every warning of a row, each on its own lines under it, from `top`;
+ * returns the height used (0 when there are none). */
+double pdf_warnings(Pdf *P, const StmtResult *r, double x, double top, double width);
 
 /* ---- the body (pdf_body.c) ----------------------------------------------- */
 /* Add the items of the document's blocks. */

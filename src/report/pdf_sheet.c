@@ -508,6 +508,32 @@ static double fn_summary_row(Pdf *P, const Item *it, double top)
     return h;
 }
 
+/* The cover's count of warnings and the sheets that show them (known once
+ * the layout is done: measured as two lines, drawn in at most two). */
+static double fn_cover_warnings(Pdf *P, const Item *it, double top)
+{
+    (void)it;
+    if (P->nwarnings == 0)
+        return 0;
+    double lead = 11, W = P->sheet.body_r - P->sheet.body_l;
+    if (!P->page)
+        return 2 * lead + 6;
+    StrBuf sb = {0};
+    sb_printf(&sb, "%zu warning%s, each printed beside its line", P->nwarnings,
+              P->nwarnings == 1 ? "" : "s");
+    enum { LISTED = 16 }; /* two lines hold this many sheet numbers and the rest's count */
+    int listed = P->nwarning_sheets < LISTED ? P->nwarning_sheets : LISTED;
+    for (int i = 0; i < listed; i++)
+        sb_printf(&sb, "%s%d", i == 0 ? (P->nwarning_sheets == 1 ? " — see sheet " : " — see sheets ")
+                                      : ", ", P->warning_sheets[i]);
+    if (P->nwarning_sheets > listed)
+        sb_printf(&sb, " and %d more", P->nwarning_sheets - listed);
+    sb_puts(&sb, ".");
+    pdf_wrap_color(P, FONT_SANS_BOLD, 9, lead, P->sheet.body_l, top - 4, W, sb_str(&sb), WARN);
+    sb_free(&sb);
+    return 2 * lead + 6;
+}
+
 static double fn_summary_none(Pdf *P, const Item *it, double top)
 {
     (void)it;
@@ -635,6 +661,7 @@ void pdf_cover_items(Pdf *P, Vec *items)
             item_add(items, P, fn_summary_row, d->stmts[i], ++no, 0);
     if (no == 0)
         item_add(items, P, fn_summary_none, NULL, 0, 0);
+    item_add(items, P, fn_cover_warnings, NULL, 0, 0);
     pdf_network_cover_items(P, items);
     pdf_cases_cover_items(P, items);
     section(P, items, "Cautions", false, false);

@@ -658,6 +658,13 @@ static void put_inlines_plain(const Evaluated *ev, const Inline *in, StrBuf *out
     }
 }
 
+/* Every warning of a row, beside it. */
+static void put_warnings(const StmtResult *r, StrBuf *out)
+{
+    for (size_t i = 0; i < r->nwarnings; i++)
+        sb_printf(out, "      warning: %s\n", r->warnings[i]);
+}
+
 static void put_blocks(const Evaluated *ev, const Block *b, StrBuf *out)
 {
     for (; b; b = b->next) {
@@ -671,8 +678,11 @@ static void put_blocks(const Evaluated *ev, const Block *b, StrBuf *out)
         case BLK_PATH:
         case BLK_NETWORK:
         case BLK_CURVE:
-            for (size_t i = 0; i < b->nstmts; i++)
-                put_statement(ev, ev->doc->stmts[b->first_stmt + i], out);
+            for (size_t i = 0; i < b->nstmts; i++) {
+                const Stmt *st = ev->doc->stmts[b->first_stmt + i];
+                put_statement(ev, st, out);
+                put_warnings(&ev->results[st->index], out);
+            }
             break;
         case BLK_CASES:
             put_cases(ev, b->first_stmt, out);
@@ -704,6 +714,8 @@ bool render_text(const Evaluated *ev, FILE *out)
     put_blocks(ev, doc->blocks, &sb);
     size_t holds = ev->nchecks - ev->nfailed;
     sb_printf(&sb, "\nchecks: %zu hold, %zu fail\n", holds, ev->nfailed);
+    if (ev->nwarnings)
+        sb_printf(&sb, "warnings: %zu, each beside its line\n", ev->nwarnings);
     bool ok = fwrite(sb.data ? sb.data : "", 1, sb.len, out) == sb.len;
     sb_free(&sb);
     return ok;
