@@ -17,7 +17,7 @@ DEB_PACKAGES := libcmark-gfm-dev libcmark-gfm-extensions-dev libhpdf-dev libyaml
                 libjansson-dev nettle-dev fonts-dejavu-core libcmocka-dev pkg-config \
                 units python3-fluids python3-iapws python3-scipy poppler-utils qpdf \
                 icc-profiles-free python3-pikepdf \
-                clang libclang-rt-14-dev neovim vim zsh fish
+                clang libclang-rt-14-dev neovim vim zsh fish libsuitesparse-dev
 
 PKGS    := libcmark-gfm jansson nettle yaml-0.1
 WARN    := -std=c11 -Wall -Wextra -Wshadow -Wconversion -Wstrict-prototypes \
@@ -25,7 +25,9 @@ WARN    := -std=c11 -Wall -Wextra -Wshadow -Wconversion -Wstrict-prototypes \
 CFLAGS  ?= -O2 -g
 ALL_CFLAGS = $(WARN) $(CFLAGS) -D_POSIX_C_SOURCE=200809L -DHEADROOM_VERSION='"$(VERSION)"' \
              -Iinclude -Isrc $(shell pkg-config --cflags $(PKGS) 2>/dev/null)
-LIBS    = $(shell pkg-config --libs $(PKGS) 2>/dev/null) -lcmark-gfm-extensions -lhpdf -lm
+# CHOLMOD (SuiteSparse) has no pkg-config file in Debian 12: its headers are
+# included as <suitesparse/cholmod.h>, the library linked by name.
+LIBS    = $(shell pkg-config --libs $(PKGS) 2>/dev/null) -lcmark-gfm-extensions -lhpdf -lcholmod -lm
 
 SAN     := -fsanitize=address,undefined -fno-omit-frame-pointer -fno-sanitize-recover=undefined
 

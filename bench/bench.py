@@ -140,6 +140,53 @@ def package_50():
     return index
 
 
+def network_2000():
+    """A looped grid of 40 x 50 = 2,000 junctions fed from two supplies at
+    opposite corners: about 3,900 links, NPS 3 to 8 schedule 40 steel,
+    Darcy-Weisbach with Colebrook. Seeded, so every run solves the same
+    network."""
+    import random
+    rnd = random.Random(2000)
+    rows, cols = 40, 50
+    lines = ["---", "title: bench network", "units: SI", "---", "", "```calc", "w = water(20 degC)"]
+    sizes = ["3", "4", "6", "8"]
+    for s in sizes:
+        lines.append(f'p{s} = pipe("ASME B36.10M", "{s}", "40")')
+    lines += ["```", "", "```network grid", "fluid: w", "",
+              "| node | elevation | demand | head | x | y |", "|---|---|---|---|---|---|",
+              "| R1 | 0 m |  | 80 m | -100 m | 0 m |",
+              f"| R2 | 0 m |  | 75 m | {cols * 100 + 100} m | {(rows - 1) * 100} m |"]
+    for r in range(rows):
+        for c in range(cols):
+            lines.append(f"| J{r}_{c} | {rnd.uniform(0, 15):.2f} m | {rnd.uniform(0.01, 0.12):.3f} L/s |  | "
+                         f"{c * 100} m | {r * 100} m |")
+    lines += ["", "| link | from | to | pipe | length |", "|---|---|---|---|---|",
+              "| S1 | R1 | J0_0 | p8 | 100 m |", f"| S2 | R2 | J{rows - 1}_{cols - 1} | p8 | 100 m |"]
+    k = 0
+    for r in range(rows):
+        for c in range(cols):
+            for dr, dc in ((0, 1), (1, 0)):
+                if r + dr < rows and c + dc < cols:
+                    k += 1
+                    lines.append(f"| L{k} | J{r}_{c} | J{r + dr}_{c + dc} | p{rnd.choice(sizes)} | "
+                                 f"{rnd.uniform(80, 120):.1f} m |")
+    lines += ["```", ""]
+    path = os.path.join(OUT, "network2000.calc.md")
+    with open(path, "w") as f:
+        f.write("\n".join(lines))
+    return path, rows * cols + 2, k + 2
+
+
+def network_iterations(path):
+    import json
+    out = subprocess.run([HEADROOM, "build", path, "--format", "json", "-o", "-"], capture_output=True, text=True)
+    try:
+        f = json.loads(out.stdout)["values"]["grid"]["fields"]
+        return int(f["iterations"]["si"]), f["imbalance"]["si"]
+    except (ValueError, KeyError):
+        return 0, float("nan")
+
+
 def pdf_pages(path):
     try:
         out = subprocess.run(["pdfinfo", path], capture_output=True, text=True).stdout
@@ -156,6 +203,7 @@ def main():
     rows = []
     path, n = calc_5000()
     t, m = run([HEADROOM, "check", path])
+    t_check = t
     rows.append((f"check, {n} statements", f"{t * 1000:.1f} ms", f"{m:.1f} MB", "< 100 ms, < 64 MB"))
     # The same calc as a Python script with pint, python3-fluids, python3-iapws
     # and scipy, in the same run, for the ratio.
@@ -182,6 +230,12 @@ def main():
     t, m = run([HEADROOM, "build", index, "-o", ppdf], repeat=2)
     rows.append((f"build, that package ({pdf_pages(ppdf)} sheets)", f"{t * 1000:.1f} ms", f"{m:.1f} MB",
                  "(figure only)"))
+
+    net, nn, nl = network_2000()
+    tn, mn = run([HEADROOM, "check", net], repeat=3)
+    its, imb = network_iterations(net)
+    rows.append((f"network, {nn} nodes, {nl} links, solved", f"{tn * 1000:.1f} ms", f"{mn:.1f} MB",
+                 f"< 1 s; {its} iterations, imbalance {imb:.1e} m^3/s; {tn / t_check:.1f}x the {n}-statement check"))
 
     out = subprocess.run([os.path.join(OUT, "colebrook")], capture_output=True, text=True).stdout.strip()
     per = [l for l in out.splitlines() if "per solve" in l]

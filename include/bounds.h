@@ -24,6 +24,7 @@ enum {
     MARKDOWN_MAX_DEPTH = 64,            /* nested block quotes, lists and inline emphasis */
     DOC_MAX_STATEMENTS = 100000,        /* statements of a file, all calc blocks and paths */
     PATH_MAX_SEGMENTS = 10000,          /* rows of one path table */
+    NETWORK_MAX_ROWS = 10000,           /* nodes, and links, of one network */
     CURVE_MAX_POINTS = 10000,           /* rows of one curve table */
     CASES_MAX_ROWS = 1000,              /* rows of one cases table */
     CASES_MAX_WORK = 2000000,           /* rows x statements over all cases tables */

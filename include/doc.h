@@ -69,6 +69,7 @@ typedef enum StmtKind {
     STMT_CHECK,  /* check LABEL: A OP B                            */
     STMT_NOTE,   /* a whole-line comment                           */
     STMT_PATH,   /* a ```path NAME block: binds the record NAME    */
+    STMT_NETWORK,/* a ```network NAME block: binds the record NAME */
     STMT_FIGURE, /* figure KIND(args)  # caption                   */
     STMT_CURVE   /* a ```curve NAME block: binds the curve NAME    */
 } StmtKind;
@@ -105,6 +106,40 @@ typedef struct PathSpec {
     size_t nsegs;
 } PathSpec;
 
+/* A ```network NAME block (DESIGN 2.12): options, a node table and a link
+ * table. Ids are text as written; every other cell an expression (optional
+ * cells NULL). */
+typedef struct NetNode {
+    const char *id;          /* as written ("J-1") */
+    const char *field;       /* its record field name ("J_1") */
+    Pos pos;
+    Expr *elevation, *demand, *head, *pressure, *x, *y;
+} NetNode;
+
+typedef struct NetLink {
+    const char *id, *field;
+    Pos pos;
+    const char *from, *to;   /* node ids as written */
+    Pos from_pos, to_pos;
+    int from_node, to_node;  /* indices into NetworkSpec.nodes */
+    Expr *pipe, *length, *K, *C, *device;
+    FittingItem *fittings;
+    size_t nfittings;
+    Pos fittings_pos;
+} NetLink;
+
+typedef struct NetworkSpec {
+    Expr *fluid;             /* a water record */
+    PathLoss loss;
+    const char *friction;    /* friction_factor method, NULL: default */
+    const char *fittings;    /* k_fitting method, NULL: default */
+    Expr *tolerance;         /* a flow; NULL: 1e-9 m^3/s */
+    NetNode *nodes;
+    size_t nnodes;
+    NetLink *links;
+    size_t nlinks;
+    bool has_xy;             /* the node table has x and y columns */
+} NetworkSpec;
 /* A ```curve NAME block (DESIGN 2.10): an interpolate: line and a
  * two-column table, the argument and the value, one point a row. */
 typedef struct CurveSpec {
@@ -146,6 +181,7 @@ typedef struct Stmt {
     Cite *cites;
     size_t ncites;
     PathSpec *path;          /* PATH */
+    NetworkSpec *network;    /* NETWORK */
     CurveSpec *curve;        /* CURVE */
     const char *figure;      /* FIGURE: hgl, moody or pump */
     Expr **args;             /* FIGURE: its arguments */
@@ -197,6 +233,7 @@ typedef enum BlockKind {
     BLK_HTML,
     BLK_CALC,                /* ```calc: statements [first_stmt, first_stmt + nstmts) */
     BLK_PATH,                /* ```path NAME: one statement, first_stmt */
+    BLK_NETWORK,             /* ```network NAME: one statement, first_stmt */
     BLK_CURVE,               /* ```curve NAME: one statement, first_stmt */
     BLK_CASES,               /* ```cases: Document.cases[first_stmt] */
     BLK_SOURCES              /* ```sources */

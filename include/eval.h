@@ -49,6 +49,40 @@ typedef struct PathResult {
     size_t ndevices;
 } PathResult;
 
+/* An evaluated network (DESIGN 2.12), in SI units. */
+typedef enum NetDevice { NET_DEVICE_NONE, NET_DEVICE_CHECK, NET_DEVICE_PUMP, NET_DEVICE_PRV, NET_DEVICE_LOSS } NetDevice;
+
+typedef struct NodeResult {
+    const char *id;
+    bool supply;
+    double z, head, p, demand;   /* demand: the flow leaving (a supply: what it delivers, negative) */
+    double x, y;                 /* when the table has coordinates */
+} NodeResult;
+
+typedef struct LinkResult {
+    const char *id;
+    size_t from, to;             /* node indices */
+    double Q, D, A, L, V, Re, f, K, C;
+    double h_f, h_m;             /* friction and fitting head loss (in the flow direction) */
+    double dp_device;            /* pressure drop across the device (a pump's is negative) */
+    NetDevice device;
+    int state;                   /* GradientLinkState: open, closed, active, wide open */
+} LinkResult;
+
+typedef struct NetworkResult {
+    NodeResult *nodes;
+    size_t nnodes;
+    LinkResult *links;
+    size_t nlinks;
+    double rho;
+    bool darcy, has_xy;
+    double p_min, V_max;
+    size_t p_min_node, V_max_link;
+    int iterations;
+    double tolerance, imbalance, last_change, energy_residual;
+    size_t imbalance_node;
+} NetworkResult;
+
 /* A figure's data, in SI; the renderers convert with x_unit / y_unit. */
 typedef struct Series {
     const char *name;
@@ -98,6 +132,7 @@ typedef struct StmtResult {
     const char *const *warnings; /* what evaluating the row warned of, in order */
     size_t nwarnings;
     const PathResult *path;  /* PATH */
+    const NetworkResult *network; /* NETWORK */
     const ResultTable *table;/* CURVE: its points; DEF: a table a function laid out */
     const FigureData *figure;/* FIGURE */
     const Method *methods[CALL_MAX_METHODS];  /* published methods the line used */

@@ -20,6 +20,11 @@ typedef struct FenceLine {
  * errors, so the name is still known). */
 Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags);
 
+/* A network block named `name` (DESIGN 2.12): options, a node table and a
+ * link table; topology errors (duplicate or unknown ids, a link to itself,
+ * no supply, a node no supply reaches) are found here, at their cells.
+ * Returns a STMT_NETWORK (parse_failed set after errors). */
+Stmt *tables_parse_network(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags);
 /* A curve block named `name`; returns a STMT_CURVE (parse_failed set after
  * errors, so the name is still known). */
 Stmt *tables_parse_curve(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags);

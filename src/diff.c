@@ -213,6 +213,34 @@ static bool path_same(const Diff *d, const PathSpec *a, const PathSpec *b)
     return true;
 }
 
+static bool network_same(const Diff *d, const NetworkSpec *a, const NetworkSpec *b)
+{
+    if (!a || !b)
+        return a == b;
+    if (a->loss != b->loss || !str_same(a->friction, b->friction) || !str_same(a->fittings, b->fittings) ||
+        a->nnodes != b->nnodes || a->nlinks != b->nlinks || !expr_same(d, a->fluid, b->fluid) ||
+        !expr_same(d, a->tolerance, b->tolerance))
+        return false;
+    for (size_t i = 0; i < a->nnodes; i++) {
+        const NetNode *x = &a->nodes[i], *y = &b->nodes[i];
+        if (!str_same(x->id, y->id) || !expr_same(d, x->elevation, y->elevation) || !expr_same(d, x->demand, y->demand) ||
+            !expr_same(d, x->head, y->head) || !expr_same(d, x->pressure, y->pressure) || !expr_same(d, x->x, y->x) ||
+            !expr_same(d, x->y, y->y))
+            return false;
+    }
+    for (size_t i = 0; i < a->nlinks; i++) {
+        const NetLink *x = &a->links[i], *y = &b->links[i];
+        if (!str_same(x->id, y->id) || !str_same(x->from, y->from) || !str_same(x->to, y->to) ||
+            x->nfittings != y->nfittings || !expr_same(d, x->pipe, y->pipe) || !expr_same(d, x->length, y->length) ||
+            !expr_same(d, x->K, y->K) || !expr_same(d, x->C, y->C) || !expr_same(d, x->device, y->device))
+            return false;
+        for (size_t k = 0; k < x->nfittings; k++)
+            if (x->fittings[k].count != y->fittings[k].count || !str_same(x->fittings[k].kind, y->fittings[k].kind))
+                return false;
+    }
+    return true;
+}
+
 /* The formula of a statement (not its name, display unit or comment). */
 static bool stmt_same(const Diff *d, const Stmt *a, const Stmt *b)
 {
@@ -227,6 +255,8 @@ static bool stmt_same(const Diff *d, const Stmt *a, const Stmt *b)
         return a->cmp == b->cmp && expr_same(d, a->lhs, b->lhs) && expr_same(d, a->rhs, b->rhs);
     case STMT_PATH:
         return path_same(d, a->path, b->path);
+    case STMT_NETWORK:
+        return network_same(d, a->network, b->network);
     case STMT_CURVE:
         if (a->curve->loglog != b->curve->loglog || a->curve->npoints != b->curve->npoints)
             return false;
@@ -241,7 +271,8 @@ static bool stmt_same(const Diff *d, const Stmt *a, const Stmt *b)
 
 static bool is_named(const Stmt *s)
 {
-    return (s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH || s->kind == STMT_CURVE) && s->name &&
+    return (s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH || s->kind == STMT_NETWORK ||
+            s->kind == STMT_CURVE) && s->name &&
            !s->parse_failed;
 }
 
@@ -749,7 +780,8 @@ static Section *sections_of(Arena *a, const Document *doc, size_t *count)
             }
             continue;
         }
-        if (b->kind == BLK_PATH || b->kind == BLK_CURVE || b->kind == BLK_CASES || b->kind == BLK_SOURCES || b->kind == BLK_RULE)
+        if (b->kind == BLK_PATH || b->kind == BLK_NETWORK || b->kind == BLK_CURVE || b->kind == BLK_CASES ||
+            b->kind == BLK_SOURCES || b->kind == BLK_RULE)
             continue;
         sb_clear(&sb);
         const Block one = {.kind = b->kind, .inlines = b->inlines, .text = b->text, .children = b->children};

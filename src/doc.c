@@ -349,7 +349,9 @@ static void resolve_statements(Document *doc, DiagList *diags)
      * the later line. A name defined twice keeps its first definition. */
     for (size_t i = 0; i < doc->nstmts; i++) {
         Stmt *s = doc->stmts[i];
-        if ((s->kind != STMT_DEF && s->kind != STMT_SOLVE && s->kind != STMT_PATH && s->kind != STMT_CURVE) || !s->name)
+        if ((s->kind != STMT_DEF && s->kind != STMT_SOLVE && s->kind != STMT_PATH && s->kind != STMT_NETWORK &&
+             s->kind != STMT_CURVE) ||
+            !s->name)
             continue;
         size_t k = names_find(doc->names, s->name);
         if (doc->names->keys[k]) {
@@ -429,6 +431,25 @@ static void resolve_statements(Document *doc, DiagList *diags)
             for (size_t k = 0; k < cs->npoints; k++) {
                 ok = resolve_expr(&r, cs->x[k]) && ok;
                 ok = resolve_expr(&r, cs->y[k]) && ok;
+            }
+        } else if (s->kind == STMT_NETWORK) {
+            NetworkSpec *ns = s->network;
+            ok = resolve_expr(&r, ns->fluid);
+            if (ns->tolerance)
+                ok = resolve_expr(&r, ns->tolerance) && ok;
+            for (size_t k = 0; k < ns->nnodes; k++) {
+                NetNode *nd = &ns->nodes[k];
+                Expr *cells[] = {nd->elevation, nd->demand, nd->head, nd->pressure, nd->x, nd->y};
+                for (size_t c = 0; c < sizeof cells / sizeof cells[0]; c++)
+                    if (cells[c])
+                        ok = resolve_expr(&r, cells[c]) && ok;
+            }
+            for (size_t k = 0; k < ns->nlinks; k++) {
+                NetLink *lk = &ns->links[k];
+                Expr *cells[] = {lk->pipe, lk->length, lk->K, lk->C, lk->device};
+                for (size_t c = 0; c < sizeof cells / sizeof cells[0]; c++)
+                    if (cells[c])
+                        ok = resolve_expr(&r, cells[c]) && ok;
             }
         } else if (s->kind == STMT_FIGURE) {
             for (size_t k = 0; k < s->nargs; k++)
@@ -513,7 +534,10 @@ static void resolve_cases(Document *doc, DiagList *diags)
                     diag_error(diags, ct->input_pos[k], "cases column '%s' is not an input of the calc", ct->inputs[k]);
             } else if (doc->stmts[slot]->kind != STMT_DEF) {
                 diag_error(diags, ct->input_pos[k], "cases column '%s' must name a definition, not a %s", ct->inputs[k],
-                           doc->stmts[slot]->kind == STMT_SOLVE ? "solve" : doc->stmts[slot]->kind == STMT_CURVE ? "curve" : "path");
+                           doc->stmts[slot]->kind == STMT_SOLVE     ? "solve"
+                           : doc->stmts[slot]->kind == STMT_CURVE   ? "curve"
+                           : doc->stmts[slot]->kind == STMT_NETWORK ? "network"
+                                                                    : "path");
                 slot = SLOT_UNRESOLVED;
             }
             for (size_t j = 0; j < k; j++)

@@ -16,6 +16,7 @@
 #include <string.h>
 
 #include "flow.h"
+#include "network.h"
 #include "methods/devices_lib.h"
 #include "numfmt.h"
 #include "uses.h"
@@ -1048,6 +1049,46 @@ static void eval_curve(const Stmt *s, StmtResult *res, Ctx *c)
     res->state = RES_OK;
 }
 
+/* A network: evaluate every cell, then solve it (network.c). */
+static void eval_network(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
+{
+    const NetworkSpec *ns = s->network;
+    Arena *a = &ev->doc->arena;
+    Value fluid, tol = {0};
+    bool ok = eval_expr(c, ns->fluid, &fluid);
+    if (ns->tolerance)
+        ok = eval_expr(c, ns->tolerance, &tol) && ok;
+    NetNodeInput *ni = arena_alloc(a, (ns->nnodes + 1) * sizeof *ni);
+    NetLinkInput *li = arena_alloc(a, (ns->nlinks + 1) * sizeof *li);
+    for (size_t i = 0; i < ns->nnodes; i++) {
+        const NetNode *nd = &ns->nodes[i];
+        Expr *cells[] = {nd->elevation, nd->demand, nd->head, nd->pressure, nd->x, nd->y};
+        Value *vals[] = {&ni[i].elevation, &ni[i].demand, &ni[i].head, &ni[i].pressure, &ni[i].x, &ni[i].y};
+        for (size_t k = 0; k < sizeof cells / sizeof cells[0]; k++)
+            if (cells[k])
+                ok = eval_expr(c, cells[k], vals[k]) && ok;
+    }
+    for (size_t l = 0; l < ns->nlinks; l++) {
+        const NetLink *lk = &ns->links[l];
+        Expr *cells[] = {lk->pipe, lk->length, lk->K, lk->C, lk->device};
+        Value *vals[] = {&li[l].pipe, &li[l].length, &li[l].K, &li[l].C, &li[l].device};
+        for (size_t k = 0; k < sizeof cells / sizeof cells[0]; k++)
+            if (cells[k])
+                ok = eval_expr(c, cells[k], vals[k]) && ok;
+    }
+    if (!ok) {
+        res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
+        return;
+    }
+    const NetworkResult *nr = NULL;
+    if (!network_solve(c->call, s, &fluid, &tol, ni, li, &res->value, &nr)) {
+        res->state = RES_FAILED;
+        return;
+    }
+    res->network = nr;
+    res->state = RES_OK;
+}
+
 static void eval_figure(const Stmt *s, StmtResult *res, Ctx *c)
 {
     Value *args = arena_alloc(&c->doc->arena, (s->nargs + 1) * sizeof *args);
@@ -1118,6 +1159,9 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
         break;
     case STMT_PATH:
         eval_path(ev, s, res, &c);
+        break;
+    case STMT_NETWORK:
+        eval_network(ev, s, res, &c);
         break;
     case STMT_FIGURE:
         eval_figure(s, res, &c);

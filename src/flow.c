@@ -548,6 +548,48 @@ static bool figure_pump(CallCtx *cx, const Stmt *s, const Value *args, FigureDat
     return true;
 }
 
+/* A network drawn from its node coordinates: one two-point series per link
+ * (from -> to) and the critical node (lowest junction pressure) as the
+ * marker. The PDF renderer shades and arrows the links from the network's
+ * own result (pdf_network.c). */
+static bool figure_network(CallCtx *cx, const Stmt *s, const Value *args, FigureData *fd)
+{
+    if (s->nargs != 1) {
+        diag_error(cx->diags, s->name_pos, "figure network takes one network, found %zu arguments", s->nargs);
+        return false;
+    }
+    if (args[0].kind != VAL_RECORD || strcmp(args[0].rec->type, "network") != 0 || !args[0].rec->native) {
+        char got[96];
+        value_describe(&args[0], cx->units, got, sizeof got);
+        diag_error(cx->diags, s->args[0]->pos, "figure network: the argument must be a network, found %s", got);
+        return false;
+    }
+    const NetworkResult *nr = args[0].rec->native;
+    if (!nr->has_xy) {
+        diag_error(cx->diags, s->args[0]->pos,
+                   "figure network draws the nodes where they are: give the node table 'x' and 'y' columns");
+        return false;
+    }
+    fd->x_title = "x";
+    fd->y_title = "y";
+    fd->x_unit = unit_default(DIM_L, TEMP_NONE, cx->units);
+    fd->y_unit = fd->x_unit;
+    fd->series = arena_alloc(cx->arena, (nr->nlinks + 1) * sizeof *fd->series);
+    for (size_t l = 0; l < nr->nlinks; l++) {
+        const LinkResult *g = &nr->links[l];
+        Series *se = add_series(cx, fd, nr->nlinks, g->id, 2, 0);
+        se->x[0] = nr->nodes[g->from].x;
+        se->y[0] = nr->nodes[g->from].y;
+        se->x[1] = nr->nodes[g->to].x;
+        se->y[1] = nr->nodes[g->to].y;
+    }
+    fd->markers = arena_alloc(cx->arena, sizeof *fd->markers);
+    const NodeResult *c = &nr->nodes[nr->p_min_node];
+    fd->markers[0] = (Marker){c->x, c->y, arena_printf(cx->arena, "critical node %s", c->id)};
+    fd->nmarkers = 1;
+    return true;
+}
+
 bool flow_figure(CallCtx *cx, const Stmt *s, const Value *args, FigureData **out)
 {
     FigureData *fd = arena_alloc(cx->arena, sizeof *fd);
@@ -562,8 +604,10 @@ bool flow_figure(CallCtx *cx, const Stmt *s, const Value *args, FigureData **out
         ok = figure_pump(cx, s, args, fd);
     else if (strcmp(s->figure, "curve") == 0)
         ok = figure_curve(cx, s, args, fd);
+    else if (strcmp(s->figure, "network") == 0)
+        ok = figure_network(cx, s, args, fd);
     else {
-        diag_error(cx->diags, s->name_pos, "unknown figure '%s' (hgl, moody, pump or curve)", s->figure);
+        diag_error(cx->diags, s->name_pos, "unknown figure '%s' (hgl, moody, pump, curve or network)", s->figure);
         ok = false;
     }
     *out = ok ? fd : NULL;

@@ -500,6 +500,8 @@ static void hover_name(const Evaluated *ev, const Stmt *s, StrBuf *out)
         sb_free(&rr);
     } else if (s->kind == STMT_PATH) {
         sb_printf(out, "path %s\n", s->name);
+    } else if (s->kind == STMT_NETWORK) {
+        sb_printf(out, "network %s\n", s->name);
     }
     sb_puts(out, "```");
     if (r->state == RES_OK && r->value.kind == VAL_RECORD) {
@@ -642,14 +644,16 @@ static json_t *do_inlay_hints(Server *S, OpenDoc *od, json_t *params)
                 num_sig(r->utilization, 3, u, sizeof u);
             sb_printf(&label, "%s, utilisation %s", fails ? "FAILS" : "holds", u);
             sb_free(&v);
-        } else if (s->kind == STMT_PATH && r->value.kind == VAL_RECORD) {
-            /* the path's outlet pressure, as its record carries it */
+        } else if ((s->kind == STMT_PATH || s->kind == STMT_NETWORK) && r->value.kind == VAL_RECORD) {
+            /* a path's outlet pressure, a network's lowest junction
+             * pressure, as their records carry them */
             const Record *rec = r->value.rec;
+            const char *key = s->kind == STMT_PATH ? "p_end" : "p_min";
             for (size_t f = 0; f < rec->nfields; f++)
-                if (strcmp(rec->fields[f].name, "p_end") == 0) {
+                if (strcmp(rec->fields[f].name, key) == 0) {
                     const Value *fv = &rec->fields[f].value;
                     Unit u = eval_display_unit(ev, fv, NULL);
-                    sb_puts(&label, "p_end = ");
+                    sb_printf(&label, "%s = ", key);
                     render_value_text(ev, fv, &u, &label);
                 }
             if (!label.len)

@@ -353,8 +353,8 @@ static void collect_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
     ll->items[ll->len++] = (FenceLine){s, len, pos};
 }
 
-/* "path NAME", "curve NAME": the name is an identifier, like any defined
- * name. */
+/* "path NAME", "curve NAME", "network NAME": the name is an identifier,
+ * like any defined name; `keyword` is the length of the block's word. */
 static const char *block_name(Md *m, const char *info, size_t keyword, Pos at)
 {
     const char *p = info + keyword;
@@ -371,8 +371,10 @@ static const char *block_name(Md *m, const char *info, size_t keyword, Pos at)
     if (!ok) {
         if (keyword == 4)
             diag_error(m->diags, at, "a path block is opened with ```path NAME, NAME a plain name such as riser_cw2");
-        else
+        else if (keyword == 5)
             diag_error(m->diags, at, "a curve block is opened with ```curve NAME, NAME a plain name such as meter_dp");
+        else
+            diag_error(m->diags, at, "a network block is opened with ```network NAME, NAME a plain name such as cw_main");
         return NULL;
     }
     return arena_strndup(&m->doc->arena, p, n);
@@ -548,8 +550,9 @@ static Block *convert_block(Md *m, cmark_node *n, int depth)
         int fenced = cmark_node_get_fenced(n, &fence_len, &fence_off, &fence_char);
         bool is_path = strncmp(info, "path", 4) == 0 && (info[4] == ' ' || info[4] == '\t' || info[4] == '\0');
         bool is_curve = strncmp(info, "curve", 5) == 0 && (info[5] == ' ' || info[5] == '\t' || info[5] == '\0');
+        bool is_network = strncmp(info, "network", 7) == 0 && (info[7] == ' ' || info[7] == '\t' || info[7] == '\0');
         bool is_cases = strcmp(info, "cases") == 0;
-        if (fenced && (is_path || is_cases || is_curve)) {
+        if (fenced && (is_path || is_cases || is_curve || is_network)) {
             Pos at_fence = at(m, cmark_node_get_start_line(n), cmark_node_get_start_column(n));
             if (!fence_closed(m, n)) {
                 diag_error(m->diags, at_fence, "unterminated ```%s fence: expected a closing ``` line", info);
@@ -566,6 +569,14 @@ static Block *convert_block(Md *m, cmark_node *n, int depth)
                     Arena *ar = &m->doc->arena;
                     vec_push(&m->stmts, is_path ? tables_parse_path(ar, name, at_fence, ll.items, ll.len, m->diags)
                                                 : tables_parse_curve(ar, name, at_fence, ll.items, ll.len, m->diags));
+                }
+            } else if (is_network) {
+                const char *name = block_name(m, info, 7, at_fence);
+                if (name && stmt_room(m, at_fence)) {
+                    b = new_block(m, BLK_NETWORK, n);
+                    b->first_stmt = m->stmts.len;
+                    b->nstmts = 1;
+                    vec_push(&m->stmts, tables_parse_network(&m->doc->arena, name, at_fence, ll.items, ll.len, m->diags));
                 }
             } else {
                 CaseTable *ct = tables_parse_cases(&m->doc->arena, at_fence, ll.items, ll.len, m->diags);

@@ -744,3 +744,485 @@ Stmt *tables_parse_curve(Arena *a, const char *name, Pos at, const FenceLine *li
     st->parse_failed = !ok;
     return st;
 }
+
+/* ---- network blocks (DESIGN 2.12) ---------------------------------------- */
+
+enum { NC_NODE, NC_ELEVATION, NC_DEMAND, NC_HEAD, NC_PRESSURE, NC_X, NC_Y, NODE_NCOLS };
+static const char *const node_columns[NODE_NCOLS] = {"node", "elevation", "demand", "head", "pressure", "x", "y"};
+
+enum { LC_LINK, LC_FROM, LC_TO, LC_PIPE, LC_LENGTH, LC_FITTINGS, LC_K, LC_C, LC_DEVICE, LINK_NCOLS };
+static const char *const link_columns[LINK_NCOLS] = {"link", "from", "to", "pipe", "length", "fittings", "K", "C", "device"};
+static const bool link_required[LINK_NCOLS] = {true, true, true, true, true, false, false, false, false};
+
+/* One pipe table of a network: header, separator, rows up to a blank or
+ * non-table line. Columns are matched against `names`; col_of receives the
+ * cell index of each, or -1. Returns the rows (cells row-major, ncols a
+ * row) and advances *i past the table. */
+typedef struct NetTable {
+    Pos header_pos;
+    size_t ncols, nrows;
+    Cell *cells;
+    Pos *row_pos;
+    int col_of[MAX_COLUMNS];
+} NetTable;
+
+static bool read_net_table(Arena *a, const FenceLine *lines, size_t n, size_t *i, const char *what,
+                           const char *const *names, int nnames, NetTable *t, DiagList *diags)
+{
+    bool ok = true, too_many;
+    Cell header[MAX_COLUMNS];
+    t->header_pos = lines[*i].pos;
+    t->ncols = split_row(&lines[*i], header, MAX_COLUMNS, &too_many);
+    if (too_many) {
+        diag_error(diags, t->header_pos, "a %s table has at most %d columns", what, MAX_COLUMNS);
+        ok = false;
+    }
+    for (int c = 0; c < nnames; c++)
+        t->col_of[c] = -1;
+    for (size_t k = 0; k < t->ncols; k++) {
+        int which = -1;
+        for (int c = 0; c < nnames; c++)
+            if (cell_is(&header[k], names[c]))
+                which = c;
+        if (which < 0) {
+            char list[256] = "";
+            for (int c = 0; c < nnames; c++)
+                snprintf(list + strlen(list), sizeof list - strlen(list), "%s%s", c ? ", " : "", names[c]);
+            diag_error(diags, header[k].pos, "unknown %s column '%.*s' (%s)", what, (int)header[k].len, header[k].text, list);
+            ok = false;
+        } else if (t->col_of[which] >= 0) {
+            diag_error(diags, header[k].pos, "column '%s' appears twice", names[which]);
+            ok = false;
+        } else {
+            t->col_of[which] = (int)k;
+        }
+    }
+    (*i)++;
+    if (*i < n && is_table_line(&lines[*i])) {
+        Cell sep[MAX_COLUMNS];
+        size_t ns = split_row(&lines[*i], sep, MAX_COLUMNS, &too_many);
+        if (is_separator_row(sep, ns))
+            (*i)++;
+        else {
+            diag_error(diags, lines[*i].pos, "expected the table's separator row (|---|---|...) under the header");
+            ok = false;
+        }
+    } else {
+        diag_error(diags, t->header_pos, "expected the table's separator row (|---|---|...) under the header");
+        return false;
+    }
+    size_t start = *i, end = *i;
+    while (end < n && is_table_line(&lines[end]))
+        end++;
+    size_t cap = end - start;
+    if (cap > NETWORK_MAX_ROWS) {
+        diag_error(diags, lines[start + NETWORK_MAX_ROWS].pos, "too many rows: the limit is %d in a %s table",
+                   NETWORK_MAX_ROWS, what);
+        ok = false;
+        cap = NETWORK_MAX_ROWS;
+    }
+    t->cells = arena_alloc(a, (cap * (t->ncols ? t->ncols : 1) + 1) * sizeof *t->cells);
+    t->row_pos = arena_alloc(a, (cap + 1) * sizeof *t->row_pos);
+    Cell cells[MAX_COLUMNS];
+    for (size_t r = start; r < start + cap; r++) {
+        size_t nc = split_row(&lines[r], cells, MAX_COLUMNS, &too_many);
+        if (nc != t->ncols) {
+            report_row_width(diags, &lines[r], cells, nc, header, t->ncols);
+            ok = false;
+            continue;
+        }
+        memcpy(t->cells + t->nrows * t->ncols, cells, nc * sizeof *cells);
+        t->row_pos[t->nrows++] = lines[r].pos;
+    }
+    *i = end;
+    if (t->nrows == 0 && ok) {
+        diag_error(diags, t->header_pos, "the %s table has no rows", what);
+        ok = false;
+    }
+    return ok;
+}
+
+static const Cell *net_cell(const NetTable *t, size_t row, int col)
+{
+    return t->col_of[col] < 0 ? NULL : &t->cells[row * t->ncols + (size_t)t->col_of[col]];
+}
+
+/* An optional expression cell: NULL when absent or empty. */
+static Expr *net_expr(Arena *a, const Cell *c, bool *ok, DiagList *diags)
+{
+    if (!c || cell_empty(c))
+        return NULL;
+    Expr *e = parse_expression_at(a, c->text, c->len, c->pos, diags);
+    if (!e)
+        *ok = false;
+    return e;
+}
+
+/* An id cell: a node or link name as written, no spaces or '|'. */
+static const char *net_id(Arena *a, const Cell *c, const char *what, bool *ok, DiagList *diags)
+{
+    if (cell_empty(c)) {
+        diag_error(diags, c->pos, "a %s needs an id (J1, P-3, tank ...)", what);
+        *ok = false;
+        return NULL;
+    }
+    for (size_t k = 0; k < c->len; k++)
+        if (c->text[k] == ' ' || c->text[k] == '\t' || c->text[k] == '"' || c->text[k] == '.') {
+            diag_error(diags, c->pos, "a %s id is one word of letters, digits, '-' or '_', found '%.*s'", what,
+                       (int)c->len, c->text);
+            *ok = false;
+            return NULL;
+        }
+    return arena_strndup(a, c->text, c->len);
+}
+
+static void parse_network_options(Arena *a, NetworkSpec *ns, const FenceLine *l, bool *ok, DiagList *diags)
+{
+    Cell key, value;
+    size_t lead = 0;
+    while (lead < l->len && (l->text[lead] == ' ' || l->text[lead] == '\t'))
+        lead++;
+    if (!split_option(l, &key, &value)) {
+        Pos p = l->pos;
+        p.col += (int)lead;
+        diag_error(diags, p, "expected an option 'key: value' (fluid, loss, friction, fittings, tolerance) or the node table");
+        *ok = false;
+        return;
+    }
+    if (value.len == 0) {
+        diag_error(diags, value.pos, "option '%.*s' needs a value", (int)key.len, key.text);
+        *ok = false;
+    } else if (cell_is(&key, "fluid")) {
+        ns->fluid = parse_expression_at(a, value.text, value.len, value.pos, diags);
+        *ok = ns->fluid && *ok;
+    } else if (cell_is(&key, "tolerance")) {
+        ns->tolerance = parse_expression_at(a, value.text, value.len, value.pos, diags);
+        *ok = ns->tolerance && *ok;
+    } else if (cell_is(&key, "loss")) {
+        const char *w = word_value(a, &value);
+        if (strcmp(w, "darcy") == 0)
+            ns->loss = LOSS_DARCY;
+        else if (strcmp(w, "hazen_williams") == 0)
+            ns->loss = LOSS_HAZEN_WILLIAMS;
+        else {
+            diag_error(diags, value.pos, "loss must be darcy or hazen_williams, found '%s'", w);
+            *ok = false;
+        }
+    } else if (cell_is(&key, "friction")) {
+        ns->friction = word_value(a, &value);
+        int m = friction_method_lookup(ns->friction);
+        if (m < 0 || m == FRICTION_LAMINAR) {
+            diag_error(diags, value.pos, "friction must be colebrook, swamee_jain, haaland or churchill, found '%s'",
+                       ns->friction);
+            *ok = false;
+        }
+    } else if (cell_is(&key, "fittings")) {
+        ns->fittings = word_value(a, &value);
+        if (fitting_method_parse(ns->fittings) < 0) {
+            diag_error(diags, value.pos, "fittings must be crane, hooper or darby, found '%s'", ns->fittings);
+            *ok = false;
+        }
+    } else {
+        diag_error(diags, key.pos, "unknown network option '%.*s' (fluid, loss, friction, fittings, tolerance)",
+                   (int)key.len, key.text);
+        *ok = false;
+    }
+}
+
+static bool parse_network_nodes(Arena *a, NetworkSpec *ns, const NetTable *t, DiagList *diags)
+{
+    bool ok = true;
+    if (t->col_of[NC_NODE] < 0 || t->col_of[NC_ELEVATION] < 0) {
+        diag_error(diags, t->header_pos, "the node table needs the columns 'node' and 'elevation'");
+        return false;
+    }
+    if (t->col_of[NC_HEAD] < 0 && t->col_of[NC_PRESSURE] < 0) {
+        diag_error(diags, t->header_pos,
+                   "the network has no supply: give a 'head' or 'pressure' column and a supply row (a reservoir, a main)");
+        return false;
+    }
+    if ((t->col_of[NC_X] < 0) != (t->col_of[NC_Y] < 0)) {
+        diag_error(diags, t->header_pos, "node coordinates need both an 'x' and a 'y' column");
+        ok = false;
+    }
+    ns->has_xy = t->col_of[NC_X] >= 0 && t->col_of[NC_Y] >= 0;
+    ns->nodes = arena_alloc(a, (t->nrows + 1) * sizeof *ns->nodes);
+    size_t supplies = 0;
+    for (size_t r = 0; r < t->nrows; r++) {
+        NetNode *nd = &ns->nodes[ns->nnodes];
+        nd->pos = t->row_pos[r];
+        const Cell *idc = net_cell(t, r, NC_NODE);
+        nd->id = net_id(a, idc, "node", &ok, diags);
+        if (nd->id) {
+            nd->pos = idc->pos;
+            nd->field = field_name(a, nd->id);
+            for (size_t k = 0; k < ns->nnodes; k++)
+                if (strcmp(ns->nodes[k].field, nd->field) == 0) {
+                    diag_error(diags, idc->pos, "node '%s' is already in this network at line %d", nd->id,
+                               ns->nodes[k].pos.line);
+                    ok = false;
+                    nd->id = NULL;
+                    break;
+                }
+        }
+        const Cell *el = net_cell(t, r, NC_ELEVATION);
+        if (cell_empty(el)) {
+            diag_error(diags, el->pos, "the 'elevation' cell is empty");
+            ok = false;
+        }
+        nd->elevation = net_expr(a, el, &ok, diags);
+        nd->demand = net_expr(a, net_cell(t, r, NC_DEMAND), &ok, diags);
+        nd->head = net_expr(a, net_cell(t, r, NC_HEAD), &ok, diags);
+        nd->pressure = net_expr(a, net_cell(t, r, NC_PRESSURE), &ok, diags);
+        if (ns->has_xy) {
+            const Cell *xc = net_cell(t, r, NC_X), *yc = net_cell(t, r, NC_Y);
+            nd->x = net_expr(a, xc, &ok, diags);
+            nd->y = net_expr(a, yc, &ok, diags);
+            if (!nd->x || !nd->y) {
+                diag_error(diags, (nd->x ? yc : xc)->pos, "every node needs both coordinates when the table has x and y");
+                ok = false;
+            }
+        }
+        if (nd->head && nd->pressure) {
+            diag_error(diags, nd->pressure->pos, "a supply gives its 'head' or its 'pressure', not both");
+            ok = false;
+        }
+        bool supply = nd->head || nd->pressure;
+        if (supply && nd->demand) {
+            diag_error(diags, nd->demand->pos,
+                       "node '%s' is a supply (it has a head or pressure): leave its 'demand' cell empty",
+                       nd->id ? nd->id : "?");
+            ok = false;
+        }
+        supplies += supply;
+        if (nd->id)
+            ns->nnodes++;
+    }
+    if (supplies == 0 && ok) {
+        diag_error(diags, t->header_pos, "the network has no supply: no node gives a 'head' or a 'pressure'");
+        ok = false;
+    }
+    return ok;
+}
+
+static int find_node(const NetworkSpec *ns, const char *id)
+{
+    for (size_t k = 0; k < ns->nnodes; k++)
+        if (strcmp(ns->nodes[k].id, id) == 0)
+            return (int)k;
+    return -1;
+}
+
+static bool parse_network_links(Arena *a, NetworkSpec *ns, const NetTable *t, DiagList *diags)
+{
+    bool ok = true;
+    for (int c = 0; c < LINK_NCOLS; c++)
+        if (link_required[c] && t->col_of[c] < 0) {
+            diag_error(diags, t->header_pos, "the link table is missing the '%s' column", link_columns[c]);
+            return false;
+        }
+    if (ns->loss == LOSS_HAZEN_WILLIAMS && t->col_of[LC_C] < 0) {
+        diag_error(diags, t->header_pos, "loss: hazen_williams needs a 'C' column (the Hazen-Williams coefficient)");
+        return false;
+    }
+    /* Node ids are found by a sorted index when the network is large. */
+    ns->links = arena_alloc(a, (t->nrows + 1) * sizeof *ns->links);
+    for (size_t r = 0; r < t->nrows; r++) {
+        NetLink *lk = &ns->links[ns->nlinks];
+        const Cell *idc = net_cell(t, r, LC_LINK);
+        lk->pos = t->row_pos[r];
+        lk->id = net_id(a, idc, "link", &ok, diags);
+        bool row_ok = lk->id != NULL;
+        if (lk->id) {
+            lk->pos = idc->pos;
+            lk->field = field_name(a, lk->id);
+        }
+        const Cell *fc = net_cell(t, r, LC_FROM), *tc = net_cell(t, r, LC_TO);
+        lk->from = net_id(a, fc, "link's 'from' node", &row_ok, diags);
+        lk->to = net_id(a, tc, "link's 'to' node", &row_ok, diags);
+        lk->from_pos = fc->pos;
+        lk->to_pos = tc->pos;
+        lk->from_node = lk->from ? find_node(ns, lk->from) : -1;
+        lk->to_node = lk->to ? find_node(ns, lk->to) : -1;
+        if (lk->from && lk->from_node < 0) {
+            diag_error(diags, fc->pos, "link '%s' starts at unknown node '%s' (not in the node table)",
+                       lk->id ? lk->id : "?", lk->from);
+            row_ok = false;
+        }
+        if (lk->to && lk->to_node < 0) {
+            diag_error(diags, tc->pos, "link '%s' ends at unknown node '%s' (not in the node table)",
+                       lk->id ? lk->id : "?", lk->to);
+            row_ok = false;
+        }
+        if (lk->from_node >= 0 && lk->from_node == lk->to_node) {
+            diag_error(diags, tc->pos, "link '%s' runs from node '%s' to itself", lk->id ? lk->id : "?", lk->to);
+            row_ok = false;
+        }
+        const Cell *pc = net_cell(t, r, LC_PIPE), *lc = net_cell(t, r, LC_LENGTH);
+        if (cell_empty(pc) || cell_empty(lc)) {
+            diag_error(diags, (cell_empty(pc) ? pc : lc)->pos, "the '%s' cell is empty", cell_empty(pc) ? "pipe" : "length");
+            row_ok = false;
+        }
+        lk->pipe = net_expr(a, pc, &row_ok, diags);
+        lk->length = net_expr(a, lc, &row_ok, diags);
+        lk->K = net_expr(a, net_cell(t, r, LC_K), &row_ok, diags);
+        const Cell *cc = net_cell(t, r, LC_C);
+        lk->C = net_expr(a, cc, &row_ok, diags);
+        if (ns->loss == LOSS_HAZEN_WILLIAMS && cc && cell_empty(cc)) {
+            diag_error(diags, cc->pos, "the 'C' cell is empty");
+            row_ok = false;
+        }
+        lk->device = net_expr(a, net_cell(t, r, LC_DEVICE), &row_ok, diags);
+        const Cell *fit = net_cell(t, r, LC_FITTINGS);
+        if (fit) {
+            PathSegment tmp = {0};
+            row_ok = parse_fittings(a, fit, &tmp, diags) && row_ok;
+            lk->fittings = tmp.fittings;
+            lk->nfittings = tmp.nfittings;
+            lk->fittings_pos = fit->pos;
+        }
+        if (lk->field)
+            for (size_t k = 0; k < ns->nlinks; k++)
+                if (strcmp(ns->links[k].field, lk->field) == 0) {
+                    diag_error(diags, lk->pos, "link '%s' is already in this network at line %d", lk->id,
+                               ns->links[k].pos.line);
+                    row_ok = false;
+                    break;
+                }
+        if (lk->field)
+            for (size_t k = 0; k < ns->nnodes; k++)
+                if (strcmp(ns->nodes[k].field, lk->field) == 0) {
+                    diag_error(diags, lk->pos, "'%s' names both a node (line %d) and a link; ids are shared", lk->id,
+                               ns->nodes[k].pos.line);
+                    row_ok = false;
+                    break;
+                }
+        ok = ok && row_ok;
+        if (lk->id)
+            ns->nlinks++;
+    }
+    return ok;
+}
+
+/* Every node must be joined to a supply: a breadth-first walk from the
+ * supplies over the links (either direction); the first node left out is
+ * reported at its row. */
+static bool check_network_reach(Arena *a, const NetworkSpec *ns, DiagList *diags)
+{
+    size_t nn = ns->nnodes;
+    size_t *start = arena_alloc(a, (nn + 2) * sizeof *start);
+    size_t *adj = arena_alloc(a, (2 * ns->nlinks + 1) * sizeof *adj);
+    size_t *fill = arena_alloc(a, (nn + 1) * sizeof *fill);
+    size_t *queue = arena_alloc(a, (nn + 1) * sizeof *queue);
+    bool *seen = arena_alloc(a, (nn + 1) * sizeof *seen);
+    for (size_t l = 0; l < ns->nlinks; l++) {
+        start[ns->links[l].from_node + 1]++;
+        start[ns->links[l].to_node + 1]++;
+    }
+    for (size_t i = 0; i < nn; i++)
+        start[i + 1] += start[i];
+    for (size_t l = 0; l < ns->nlinks; l++) {
+        size_t f = (size_t)ns->links[l].from_node, t = (size_t)ns->links[l].to_node;
+        adj[start[f] + fill[f]++] = t;
+        adj[start[t] + fill[t]++] = f;
+    }
+    size_t head = 0, tail = 0;
+    for (size_t i = 0; i < nn; i++)
+        if (ns->nodes[i].head || ns->nodes[i].pressure) {
+            seen[i] = true;
+            queue[tail++] = i;
+        }
+    while (head < tail) {
+        size_t i = queue[head++];
+        for (size_t k = start[i]; k < start[i + 1]; k++)
+            if (!seen[adj[k]]) {
+                seen[adj[k]] = true;
+                queue[tail++] = adj[k];
+            }
+    }
+    for (size_t i = 0; i < nn; i++)
+        if (!seen[i]) {
+            diag_error(diags, ns->nodes[i].pos, "no supply reaches node '%s': no chain of links joins it to a node with a head or pressure",
+                       ns->nodes[i].id);
+            return false;
+        }
+    return true;
+}
+
+Stmt *tables_parse_network(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags)
+{
+    Stmt *st = arena_alloc(a, sizeof *st);
+    st->kind = STMT_NETWORK;
+    st->pos = at;
+    st->name = name;
+    st->name_pos = at;
+    st->var_slot = SLOT_UNRESOLVED;
+    st->line = arena_printf(a, "network %s", name);
+    NetworkSpec *ns = arena_alloc(a, sizeof *ns);
+    st->network = ns;
+    bool ok = true;
+    size_t i = 0;
+    for (; i < n && !is_table_line(&lines[i]); i++) {
+        const FenceLine *l = &lines[i];
+        size_t lead = 0;
+        while (lead < l->len && (l->text[lead] == ' ' || l->text[lead] == '\t'))
+            lead++;
+        if (is_blank(l) || (lead < l->len && l->text[lead] == '#'))
+            continue;
+        parse_network_options(a, ns, l, &ok, diags);
+    }
+    if (!ns->fluid && ok) {
+        diag_error(diags, at, "network '%s' needs 'fluid: ...' (a water record, e.g. water(60 degF))", name);
+        ok = false;
+    }
+    NetTable nodes = {0}, links = {0};
+    bool have_nodes = false, have_links = false;
+    while (i < n) {
+        const FenceLine *l = &lines[i];
+        if (is_blank(l)) {
+            i++;
+            continue;
+        }
+        if (!is_table_line(l)) {
+            diag_error(diags, l->pos, "expected the node table, a blank line, then the link table");
+            ok = false;
+            i++;
+            continue;
+        }
+        Cell first[MAX_COLUMNS];
+        bool too_many;
+        size_t nc = split_row(l, first, MAX_COLUMNS, &too_many);
+        bool is_link = nc > 0 && cell_is(&first[0], "link");
+        if (!have_nodes && !is_link) {
+            ok = read_net_table(a, lines, n, &i, "node", node_columns, NODE_NCOLS, &nodes, diags) && ok;
+            have_nodes = true;
+        } else if (!have_links && is_link) {
+            ok = read_net_table(a, lines, n, &i, "link", link_columns, LINK_NCOLS, &links, diags) && ok;
+            have_links = true;
+        } else {
+            diag_error(diags, l->pos, "a network block holds one node table (| node | ...) and one link table (| link | ...)");
+            ok = false;
+            while (i < n && is_table_line(&lines[i]))
+                i++;
+        }
+    }
+    if (!have_nodes) {
+        diag_error(diags, at, "network '%s' has no node table (| node | elevation | demand | head |)", name);
+        st->parse_failed = true;
+        return st;
+    }
+    if (!have_links) {
+        diag_error(diags, at, "network '%s' has no link table (| link | from | to | pipe | length |), after a blank line", name);
+        st->parse_failed = true;
+        return st;
+    }
+    if (!ok) {
+        st->parse_failed = true;
+        return st;
+    }
+    ok = parse_network_nodes(a, ns, &nodes, diags);
+    ok = ok && parse_network_links(a, ns, &links, diags);
+    ok = ok && check_network_reach(a, ns, diags);
+    st->parse_failed = !ok;
+    return st;
+}

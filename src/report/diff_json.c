@@ -106,6 +106,7 @@ static const char *stmt_kind(const Stmt *s)
     case STMT_CHECK: return "check";
     case STMT_SOLVE: return "solve";
     case STMT_PATH: return "path";
+    case STMT_NETWORK: return "network";
     case STMT_CURVE: return "curve";
     default: return "value";
     }

@@ -197,6 +197,10 @@ static void stmt_text(const Evaluated *ev, const Stmt *s, StrBuf *out)
     case STMT_PATH:
         sb_printf(out, "path %s (%zu segments)", s->name, s->path ? s->path->nsegs : (size_t)0);
         break;
+    case STMT_NETWORK:
+        sb_printf(out, "network %s (%zu nodes, %zu links)", s->name, s->network ? s->network->nnodes : (size_t)0,
+                  s->network ? s->network->nlinks : (size_t)0);
+        break;
     case STMT_CURVE:
         sb_printf(out, "curve %s (%zu points)", s->name, s->curve ? s->curve->npoints : (size_t)0);
         break;

@@ -293,7 +293,9 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
                 json_array_append_new(figures, figure_json(s, r->figure));
             continue;
         }
-        if ((s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH || s->kind == STMT_CURVE) && s->name) {
+        if ((s->kind == STMT_DEF || s->kind == STMT_SOLVE || s->kind == STMT_PATH || s->kind == STMT_NETWORK ||
+             s->kind == STMT_CURVE) &&
+            s->name) {
             json_t *v;
             if (r->state == RES_OK) {
                 v = value_json(ev, &r->value, &r->shown);
@@ -307,6 +309,31 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
                 for (size_t k = 0; k < s->path->nsegs; k++)
                     json_array_append_new(order, json_string(s->path->segs[k].field));
                 json_object_set_new(v, "segments", order);
+            }
+            if (s->kind == STMT_NETWORK && r->state == RES_OK && r->network) {
+                const NetworkResult *nr = r->network;
+                json_t *nodes = json_array(), *links = json_array();
+                for (size_t k = 0; k < s->network->nnodes; k++)
+                    json_array_append_new(nodes, json_string(s->network->nodes[k].field));
+                for (size_t k = 0; k < s->network->nlinks; k++) {
+                    json_t *lk = json_object();
+                    const LinkResult *g = &nr->links[k];
+                    json_object_set_new(lk, "field", json_string(s->network->links[k].field));
+                    json_object_set_new(lk, "from", json_string(nr->nodes[g->from].id));
+                    json_object_set_new(lk, "to", json_string(nr->nodes[g->to].id));
+                    json_array_append_new(links, lk);
+                }
+                json_object_set_new(v, "nodes", nodes);
+                json_object_set_new(v, "links", links);
+                json_t *conv = json_object();
+                json_object_set_new(conv, "method", json_string("global gradient algorithm (Todini and Pilati 1988)"));
+                json_object_set_new(conv, "iterations", json_integer(nr->iterations));
+                json_object_set_new(conv, "imbalance_m3_s", real_or_null(nr->imbalance));
+                json_object_set_new(conv, "imbalance_at", json_string(nr->nodes[nr->imbalance_node].id));
+                json_object_set_new(conv, "tolerance_m3_s", real_or_null(nr->tolerance));
+                json_object_set_new(conv, "last_change_m3_s", real_or_null(nr->last_change));
+                json_object_set_new(conv, "energy_residual_m", real_or_null(nr->energy_residual));
+                json_object_set_new(v, "convergence", conv);
             }
             if (r->state == RES_OK && r->table)
                 json_object_set_new(v, "table", table_json(ev, r->table));

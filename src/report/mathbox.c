@@ -802,6 +802,7 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row
     }
     case STMT_NOTE:
     case STMT_PATH:   /* a path's segment table is typeset by the renderer, not as a row */
+    case STMT_NETWORK:
     case STMT_CURVE:  /* so is a curve's table */
     case STMT_FIGURE:
         break;

@@ -450,6 +450,7 @@ static double render_block(Pdf *P, const Block *b, double x, double top, double 
     case BLK_CALC:
     case BLK_SOURCES:
     case BLK_PATH:
+    case BLK_NETWORK:
     case BLK_CURVE:
     case BLK_CASES:
         return 0;
@@ -748,6 +749,10 @@ void pdf_body_items(Pdf *P, Vec *items)
         case BLK_PATH:
             if (b->first_stmt < d->nstmts && !d->stmts[b->first_stmt]->parse_failed)
                 pdf_path_items(P, items, d->stmts[b->first_stmt]);
+            break;
+        case BLK_NETWORK:
+            if (b->first_stmt < d->nstmts && !d->stmts[b->first_stmt]->parse_failed)
+                pdf_network_items(P, items, d->stmts[b->first_stmt]);
             break;
         case BLK_CURVE:
             if (b->first_stmt < d->nstmts && !d->stmts[b->first_stmt]->parse_failed)

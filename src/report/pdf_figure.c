@@ -531,6 +531,8 @@ static const char *default_caption(const Pdf *P, const Stmt *st)
         return "Darcy friction factor against Reynolds number";
     if (strcmp(st->figure, "pump") == 0)
         return arena_printf(a, "Pump curve of %s and system curve", arg);
+    if (strcmp(st->figure, "network") == 0)
+        return arena_printf(a, "Network %s: links shaded by velocity, arrows in the direction of flow", arg);
     if (strcmp(st->figure, "curve") == 0)
         return arena_printf(a, "Curve %s with its table points", arg);
     return st->figure;
@@ -544,6 +546,10 @@ double pdf_fn_figure(Pdf *P, const Item *it, double top)
     const Sheet *s = &P->sheet;
     double x0 = s->body_l, W = s->body_r - s->body_l - s->margin_w;
     figure_margin(P, st, it->aux, top);
+    if (fd && strcmp(fd->kind, "network") == 0 && st->nargs == 1 && st->args[0]->kind == EXPR_NAME &&
+        st->args[0]->slot >= 0 && P->ev->results[st->args[0]->slot].network)
+        return pdf_network_figure(P, st, P->ev->results[st->args[0]->slot].network, it->aux,
+                                  default_caption(P, st), top);
     Axis ax = {0}, ay = {0};
     if (!fd || !figure_axes(fd, &ax, &ay)) {
         char *t = arena_printf(&P->arena, "Figure %d — %s: no data to draw.", it->aux,

@@ -173,6 +173,17 @@ double pdf_fn_figure(Pdf *P, const Item *it, double top);
 /* ---- path and case tables (pdf_flow.c) ------------------------------------ */
 /* The items of a path block: its heading, the segment table, the summary. */
 void pdf_path_items(Pdf *P, Vec *items, const Stmt *st);
+/* The items of a network block (pdf_network.c): heading, node and link
+ * tables, the convergence record and methods. */
+void pdf_network_items(Pdf *P, Vec *items, const Stmt *st);
+/* The figure of a network drawn from its node coordinates: links shaded by
+ * velocity with arrows in the direction of flow, the critical node marked;
+ * returns its height. */
+double pdf_network_figure(Pdf *P, const Stmt *st, const NetworkResult *nr, int number, const char *default_caption,
+                          double top);
+/* Each network's critical node and the checks that read its p_min, for the
+ * cover. */
+void pdf_network_cover_items(Pdf *P, Vec *items);
 /* The items of a cases block: a table of inputs, results and verdicts. */
 void pdf_cases_items(Pdf *P, Vec *items, size_t which);
 /* pdf_table.c: a statement's laid-out table (ResultTable), a curve block */

@@ -662,6 +662,7 @@ void pdf_cover_items(Pdf *P, Vec *items)
     if (no == 0)
         item_add(items, P, fn_summary_none, NULL, 0, 0);
     item_add(items, P, fn_cover_warnings, NULL, 0, 0);
+    pdf_network_cover_items(P, items);
     pdf_cases_cover_items(P, items);
     section(P, items, "Cautions", false, false);
     caution_items(P, items, true);

@@ -274,6 +274,89 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
         sb_printf(out, "      method: %s\n", r->methods[k]->title);
 }
 
+/* A network: its node table, its link table and the convergence record,
+ * in display units. */
+static void put_network(const Evaluated *ev, const Stmt *s, const StmtResult *r, StrBuf *out)
+{
+    sb_printf(out, "network %s", s->name);
+    if (r->state != RES_OK || !r->network) {
+        sb_puts(out, " = (not evaluated)\n");
+        return;
+    }
+    const NetworkResult *nr = r->network;
+    UnitSystem us = ev->units;
+    Unit uQ = unit_default(DIM_FLOW, TEMP_NONE, us), uL = unit_default(DIM_L, TEMP_NONE, us);
+    Unit uV = unit_default(DIM_VELOCITY, TEMP_NONE, us), uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
+    Unit uD, one = unit_default(DIM_NONE, TEMP_NONE, us);
+    size_t bo, bl;
+    unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
+    sb_printf(out, ": %zu nodes, %zu links, %s loss, global gradient algorithm (Todini and Pilati 1988)\n",
+              nr->nnodes, nr->nlinks, nr->darcy ? "Darcy-Weisbach" : "Hazen-Williams");
+    sb_printf(out, "  %-10s %10s %10s %10s %10s\n", "node", "elevation", "demand", "head", "p");
+    sb_printf(out, "  %-10s %10s %10s %10s %10s\n", "", uL.text, uQ.text, uL.text, uP.text);
+    for (size_t i = 0; i < nr->nnodes; i++) {
+        const NodeResult *n = &nr->nodes[i];
+        sb_printf(out, "  %-10s", n->id);
+        put_cell(ev, n->z, &uL, true, out);
+        put_cell(ev, n->demand, &uQ, true, out);
+        put_cell(ev, n->head, &uL, true, out);
+        put_cell(ev, n->p, &uP, true, out);
+        sb_puts(out, n->supply ? "  supply\n" : i == nr->p_min_node ? "  lowest pressure\n" : "\n");
+    }
+    static const char *const states[] = {"", "closed", "regulating", "wide open"};
+    sb_printf(out, "  %-10s %-8s %-8s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "link", "from", "to", "Q", "D",
+              "L", "V", "Re", "f", "K", "h_f", "h_m", "dp_device");
+    sb_printf(out, "  %-10s %-8s %-8s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "", "", "", uQ.text, uD.text,
+              uL.text, uV.text, "", "", "", uL.text, uL.text, uP.text);
+    for (size_t l = 0; l < nr->nlinks; l++) {
+        const LinkResult *g = &nr->links[l];
+        sb_printf(out, "  %-10s %-8s %-8s", g->id, nr->nodes[g->from].id, nr->nodes[g->to].id);
+        put_cell(ev, g->Q, &uQ, true, out);
+        put_cell(ev, g->D, &uD, true, out);
+        put_cell(ev, g->L, &uL, true, out);
+        put_cell(ev, g->V, &uV, true, out);
+        put_cell(ev, g->Re, &one, true, out);
+        if (isnan(g->f))
+            sb_printf(out, " %10s", "-");
+        else
+            put_cell(ev, g->f, &one, true, out);
+        put_cell(ev, g->K, &one, true, out);
+        put_cell(ev, g->h_f, &uL, true, out);
+        put_cell(ev, g->h_m, &uL, true, out);
+        put_cell(ev, g->dp_device, &uP, true, out);
+        const char *dev = g->device == NET_DEVICE_CHECK ? "check valve"
+                          : g->device == NET_DEVICE_PUMP ? "pump"
+                          : g->device == NET_DEVICE_PRV  ? "PRV"
+                          : g->device == NET_DEVICE_LOSS ? "valve"
+                                                         : "";
+        if (dev[0])
+            sb_printf(out, "  %s%s%s", dev, states[g->state][0] ? " " : "", states[g->state]);
+        sb_putc(out, '\n');
+    }
+    const Record *rec = r->value.rec;
+    static const char *const summary[] = {"p_min", "p_min_at", "V_max", "V_max_at", "iterations", "imbalance", "tolerance"};
+    for (size_t k = 0; k < sizeof summary / sizeof summary[0]; k++) {
+        const Value *v = record_get(rec, summary[k]);
+        if (!v)
+            continue;
+        sb_printf(out, "  %s.%s = ", s->name, summary[k]);
+        if (strcmp(summary[k], "iterations") == 0) {
+            sb_printf(out, "%d\n", nr->iterations); /* a count, not a measured number */
+            continue;
+        }
+        Unit u = v->kind == VAL_NUMBER ? eval_display_unit(ev, v, NULL) : (Unit){0};
+        render_value_text(ev, v, &u, out);
+        sb_putc(out, '\n');
+    }
+    sb_printf(out, "  convergence: %d iterations, largest continuity error at node %s, largest energy residual ",
+              nr->iterations, nr->nodes[nr->imbalance_node].id);
+    Value er = value_number(qty(nr->energy_residual, DIM_L));
+    render_value_text(ev, &er, &uL, out);
+    sb_putc(out, '\n');
+    for (size_t k = 0; k < r->nmethods; k++)
+        sb_printf(out, "      method: %s\n", r->methods[k]->title);
+}
+
 /* A table a statement laid out (a curve's points, select_pipe's
  * candidates): a heading line, the column heads and units, a row a line. */
 static void put_table(const Evaluated *ev, const ResultTable *t, StrBuf *out)
@@ -406,6 +489,9 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
     switch (s->kind) {
     case STMT_PATH:
         put_path(ev, s, r, out);
+        return;
+    case STMT_NETWORK:
+        put_network(ev, s, r, out);
         return;
     case STMT_CURVE:
         put_curve(ev, s, r, out);
@@ -590,6 +676,7 @@ static void put_blocks(const Evaluated *ev, const Block *b, StrBuf *out)
             break;
         case BLK_CALC:
         case BLK_PATH:
+        case BLK_NETWORK:
         case BLK_CURVE:
             for (size_t i = 0; i < b->nstmts; i++) {
                 const Stmt *st = ev->doc->stmts[b->first_stmt + i];
