@@ -37,7 +37,9 @@ typedef struct CallArgs {
     const char *name;
 } CallArgs;
 
-#define CALL_MAX_METHODS 8
+/* Methods one statement can cite: a path cites its friction and fitting
+ * methods and one load table row per fixture kind of its fixtures column. */
+#define CALL_MAX_METHODS 24
 
 /* A table a statement lays out for the report: a curve's points,
  * select_pipe's candidate sizes. Cells are numbers (shown in their column's
