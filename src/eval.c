@@ -1181,10 +1181,7 @@ void eval_recompute(Evaluated *ev, const int *changed, size_t nchanged, size_t u
         free(dirty);
 }
 
-/* Gather the document's methods in order of first use. A method built per
- * call (a table row's citation) is the same method as an earlier one with
- * its key: the statement is pointed at the first, so it is cited once. */
-static void note_methods(Evaluated *ev, StmtResult *r, Vec *all)
+static void note_methods(Evaluated *ev, const StmtResult *r, Vec *all)
 {
     for (size_t k = 0; k < r->nmethods; k++) {
         bool seen = false;

@@ -77,8 +77,10 @@ static const Method *load_method(CallCtx *cx, const PlumbingCode *c, const Fixtu
                             r->kind, r->occupancy, r->control, cold, hot, r->total);
     m->formula = NULL;
     m->validity = "the load of one fixture; loads add, demands do not";
-    m->reference = arena_printf(cx->arena, "%s, %s, row \"%s\", %s, %s", c->name, c->load_table,
-                                r->kind, r->occupancy, r->control);
+    m->reference = arena_printf(cx->arena,
+                                "%s, %s, row \"%s\", %s, %s (checked row by row against a published "
+                                "copy of that table)",
+                                c->name, c->load_table, r->kind, r->occupancy, r->control);
     return m;
 }
 
