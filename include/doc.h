@@ -91,7 +91,13 @@ typedef struct PathSegment {
     const char *device_text; /* its cell as written */
     FittingItem *fittings;
     size_t nfittings;
+    FittingItem *fixtures;   /* the fixtures cell (DESIGN 2.11): "12 lavatory private, 2 bidet",
+                                each a count and the fixture's words, taken off at the outlet */
+    size_t nfixtures;
 } PathSegment;
+
+/* The `demand:` option of a path: how a segment's fixture load becomes its flow. */
+typedef enum PathDemand { PATH_DEMAND_NONE, PATH_DEMAND_HUNTER, PATH_DEMAND_PEAK } PathDemand;
 
 typedef enum PathLoss { LOSS_DARCY, LOSS_HAZEN_WILLIAMS } PathLoss;
 
@@ -102,6 +108,10 @@ typedef struct PathSpec {
     PathLoss loss;
     const char *friction;    /* friction_factor method, NULL: default */
     const char *fittings;    /* k_fitting method, NULL: default */
+    PathDemand demand;       /* `demand:` hunter("flush tank"|"flush valve") or peak_demand */
+    const char *demand_system; /* hunter's system, "flush tank" or "flush valve" */
+    Pos demand_pos;
+    bool has_fixtures;       /* the table has a fixtures column */
     PathSegment *segs;
     size_t nsegs;
 } PathSpec;

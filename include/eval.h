@@ -36,6 +36,10 @@ typedef struct SegmentResult {
     double p_in, p_out;      /* p_out: after the device, if any */
     double x_in, x_out;      /* distance along the path */
     double z_in, z_out;      /* elevation */
+    bool has_load;           /* the path has a fixtures column: */
+    double load;             /* wsfu of every fixture downstream of the inlet */
+    const double *fixture_each; /* wsfu of one fixture per item of the fixtures cell */
+    const double *fixture_total; /* and of the item's count of them */
 } SegmentResult;
 
 typedef struct PathResult {

@@ -13,6 +13,10 @@
 typedef struct SegmentInput {
     Value flow, pipe, length, rise, K, C, device;
     bool has_K, has_C, has_device;
+    bool has_load;           /* the path has a fixtures column */
+    double load;             /* wsfu of every fixture downstream of the inlet */
+    double *fixture_each;    /* wsfu of one fixture of each item of the segment's fixtures cell */
+    double *fixture_total;   /* and of the item's count of them */
 } SegmentInput;
 
 /* Compute the path; on success *out is the path record (its native data

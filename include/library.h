@@ -37,7 +37,9 @@ typedef struct CallArgs {
     const char *name;
 } CallArgs;
 
-#define CALL_MAX_METHODS 8
+/* Methods one statement can cite: a path cites its friction and fitting
+ * methods and one load table row per fixture kind of its fixtures column. */
+#define CALL_MAX_METHODS 24
 
 /* A table a statement lays out for the report: a curve's points,
  * select_pipe's candidate sizes. Cells are numbers (shown in their column's
@@ -99,5 +101,16 @@ bool kw_check(CallCtx *cx, const CallArgs *a, const char *const *allowed);
 void dim_describe(Dim d, TempKind temp, UnitSystem sys, char *buf, size_t n);
 /* The same for a value: "a string", "a pipe record", or dim_describe. */
 void value_describe(const Value *v, UnitSystem sys, char *buf, size_t n);
+
+/* Fixture demand for path tables (src/methods/demand_lib.c, DESIGN 2.11).
+ * The total load in wsfu of one fixture of a fixtures cell item ("lavatory
+ * public": the kind, then an optional private or public), from the code's
+ * table, the row cited; and the peak demand of a total load by the code's
+ * demand table for `system` ("flush tank" or "flush valve"). Both report
+ * their errors at `at` as wsfu() and hunter() do and return false. */
+bool demand_item_load(CallCtx *cx, const char *words, Pos at, double *wsfu_each);
+bool demand_hunter_flow(CallCtx *cx, const char *system, double load, Pos at, double *Q);
+/* peak_demand for a path: the fixture probability table is needed. */
+bool demand_peak_flow(CallCtx *cx, Pos at);
 
 #endif

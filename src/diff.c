@@ -197,6 +197,7 @@ static bool path_same(const Diff *d, const PathSpec *a, const PathSpec *b)
     if (!a || !b)
         return a == b;
     if (a->loss != b->loss || !str_same(a->friction, b->friction) || !str_same(a->fittings, b->fittings) ||
+        a->demand != b->demand || !str_same(a->demand_system, b->demand_system) ||
         a->nsegs != b->nsegs || !expr_same(d, a->fluid, b->fluid) || !expr_same(d, a->start, b->start))
         return false;
     for (size_t i = 0; i < a->nsegs; i++) {
@@ -208,6 +209,12 @@ static bool path_same(const Diff *d, const PathSpec *a, const PathSpec *b)
             return false;
         for (size_t k = 0; k < x->nfittings; k++)
             if (x->fittings[k].count != y->fittings[k].count || !str_same(x->fittings[k].kind, y->fittings[k].kind))
+                return false;
+        /* a changed fixture count changes the path's input */
+        if (x->nfixtures != y->nfixtures)
+            return false;
+        for (size_t k = 0; k < x->nfixtures; k++)
+            if (x->fixtures[k].count != y->fixtures[k].count || !str_same(x->fixtures[k].kind, y->fixtures[k].kind))
                 return false;
     }
     return true;
@@ -466,6 +473,39 @@ static void add_value_change(Builder *b, bool input, const char *name, int o, in
         d->stmt_marks[n] = MARK_CHANGED;
 }
 
+/* The fixtures cell of a segment as one line: "2 lavatory, 1 bidet". */
+static const char *fixtures_text(Arena *a, const PathSegment *g)
+{
+    StrBuf sb = {0};
+    for (size_t k = 0; k < g->nfixtures; k++)
+        sb_printf(&sb, "%s%d %s", k ? ", " : "", g->fixtures[k].count, g->fixtures[k].kind);
+    const char *s = arena_printf(a, "%s", g->nfixtures ? sb_str(&sb) : "none");
+    sb_free(&sb);
+    return s;
+}
+
+/* A path's fixtures cells are inputs (DESIGN 2.11): a changed count or kind
+ * at a segment is listed as an input change "PATH.SEGMENT.fixtures". */
+static void path_fixture_inputs(Builder *b, int o, int n, const Stmt *os, const Stmt *ns)
+{
+    const PathSpec *pa = os->path, *pb = ns->path;
+    if (!pa || !pb || (!pa->has_fixtures && !pb->has_fixtures))
+        return;
+    Arena *a = &b->d->arena;
+    for (size_t i = 0; i < pb->nsegs; i++) {
+        const PathSegment *y = &pb->segs[i], *x = NULL;
+        for (size_t k = 0; k < pa->nsegs && !x; k++)
+            if (str_same(pa->segs[k].id, y->id))
+                x = &pa->segs[k];
+        const char *tb = fixtures_text(a, y), *ta = x ? fixtures_text(a, x) : "none";
+        if (strcmp(ta, tb) == 0)
+            continue;
+        Value ov = value_string(ta), nv = value_string(tb);
+        add_value_change(b, true, arena_printf(a, "%s.%s.fixtures", ns->name, y->field ? y->field : ""),
+                         o, n, &ov, &nv, NULL, NULL, false);
+    }
+}
+
 /* Records (water properties, pipes, paths and their segments) are compared
  * field by field, each field a result named base.field. */
 static size_t compare_record(Builder *b, const char *name, int o, int n, const Record *ra, const Record *rb,
@@ -522,6 +562,8 @@ static void compare_values(Builder *b)
         if (ro->state != RES_OK || rn->state != RES_OK)
             continue;
         bool input = is_input(ns) && is_input(od->stmts[o]);
+        if (ns->kind == STMT_PATH && od->stmts[o]->kind == STMT_PATH)
+            path_fixture_inputs(b, o, (int)i, od->stmts[o], ns);
         const Value *ov = &ro->value, *nv = &rn->value;
         size_t found = 0;
         bool dim_changed = false;

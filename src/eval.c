@@ -907,6 +907,36 @@ static void eval_check(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
 }
 
 /* A path: evaluate every cell, then the hydraulics (flow.c). */
+/* The fixture load of every segment of a path with a fixtures column: the
+ * fixtures taken off at a segment's outlet and at every outlet after it are
+ * downstream of its inlet, so a segment's load is the sum of its own and
+ * all later outlets' loads (a path is a single run). */
+static bool path_loads(Ctx *c, const PathSpec *ps, SegmentInput *in)
+{
+    bool ok = true;
+    double below = 0;
+    for (size_t i = ps->nsegs; i-- > 0;) {
+        const PathSegment *g = &ps->segs[i];
+        double outlet = 0;
+        in[i].fixture_each = arena_alloc(&c->doc->arena, (g->nfixtures + 1) * sizeof(double));
+        in[i].fixture_total = arena_alloc(&c->doc->arena, (g->nfixtures + 1) * sizeof(double));
+        for (size_t k = 0; k < g->nfixtures; k++) {
+            double each;
+            if (demand_item_load(c->call, g->fixtures[k].kind, g->fixtures[k].pos, &each)) {
+                in[i].fixture_each[k] = each;
+                in[i].fixture_total[k] = g->fixtures[k].count * each;
+                outlet += in[i].fixture_total[k];
+            } else {
+                ok = false;
+            }
+        }
+        below += outlet;
+        in[i].has_load = true;
+        in[i].load = below;
+    }
+    return ok;
+}
+
 static void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
 {
     const PathSpec *ps = s->path;
@@ -914,9 +944,11 @@ static void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
     bool ok = eval_expr(c, ps->fluid, &fluid);
     ok = eval_expr(c, ps->start, &start) && ok;
     SegmentInput *in = arena_alloc(&ev->doc->arena, (ps->nsegs + 1) * sizeof *in);
+    bool fixtures_ok = !ps->has_fixtures || path_loads(c, ps, in);
     for (size_t i = 0; i < ps->nsegs; i++) {
         const PathSegment *g = &ps->segs[i];
-        ok = eval_expr(c, g->flow, &in[i].flow) && ok;
+        if (g->flow)
+            ok = eval_expr(c, g->flow, &in[i].flow) && ok;
         ok = eval_expr(c, g->pipe, &in[i].pipe) && ok;
         ok = eval_expr(c, g->length, &in[i].length) && ok;
         ok = eval_expr(c, g->rise, &in[i].rise) && ok;
@@ -933,9 +965,22 @@ static void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
             ok = eval_expr(c, g->device, &in[i].device) && ok;
         }
     }
-    if (!ok) {
+    if (!ok || !fixtures_ok) {
         res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
         return;
+    }
+    /* demand: each segment's flow is the demand of its summed load — loads
+     * add, demands do not */
+    for (size_t i = 0; i < ps->nsegs && ps->demand != PATH_DEMAND_NONE; i++) {
+        double Q = 0;
+        bool got = ps->demand == PATH_DEMAND_HUNTER
+                       ? demand_hunter_flow(c->call, ps->demand_system, in[i].load, ps->demand_pos, &Q)
+                       : demand_peak_flow(c->call, ps->demand_pos);
+        if (!got) {
+            res->state = RES_FAILED;
+            return;
+        }
+        in[i].flow = value_hinted(qty(Q, DIM_FLOW), "gal/min", "L/s");
     }
     const PathResult *pr = NULL;
     if (!flow_path(c->call, s, &fluid, &start, in, &res->value, &pr)) {

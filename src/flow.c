@@ -70,8 +70,10 @@ static Value hinted(double si, Dim d, const char *us, const char *si_unit)
 
 static Record *segment_record(CallCtx *cx, const SegmentResult *g, const PathSegment *sp)
 {
-    Record *r = record_new(cx->arena, "segment", g->has_device ? 15 : 13);
+    Record *r = record_new(cx->arena, "segment", (g->has_device ? 15 : 13) + (g->has_load ? 1 : 0));
     size_t k = 0;
+    if (g->has_load)
+        record_set(r, k++, "load", value_number(qty_number(g->load)));
     record_set(r, k++, "Q", value_number(qty(g->Q, DIM_FLOW)));
     record_set(r, k++, "D", hinted(g->D, DIM_L, "in", "mm"));
     record_set(r, k++, "L", value_number(qty(g->L, DIM_L)));
@@ -120,7 +122,13 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
         const SegmentInput *si = &in[i];
         SegmentResult *g = &pr->segs[i];
         g->id = sp->id;
-        bool seg_ok = need(cx, &si->flow, DIM_FLOW, sp->flow->pos, "flow");
+        g->has_load = si->has_load;
+        g->load = si->load;
+        g->fixture_each = si->fixture_each;
+        g->fixture_total = si->fixture_total;
+        /* a flow taken from the fixtures (demand:) has no cell: its errors go to the row */
+        Pos flow_pos = sp->flow ? sp->flow->pos : sp->pos;
+        bool seg_ok = need(cx, &si->flow, DIM_FLOW, flow_pos, "flow");
         seg_ok = need(cx, &si->length, DIM_L, sp->length->pos, "length") && seg_ok;
         seg_ok = need(cx, &si->rise, DIM_L, sp->rise->pos, "rise") && seg_ok;
         if (si->pipe.kind != VAL_RECORD || strcmp(si->pipe.rec->type, "pipe") != 0) {
@@ -144,7 +152,7 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
         }
         g->Q = si->flow.q.si;
         if (g->Q <= 0) {
-            diag_error(cx->diags, sp->flow->pos, "flow must be positive in the direction of the path");
+            diag_error(cx->diags, flow_pos, "flow must be positive in the direction of the path");
             ok = false;
             continue;
         }
@@ -164,7 +172,7 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
         Value v_re = value_number(qty_number(g->Re)), v_out;
         if (ps->loss == LOSS_DARCY) {
             Value args[2] = {v_re, value_number(qty_number(eps / g->D))};
-            Pos pos[2] = {sp->flow->pos, sp->pipe->pos};
+            Pos pos[2] = {flow_pos, sp->pipe->pos};
             Value kw = value_string(ps->friction ? ps->friction : "colebrook");
             if (!call_builtin(cx, "friction_factor", sp->pos, args, pos, 2, "method", ps->friction ? &kw : NULL, &v_out)) {
                 ok = false;
@@ -174,7 +182,7 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
             g->h_f = g->f * g->L / g->D * hv;
         } else {
             Value args[4] = {si->flow, si->C, value_number(qty(g->D, DIM_L)), si->length};
-            Pos pos[4] = {sp->flow->pos, sp->C->pos, sp->pipe->pos, sp->length->pos};
+            Pos pos[4] = {flow_pos, sp->C->pos, sp->pipe->pos, sp->length->pos};
             if (!call_builtin(cx, "hazen_williams", sp->pos, args, pos, 4, NULL, NULL, &v_out)) {
                 ok = false;
                 continue;
@@ -199,7 +207,7 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
                 break;
             }
             Value args[3] = {value_string(it->kind), value_number(qty(g->D, DIM_L)), v_re};
-            Pos pos[3] = {it->pos, sp->pipe->pos, sp->flow->pos};
+            Pos pos[3] = {it->pos, sp->pipe->pos, flow_pos};
             Value kw = value_string(ps->fittings ? ps->fittings : "crane");
             if (!call_builtin(cx, "k_fitting", it->pos, args, pos, 3, "method", ps->fittings ? &kw : NULL, &v_out)) {
                 ok = false;

@@ -186,6 +186,59 @@ static const char *word_value(Arena *a, const Cell *c)
     return arena_strndup(a, s, n);
 }
 
+/* The fixtures cell: "12 lavatory private, 2 bidet": items separated by
+ * commas, each a whole count from 1 to 9999 and the fixture's words (the
+ * kind and an optional use, read by wsfu's table at evaluation). */
+static bool parse_fixtures(Arena *a, const Cell *c, PathSegment *seg, DiagList *diags)
+{
+    if (cell_empty(c) || cell_is(c, "none"))
+        return true;
+    size_t cap = 1;
+    for (size_t i = 0; i < c->len; i++)
+        cap += c->text[i] == ',';
+    seg->fixtures = arena_alloc(a, cap * sizeof *seg->fixtures);
+    bool ok = true;
+    for (size_t i = 0; i <= c->len; i++) {
+        size_t start = i;
+        while (i < c->len && c->text[i] != ',')
+            i++;
+        size_t s = start, e = i;
+        while (s < e && c->text[s] == ' ')
+            s++;
+        while (e > s && c->text[e - 1] == ' ')
+            e--;
+        Pos p = c->pos;
+        p.col += (int)s;
+        if (s == e) {
+            diag_error(diags, p, "empty item in the fixtures list (write '12 lavatory private, 2 bidet')");
+            ok = false;
+            continue;
+        }
+        size_t k = s;
+        long count = 0;
+        while (k < e && isdigit((unsigned char)c->text[k]) && count < 100000)
+            count = count * 10 + (c->text[k++] - '0');
+        if (k == s || (k < e && c->text[k] != ' ') || count < 1 || count > 9999) {
+            diag_error(diags, p, "a fixtures item is a whole count from 1 to 9999 and the fixture, as in '12 lavatory'");
+            ok = false;
+            continue;
+        }
+        while (k < e && c->text[k] == ' ')
+            k++;
+        if (k == e) {
+            diag_error(diags, p, "a fixture count needs the fixture it counts");
+            ok = false;
+            continue;
+        }
+        FittingItem *it = &seg->fixtures[seg->nfixtures++];
+        it->count = (int)count;
+        it->pos = p;
+        it->pos.col += (int)(k - s);
+        it->kind = arena_strndup(a, c->text + k, e - k);
+    }
+    return ok;
+}
+
 /* "2 elbow 90 std, 1 gate": items separated by commas, each an optional
  * whole count and the fitting's words. */
 static bool parse_fittings(Arena *a, const Cell *c, PathSegment *seg, DiagList *diags)
@@ -245,9 +298,36 @@ static bool parse_fittings(Arena *a, const Cell *c, PathSegment *seg, DiagList *
     return ok;
 }
 
-enum { COL_SEGMENT, COL_FLOW, COL_PIPE, COL_LENGTH, COL_RISE, COL_FITTINGS, COL_K, COL_C, COL_DEVICE, NCOLS };
-static const char *const column_names[NCOLS] = {"segment", "flow", "pipe", "length", "rise", "fittings", "K", "C", "device"};
-static const bool column_required[NCOLS] = {true, true, true, true, true, false, false, false, false};
+enum { COL_SEGMENT, COL_FLOW, COL_PIPE, COL_LENGTH, COL_RISE, COL_FITTINGS, COL_K, COL_C, COL_DEVICE, COL_FIXTURES, NCOLS };
+static const char *const column_names[NCOLS] = {"segment", "flow", "pipe", "length", "rise", "fittings", "K", "C", "device", "fixtures"};
+/* flow is required unless the `demand:` option makes it from the fixtures */
+static const bool column_required[NCOLS] = {true, true, true, true, true, false, false, false, false, false};
+
+/* `demand: hunter("flush tank")`, `hunter("flush valve")`, `hunter` (flush
+ * tank) or `peak_demand`. */
+static bool parse_demand_option(const Cell *v, PathSpec *ps, DiagList *diags)
+{
+    static const char *const forms[][2] = {
+        {"hunter", "flush tank"},
+        {"hunter(\"flush tank\")", "flush tank"},
+        {"hunter(\"flush valve\")", "flush valve"},
+    };
+    ps->demand_pos = v->pos;
+    for (size_t k = 0; k < sizeof forms / sizeof forms[0]; k++)
+        if (v->len == strlen(forms[k][0]) && memcmp(v->text, forms[k][0], v->len) == 0) {
+            ps->demand = PATH_DEMAND_HUNTER;
+            ps->demand_system = forms[k][1];
+            return true;
+        }
+    if (v->len == strlen("peak_demand") && memcmp(v->text, "peak_demand", v->len) == 0) {
+        ps->demand = PATH_DEMAND_PEAK;
+        return true;
+    }
+    diag_error(diags, v->pos,
+               "demand must be hunter(\"flush tank\"), hunter(\"flush valve\") or peak_demand, found '%.*s'",
+               (int)v->len, v->text);
+    return false;
+}
 
 /* A segment id as a record field: letters, digits and '_' kept, anything
  * else becomes '_' ("S-1" -> "S_1"); a leading digit gets "s_" ("3" -> "s_3"). */
@@ -328,6 +408,8 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
                            "friction must be colebrook, swamee_jain, haaland or churchill, found '%s'", ps->friction);
                 ok = false;
             }
+        } else if (cell_is(&key, "demand")) {
+            ok = parse_demand_option(&value, ps, diags) && ok;
         } else if (cell_is(&key, "fittings")) {
             ps->fittings = word_value(a, &value);
             if (fitting_method_parse(ps->fittings) < 0) {
@@ -335,7 +417,7 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
                 ok = false;
             }
         } else {
-            diag_error(diags, key.pos, "unknown path option '%.*s' (fluid, start, loss, friction, fittings)",
+            diag_error(diags, key.pos, "unknown path option '%.*s' (fluid, start, loss, friction, fittings, demand)",
                        (int)key.len, key.text);
             ok = false;
         }
@@ -370,7 +452,7 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
             if (cell_is(&cells[k], column_names[c]))
                 which = c;
         if (which < 0) {
-            diag_error(diags, cells[k].pos, "unknown path column '%.*s' (segment, flow, pipe, length, rise, fittings, K, C, device)",
+            diag_error(diags, cells[k].pos, "unknown path column '%.*s' (segment, flow, pipe, length, rise, fittings, K, C, device, fixtures)",
                        (int)cells[k].len, cells[k].text);
             ok = false;
         } else if (col_of[which] >= 0) {
@@ -380,11 +462,25 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
             col_of[which] = (int)k;
         }
     }
+    ps->has_fixtures = col_of[COL_FIXTURES] >= 0;
+    bool demand = ps->demand != PATH_DEMAND_NONE;
     for (int c = 0; c < NCOLS; c++)
-        if (column_required[c] && col_of[c] < 0) {
-            diag_error(diags, header_pos, "path table is missing the '%s' column", column_names[c]);
+        if (column_required[c] && col_of[c] < 0 && !(c == COL_FLOW && demand)) {
+            if (c == COL_FLOW && ps->has_fixtures)
+                diag_error(diags, header_pos,
+                           "path table is missing the 'flow' column (or give 'demand: hunter(\"flush tank\")' to take each segment's flow from its fixtures)");
+            else
+                diag_error(diags, header_pos, "path table is missing the '%s' column", column_names[c]);
             ok = false;
         }
+    if (demand && !ps->has_fixtures) {
+        diag_error(diags, ps->demand_pos, "'demand:' takes each segment's flow from its fixtures, but the table has no 'fixtures' column");
+        ok = false;
+    } else if (demand && col_of[COL_FLOW] >= 0) {
+        diag_error(diags, cells[col_of[COL_FLOW]].pos,
+                   "a 'flow' column and 'demand:' both give the flow; keep one (the demand is taken from the fixtures)");
+        ok = false;
+    }
     if (ps->loss == LOSS_HAZEN_WILLIAMS && col_of[COL_C] < 0 && ok) {
         diag_error(diags, header_pos, "loss: hazen_williams needs a 'C' column (the Hazen-Williams coefficient)");
         ok = false;
@@ -443,6 +539,10 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
             }
             if (c == COL_FITTINGS) {
                 row_ok = parse_fittings(a, cell, seg, diags) && row_ok;
+                continue;
+            }
+            if (c == COL_FIXTURES) {
+                row_ok = parse_fixtures(a, cell, seg, diags) && row_ok;
                 continue;
             }
             if (cell_empty(cell)) {

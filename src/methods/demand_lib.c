@@ -77,8 +77,10 @@ static const Method *load_method(CallCtx *cx, const PlumbingCode *c, const Fixtu
                             r->kind, r->occupancy, r->control, cold, hot, r->total);
     m->formula = NULL;
     m->validity = "the load of one fixture; loads add, demands do not";
-    m->reference = arena_printf(cx->arena, "%s, %s, row \"%s\", %s, %s", c->name, c->load_table,
-                                r->kind, r->occupancy, r->control);
+    m->reference = arena_printf(cx->arena,
+                                "%s, %s, row \"%s\", %s, %s (checked row by row against a published "
+                                "copy of that table)",
+                                c->name, c->load_table, r->kind, r->occupancy, r->control);
     return m;
 }
 
@@ -143,19 +145,9 @@ bool fn_wsfu(CallCtx *cx, const CallArgs *a, Value *out)
 
 /* ---- hunter(LOAD, system=) ------------------------------------------------ */
 
-/* hunter(L, system="flush tank"|"flush valve") -> the peak demand of a total
- * load of L wsfu by the code's demand table, linear between its rows;
- * refused outside the table. system= defaults to "flush tank". */
-bool fn_hunter(CallCtx *cx, const CallArgs *a, Value *out)
+bool demand_hunter_flow(CallCtx *cx, const char *system, double load, Pos at, double *Q)
 {
-    static const char *const allowed[] = {"system", NULL};
-    double load;
-    if (!kw_check(cx, a, allowed) || !arg_dimensionless(cx, a, 0, "LOAD, in water supply fixture units", &load))
-        return false;
-    int sys = kw_choice(cx, a, "system", SYSTEMS);
-    if (sys == -2)
-        return false;
-    DemandSystem ds = sys == 1 ? SYSTEM_FLUSH_VALVE : SYSTEM_FLUSH_TANK;
+    DemandSystem ds = strcmp(system, "flush valve") == 0 ? SYSTEM_FLUSH_VALVE : SYSTEM_FLUSH_TANK;
     const PlumbingCode *c = code_of(cx);
     double gpm, first = 0, last = 0;
     size_t lo = 0, hi = 0;
@@ -163,18 +155,18 @@ bool fn_hunter(CallCtx *cx, const CallArgs *a, Value *out)
     case DEMAND_OK:
         break;
     case DEMAND_NO_TABLE:
-        diag_error(cx->diags, a->pos,
+        diag_error(cx->diags, at,
                    "hunter: the %s demand table (%s) is not shipped: %s; take the demand from the "
                    "table of the code adopted for the project and enter it as a flow",
                    c->key, c->demand_table, c->why_no_demand ? c->why_no_demand : "it has no rows");
         return false;
     case DEMAND_BAD_LOAD:
-        diag_error(cx->diags, pos_of(a, 0), "hunter: the load is not a finite number");
+        diag_error(cx->diags, at, "hunter: the load is not a finite number");
         return false;
     case DEMAND_BELOW:
     case DEMAND_ABOVE:
         demand_column_range(c->demand, c->ndemand, ds, &first, &last);
-        diag_error(cx->diags, pos_of(a, 0),
+        diag_error(cx->diags, at,
                    "hunter: a load of %g wsfu is outside %s %s for %s systems, which runs from %g "
                    "to %g wsfu",
                    load, c->key, c->demand_table, SYSTEMS[ds], first, last);
@@ -194,7 +186,28 @@ bool fn_hunter(CallCtx *cx, const CallArgs *a, Value *out)
     m->validity = "total loads within the table; the demand of fixtures, not of continuous uses";
     m->reference = arena_printf(cx->arena, "%s, %s", c->name, c->demand_table);
     call_use_method(cx, m);
-    *out = value_hinted(qty(gpm * GPM, DIM_FLOW), "gal/min", "L/s");
+    *Q = gpm * GPM;
+    return true;
+}
+
+/* hunter(L, system="flush tank"|"flush valve") -> the peak demand of a total
+ * load of L wsfu by the code's demand table, linear between its rows;
+ * refused outside the table. system= defaults to "flush tank". */
+bool fn_hunter(CallCtx *cx, const CallArgs *a, Value *out)
+{
+    static const char *const allowed[] = {"system", NULL};
+    double load, Q;
+    if (!kw_check(cx, a, allowed) || !arg_dimensionless(cx, a, 0, "LOAD, in water supply fixture units", &load))
+        return false;
+    int sys = kw_choice(cx, a, "system", SYSTEMS);
+    if (sys == -2)
+        return false;
+    /* a table that is not shipped is the call's fault, a load outside it the argument's */
+    const PlumbingCode *c = code_of(cx);
+    Pos at = c->demand ? pos_of(a, 0) : a->pos;
+    if (!demand_hunter_flow(cx, SYSTEMS[sys == 1 ? 1 : 0], load, at, &Q))
+        return false;
+    *out = value_hinted(qty(Q, DIM_FLOW), "gal/min", "L/s");
     return true;
 }
 
@@ -276,6 +289,42 @@ static long fixtures_parse(CallCtx *cx, const char *fn, const char *s, Pos at, F
     return (long)n;
 }
 
+/* One fixtures-cell item's words: "lavatory public" -> one fixture's total load. */
+bool demand_item_load(CallCtx *cx, const char *words, Pos at, double *wsfu_each)
+{
+    char kind[128];
+    snprintf(kind, sizeof kind, "%s", words);
+    FixtureUse use = FIXTURE_USE_ANY;
+    size_t n = strlen(kind);
+    if (n > 8 && strcmp(kind + n - 8, " private") == 0)
+        use = FIXTURE_PRIVATE, kind[n - 8] = '\0';
+    else if (n > 7 && strcmp(kind + n - 7, " public") == 0)
+        use = FIXTURE_PUBLIC, kind[n - 7] = '\0';
+    for (n = strlen(kind); n > 0 && kind[n - 1] == ' ';)
+        kind[--n] = '\0';
+    const PlumbingCode *c = code_of(cx);
+    const FixtureLoadRow *row = NULL;
+    LoadStatus st = fixture_load_find(c, kind, use, &row);
+    if (st != LOAD_OK) {
+        load_error(cx, c, "fixtures", at, kind, st, use);
+        return false;
+    }
+    call_use_method(cx, load_method(cx, c, row));
+    *wsfu_each = fixture_load_value(row, WATER_TOTAL);
+    return true;
+}
+
+static const char PEAK_NOT_SHIPPED[] =
+    "peak_demand: the fixture probabilities and flows of the water demand calculator "
+    "(UPC Appendix M; IPC Appendix N) are not shipped: no published copy of that table "
+    "could be verified, so no peak demand can be computed from it; enter the demand as a flow";
+
+bool demand_peak_flow(CallCtx *cx, Pos at)
+{
+    diag_error(cx->diags, at, "%s", PEAK_NOT_SHIPPED);
+    return false;
+}
+
 /* peak_demand("12 lavatory private, 8 shower", percentile=99) -> record
  * `Q method`. The fixtures are read and checked against the code's load
  * table; the probability table of the water demand calculator is needed
@@ -298,9 +347,5 @@ bool fn_peak_demand(CallCtx *cx, const CallArgs *a, Value *out)
     if (n < 0)
         return false;
     (void)out;
-    diag_error(cx->diags, a->pos,
-               "peak_demand: the fixture probabilities and flows of the water demand calculator "
-               "(UPC Appendix M; IPC Appendix N) are not shipped: no published copy of that table "
-               "could be verified, so no peak demand can be computed from it; enter the demand as a flow");
-    return false;
+    return demand_peak_flow(cx, a->pos);
 }

@@ -65,8 +65,14 @@ static void put_inputs(const Diff *d, StrBuf *out)
         const ValueChange *c = &d->inputs[i];
         const Stmt *os = d->old_ev->doc->stmts[c->old_slot], *ns = d->new_ev->doc->stmts[c->new_slot];
         StrBuf a = {0}, b = {0};
-        render_expr_text(d->old_ev, os->expr, false, &a);
-        render_expr_text(d->new_ev, ns->expr, false, &b);
+        if (os->expr && ns->expr) {
+            render_expr_text(d->old_ev, os->expr, false, &a);
+            render_expr_text(d->new_ev, ns->expr, false, &b);
+        } else {
+            /* a cell of a path table (its fixtures), as written */
+            sb_printf(&a, "\"%s\"", c->old_value.kind == VAL_STRING ? c->old_value.str : "");
+            sb_printf(&b, "\"%s\"", c->new_value.kind == VAL_STRING ? c->new_value.str : "");
+        }
         sb_printf(out, "  %s = %s → %s", c->name, sb_str(&a), sb_str(&b));
         put_rel(c, out);
         put_line(d, c->new_slot, c->old_slot, out);

@@ -39,10 +39,11 @@ static void stroke(Pdf *P, Rgb c)
 
 /* ---- the segment table ---------------------------------------------------- */
 
-enum { PATH_COLS = 14, PATH_CHUNK = 28 };
+enum { PATH_COLS = 15, PATH_CHUNK = 28 };
 
-/* The columns shown: every quantity of a segment, the device loss only when
- * the path has a device. map[i] is the quantity column i shows. */
+/* The columns shown: every quantity of a segment, the fixture load only when
+ * the path has a fixtures column, the device loss only when it has a device.
+ * map[i] is the quantity column i shows. */
 typedef struct PathCols {
     int n;
     int map[PATH_COLS];
@@ -52,15 +53,15 @@ typedef struct PathCols {
     bool has_unit[PATH_COLS];
 } PathCols;
 
-enum { PC_SEGMENT, PC_Q, PC_D, PC_L, PC_RISE, PC_V, PC_RE, PC_F, PC_K, PC_HF, PC_HM, PC_PIN, PC_DPDEV, PC_POUT };
+enum { PC_SEGMENT, PC_LOAD, PC_Q, PC_D, PC_L, PC_RISE, PC_V, PC_RE, PC_F, PC_K, PC_HF, PC_HM, PC_PIN, PC_DPDEV, PC_POUT };
 
 static PathCols path_cols(const Pdf *P, const PathResult *pr)
 {
     static const char *const WORD[PATH_COLS] = {
-        "segment",         "flow",       "bore",          "length",       "rise",
+        "segment",         "fixture load", "flow",       "bore",          "length",       "rise",
         "velocity",        "Reynolds number", "friction factor", "fittings K", "friction loss",
         "fitting loss",    "inlet pressure",  "device loss",    "outlet pressure"};
-    static const char *const SYMBOL[PATH_COLS] = {"",  "Q",   "D",   "L",   "Delta_z", "V",    "Re",
+    static const char *const SYMBOL[PATH_COLS] = {"",  "",  "Q",   "D",   "L",   "Delta_z", "V",    "Re",
                                                   "f", "K",   "h_f", "h_m", "p_in",    "Delta_p_dev", "p_out"};
     UnitSystem us = P->ev->units;
     PathCols c;
@@ -70,14 +71,15 @@ static PathCols path_cols(const Pdf *P, const PathResult *pr)
     Unit uD = uL;
     size_t bo, bl;
     unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
+    bool load = pr && pr->nsegs && pr->segs[0].has_load;
     for (int q = 0; q < PATH_COLS; q++) {
-        if (q == PC_DPDEV && (!pr || pr->ndevices == 0))
+        if ((q == PC_DPDEV && (!pr || pr->ndevices == 0)) || (q == PC_LOAD && !load))
             continue;
         int i = c.n++;
         c.map[i] = q;
         c.word[i] = WORD[q];
         c.symbol[i] = SYMBOL[q];
-        c.has_unit[i] = q != PC_SEGMENT && q != PC_RE && q != PC_F && q != PC_K;
+        c.has_unit[i] = q != PC_SEGMENT && q != PC_LOAD && q != PC_RE && q != PC_F && q != PC_K;
         switch (q) {
         case PC_Q: c.unit[i] = uQ; break;
         case PC_D: c.unit[i] = uD; break;
@@ -93,7 +95,7 @@ static PathCols path_cols(const Pdf *P, const PathResult *pr)
 /* The cell text of segment g, column i. */
 static void path_cell(const Pdf *P, const PathCols *c, const SegmentResult *g, int i, char *buf, size_t n)
 {
-    double si[PATH_COLS] = {0,      g->Q, g->D, g->L,   g->rise, g->V,    g->Re,
+    double si[PATH_COLS] = {0,      g->load, g->Q, g->D, g->L,   g->rise, g->V,    g->Re,
                             g->f,   g->K, g->h_f, g->h_m, g->p_in, g->has_device ? g->dp_device : NAN, g->p_out};
     int q = c->map[i];
     if (q == PC_SEGMENT) {
@@ -176,9 +178,10 @@ static double path_header(Pdf *P, const PathCols *c, const PathLayout *L, double
             if (P->page)
                 mbox_draw(b, &P->painter, a + (w - b->w) / 2, top - h_word - 9.2);
         }
-        if (c->has_unit[i]) {
-            char ut[48];
-            mbox_unit_text(c->unit[i].text, ut, sizeof ut);
+        if (c->has_unit[i] || c->map[i] == PC_LOAD) {
+            char ut[48] = "wsfu";
+            if (c->has_unit[i])
+                mbox_unit_text(c->unit[i].text, ut, sizeof ut);
             double uw = pdf_width(P, FONT_SANS, 6.4, ut);
             pdf_text_color(P, FONT_SANS, 6.4, a + (w - uw) / 2, top - h + 3, ut, GREY);
         }
@@ -343,6 +346,17 @@ static double fn_path_summary(Pdf *P, const Item *it, double top)
             for (size_t f = 0; f < sg->nfittings; f++)
                 sb_printf(&sb, "%s%d %s", f ? ", " : "", sg->fittings[f].count, sg->fittings[f].kind);
         }
+        if (sg->nfixtures && r->path) {
+            const SegmentResult *g = &r->path->segs[k];
+            sb_puts(&sb, ", fixtures at the outlet ");
+            for (size_t f = 0; f < sg->nfixtures; f++) {
+                char each[48], total[48];
+                num_typeset(g->fixture_each[f], P->env.digits, each, sizeof each);
+                num_typeset(g->fixture_total[f], P->env.digits, total, sizeof total);
+                sb_printf(&sb, "%s%d %s × %s = %s wsfu", f ? ", " : "", sg->fixtures[f].count,
+                          sg->fixtures[f].kind, each, total);
+            }
+        }
         if (sg->K) {
             sb_puts(&sb, ", extra K ");
             render_expr_text(P->ev, sg->K, false, &sb);
@@ -357,6 +371,9 @@ static double fn_path_summary(Pdf *P, const Item *it, double top)
         }
     }
     sb_puts(&sb, ". Bold in the table: the lowest pressure and the highest velocity.");
+    if (r->path && r->path->nsegs && r->path->segs[0].has_load)
+        sb_puts(&sb, " The fixture load of a segment is the sum of the loads of every fixture downstream "
+                     "of its inlet (loads add; demands do not).");
     char figs[96];
     pdf_figures_of(P, st->index, figs, sizeof figs);
     if (figs[0])

@@ -225,15 +225,24 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
     sb_printf(out, ": %zu segments, %s loss\n", pr->nsegs,
               s->path->loss == LOSS_DARCY ? "Darcy-Weisbach" : "Hazen-Williams");
     bool dev = pr->ndevices > 0;
-    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s", "segment", "Q", "D", "L",
+    bool load = pr->nsegs && pr->segs[0].has_load;
+    sb_printf(out, "  %-10s", "segment");
+    if (load)
+        sb_printf(out, " %10s", "load");
+    sb_printf(out, " %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s", "Q", "D", "L",
               "rise", "V", "Re", "f", "K", "h_f", "h_m", "p_in");
     sb_printf(out, dev ? " %10s %10s  %s\n" : " %10s\n", dev ? "dp_device" : "p_out", "p_out", "device");
-    sb_printf(out, "  %-10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s", "", uQ.text, uD.text,
+    sb_printf(out, "  %-10s", "");
+    if (load)
+        sb_printf(out, " %10s", "wsfu");
+    sb_printf(out, " %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s", uQ.text, uD.text,
               uL.text, uL.text, uV.text, "", "", "", uL.text, uL.text, uP.text);
     sb_printf(out, dev ? " %10s %10s\n" : " %10s\n", uP.text, uP.text);
     for (size_t i = 0; i < pr->nsegs; i++) {
         const SegmentResult *g = &pr->segs[i];
         sb_printf(out, "  %-10s", g->id);
+        if (load)
+            put_cell(ev, g->load, &one, true, out);
         put_cell(ev, g->Q, &uQ, true, out);
         put_cell(ev, g->D, &uD, true, out);
         put_cell(ev, g->L, &uL, true, out);
@@ -258,6 +267,20 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
         if (g->has_device)
             sb_printf(out, "  %s", g->device);
         sb_putc(out, '\n');
+    }
+    if (load) {
+        /* the fixture schedule behind the loads: kind, count, load each, total */
+        sb_puts(out, "  fixtures taken off at each outlet (load each and total in wsfu):\n");
+        for (size_t i = 0; i < pr->nsegs; i++) {
+            const PathSegment *sp = &s->path->segs[i];
+            for (size_t k = 0; k < sp->nfixtures; k++) {
+                sb_printf(out, "    %-10s %5d %-32s x", pr->segs[i].id, sp->fixtures[k].count, sp->fixtures[k].kind);
+                put_cell(ev, pr->segs[i].fixture_each[k], &one, true, out);
+                sb_puts(out, " =");
+                put_cell(ev, pr->segs[i].fixture_total[k], &one, true, out);
+                sb_putc(out, '\n');
+            }
+        }
     }
     const Record *rec = r->value.rec;
     static const char *const summary[] = {"p_end", "p_min", "p_min_at", "V_max", "loss"};
