@@ -139,6 +139,8 @@ typedef struct Diff {
     ValueChange *inputs;    size_t ninputs;    /* source order of NEW */
     ValueChange *results;   size_t nresults;   /* source order of NEW */
     CheckChange *checks;    size_t nchecks;    /* now fails, now holds, then the rest; source order */
+    CheckChange *findings;  size_t nfindings;  /* `finding` lines whose answer or condition changed:
+                                                  NOW_FAILS is yes -> no, NOW_HOLDS no -> yes */
     StmtChange *stmts;      size_t nstmts;     /* renamed, added (order of NEW), removed (order of OLD) */
     CiteChange *cites;      size_t ncites;
     ProseChange *prose;     size_t nprose;

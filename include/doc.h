@@ -186,6 +186,8 @@ typedef struct Stmt {
     Expr *lhs, *rhs;         /* SOLVE: the equation; CHECK: the two sides */
     Expr *lo, *hi;           /* SOLVE: optional bracket */
     const char *label;       /* CHECK */
+    bool finding;            /* CHECK written `finding LABEL: A OP B`: a yes/no
+                                answer recorded, never counted as a check */
     CmpOp cmp;
     const char *description; /* trailing comment, citations removed; NOTE: its text */
     Cite *cites;
@@ -284,6 +286,13 @@ typedef struct Part {
 
 typedef enum Paper { PAPER_LETTER, PAPER_A4 } Paper;
 
+/* Where the atmosphere of a calc comes from (DESIGN 2.9). */
+typedef enum AtmosphereSource {
+    ATM_STANDARD = 0,        /* 101.325 kPa, nothing said */
+    ATM_GIVEN,               /* front matter `atmosphere:` */
+    ATM_ELEVATION            /* front matter `elevation:`, standard-atmosphere relation */
+} AtmosphereSource;
+
 typedef struct Meta {
     const char *title, *project, *client, *number, *subject, *revision, *date;
     const char *prepared, *checked, *approved, *engineer, *license, *status;
@@ -298,6 +307,10 @@ typedef struct Meta {
     size_t nparts;
     bool has_parts;          /* the key was given (an index, even with an empty list) */
     bool present;            /* the file had front matter */
+    double atmosphere;       /* Pa, absolute: what separates gauge from absolute */
+    AtmosphereSource atm_source;
+    double elevation;        /* m above sea level (ATM_ELEVATION) */
+    const char *atmosphere_text, *elevation_text; /* as written */
 } Meta;
 
 typedef struct Source {

@@ -179,6 +179,9 @@ typedef struct Evaluated {
     struct UseSet *uses;     /* where used calcs are cached (uses.h) */
     const struct UsedFile **used; /* every file it used, directly or through another, in order */
     size_t nused;
+    size_t nfindings, nfindings_yes; /* `finding` statements evaluated, answered yes */
+    double atmosphere;       /* Pa absolute, from the front matter (DESIGN 2.9) */
+    bool atmosphere_used;    /* a point, a conversion or a function needed it */
 } Evaluated;
 
 /* Evaluate every statement. Errors and validity warnings go to `diags`.

@@ -12,4 +12,8 @@
  * (through the closing line's newline); otherwise fill defaults, return 0. */
 size_t frontmatter_read(Document *doc, DiagList *diags);
 
+/* The standard atmosphere at elevation z (m above sea level), in Pa:
+ * 101.325 kPa * (1 - 2.25577e-5*z/m)^5.25588 (DESIGN 2.9). */
+double frontmatter_atmosphere_at(double z);
+
 #endif

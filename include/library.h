@@ -60,7 +60,13 @@ typedef struct CallCtx {
     size_t nmethods;
     const char *code;       /* the front matter's `code:` key, or NULL for the default */
     const ResultTable *table;                  /* a table for the report, or NULL */
+    double atmosphere;      /* Pa absolute (DESIGN 2.9); 0: the standard one */
+    bool atmosphere_used;   /* a function read it: the report states it */
 } CallCtx;
+
+/* The calc's atmosphere in Pa (the standard one when the context has none),
+ * marking it used. */
+double call_atmosphere(CallCtx *cx);
 
 typedef bool (*BuiltinFn)(CallCtx *cx, const CallArgs *a, Value *out);
 

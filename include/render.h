@@ -60,6 +60,10 @@ Symbol symbol_of(const char *name);
  * shown as just "0.02000". Uses num_sig with the document's digits. */
 void render_quantity(const Evaluated *ev, const Value *v, const Unit *unit, char *buf, size_t n);
 
+/* The calc's atmosphere and where it comes from (DESIGN 2.9), one phrase:
+ * "12.23 psia, the standard atmosphere at elevation 1500 m". */
+void render_atmosphere(const Evaluated *ev, char *buf, size_t n);
+
 /* An expression in one line of plain text, as written (substitute = false)
  * or with every name replaced by its value and unit (substitute = true). */
 void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBuf *out);

@@ -59,10 +59,23 @@ typedef enum TempKind {
     TEMP_ABSOLUTE_OFFSET /* a point entered on degC or degF: not scalable */
 } TempKind;
 
+/* What a pressure states about its reference (DESIGN 2.9). A plain pressure
+ * (psi, kPa, bar, ftH2O, ...) states none: it is a difference, or gauge by
+ * the trade's convention. A gauge or an absolute pressure is a *point*, like
+ * an absolute temperature: its SI value is Pa above the atmosphere (gauge)
+ * or above vacuum (absolute). Quantities that are not pressures, and plain
+ * pressures, are PRES_PLAIN. */
+typedef enum PressureRef {
+    PRES_PLAIN = 0,
+    PRES_GAUGE,          /* psig, kPag, barg */
+    PRES_ABSOLUTE        /* psia, kPaa, bara, MPaa */
+} PressureRef;
+
 typedef struct Quantity {
     double si;    /* value in coherent SI base units; temperatures in K */
     Dim dim;
     TempKind temp;
+    PressureRef pref;
 } Quantity;
 
 Quantity qty(double si, Dim dim);     /* a TEMP_NONE quantity */
@@ -76,6 +89,7 @@ typedef struct Unit {
     double offset;
     Dim dim;
     TempKind temp;       /* TEMP_ABSOLUTE(_OFFSET) for K, degR, degC, degF */
+    PressureRef pref;    /* a lone psig, psia, ...: the reference it states */
     char text[48];       /* the spelling to display, e.g. "gal/min", "degF" */
 } Unit;
 
@@ -109,6 +123,20 @@ typedef enum UnitSystem { UNITS_US, UNITS_SI } UnitSystem;
  * kg/m^3, ...). Temperatures: degF/degC for points, delta_degF/delta_degC for
  * differences. Falls back to the SI spelling of the dimension. */
 Unit unit_default(Dim d, TempKind temp, UnitSystem sys);
+/* The same for a pressure point: psig/kPag for gauge, psia/kPaa for
+ * absolute; anything else as unit_default. */
+Unit unit_default_ref(Dim d, TempKind temp, PressureRef ref, UnitSystem sys);
+
+/* The standard atmosphere, 101.325 kPa (ISO 2533; the definition of 1 atm). */
+#define UNIT_STANDARD_ATMOSPHERE 101325.0
+
+/* Re-state a pressure on another reference, `atm` the atmosphere in Pa:
+ * plain or gauge -> absolute adds it, absolute -> gauge or plain subtracts
+ * it, plain <-> gauge changes nothing. Anything else is returned as is. */
+Quantity qty_to_ref(Quantity q, PressureRef to, double atm);
+
+/* "gauge", "absolute" or NULL (plain). */
+const char *pressure_ref_name(PressureRef r);
 
 /* Visit every registered unit name (for tests and the manual). */
 typedef void (*UnitVisit)(const char *name, const Unit *u, void *ctx);

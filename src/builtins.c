@@ -56,6 +56,12 @@ void call_use_method(CallCtx *cx, const Method *m)
         cx->methods[cx->nmethods++] = m;
 }
 
+double call_atmosphere(CallCtx *cx)
+{
+    cx->atmosphere_used = true;
+    return cx->atmosphere > 0 ? cx->atmosphere : UNIT_STANDARD_ATMOSPHERE;
+}
+
 void dim_describe(Dim d, TempKind temp, UnitSystem sys, char *buf, size_t n)
 {
     const char *word = dim_name(d);
@@ -72,6 +78,11 @@ void value_describe(const Value *v, UnitSystem sys, char *buf, size_t n)
 {
     switch (v->kind) {
     case VAL_NUMBER:
+        if (v->q.pref != PRES_PLAIN) {
+            Unit u = unit_default_ref(v->q.dim, v->q.temp, v->q.pref, sys);
+            snprintf(buf, n, "%s pressure (%s)", v->q.pref == PRES_GAUGE ? "a gauge" : "an absolute", u.text);
+            break;
+        }
         dim_describe(v->q.dim, v->q.temp, sys, buf, n);
         break;
     case VAL_STRING:
@@ -106,6 +117,15 @@ bool arg_number(CallCtx *cx, const CallArgs *a, size_t i, Dim want, const char *
         value_describe(v, cx->units, got_s, sizeof got_s);
         diag_error(cx->diags, arg_pos(a, i), "%s: argument %zu (%s) must be %s, found %s",
                    a->name, i + 1, what, want_s, got_s);
+        return false;
+    }
+    /* A gauge pressure is what a plain pressure argument means; an absolute
+     * one would be off by the atmosphere. */
+    if (v->q.pref == PRES_ABSOLUTE) {
+        diag_error(cx->diags, arg_pos(a, i),
+                   "%s: argument %zu (%s) is a pressure above the atmosphere, found an absolute "
+                   "pressure; write it `as %s` first", a->name, i + 1, what,
+                   cx->units == UNITS_US ? "psig" : "kPag");
         return false;
     }
     *si = v->q.si;
@@ -219,6 +239,15 @@ static bool any_number(CallCtx *cx, const CallArgs *a, size_t i, const Value **v
 
 static bool not_offset_temperature(CallCtx *cx, const CallArgs *a, size_t i, const Value *v)
 {
+    if (v->q.pref != PRES_PLAIN) {
+        diag_error(cx->diags, arg_pos(a, i),
+                   "%s: cannot apply to %s pressure (a point on a scale); subtract a point of the "
+                   "same reference first, as in (p - 0 %s)", a->name,
+                   v->q.pref == PRES_GAUGE ? "a gauge" : "an absolute",
+                   v->q.pref == PRES_GAUGE ? (cx->units == UNITS_US ? "psig" : "kPag")
+                                           : (cx->units == UNITS_US ? "psia" : "kPaa"));
+        return false;
+    }
     if (v->q.temp == TEMP_ABSOLUTE_OFFSET) {
         diag_error(cx->diags, arg_pos(a, i),
                    "%s: cannot apply to an absolute temperature on the Celsius or Fahrenheit "
@@ -247,7 +276,7 @@ bool fn_abs(CallCtx *cx, const CallArgs *a, Value *out)
     if (!any_number(cx, a, 0, &v))
         return false;
     *out = *v;
-    if (v->q.temp == TEMP_NONE)
+    if (v->q.temp == TEMP_NONE && v->q.pref == PRES_PLAIN)
         out->q.si = fabs(v->q.si);
     return true;
 }
@@ -290,7 +319,8 @@ static bool extremum(CallCtx *cx, const CallArgs *a, Value *out, int sign)
         const Value *v;
         if (!any_number(cx, a, i, &v))
             return false;
-        if (!dim_eq(v->q.dim, best->q.dim) || (v->q.temp == TEMP_NONE) != (best->q.temp == TEMP_NONE)) {
+        if (!dim_eq(v->q.dim, best->q.dim) || (v->q.temp == TEMP_NONE) != (best->q.temp == TEMP_NONE) ||
+            (v->q.pref == PRES_ABSOLUTE) != (best->q.pref == PRES_ABSOLUTE)) {
             char d0[96], di[96];
             value_describe(&a->args[0], cx->units, d0, sizeof d0);
             value_describe(v, cx->units, di, sizeof di);
@@ -303,6 +333,68 @@ static bool extremum(CallCtx *cx, const CallArgs *a, Value *out, int sign)
             best = v;
     }
     *out = *best;
+    return true;
+}
+
+/* Arguments alike enough to average: one dimension, and each a point or
+ * each a difference, on one pressure reference (a plain pressure goes with
+ * a gauge one, as in a check). */
+static bool alike(CallCtx *cx, const CallArgs *a, size_t i, const Value *first, const Value **v)
+{
+    if (!any_number(cx, a, i, v))
+        return false;
+    const Value *w = *v;
+    if (dim_eq(w->q.dim, first->q.dim) && (w->q.temp == TEMP_NONE) == (first->q.temp == TEMP_NONE) &&
+        (w->q.pref == PRES_ABSOLUTE) == (first->q.pref == PRES_ABSOLUTE))
+        return true;
+    char d0[96], di[96];
+    value_describe(first, cx->units, d0, sizeof d0);
+    value_describe(w, cx->units, di, sizeof di);
+    diag_error(cx->diags, arg_pos(a, i), "%s: arguments must be of one kind; argument 1 is %s, argument %zu is %s",
+               a->name, d0, i + 1, di);
+    return false;
+}
+
+/* The arithmetic mean. Of points (68 degF and 50 degF, 30 psia and 20 psia)
+ * it is the point midway, computed on the absolute scale, so it is a point
+ * of the same kind: no scaled point is ever formed. */
+bool fn_mean(CallCtx *cx, const CallArgs *a, Value *out)
+{
+    const Value *first, *v;
+    if (!any_number(cx, a, 0, &first))
+        return false;
+    double sum = first->q.si;
+    PressureRef ref = first->q.pref;
+    for (size_t i = 1; i < a->n; i++) {
+        if (!alike(cx, a, i, first, &v))
+            return false;
+        sum += v->q.si;
+        if (v->q.pref == PRES_GAUGE)
+            ref = PRES_GAUGE;
+    }
+    if (!finite_result(cx, a, sum / (double)a->n, out, first->q.dim))
+        return false;
+    out->q.temp = first->q.temp;
+    out->q.pref = ref;
+    return true;
+}
+
+/* lerp(a, b, t) = a + (b - a)*t: the value a fraction t of the way from a to
+ * b (t = 0 gives a, t = 1 gives b); a weighted mean of two points that is
+ * again a point. t outside 0..1 extrapolates, with a warning. */
+bool fn_lerp(CallCtx *cx, const CallArgs *a, Value *out)
+{
+    const Value *va, *vb;
+    double t;
+    if (!any_number(cx, a, 0, &va) || !alike(cx, a, 1, va, &vb) ||
+        !arg_dimensionless(cx, a, 2, "the fraction of the way from a to b", &t))
+        return false;
+    if (t < 0 || t > 1)
+        diag_warning(cx->diags, arg_pos(a, 2), "lerp: t = %g lies outside 0 to 1: this extrapolates beyond a and b", t);
+    if (!finite_result(cx, a, va->q.si + (vb->q.si - va->q.si) * t, out, va->q.dim))
+        return false;
+    out->q.temp = va->q.temp;
+    out->q.pref = va->q.pref == PRES_GAUGE || vb->q.pref == PRES_GAUGE ? PRES_GAUGE : va->q.pref;
     return true;
 }
 

@@ -58,7 +58,7 @@ static bool str_same(const char *a, const char *b)
 typedef struct Builder {
     Diff *d;
     const Document *od, *nd;
-    size_t cap_meta, cap_inputs, cap_results, cap_checks, cap_stmts, cap_cites, cap_prose;
+    size_t cap_meta, cap_inputs, cap_results, cap_checks, cap_stmts, cap_cites, cap_prose, cap_findings;
     bool *formula_changed;   /* per NEW slot, matched statements only */
 } Builder;
 
@@ -122,6 +122,9 @@ static void compare_meta(Builder *b)
     meta_text(b, "paper", o->paper == PAPER_A4 ? "a4" : "letter", n->paper == PAPER_A4 ? "a4" : "letter", true);
     meta_text(b, "digits", arena_printf(a, "%d", o->digits), arena_printf(a, "%d", n->digits), true);
     meta_text(b, "code", o->code ? o->code : "(default)", n->code ? n->code : "(default)", true);
+    /* The atmosphere moves every gauge-absolute conversion: a change of meaning. */
+    meta_text(b, "atmosphere", o->atmosphere_text, n->atmosphere_text, false);
+    meta_text(b, "elevation", o->elevation_text, n->elevation_text, false);
 }
 
 /* ---- formulas as trees -------------------------------------------------- */
@@ -159,7 +162,7 @@ static bool expr_same(const Diff *d, const Expr *a, const Expr *b)
     switch (a->kind) {
     case EXPR_NUMBER: {
         Quantity qa = literal_qty(a), qb = literal_qty(b);
-        return dim_eq(qa.dim, qb.dim) && qa.temp == qb.temp && !diff_numbers_differ(qa.si, qb.si, &d->opt);
+        return dim_eq(qa.dim, qb.dim) && qa.temp == qb.temp && qa.pref == qb.pref && !diff_numbers_differ(qa.si, qb.si, &d->opt);
     }
     case EXPR_STRING:
         return str_same(a->text, b->text);
@@ -286,6 +289,12 @@ static bool is_named(const Stmt *s)
 static bool is_check(const Stmt *s)
 {
     return s->kind == STMT_CHECK && s->label && !s->parse_failed;
+}
+
+/* A `finding`: matched by label like a check, compared apart. */
+static bool is_finding(const Stmt *s)
+{
+    return is_check(s) && s->finding;
 }
 
 /* An input: a definition that reads no names (a literal, maybe negated). */
@@ -424,7 +433,7 @@ static bool values_differ(const Value *a, const Value *b, const DiffOptions *opt
     }
     switch (a->kind) {
     case VAL_NUMBER:
-        if (!dim_eq(a->q.dim, b->q.dim) || a->q.temp != b->q.temp) {
+        if (!dim_eq(a->q.dim, b->q.dim) || a->q.temp != b->q.temp || a->q.pref != b->q.pref) {
             *dim_changed = true;
             return true;
         }
@@ -636,7 +645,7 @@ static void compare_checks(Builder *b)
     for (int pass = 0; pass < 3; pass++) {
         for (size_t i = 0; i < nd->nstmts; i++) {
             int o = d->new_to_old[i];
-            if (o < 0 || !is_check(nd->stmts[i]))
+            if (o < 0 || !is_check(nd->stmts[i]) || nd->stmts[i]->finding || b->od->stmts[o]->finding)
                 continue;
             const StmtResult *ro = &d->old_ev->results[o], *rn = &d->new_ev->results[i];
             if (ro->state != RES_OK || rn->state != RES_OK)
@@ -663,6 +672,35 @@ static void compare_checks(Builder *b)
             PUSH(d->checks, d->nchecks, b->cap_checks, c);
             d->stmt_marks[i] = MARK_CHANGED;
         }
+    }
+}
+
+/* A finding changes when its answer flips or its condition is rewritten;
+ * it has no utilisation to move. */
+static void compare_findings(Builder *b)
+{
+    Diff *d = b->d;
+    const Document *nd = b->nd;
+    for (size_t i = 0; i < nd->nstmts; i++) {
+        int o = d->new_to_old[i];
+        if (o < 0 || !is_finding(nd->stmts[i]) || !is_finding(b->od->stmts[o]))
+            continue;
+        const StmtResult *ro = &d->old_ev->results[o], *rn = &d->new_ev->results[i];
+        if (ro->state != RES_OK || rn->state != RES_OK)
+            continue;
+        CheckChange c = {0};
+        c.old_slot = o;
+        c.new_slot = (int)i;
+        c.old_util = c.new_util = NAN;
+        c.condition_changed = b->formula_changed[i];
+        if (ro->holds != rn->holds)
+            c.kind = ro->holds ? CHECK_NOW_FAILS : CHECK_NOW_HOLDS;
+        else if (c.condition_changed)
+            c.kind = CHECK_CONDITION;
+        else
+            continue;
+        PUSH(d->findings, d->nfindings, b->cap_findings, c);
+        d->stmt_marks[i] = MARK_CHANGED;
     }
 }
 
@@ -1061,6 +1099,7 @@ Diff *diff_compute(const Evaluated *old_ev, const Evaluated *new_ev, const DiffO
     compare_values(&b);
     trace_inputs(&b);
     compare_checks(&b);
+    compare_findings(&b);
     compare_citations(&b);
     compare_prose(&b);
     mark_readers(d, b.nd);
@@ -1070,6 +1109,7 @@ Diff *diff_compute(const Evaluated *old_ev, const Evaluated *new_ev, const DiffO
     d->inputs = to_arena(d, d->inputs, d->ninputs, sizeof *d->inputs);
     d->results = to_arena(d, d->results, d->nresults, sizeof *d->results);
     d->checks = to_arena(d, d->checks, d->nchecks, sizeof *d->checks);
+    d->findings = to_arena(d, d->findings, d->nfindings, sizeof *d->findings);
     d->stmts = to_arena(d, d->stmts, d->nstmts, sizeof *d->stmts);
     d->cites = to_arena(d, d->cites, d->ncites, sizeof *d->cites);
     d->prose = to_arena(d, d->prose, d->nprose, sizeof *d->prose);
@@ -1078,7 +1118,8 @@ Diff *diff_compute(const Evaluated *old_ev, const Evaluated *new_ev, const DiffO
     bool meta_changed = false;
     for (size_t i = 0; i < d->nmeta; i++)
         meta_changed |= !d->meta[i].display_only;
-    d->changed = meta_changed || d->ninputs || d->nresults || d->nchecks || d->nstmts || d->ncites || d->nprose;
+    d->changed = meta_changed || d->ninputs || d->nresults || d->nchecks || d->nfindings || d->nstmts ||
+                 d->ncites || d->nprose;
     return d;
 }
 

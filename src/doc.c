@@ -160,6 +160,30 @@ static size_t edit_distance(const char *a, const char *b)
     return d[la][lb];
 }
 
+typedef struct NearFn {
+    const char *name, *best;
+    size_t best_d;
+} NearFn;
+
+static void near_builtin(const Builtin *b, void *vctx)
+{
+    NearFn *n = vctx;
+    size_t d = edit_distance(n->name, b->name);
+    if (d < n->best_d) {
+        n->best_d = d;
+        n->best = b->name;
+    }
+}
+
+/* The closest library function to a called unknown name, for "did you
+ * mean" (`friction_factr(...)`), or NULL. */
+static const char *closest_function(const char *name)
+{
+    NearFn n = {name, NULL, (strlen(name) <= 3 ? 1 : 2) + 1};
+    builtin_each(near_builtin, &n);
+    return n.best;
+}
+
 /* The closest name defined before `before`, for "did you mean". */
 static const char *closest_name(const Document *doc, const char *name, int before, const DiagList *diags)
 {
@@ -190,7 +214,7 @@ static void note_dep(Resolver *r, int slot)
         vec_push(&r->deps, (void *)(intptr_t)(slot + 1));
 }
 
-static int resolve_name(Resolver *r, const char *name, Pos pos)
+static int resolve_name(Resolver *r, const char *name, Pos pos, bool called)
 {
     if (strcmp(name, "pi") == 0)
         return SLOT_PI;
@@ -215,7 +239,10 @@ static int resolve_name(Resolver *r, const char *name, Pos pos)
         return SLOT_UNRESOLVED;
     }
     const char *near = closest_name(r->doc, name, r->current, r->diags);
-    if (near)
+    const char *fn = called && r->diags->errors < SUGGEST_MAX_ERRORS ? closest_function(name) : NULL;
+    if (fn)
+        diag_error(r->diags, pos, "unknown function '%s'; did you mean %s?", name, fn);
+    else if (near)
         diag_error(r->diags, pos, "unknown name '%s'; did you mean %s?", name, near);
     else
         diag_error(r->diags, pos, "unknown name '%s'", name);
@@ -232,7 +259,7 @@ static int resolve_expr(Resolver *r, Expr *e)
     case EXPR_STRING:
         break;
     case EXPR_NAME:
-        e->slot = resolve_name(r, e->text, e->pos);
+        e->slot = resolve_name(r, e->text, e->pos, false);
         ok = e->slot != SLOT_UNRESOLVED;
         break;
     case EXPR_NEG:
@@ -266,7 +293,7 @@ static int resolve_expr(Resolver *r, Expr *e)
                 e->callee_slot = slot;
                 note_dep(r, slot);
             } else {
-                e->callee_slot = resolve_name(r, e->text, e->pos);
+                e->callee_slot = resolve_name(r, e->text, e->pos, true);
                 if (e->callee_slot == SLOT_PI || e->callee_slot == SLOT_G)
                     diag_error(r->diags, e->pos, "'%s' is a constant (a number) and cannot be called", e->text);
                 if (e->callee_slot < 0) {
@@ -375,7 +402,8 @@ static void resolve_statements(Document *doc, DiagList *diags)
         size_t k = names_find(labels, s->label);
         if (labels->keys[k]) {
             const Stmt *first = doc->stmts[labels->slots[k]];
-            diag_error(diags, s->name_pos, "check '%s' is already defined at %d:%d", s->label, first->pos.line,
+            diag_error(diags, s->name_pos, "%s '%s' is already defined at %d:%d", first->finding ? "finding" : "check",
+                       s->label, first->pos.line,
                        first->pos.col);
             continue;
         }
@@ -455,7 +483,7 @@ static void resolve_statements(Document *doc, DiagList *diags)
             for (size_t k = 0; k < s->nargs; k++)
                 ok = resolve_expr(&r, s->args[k]) && ok;
         } else if (s->kind == STMT_SOLVE) {
-            s->var_slot = resolve_name(&r, s->var, s->var_pos);
+            s->var_slot = resolve_name(&r, s->var, s->var_pos, false);
             ok = s->var_slot >= 0;
             if (s->var_slot >= 0 && doc->stmts[s->var_slot]->kind == STMT_CHECK)
                 ok = 0;

@@ -58,11 +58,13 @@ static void describe_operand(Ctx *c, const Expr *e, const Value *v, char *buf, s
     }
     const char *word = dim_name(v->q.dim);
     if (!unit) {
-        shown = unit_default(v->q.dim, v->q.temp, c->ev->units);
+        shown = unit_default_ref(v->q.dim, v->q.temp, v->q.pref, c->ev->units);
         unit = shown.text;
     }
     if (v->q.temp != TEMP_NONE)
         snprintf(buf, n, "an absolute temperature (%s)", unit);
+    else if (v->q.pref != PRES_PLAIN)
+        snprintf(buf, n, "%s pressure (%s)", v->q.pref == PRES_GAUGE ? "a gauge" : "an absolute", unit);
     else if (word)
         snprintf(buf, n, "%s (%s)", word, unit);
     else
@@ -107,6 +109,88 @@ static const char *op_verb(BinOp op)
     return "combine";
 }
 
+/* The unit that states `ref` in this calc's system, for the hints of the
+ * messages below: "psia", "kPag". */
+static const char *ref_unit(const Ctx *c, PressureRef ref)
+{
+    bool us = c->ev->units == UNITS_US;
+    if (ref == PRES_ABSOLUTE)
+        return us ? "psia" : "kPaa";
+    return us ? "psig" : "kPag";
+}
+
+/* Addition and subtraction of pressures with a stated reference (DESIGN
+ * 2.9): point - point of one reference is a plain pressure; point ± plain is
+ * a point of that reference; a plain pressure minus a gauge point is plain
+ * (a plain pressure is read as gauge). Two points added, a gauge and an
+ * absolute point combined, and plain - absolute are errors that say how to
+ * restate one side. */
+static bool add_sub_pressure(Ctx *c, const Expr *e, const Value *a, const Value *b, Value *out)
+{
+    PressureRef ra = a->q.pref, rb = b->q.pref, kind = PRES_PLAIN;
+    bool add = e->op == OP_ADD;
+    char da[128], db[128];
+    describe_operand(c, e->lhs, a, da, sizeof da);
+    describe_operand(c, e->rhs, b, db, sizeof db);
+    if (ra != PRES_PLAIN && rb != PRES_PLAIN && ra != rb) {
+        if (add)
+            diag_error(c->diags, e->pos,
+                       "cannot add %s to %s: state both on one reference first (write `as %s` "
+                       "on the line that defines the gauge one)", db, da, ref_unit(c, PRES_ABSOLUTE));
+        else
+            diag_error(c->diags, e->pos,
+                       "cannot subtract %s from %s: state both on one reference first (write "
+                       "`as %s` on the line that defines the gauge one)", db, da, ref_unit(c, PRES_ABSOLUTE));
+        return false;
+    }
+    if (ra != PRES_PLAIN && rb != PRES_PLAIN) {
+        if (add) {
+            diag_error(c->diags, e->pos,
+                       "cannot add two %s pressures (points on a scale); add a plain pressure "
+                       "(psi, kPa, bar) to a point, or subtract two points", pressure_ref_name(ra));
+            return false;
+        }
+        kind = PRES_PLAIN; /* a difference */
+    } else if (ra != PRES_PLAIN) {
+        kind = ra;
+    } else if (rb == PRES_ABSOLUTE || (add && rb != PRES_PLAIN)) {
+        if (!add) {
+            diag_error(c->diags, e->pos,
+                       "cannot subtract %s from %s, which states no reference (write `as %s` "
+                       "on the line that defines it, or write it in %s)", db, da,
+                       ref_unit(c, PRES_ABSOLUTE), ref_unit(c, PRES_ABSOLUTE));
+            return false;
+        }
+        kind = rb;
+    } else {
+        kind = PRES_PLAIN; /* plain - gauge: both read as gauge */
+    }
+    double x = add ? a->q.si + b->q.si : a->q.si - b->q.si;
+    if (!finite_or_error(c, e->pos, x, add ? "addition" : "subtraction"))
+        return false;
+    *out = value_number(qty(x, a->q.dim));
+    out->q.pref = kind;
+    return true;
+}
+
+/* A heat rate written in Btu/h stays in Btu/h (it is not shaft power, which
+ * the US default shows in hp), through sums and scaling by pure numbers. */
+static const char *const HEAT_RATE_HINT[2] = {"Btu/h", "kW"};
+
+static bool heat_rate(const Value *v)
+{
+    return v->hint[UNITS_US] == HEAT_RATE_HINT[UNITS_US];
+}
+
+static void keep_heat_rate(const Value *a, const Value *b, Value *out)
+{
+    if (dim_eq(out->q.dim, DIM_POWER) && ((heat_rate(a) && dim_eq(a->q.dim, DIM_POWER)) ||
+                                          (heat_rate(b) && dim_eq(b->q.dim, DIM_POWER)))) {
+        out->hint[UNITS_US] = HEAT_RATE_HINT[UNITS_US];
+        out->hint[UNITS_SI] = HEAT_RATE_HINT[UNITS_SI];
+    }
+}
+
 /* Addition and subtraction with the temperature rules of DESIGN 2.3:
  * absolute - absolute = difference; absolute ± difference = absolute;
  * absolute + absolute and difference - absolute are errors. */
@@ -122,6 +206,8 @@ static bool add_sub(Ctx *c, const Expr *e, const Value *a, const Value *b, Value
             diag_error(c->diags, e->pos, "cannot subtract %s from %s", db, da);
         return false;
     }
+    if (a->q.pref != PRES_PLAIN || b->q.pref != PRES_PLAIN)
+        return add_sub_pressure(c, e, a, b, out);
     bool abs_a = a->q.temp != TEMP_NONE, abs_b = b->q.temp != TEMP_NONE;
     TempKind kind = TEMP_NONE;
     if (abs_a && abs_b) {
@@ -151,6 +237,14 @@ static bool add_sub(Ctx *c, const Expr *e, const Value *a, const Value *b, Value
 
 static bool scalable(Ctx *c, const Expr *at, const Value *v, BinOp op)
 {
+    if (v->q.pref != PRES_PLAIN) {
+        diag_error(c->diags, at->pos,
+                   "cannot %s %s pressure (a point on a scale); subtract a point of the same "
+                   "reference first, as in (p - 0 %s), to get a plain pressure",
+                   op_verb(op), v->q.pref == PRES_GAUGE ? "a gauge" : "an absolute",
+                   ref_unit(c, v->q.pref));
+        return false;
+    }
     if (v->q.temp != TEMP_ABSOLUTE_OFFSET)
         return true;
     diag_error(c->diags, at->pos,
@@ -171,7 +265,10 @@ static bool eval_binary(Ctx *c, const Expr *e, Value *out)
     switch (e->op) {
     case OP_ADD:
     case OP_SUB:
-        return add_sub(c, e, &a, &b, out);
+        if (!add_sub(c, e, &a, &b, out))
+            return false;
+        keep_heat_rate(&a, &b, out);
+        return true;
     case OP_MUL:
     case OP_DIV: {
         if (!scalable(c, e->lhs, &a, e->op) || !scalable(c, e->rhs, &b, e->op))
@@ -185,6 +282,8 @@ static bool eval_binary(Ctx *c, const Expr *e, Value *out)
             return false;
         Dim d = e->op == OP_MUL ? dim_mul(a.q.dim, b.q.dim) : dim_div(a.q.dim, b.q.dim);
         *out = value_number(qty(x, d));
+        if (dim_is_none(a.q.dim) || dim_is_none(b.q.dim))
+            keep_heat_rate(&a, &b, out);
         return true;
     }
     case OP_POW: {
@@ -333,6 +432,12 @@ static bool eval_expr(Ctx *c, const Expr *e, Value *out)
             return false;
         }
         *out = e->has_unit ? value_number(unit_to_qty(e->number, &e->unit)) : value_number(qty_number(e->number));
+        if (out->q.pref == PRES_ABSOLUTE)
+            c->ev->atmosphere_used = true;
+        if (e->has_unit && dim_eq(out->q.dim, DIM_POWER) && strstr(e->unit.text, "Btu")) {
+            out->hint[UNITS_US] = HEAT_RATE_HINT[UNITS_US];
+            out->hint[UNITS_SI] = HEAT_RATE_HINT[UNITS_SI];
+        }
         return finite_or_error(c, e->pos, out->q.si, "number");
     case EXPR_STRING:
         *out = value_string(e->text);
@@ -360,6 +465,11 @@ static bool eval_expr(Ctx *c, const Expr *e, Value *out)
             return false;
         if (v.q.temp != TEMP_NONE) {
             diag_error(c->diags, e->pos, "cannot negate an absolute temperature");
+            return false;
+        }
+        if (v.q.pref != PRES_PLAIN) {
+            diag_error(c->diags, e->pos, "cannot negate %s pressure (a point on a scale)",
+                       v.q.pref == PRES_GAUGE ? "a gauge" : "an absolute");
             return false;
         }
         v.q.si = -v.q.si;
@@ -411,6 +521,8 @@ Unit eval_display_unit(const Evaluated *ev, const Value *v, const Unit *as_unit)
 {
     if (as_unit)
         return *as_unit;
+    if (v->q.pref != PRES_PLAIN)
+        return unit_default_ref(v->q.dim, v->q.temp, v->q.pref, ev->units);
     const char *hint = v->hint[ev->units];
     if (hint) {
         Unit u;
@@ -452,6 +564,13 @@ bool eval_unit_fits(DiagList *diags, UnitSystem sys, Pos at, const char *as_text
         diag_error(diags, at, "this is a temperature difference; show it in delta_%s, not %s", as_text, as_text);
         return false;
     }
+    if (v->q.pref == PRES_ABSOLUTE && u->pref == PRES_PLAIN) {
+        diag_error(diags, at,
+                   "an absolute pressure is shown in psia, kPaa, bara or MPaa, not %s; write "
+                   "`as %s` for the pressure above the atmosphere",
+                   as_text, sys == UNITS_US ? "psig" : "kPag");
+        return false;
+    }
     /* A point shown in a point unit converts with its offset; anything else
      * as a difference. The number shown must be a number. */
     bool difference = v->q.temp == TEMP_NONE || u->temp == TEMP_NONE;
@@ -460,6 +579,19 @@ bool eval_unit_fits(DiagList *diags, UnitSystem sys, Pos at, const char *as_text
         return false;
     }
     return true;
+}
+
+/* `as UNIT` of a pressure restates its reference (DESIGN 2.9): `as psia` of
+ * a plain or gauge pressure adds the atmosphere, `as psig` of an absolute
+ * one takes it away, a gauge pressure shown in a plain unit becomes plain. */
+static Value as_restate(Evaluated *ev, Value v, const Unit *u)
+{
+    if (v.kind != VAL_NUMBER || !dim_eq(v.q.dim, DIM_PRESSURE) || v.q.pref == u->pref)
+        return v;
+    if ((v.q.pref == PRES_ABSOLUTE) != (u->pref == PRES_ABSOLUTE))
+        ev->atmosphere_used = true;
+    v.q = qty_to_ref(v.q, u->pref, ev->atmosphere);
+    return v;
 }
 
 static bool as_fits(Ctx *c, const Stmt *s, const Value *v)
@@ -496,7 +628,12 @@ static void check_inlines(Evaluated *ev, const Inline *in, DiagList *diags)
             v = f;
         }
         if (in->has_as)
-            eval_unit_fits(diags, ev->units, in->pos, in->as_unit.text, &in->as_unit, v);
+            if (eval_unit_fits(diags, ev->units, in->pos, in->as_unit.text, &in->as_unit, v) &&
+                (v->q.pref == PRES_ABSOLUTE) != (in->as_unit.pref == PRES_ABSOLUTE))
+                diag_error(diags, in->pos,
+                           "showing this pressure in %s adds or takes away the atmosphere; do it on a "
+                           "calc line (NAME = ... as %s) and show that name", in->as_unit.text, in->as_unit.text);
+
     }
 }
 
@@ -530,7 +667,7 @@ static void set_var(Evaluated *ev, const Stmt *s, double x, DiagList *diags)
 /* Evaluate both sides of the equation as they stand. */
 static bool equation_sides(Evaluated *ev, const Stmt *s, DiagList *diags, Value *l, Value *r)
 {
-    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL};
+    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL, ev->atmosphere, false};
     Ctx c = {ev, ev->doc, diags, &cc, 0};
     bool ok = eval_expr(&c, s->lhs, l);
     ok = eval_expr(&c, s->rhs, r) && ok;
@@ -801,6 +938,7 @@ static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *c
         Unit vu = var->shown;
         Value va = value_number(qty(rep.start_lo, trial.q.dim)), vb = value_number(qty(rep.start_hi, trial.q.dim));
         va.q.temp = vb.q.temp = trial.q.temp;
+        va.q.pref = vb.q.pref = trial.q.pref;
         char na[40], nb[40];
         num_sig(unit_from_si(va.q.si, &vu, trial.q.temp == TEMP_NONE), 4, na, sizeof na);
         num_sig(unit_from_si(vb.q.si, &vu, trial.q.temp == TEMP_NONE), 4, nb, sizeof nb);
@@ -835,10 +973,13 @@ static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *c
     }
     Value v = value_number(qty(rep.root, trial.q.dim));
     v.q.temp = trial.q.temp;
+    v.q.pref = trial.q.pref;
     if (!as_fits(&c, s, &v)) {
         res->state = RES_FAILED;
         return;
     }
+    if (s->has_as)
+        v = as_restate(ev, v, &s->as_unit);
     res->value = v;
     res->shown = s->has_as ? s->as_unit : var->shown;
     res->state = RES_OK;
@@ -878,6 +1019,21 @@ static void eval_check(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
         describe_operand(c, s->lhs, &l, dl, sizeof dl);
         describe_operand(c, s->rhs, &r, dr, sizeof dr);
         diag_error(c->diags, s->lhs->pos, "cannot compare %s with %s", dl, dr);
+        res->state = RES_FAILED;
+        return;
+    }
+    /* A plain pressure compares with a gauge point (it is read as gauge),
+     * never with an absolute one. */
+    if ((l.q.pref == PRES_ABSOLUTE) != (r.q.pref == PRES_ABSOLUTE)) {
+        char dl[128], dr[128];
+        describe_operand(c, s->lhs, &l, dl, sizeof dl);
+        describe_operand(c, s->rhs, &r, dr, sizeof dr);
+        bool left_abs = l.q.pref == PRES_ABSOLUTE;
+        PressureRef other = left_abs ? r.q.pref : l.q.pref;
+        diag_error(c->diags, s->lhs->pos,
+                   "cannot compare %s with %s: state both on one reference first (write `as %s` "
+                   "on the line that defines the %s one)", dl, dr, ref_unit(c, PRES_ABSOLUTE),
+                   other == PRES_GAUGE ? "gauge" : "plain");
         res->state = RES_FAILED;
         return;
     }
@@ -1169,7 +1325,7 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
     for (size_t k = 0; k < s->ndeps; k++)
         if (ev->results[s->deps[k]].state != RES_OK)
             return; /* not evaluated: an input failed */
-    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL};
+    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL, ev->atmosphere, false};
     Ctx c = {ev, ev->doc, diags, &cc, 0};
     switch (s->kind) {
     case STMT_DEF: {
@@ -1182,6 +1338,8 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
             res->state = RES_FAILED;
             break;
         }
+        if (s->has_as)
+            v = as_restate(ev, v, &s->as_unit);
         res->value = v;
         if (v.kind == VAL_NUMBER) {
             /* A plain reference to another name keeps that name's unit. */
@@ -1221,6 +1379,8 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
     res->nmethods = cc.nmethods;
     if (!res->table)
         res->table = res->state == RES_OK ? cc.table : NULL;
+    if (cc.atmosphere_used)
+        ev->atmosphere_used = true;
 }
 
 void eval_recompute(Evaluated *ev, const int *changed, size_t nchanged, size_t upto, DiagList *diags)
@@ -1283,10 +1443,10 @@ static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagL
     Arena *a = &doc->arena;
     cr->table = ct;
     for (size_t i = 0; i < doc->nstmts; i++)
-        cr->nchecks += doc->stmts[i]->kind == STMT_CHECK;
+        cr->nchecks += doc->stmts[i]->kind == STMT_CHECK && !doc->stmts[i]->finding;
     cr->check_slots = arena_alloc(a, (cr->nchecks + 1) * sizeof *cr->check_slots);
     for (size_t i = 0, k = 0; i < doc->nstmts; i++)
-        if (doc->stmts[i]->kind == STMT_CHECK)
+        if (doc->stmts[i]->kind == STMT_CHECK && !doc->stmts[i]->finding)
             cr->check_slots[k++] = (int)i;
     cr->rows = arena_alloc(a, (ct->nrows + 1) * sizeof *cr->rows);
 
@@ -1299,7 +1459,7 @@ static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagL
             return; /* reported already, or the input itself failed */
         base[k] = ev->results[slots[k]].value;
     }
-    CallCtx cc = {a, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL};
+    CallCtx cc = {a, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL, ev->atmosphere, false};
     Ctx c = {ev, doc, diags, &cc, 0};
     /* The shown expressions are checked once, with the calc's own values and
      * errors reported, so a bad field or dimension is an error, not a
@@ -1325,7 +1485,7 @@ static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagL
                 continue;
             }
             const Value *b = &base[k];
-            if (v.kind != b->kind || (v.kind == VAL_NUMBER && (!dim_eq(v.q.dim, b->q.dim) || (v.q.temp == TEMP_NONE) != (b->q.temp == TEMP_NONE)))) {
+            if (v.kind != b->kind || (v.kind == VAL_NUMBER && (!dim_eq(v.q.dim, b->q.dim) || (v.q.temp == TEMP_NONE) != (b->q.temp == TEMP_NONE) || v.q.pref != b->q.pref))) {
                 char dv[128], db[128];
                 describe_operand(&c, e, &v, dv, sizeof dv);
                 value_describe(b, ev->units, db, sizeof db);
@@ -1440,6 +1600,8 @@ Evaluated *eval_document_in(Document *doc, UseSet *uses, DiagList *diags)
     use_set_enter(uses, doc);
     ev->units = doc->meta.units;
     ev->digits = doc->meta.digits;
+    ev->atmosphere = doc->meta.atmosphere > 0 ? doc->meta.atmosphere : UNIT_STANDARD_ATMOSPHERE;
+    ev->atmosphere_used = doc->meta.atm_source != ATM_STANDARD;
     ev->results = arena_alloc(&doc->arena, (doc->nstmts + 1) * sizeof *ev->results);
     Vec all = {0};
     for (size_t i = 0; i < doc->nstmts; i++) {
@@ -1448,7 +1610,10 @@ Evaluated *eval_document_in(Document *doc, UseSet *uses, DiagList *diags)
         keep_warnings(ev, i, diags, before);
         const StmtResult *r = &ev->results[i];
         note_methods(ev, r, &all);
-        if (doc->stmts[i]->kind == STMT_CHECK && r->state == RES_OK) {
+        if (doc->stmts[i]->kind == STMT_CHECK && doc->stmts[i]->finding && r->state == RES_OK) {
+            ev->nfindings++;
+            ev->nfindings_yes += r->holds;
+        } else if (doc->stmts[i]->kind == STMT_CHECK && r->state == RES_OK) {
             ev->nchecks++;
             if (!r->holds)
                 ev->nfailed++;

@@ -43,12 +43,17 @@ static bool call_builtin(CallCtx *cx, const char *name, Pos at, const Value *arg
 
 static bool need(CallCtx *cx, const Value *v, Dim d, Pos at, const char *what)
 {
-    if (v->kind == VAL_NUMBER && dim_eq(v->q.dim, d) && v->q.temp == TEMP_NONE)
+    if (v->kind == VAL_NUMBER && dim_eq(v->q.dim, d) && v->q.temp == TEMP_NONE && v->q.pref != PRES_ABSOLUTE)
         return true;
     char want[96], got[96];
     dim_describe(d, TEMP_NONE, cx->units, want, sizeof want);
     value_describe(v, cx->units, got, sizeof got);
-    diag_error(cx->diags, at, "%s must be %s, found %s", what, want, got);
+    if (v->kind == VAL_NUMBER && v->q.pref == PRES_ABSOLUTE)
+        diag_error(cx->diags, at,
+                   "%s must be %s above the atmosphere, found %s; write `as %s` on the line that "
+                   "defines it", what, want, got, cx->units == UNITS_US ? "psig" : "kPag");
+    else
+        diag_error(cx->diags, at, "%s must be %s, found %s", what, want, got);
     return false;
 }
 

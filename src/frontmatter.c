@@ -10,12 +10,15 @@
 #include "bounds.h"
 
 #include <ctype.h>
+#include <math.h>
 #include <stdlib.h>
 #include <string.h>
 #include <yaml.h>
 
 #include "bounds.h"
 #include "strmap.h"
+#include "numfmt.h"
+#include "parse.h"
 
 typedef struct FmCtx {
     Document *doc;
@@ -173,6 +176,100 @@ static int ieq(const char *a, const char *b)
     return *a == *b;
 }
 
+/* A quantity written "VALUE UNIT" ("12.1 psia", "1500 ft"), of dimension
+ * `want`. False (reported) when it is not one. */
+static bool quantity_value(FmCtx *c, yaml_node_t *v, const char *key, Dim want, const char *want_text,
+                           Quantity *q, Unit *unit)
+{
+    const char *s = scalar(c, v, key);
+    if (!s)
+        return false;
+    Pos at = node_pos(c, v);
+    size_t len = strlen(s), i = 0;
+    bool neg = len > 0 && s[0] == '-';
+    if (neg || (len > 0 && s[0] == '+'))
+        i++;
+    double x;
+    size_t used = num_parse(s + i, len - i, &x);
+    size_t u0 = i + used;
+    while (u0 < len && s[u0] == ' ')
+        u0++;
+    if (used == 0 || u0 == len || u0 == i + used) {
+        diag_error(c->diags, at, "front matter: '%s' must be %s with its unit, as in %s; found '%s'", key,
+                   dim_eq(want, DIM_PRESSURE) ? "a pressure" : "a length", want_text, s);
+        return false;
+    }
+    Pos upos = at;
+    upos.col += (int)u0;
+    if (!parse_unit(s + u0, len - u0, upos, unit, c->diags))
+        return false;
+    if (!dim_eq(unit->dim, want)) {
+        diag_error(c->diags, upos, "front matter: '%s' must be %s, as in %s; found a unit of %s", key,
+                   dim_eq(want, DIM_PRESSURE) ? "a pressure" : "a length", want_text,
+                   dim_name(unit->dim) ? dim_name(unit->dim) : unit->text);
+        return false;
+    }
+    *q = unit_to_qty(neg ? -x : x, unit);
+    return true;
+}
+
+/* atmosphere: an absolute pressure (a plain unit is read as absolute here:
+ * an atmosphere has no other reference). elevation: the site above sea
+ * level, turned into an atmosphere by the troposphere law of the U.S.
+ * Standard Atmosphere, 1976 (NOAA/NASA/USAF):
+ *   p = 101.325 kPa * (1 - 2.25577e-5 * z/m)^5.25588
+ * with 2.25577e-5 /m = L/T0 = 0.0065 K/m / 288.15 K and 5.25588 =
+ * g0*M/(R*L). The law holds in the troposphere, below 11 000 m. */
+static void atmosphere_key(FmCtx *c, const char *key, yaml_node_t *v)
+{
+    Meta *m = &c->doc->meta;
+    Quantity q;
+    Unit u;
+    if (m->atm_source != ATM_STANDARD) {
+        diag_error(c->diags, node_pos(c, v),
+                   "front matter: give 'atmosphere' or 'elevation', not both (the atmosphere "
+                   "follows from the elevation)");
+        return;
+    }
+    if (strcmp(key, "atmosphere") == 0) {
+        if (!quantity_value(c, v, key, DIM_PRESSURE, "'atmosphere: 12.2 psia'", &q, &u))
+            return;
+        if (u.pref == PRES_GAUGE) {
+            diag_error(c->diags, node_pos(c, v),
+                       "front matter: 'atmosphere' is an absolute pressure; write it in psia, kPaa, "
+                       "bara or a plain unit, not %s", u.text);
+            return;
+        }
+        if (!(q.si >= 20e3 && q.si <= 110e3)) {
+            diag_error(c->diags, node_pos(c, v),
+                       "front matter: 'atmosphere' of %s is not an atmosphere on Earth's surface "
+                       "(expected 20 kPa to 110 kPa)", scalar(c, v, key));
+            return;
+        }
+        m->atmosphere = q.si;
+        m->atm_source = ATM_GIVEN;
+        m->atmosphere_text = scalar(c, v, key);
+        return;
+    }
+    if (!quantity_value(c, v, key, DIM_L, "'elevation: 1500 ft'", &q, &u))
+        return;
+    if (!(q.si >= -500.0 && q.si <= 11000.0)) {
+        diag_error(c->diags, node_pos(c, v),
+                   "front matter: 'elevation' of %s is outside -500 m to 11000 m, where the "
+                   "standard-atmosphere relation holds", scalar(c, v, key));
+        return;
+    }
+    m->elevation = q.si;
+    m->atmosphere = frontmatter_atmosphere_at(q.si);
+    m->atm_source = ATM_ELEVATION;
+    m->elevation_text = scalar(c, v, key);
+}
+
+double frontmatter_atmosphere_at(double z)
+{
+    return 101325.0 * pow(1.0 - 2.25577e-5 * z, 5.25588);
+}
+
 static void one_key(FmCtx *c, const char *key, yaml_node_t *k, yaml_node_t *v)
 {
     Meta *m = &c->doc->meta;
@@ -233,11 +330,13 @@ static void one_key(FmCtx *c, const char *key, yaml_node_t *k, yaml_node_t *v)
         revisions(c, v);
     } else if (strcmp(key, "parts") == 0) {
         parts(c, v);
+    } else if (strcmp(key, "atmosphere") == 0 || strcmp(key, "elevation") == 0) {
+        atmosphere_key(c, key, v);
     } else {
         diag_error(c->diags, node_pos(c, k),
                    "front matter: unknown key '%s' (known: title, project, client, number, subject, "
                    "revision, date, prepared, checked, approved, engineer, license, status, units, "
-                   "paper, digits, code, revisions, parts)", key);
+                   "paper, digits, code, revisions, parts, atmosphere, elevation)", key);
     }
 }
 
@@ -260,6 +359,8 @@ size_t frontmatter_read(Document *doc, DiagList *diags)
     m->units = UNITS_US;
     m->paper = PAPER_LETTER;
     m->digits = 4;
+    m->atmosphere = UNIT_STANDARD_ATMOSPHERE;
+    m->atm_source = ATM_STANDARD;
     const char *text = doc->text, *end = text + doc->len;
     if (end - text >= 3 && memcmp(text, "\xEF\xBB\xBF", 3) == 0)
         text += 3;

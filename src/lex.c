@@ -127,6 +127,12 @@ static size_t exponent_length(const char *s, size_t left)
     return k > j ? k : 0;
 }
 
+/* `100` glued to a name (`100ft` in psi/100ft): 3, else 0. */
+static size_t hundred_length(const char *s, size_t left)
+{
+    return left > 3 && memcmp(s, "100", 3) == 0 && is_name_start((unsigned char)s[3]) ? 3 : 0;
+}
+
 /* The unit after a number: name[^exp] joined by * / · with balanced
  * parentheses, no spaces. Returns its length (0: no unit). */
 static size_t unit_length(const char *s, size_t left)
@@ -146,6 +152,8 @@ static size_t unit_length(const char *s, size_t left)
                 want_atom = 0;
                 continue;
             }
+            if (i > 0 && hundred_length(s + i, left - i) > 0)
+                i += 3; /* psi/100ft: a hundred feet */
             size_t n = name_length(s + i, left - i);
             if (n == 0 || !is_name_start((unsigned char)s[i]))
                 break;
@@ -167,7 +175,8 @@ static size_t unit_length(const char *s, size_t left)
         else if (is_middle_dot(s + i, left - i))
             op = 2;
         if (op && i + op < left &&
-            (is_name_start((unsigned char)s[i + op]) || s[i + op] == '(') &&
+            (is_name_start((unsigned char)s[i + op]) || s[i + op] == '(' ||
+             hundred_length(s + i + op, left - i - op) > 0) &&
             !is_middle_dot(s + i + op, left - i - op)) {
             i += op;
             want_atom = 1;

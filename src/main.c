@@ -173,7 +173,9 @@ static void print_check_text(const Evaluated *ev, const DiagList *dl)
     for (size_t i = 0; i < doc->nstmts; i++) {
         const Stmt *s = doc->stmts[i];
         const StmtResult *r = &ev->results[i];
-        if (s->kind == STMT_CHECK && r->state == RES_OK) {
+        if (s->kind == STMT_CHECK && s->finding && r->state == RES_OK) {
+            printf("  %-5s %s (finding)\n", r->holds ? "yes" : "no", s->label);
+        } else if (s->kind == STMT_CHECK && r->state == RES_OK) {
             char u[32] = "n/a";
             if (isfinite(r->utilization))
                 num_sig(r->utilization, 3, u, sizeof u);
@@ -991,6 +993,9 @@ static int cmd_convert(int argc, char **argv)
         } else {
             /* A point converts to a point with offsets; a difference as a
              * difference (eval_unit_fits refused the mixed cases). */
+            /* Gauge and absolute differ by the standard atmosphere here (a
+             * calc uses its own, DESIGN 2.9). */
+            v.q = qty_to_ref(v.q, to.pref == PRES_PLAIN ? v.q.pref : to.pref, UNIT_STANDARD_ATMOSPHERE);
             bool difference = v.q.temp == TEMP_NONE || to.temp == TEMP_NONE;
             double y = unit_from_si(v.q.si, &to, difference);
             char buf[64];

@@ -21,6 +21,9 @@ typedef struct Parser {
     DiagList *diags;
     int depth;
     int failed;
+    const char *unit_end;    /* just past the last literal's unit, for hints */
+    const char *unit_text;
+    size_t unit_len;
 } Parser;
 
 static void advance(Parser *p) { p->tok = lex_next(&p->lx); }
@@ -230,6 +233,9 @@ static Expr *parse_primary(Parser *p)
             e->has_unit = 1;
             if (!resolve_unit(t.unit, t.unit_len, t.unit_pos, &e->unit, p->diags, t.text, t.len))
                 p->failed = 1;
+            p->unit_text = t.unit;
+            p->unit_len = t.unit_len;
+            p->unit_end = t.unit + t.unit_len;
         } else {
             e->text = arena_strndup(p->arena, t.text, t.len);
         }
@@ -346,6 +352,14 @@ static Expr *parse_unary(Parser *p)
         advance(p);
         Expr *operand = parse_unary(p);
         if (!operand || t.kind == TOK_PLUS) {
+            r = operand;
+        } else if (operand->kind == EXPR_NUMBER && operand->has_unit &&
+                   (operand->unit.temp != TEMP_NONE || operand->unit.pref != PRES_PLAIN)) {
+            /* `-10 degC`, `-5 psig`: a negative value on a scale, not the
+             * negation of a point (which is an error). */
+            operand->number = -operand->number;
+            operand->text = arena_printf(p->arena, "-%s", operand->text);
+            operand->pos = t.pos;
             r = operand;
         } else {
             r = new_expr(p, EXPR_NEG, t.pos);
@@ -489,9 +503,50 @@ static int parse_as(Parser *p, Stmt *st)
     return 1;
 }
 
+/* A name where the statement should end may be a unit in the wrong place:
+ * `3 ft H2O` (a space inside a unit) or `V = Q/A ft/s` (a unit after a
+ * computed value, which only `as` can give). Say so when the words parse as
+ * a unit; false when they do not. */
+static int unit_misplaced(Parser *p)
+{
+    if (p->tok.kind != TOK_NAME)
+        return 0;
+    const char *s = p->tok.text, *end = p->lx.line + p->lx.comment_at;
+    while (end > s && (end[-1] == ' ' || end[-1] == '\t' || end[-1] == '\r'))
+        end--;
+    size_t n = (size_t)(end - s);
+    Unit u;
+    char joined[96];
+    bool glued = p->unit_end && p->unit_end <= s;
+    for (const char *q = p->unit_end; glued && q < s; q++)
+        glued = *q == ' ' || *q == '\t';
+    if (glued && p->unit_len + p->tok.len < sizeof joined) {
+        memcpy(joined, p->unit_text, p->unit_len);
+        memcpy(joined + p->unit_len, s, p->tok.len);
+        if (unit_parse(joined, p->unit_len + p->tok.len, &u, NULL, NULL) == UNIT_OK) {
+            char msg[200];
+            snprintf(msg, sizeof msg, "a unit is written without spaces: did you mean %.*s?",
+                     (int)(p->unit_len + p->tok.len), joined);
+            fail(p, p->tok.pos, "%s", msg);
+            return 1;
+        }
+    }
+    if (n > 0 && n < 48 && unit_parse(s, n, &u, NULL, NULL) == UNIT_OK) {
+        char msg[200];
+        snprintf(msg, sizeof msg,
+                 "expected the end of the statement, found '%.*s'; a unit follows only a number: "
+                 "did you mean 'as %.*s'?", (int)n, s, (int)n, s);
+        fail(p, p->tok.pos, "%s", msg);
+        return 1;
+    }
+    return 0;
+}
+
 static int expect_eol(Parser *p)
 {
     if (p->failed)
+        return 0;
+    if (p->tok.kind != TOK_EOL && unit_misplaced(p))
         return 0;
     if (p->tok.kind != TOK_EOL) {
         expected(p, "the end of the statement");
@@ -543,13 +598,17 @@ Stmt *parse_statement(Arena *a, const char *line, size_t len, Pos start, DiagLis
         return NULL; /* blank */
     }
 
-    if (tok_is_word(&p.tok, "check")) {
+    /* finding LABEL: A OP B reads like a check, but its answer is a fact of
+     * the design (a pressure-reducing valve is required: yes), not a verdict. */
+    if (tok_is_word(&p.tok, "check") || tok_is_word(&p.tok, "finding")) {
         st->kind = STMT_CHECK;
+        st->finding = tok_is_word(&p.tok, "finding");
         const char *label;
         size_t llen;
         Pos lpos;
         if (!lex_raw_until(&p.lx, ':', &label, &llen, &lpos) || llen == 0) {
-            fail(&p, p.tok.pos, "%s", "expected 'check LABEL: A <= B' (a label, then ':')");
+            fail(&p, p.tok.pos, "%s", st->finding ? "expected 'finding LABEL: A <= B' (a label, then ':')"
+                                                  : "expected 'check LABEL: A <= B' (a label, then ':')");
             st->parse_failed = 1;
             return st;
         }

@@ -308,7 +308,7 @@ void dim_format_si(Dim d, char *buf, size_t n)
 
 Quantity qty(double si, Dim dim)
 {
-    return (Quantity){si, dim, TEMP_NONE};
+    return (Quantity){si, dim, TEMP_NONE, PRES_PLAIN};
 }
 
 Quantity qty_number(double x)
@@ -321,7 +321,9 @@ Quantity qty_number(double x)
 enum {
     U_PFX = 1, /* takes SI prefixes */
     U_ABS = 2, /* absolute temperature from absolute zero (K, degR) */
-    U_OFS = 4  /* absolute temperature with an offset (degC, degF) */
+    U_OFS = 4, /* absolute temperature with an offset (degC, degF) */
+    U_GAUGE = 8, /* a pressure stated above the atmosphere (psig, ...) */
+    U_ABSP = 16  /* a pressure stated above vacuum (psia, ...) */
 };
 
 typedef struct UnitDef {
@@ -365,7 +367,8 @@ static const struct {
 } refused[] = {
     {"lb", "lbm"},   {"lbs", "lbm"}, {"as", NULL},     {"hr", "h"},
     {"hrs", "h"},    {"sec", "s"},   {"secs", "s"},    {"mins", "min"},
-    {"gallon", "gal"}, {"gallons", "gal"}, {"psig", "psi"}, {"psia", "psi"},
+    {"gallon", "gal"}, {"gallons", "gal"}, {"F", "degF"}, {"C", "degC"},
+    {"lps", "L/s"},  {"gph", "gal/h"}, {"cfm", "ft^3/min"},
 };
 
 static const UnitDef *find_exact(const char *key, size_t n)
@@ -563,7 +566,7 @@ static bool parse_exponent(Parser *p, double *out)
     return true;
 }
 
-/* primary := NAME | '1' | '(' expr ')' */
+/* primary := NAME | '100' NAME | '%' | '1' | '(' expr ')' */
 static Term parse_primary(Parser *p, int depth)
 {
     Term t = {1, DIM_NONE};
@@ -589,7 +592,24 @@ static Term parse_primary(Parser *p, int depth)
         p->pos++;
         return t;
     }
-    if (c == '1' && !(p->pos + 1 < p->len && (is_digit(p->s[p->pos + 1]) || p->s[p->pos + 1] == '.'))) {
+    if (c == '%') { /* percent, the one unit that is not a name */
+        p->pos++;
+        p->names++;
+        p->last = find_exact("%", 1);
+        p->last_scale = 1;
+        t.factor = p->last->factor;
+        return t;
+    }
+    /* "100ft" is one factor, a hundred feet, for gradients per hundred
+     * lengths (psi/100ft, m/100m); no other number is glued to a name. */
+    double times = 1;
+    if (p->len - p->pos > 3 && memcmp(p->s + p->pos, "100", 3) == 0 &&
+        name_char(p->s, p->len, p->pos + 3, true) > 0) {
+        p->pos += 3;
+        start = p->pos;
+        times = 100;
+        p->ones++; /* not a lone name: never a point */
+    } else if (c == '1' && !(p->pos + 1 < p->len && (is_digit(p->s[p->pos + 1]) || p->s[p->pos + 1] == '.'))) {
         p->pos++;
         p->ones++;
         return t; /* "1/s" */
@@ -612,7 +632,7 @@ static Term parse_primary(Parser *p, int depth)
     p->names++;
     p->last = def;
     p->last_scale = scale;
-    t.factor = def->factor * scale;
+    t.factor = def->factor * scale * times;
     t.dim = def->dim;
     return t;
 }
@@ -701,7 +721,7 @@ static bool normalise_text(const char *s, size_t len, char *out, size_t cap)
 UnitStatus unit_parse(const char *s, size_t len, Unit *out, size_t *bad_off, size_t *bad_len)
 {
     Parser p = {.s = s, .len = len, .status = UNIT_OK, .last_scale = 1};
-    Unit u = {1, 0, DIM_NONE, TEMP_NONE, ""};
+    Unit u = {1, 0, DIM_NONE, TEMP_NONE, PRES_PLAIN, ""};
     if (len >= sizeof u.text) {
         fail(&p, UNIT_TOO_LONG, 0, len);
     } else {
@@ -728,6 +748,10 @@ UnitStatus unit_parse(const char *s, size_t len, Unit *out, size_t *bad_off, siz
             u.temp = TEMP_ABSOLUTE_OFFSET;
         } else if (p.last->flags & U_ABS) {
             u.temp = TEMP_ABSOLUTE;
+        } else if (p.last->flags & U_GAUGE) {
+            u.pref = PRES_GAUGE;
+        } else if (p.last->flags & U_ABSP) {
+            u.pref = PRES_ABSOLUTE;
         }
     }
     *out = u;
@@ -738,7 +762,7 @@ UnitStatus unit_parse(const char *s, size_t len, Unit *out, size_t *bad_off, siz
 
 Quantity unit_to_qty(double v, const Unit *u)
 {
-    return (Quantity){v * u->factor + u->offset, u->dim, u->temp};
+    return (Quantity){v * u->factor + u->offset, u->dim, u->temp, u->pref};
 }
 
 double unit_from_si(double si, const Unit *u, bool is_difference)
@@ -781,7 +805,7 @@ static Unit unit_of(const char *text, Dim d)
         return u;
     /* Unreachable with the tables above (the tests parse every entry), but
      * never return garbage: fall back to coherent SI. */
-    u = (Unit){1, 0, d, TEMP_NONE, ""};
+    u = (Unit){1, 0, d, TEMP_NONE, PRES_PLAIN, ""};
     dim_format_si(d, u.text, sizeof u.text);
     return u;
 }
@@ -797,11 +821,42 @@ Unit unit_default(Dim d, TempKind temp, UnitSystem sys)
     for (size_t i = 0; i < sizeof defaults / sizeof defaults[0]; i++)
         if (dim_eq(d, *defaults[i].dim))
             return unit_of(us ? defaults[i].us : defaults[i].si, d);
-    Unit u = {1, 0, d, TEMP_NONE, ""};
+    Unit u = {1, 0, d, TEMP_NONE, PRES_PLAIN, ""};
     /* A pure number is shown bare: "Re = 45000", not "45000 1". */
     if (!dim_is_none(d))
         dim_format_si(d, u.text, sizeof u.text);
     return u;
+}
+
+Unit unit_default_ref(Dim d, TempKind temp, PressureRef ref, UnitSystem sys)
+{
+    if (ref == PRES_GAUGE && dim_eq(d, DIM_PRESSURE))
+        return unit_of(sys == UNITS_US ? "psig" : "kPag", d);
+    if (ref == PRES_ABSOLUTE && dim_eq(d, DIM_PRESSURE))
+        return unit_of(sys == UNITS_US ? "psia" : "kPaa", d);
+    return unit_default(d, temp, sys);
+}
+
+Quantity qty_to_ref(Quantity q, PressureRef to, double atm)
+{
+    if (!dim_eq(q.dim, DIM_PRESSURE) || q.pref == to)
+        return q;
+    if (to == PRES_ABSOLUTE)
+        q.si += atm;
+    else if (q.pref == PRES_ABSOLUTE)
+        q.si -= atm;
+    q.pref = to;
+    return q;
+}
+
+const char *pressure_ref_name(PressureRef r)
+{
+    switch (r) {
+    case PRES_GAUGE: return "gauge";
+    case PRES_ABSOLUTE: return "absolute";
+    case PRES_PLAIN: break;
+    }
+    return NULL;
 }
 
 void unit_each(UnitVisit fn, void *ctx)
@@ -854,8 +909,57 @@ static size_t edit_distance(const char *a, size_t na, const char *b, size_t nb, 
 /* Suggestions built from pieces live here; a table name is returned as is. */
 static _Thread_local char suggest_buf[sizeof(((Unit *)0)->text)];
 
-/* The nearest spelling for one name (no operators), or NULL. */
+/* The reference a name seems to state: a plain pressure unit, in any case,
+ * with `a` or `g` after it ("MPag", "PSIA", "kpaa"). PRES_PLAIN for any
+ * other name. */
+static PressureRef typed_reference(const char *key, size_t n, double *factor)
+{
+    if (n < 3 || n >= 32)
+        return PRES_PLAIN;
+    char last = lower(key[n - 1]);
+    if (last != 'a' && last != 'g')
+        return PRES_PLAIN;
+    PressureRef ref = last == 'a' ? PRES_ABSOLUTE : PRES_GAUGE;
+    double scale;
+    const UnitDef *def = resolve_name(key, n - 1, &scale);
+    if (def && dim_eq(def->dim, DIM_PRESSURE) && !(def->flags & (U_GAUGE | U_ABSP))) {
+        *factor = def->factor * scale;
+        return ref;
+    }
+    for (size_t i = 0; i < REGISTRY_LEN; i++)
+        if (dim_eq(registry[i].dim, DIM_PRESSURE) && !(registry[i].flags & (U_GAUGE | U_ABSP)) &&
+            strlen(registry[i].name) == n - 1 && edit_distance(key, n - 1, registry[i].name, n - 1, true) == 0) {
+            *factor = registry[i].factor;
+            return ref;
+        }
+    return PRES_PLAIN;
+}
+
+static const char *suggest_any(const char *name, size_t len);
+
+/* The nearest spelling for one name (no operators), or NULL. A suggestion
+ * never changes the meaning: a name that reads as a gauge or absolute
+ * pressure ("kpag") is offered only the same unit stating the same
+ * reference, or nothing ("MPag" gets no kPag): never the plain unit, as
+ * "psia" once drew "psi", another quantity. */
 static const char *suggest_name(const char *name, size_t len)
+{
+    const char *sug = suggest_any(name, len);
+    if (!sug)
+        return NULL;
+    char key[96];
+    size_t n = name_key(name, len, key, sizeof key);
+    Unit u;
+    double factor = 0;
+    PressureRef want = n ? typed_reference(key, n, &factor) : PRES_PLAIN;
+    if (want != PRES_PLAIN &&
+        (unit_parse(sug, strlen(sug), &u, NULL, NULL) != UNIT_OK || u.pref != want ||
+         fabs(u.factor - factor) > 1e-12 * factor))
+        return NULL;
+    return sug;
+}
+
+static const char *suggest_any(const char *name, size_t len)
 {
     char key[96];
     size_t n = name_key(name, len, key, sizeof key);

@@ -7,7 +7,7 @@
 #ifndef HEADROOM_METHODS_WATER_H
 #define HEADROOM_METHODS_WATER_H
 
-#define WATER_T_MIN 273.16            /* K: 0.01 degC, the triple point */
+#define WATER_T_MIN 273.15            /* K: 0 degC, the lower bound of IF97 region 1 */
 #define WATER_T_MAX 423.15            /* K: 150 degC */
 #define WATER_P_MAX 100.0e6           /* Pa: upper bound of IF97 region 1 */
 #define WATER_P_DEFAULT 101325.0      /* Pa: one standard atmosphere */

@@ -147,7 +147,8 @@ WaterStatus water_props(double T, double p, WaterProps *out)
 {
     if (!isfinite(T) || !isfinite(p))
         return WATER_NOT_FINITE;
-    if (T < WATER_T_MIN || T > WATER_T_MAX)
+    /* 32 degF converts to 273.15 K give or take an ulp: the bound admits it. */
+    if (T < WATER_T_MIN - 1e-9 || T > WATER_T_MAX)
         return WATER_T_OUT_OF_RANGE;
     if (p > WATER_P_MAX)
         return WATER_P_TOO_HIGH;

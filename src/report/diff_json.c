@@ -103,7 +103,7 @@ static json_t *value_change_json(const Diff *d, const ValueChange *c, bool resul
 static const char *stmt_kind(const Stmt *s)
 {
     switch (s->kind) {
-    case STMT_CHECK: return "check";
+    case STMT_CHECK: return s->finding ? "finding" : "check";
     case STMT_SOLVE: return "solve";
     case STMT_PATH: return "path";
     case STMT_NETWORK: return "network";
@@ -193,6 +193,22 @@ static json_t *diff_json(const Diff *d)
         json_array_append_new(checks, o);
     }
     json_object_set_new(root, "checks", checks);
+    if (d->nfindings) {
+        json_t *findings = json_array();
+        static const char *const fkinds[] = {"now_no", "now_yes", "", "condition"};
+        for (size_t i = 0; i < d->nfindings; i++) {
+            const CheckChange *c = &d->findings[i];
+            json_t *o = json_object();
+            json_object_set_new(o, "label", json_string(d->new_ev->doc->stmts[c->new_slot]->label));
+            set_lines(o, d, c->new_slot, c->old_slot);
+            json_object_set_new(o, "change", json_string(fkinds[c->kind]));
+            json_object_set_new(o, "old_answer", json_boolean(d->old_ev->results[c->old_slot].holds));
+            json_object_set_new(o, "new_answer", json_boolean(d->new_ev->results[c->new_slot].holds));
+            json_object_set_new(o, "condition_changed", json_boolean(c->condition_changed));
+            json_array_append_new(findings, o);
+        }
+        json_object_set_new(root, "findings", findings);
+    }
 
     json_t *stmts = json_array();
     static const char *const changes[] = {"added", "removed", "renamed"};

@@ -141,6 +141,24 @@ static void util_text(double u, int digits, char *buf, size_t n)
         snprintf(buf, n, "n/a");
 }
 
+static void put_findings(const Diff *d, StrBuf *out)
+{
+    sb_printf(out, "\nfindings (%zu changed):\n", d->nfindings);
+    for (size_t i = 0; i < d->nfindings; i++) {
+        const CheckChange *c = &d->findings[i];
+        const char *label = d->new_ev->doc->stmts[c->new_slot]->label;
+        bool now = d->new_ev->results[c->new_slot].holds;
+        if (c->kind == CHECK_CONDITION)
+            sb_printf(out, "  %-9s  %s: condition rewritten, answer unchanged", now ? "yes" : "no", label);
+        else
+            sb_printf(out, "  %-9s  %s", now ? "no → yes" : "yes → no", label);
+        if (c->condition_changed && c->kind != CHECK_CONDITION)
+            sb_puts(out, "; condition rewritten");
+        put_line(d, c->new_slot, c->old_slot, out);
+        sb_putc(out, '\n');
+    }
+}
+
 static void put_checks(const Diff *d, StrBuf *out)
 {
     size_t flips = 0;
@@ -195,7 +213,7 @@ static void stmt_text(const Evaluated *ev, const Stmt *s, StrBuf *out)
         render_expr_text(ev, s->rhs, false, out);
         break;
     case STMT_CHECK:
-        sb_printf(out, "check %s: ", s->label);
+        sb_printf(out, "%s %s: ", s->finding ? "finding" : "check", s->label);
         render_expr_text(ev, s->lhs, false, out);
         sb_printf(out, " %s ", cmp_op_text(s->cmp, false));
         render_expr_text(ev, s->rhs, false, out);
@@ -407,6 +425,8 @@ bool render_diff_text(const Diff *d, FILE *out)
         put_results(d, &sb);
     if (d->nchecks)
         put_checks(d, &sb);
+    if (d->nfindings)
+        put_findings(d, &sb);
     if (d->nstmts)
         put_stmts(d, &sb);
     if (d->ncites)
@@ -427,6 +447,7 @@ bool render_diff_text(const Diff *d, FILE *out)
         count(&sb, &sep, d->nresults, "result", "results");
         count(&sb, &sep, flips, "check flipped", "checks flipped");
         count(&sb, &sep, d->nchecks - flips, "check changed", "checks changed");
+        count(&sb, &sep, d->nfindings, "finding changed", "findings changed");
         count(&sb, &sep, d->nstmts, "statement added, removed or renamed", "statements added, removed or renamed");
         count(&sb, &sep, d->ncites, "citation", "citations");
         count(&sb, &sep, d->nprose, "prose section", "prose sections");

@@ -41,6 +41,8 @@ static json_t *number_json(const Evaluated *ev, const Value *v, const Unit *show
     json_object_set_new(o, "unit", json_string(strcmp(u.text, "1") == 0 ? "" : u.text));
     if (v->q.temp != TEMP_NONE)
         json_object_set_new(o, "temperature", json_string("absolute"));
+    if (v->q.pref != PRES_PLAIN)
+        json_object_set_new(o, "pressure", json_string(pressure_ref_name(v->q.pref)));
     return o;
 }
 
@@ -280,11 +282,27 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
         json_object_set_new(o, "uses", uses);
     else
         json_decref(uses);
-    json_object_set_new(o, "meta", meta_json(&doc->meta));
+    json_t *meta = meta_json(&doc->meta);
+    if (ev->atmosphere_used) {
+        /* The reference between gauge and absolute (DESIGN 2.9). */
+        static const char *const source[] = {"standard", "front matter", "elevation"};
+        json_t *atm = json_object();
+        char text[256];
+        render_atmosphere(ev, text, sizeof text);
+        json_object_set_new(atm, "si", real_or_null(ev->atmosphere));
+        json_object_set_new(atm, "si_unit", json_string("Pa"));
+        json_object_set_new(atm, "source", json_string(source[doc->meta.atm_source]));
+        if (doc->meta.atm_source == ATM_ELEVATION)
+            json_object_set_new(atm, "elevation_m", real_or_null(doc->meta.elevation));
+        json_object_set_new(atm, "text", json_string(text));
+        json_object_set_new(meta, "atmosphere", atm);
+    }
+    json_object_set_new(o, "meta", meta);
     json_t *values = json_object();
     json_t *checks = json_array();
     json_t *methods = json_array();
     json_t *figures = json_array();
+    json_t *findings = NULL; /* only a calc with findings has the key */
     for (size_t i = 0; i < doc->nstmts; i++) {
         const Stmt *s = doc->stmts[i];
         const StmtResult *r = &ev->results[i];
@@ -344,6 +362,26 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
             if (r->nwarnings)
                 json_object_set_new(v, "warnings", warnings_json(r));
             json_object_set_new(values, s->name, v);
+        } else if (s->kind == STMT_CHECK && s->label && s->finding) {
+            /* a finding: the answer, with both sides, never a verdict */
+            json_t *f = json_object();
+            json_object_set_new(f, "label", json_string(s->label));
+            json_object_set_new(f, "line", json_integer(s->pos.line));
+            json_object_set_new(f, "op", json_string(cmp_op_text(s->cmp, false)));
+            if (r->state == RES_OK) {
+                json_object_set_new(f, "answer", json_boolean(r->holds));
+                json_t *l = number_json(ev, &r->lhs, &r->lhs_shown);
+                json_t *rr = number_json(ev, &r->rhs, &r->rhs_shown);
+                json_object_del(l, "kind");
+                json_object_del(rr, "kind");
+                json_object_set_new(f, "lhs", l);
+                json_object_set_new(f, "rhs", rr);
+            } else {
+                json_object_set_new(f, "answer", json_null());
+            }
+            if (!findings)
+                findings = json_array();
+            json_array_append_new(findings, f);
         } else if (s->kind == STMT_CHECK && s->label) {
             json_t *c = json_object();
             json_object_set_new(c, "label", json_string(s->label));
@@ -387,6 +425,8 @@ static json_t *document_json(const Evaluated *ev, const DiagList *diags)
     }
     json_object_set_new(o, "values", values);
     json_object_set_new(o, "checks", checks);
+    if (findings)
+        json_object_set_new(o, "findings", findings);
     json_object_set_new(o, "methods", methods);
     json_object_set_new(o, "figures", figures);
     json_t *cases = json_array();

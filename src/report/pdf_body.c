@@ -507,7 +507,17 @@ double pdf_row_margin(Pdf *P, const Stmt *st, double top)
     const Sheet *s = &P->sheet;
     const StmtResult *r = &P->ev->results[st->index];
     double x = s->body_r - s->margin_w + 8, y = top;
-    if (st->kind == STMT_CHECK && r->state == RES_OK) {
+    if (st->kind == STMT_CHECK && st->finding && r->state == RES_OK) {
+        /* a finding's answer: boxed in ink, neither pass nor fail */
+        const char *v = r->holds ? "YES" : "NO";
+        double bw = s->margin_w - 10, bh = 14;
+        pdf_rect(P, x, y - bh, bw, bh, 0.7);
+        double vw = pdf_width(P, FONT_SANS_BOLD, 8.5, v);
+        pdf_text(P, FONT_SANS_BOLD, 8.5, x + (bw - vw) / 2, y - 10.2, v);
+        y -= bh + 2;
+        pdf_text_color(P, FONT_SANS, 6.6, x, y - 6.5, "finding", GREY);
+        y -= 9;
+    } else if (st->kind == STMT_CHECK && r->state == RES_OK) {
         const char *v = r->holds ? "HOLDS" : "FAILS";
         Rgb c = r->holds ? PASS : FAIL;
         double bw = s->margin_w - 10, bh = 14;
@@ -611,7 +621,7 @@ static double fn_stmt(Pdf *P, const Item *it, double top)
 
     /* the heading of the row: a check's label, then the description */
     if (st->kind == STMT_CHECK) {
-        char *t = arena_printf(&P->arena, "Check: %s", st->label ? st->label : "");
+        char *t = arena_printf(&P->arena, "%s: %s", st->finding ? "Finding" : "Check", st->label ? st->label : "");
         y -= pdf_wrap(P, FONT_SERIF_BOLD, 9.6, 12, x, y, w, t);
     }
     if (st->description && *st->description)

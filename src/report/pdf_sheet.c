@@ -375,6 +375,11 @@ static double fn_cover(Pdf *P, const Item *it, double top)
              or_blank(m->date));
     y -= kv(P, x, y - 10, lw, "Revision", buf);
     y -= kv(P, x, y - 10, lw, "Status", m->status ? m->status : "(not stated)");
+    if (P->ev->atmosphere_used) {
+        char atm[256];
+        render_atmosphere(P->ev, atm, sizeof atm);
+        y -= kv(P, x, y - 10, lw, "Atmosphere", atm);
+    }
     y -= 6;
 
     const char *mark = marking(P);
@@ -434,10 +439,11 @@ static const double SUMMARY_COL[] = {0.05, 0.31, 0.38, 0.15, 0.11}; /* no, label
 
 static double fn_summary_head(Pdf *P, const Item *it, double top)
 {
-    (void)it;
     const Sheet *s = &P->sheet;
     double W = s->body_r - s->body_l, x = s->body_l, h = 14;
-    const char *head[5] = {"NO.", "CHECK", "DEMAND AND LIMIT", "UTILISATION", "VERDICT"};
+    static const char *const checks[5] = {"NO.", "CHECK", "DEMAND AND LIMIT", "UTILISATION", "VERDICT"};
+    static const char *const findings[5] = {"NO.", "FINDING", "VALUES COMPARED", "", "ANSWER"};
+    const char *const *head = it->aux ? findings : checks;
     pdf_fill(P, x, top - h, W, h, SHADE);
     for (int c = 0; c < 5; c++) {
         pdf_text_color(P, FONT_SANS_BOLD, 6.5, x + 3, top - 9.5, head[c], GREY);
@@ -459,7 +465,7 @@ static double fn_summary_row(Pdf *P, const Item *it, double top)
     for (int c = 1; c < 5; c++)
         cx[c] = cx[c - 1] + SUMMARY_COL[c - 1] * W;
     bool ok = r->state == RES_OK;
-    bool gov = st->index == P->governing;
+    bool gov = st->index == P->governing && !st->finding;
     double size = 8.5;
     MathBox *sides;
     if (ok) {
@@ -492,6 +498,13 @@ static double fn_summary_row(Pdf *P, const Item *it, double top)
         pdf_wrap(P, gov ? FONT_SERIF_BOLD : FONT_SERIF, size, 10.5, cx[1] + 3, top - 3,
                  SUMMARY_COL[1] * W - 6, st->label);
         mbox_draw(sides, &P->painter, cx[2] + 3, top - 3.5 - sides->h);
+        if (st->finding) {
+            /* an answer, not a verdict: no utilisation, no pass or fail colour */
+            const char *answer = !ok ? "NOT EVALUATED" : r->holds ? "YES" : "NO";
+            pdf_text_color(P, FONT_SANS_BOLD, 8.5, cx[4] + 3, top - 10.5, answer, !ok ? FAIL : INK);
+            pdf_line(P, x, top - h, x + W, top - h, 0.3);
+            return h;
+        }
         char u[32] = "—";
         if (ok && isfinite(r->utilization))
             snprintf(u, sizeof u, "%.0f %%", r->utilization * 100);
@@ -642,7 +655,7 @@ void pdf_cover_items(Pdf *P, Vec *items)
     for (size_t i = 0; i < d->nstmts; i++) {
         const Stmt *st = d->stmts[i];
         const StmtResult *r = &ev->results[i];
-        if (st->kind == STMT_CHECK && r->state == RES_OK && isfinite(r->utilization) &&
+        if (st->kind == STMT_CHECK && !st->finding && r->state == RES_OK && isfinite(r->utilization) &&
             r->utilization > best) {
             best = r->utilization;
             P->governing = (int)i;
@@ -655,12 +668,24 @@ void pdf_cover_items(Pdf *P, Vec *items)
     section(P, items, "Summary of checks", false, false);
     item_add(items, P, fn_summary_head, NULL, 0, 0);
     ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
-    int no = 0;
+    int no = 0, nfind = 0;
     for (size_t i = 0; i < d->nstmts; i++)
-        if (d->stmts[i]->kind == STMT_CHECK && !d->stmts[i]->parse_failed)
+        if (d->stmts[i]->kind == STMT_CHECK && !d->stmts[i]->parse_failed && !d->stmts[i]->finding)
             item_add(items, P, fn_summary_row, d->stmts[i], ++no, 0);
+        else if (d->stmts[i]->kind == STMT_CHECK && !d->stmts[i]->parse_failed)
+            nfind++;
     if (no == 0)
         item_add(items, P, fn_summary_none, NULL, 0, 0);
+    /* Findings apart from the checks: answers recorded, never verdicts. */
+    if (nfind) {
+        section(P, items, "Findings", false, false);
+        item_add(items, P, fn_summary_head, NULL, 1, 0);
+        ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
+        no = 0;
+        for (size_t i = 0; i < d->nstmts; i++)
+            if (d->stmts[i]->kind == STMT_CHECK && !d->stmts[i]->parse_failed && d->stmts[i]->finding)
+                item_add(items, P, fn_summary_row, d->stmts[i], ++no, 0);
+    }
     item_add(items, P, fn_cover_warnings, NULL, 0, 0);
     pdf_network_cover_items(P, items);
     pdf_cases_cover_items(P, items);
@@ -1012,7 +1037,7 @@ void pdf_end_items(Pdf *P, Vec *items)
     ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
     size_t nchecks = 0;
     for (size_t i = 0; i < d->nstmts; i++)
-        if (d->stmts[i]->kind == STMT_CHECK && !d->stmts[i]->parse_failed) {
+        if (d->stmts[i]->kind == STMT_CHECK && !d->stmts[i]->parse_failed && !d->stmts[i]->finding) {
             item_add(items, P, fn_crit_row, d->stmts[i], 0, 0);
             nchecks++;
         }

@@ -120,7 +120,7 @@ bool render_sarif(const CheckRun *runs, size_t n, FILE *out)
         }
         for (size_t i = 0; ev && i < ev->doc->nstmts; i++) {
             const Stmt *s = ev->doc->stmts[i];
-            if (s->kind != STMT_CHECK || ev->results[i].state != RES_OK)
+            if (s->kind != STMT_CHECK || s->finding || ev->results[i].state != RES_OK)
                 continue;
             StrBuf v = {0}, msg = {0};
             bool fails;

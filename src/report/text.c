@@ -26,6 +26,27 @@ void render_quantity(const Evaluated *ev, const Value *v, const Unit *unit, char
         snprintf(buf, n, "%s %s", num, unit->text);
 }
 
+void render_atmosphere(const Evaluated *ev, char *buf, size_t n)
+{
+    const Meta *m = &ev->doc->meta;
+    Value v = value_number(qty(ev->atmosphere, DIM_PRESSURE));
+    v.q.pref = PRES_ABSOLUTE;
+    Unit u = eval_display_unit(ev, &v, NULL);
+    char val[80];
+    render_quantity(ev, &v, &u, val, sizeof val);
+    switch (m->atm_source) {
+    case ATM_GIVEN:
+        snprintf(buf, n, "%s, as given in the front matter (%s)", val, m->atmosphere_text ? m->atmosphere_text : "");
+        break;
+    case ATM_ELEVATION:
+        snprintf(buf, n, "%s, the standard atmosphere at elevation %s", val, m->elevation_text ? m->elevation_text : "");
+        break;
+    case ATM_STANDARD:
+        snprintf(buf, n, "%s, the standard atmosphere (101.325 kPa)", val);
+        break;
+    }
+}
+
 void render_value_text(const Evaluated *ev, const Value *v, const Unit *shown, StrBuf *out)
 {
     char buf[128];
@@ -625,8 +646,15 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
         StrBuf l = {0}, rr = {0};
         render_expr_text(ev, s->lhs, false, &l);
         render_expr_text(ev, s->rhs, false, &rr);
-        sb_printf(out, "check %s: %s %s %s", s->label, sb_str(&l), cmp_op_text(s->cmp, false), sb_str(&rr));
-        if (r->state == RES_OK) {
+        sb_printf(out, "%s %s: %s %s %s", s->finding ? "finding" : "check", s->label, sb_str(&l),
+                  cmp_op_text(s->cmp, false), sb_str(&rr));
+        if (r->state == RES_OK && s->finding) {
+            sb_puts(out, " : ");
+            render_value_text(ev, &r->lhs, &r->lhs_shown, out);
+            sb_printf(out, " %s ", cmp_op_text(s->cmp, false));
+            render_value_text(ev, &r->rhs, &r->rhs_shown, out);
+            sb_printf(out, " : %s", r->holds ? "yes" : "no");
+        } else if (r->state == RES_OK) {
             sb_puts(out, " : ");
             render_value_text(ev, &r->lhs, &r->lhs_shown, out);
             sb_printf(out, " %s ", cmp_op_text(s->cmp, false));
@@ -734,9 +762,16 @@ bool render_text(const Evaluated *ev, FILE *out)
     sb_printf(&sb, "source: %s  sha256: %s\n", doc->file, doc->digest);
     for (size_t i = 0; i < ev->nused; i++)
         sb_printf(&sb, "uses: %s  sha256: %s\n", ev->used[i]->file, ev->used[i]->doc->digest);
+    if (ev->atmosphere_used) {
+        char atm[256];
+        render_atmosphere(ev, atm, sizeof atm);
+        sb_printf(&sb, "atmosphere: %s\n", atm);
+    }
     put_blocks(ev, doc->blocks, &sb);
     size_t holds = ev->nchecks - ev->nfailed;
     sb_printf(&sb, "\nchecks: %zu hold, %zu fail\n", holds, ev->nfailed);
+    if (ev->nfindings)
+        sb_printf(&sb, "findings: %zu yes, %zu no\n", ev->nfindings_yes, ev->nfindings - ev->nfindings_yes);
     if (ev->nwarnings)
         sb_printf(&sb, "warnings: %zu, each beside its line\n", ev->nwarnings);
     bool ok = fwrite(sb.data ? sb.data : "", 1, sb.len, out) == sb.len;

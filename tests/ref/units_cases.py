@@ -51,6 +51,10 @@ GNU_NAME = {
     "mH2O": "(m*water)",
     "delta_degC": "degC",
     "delta_degF": "degF",
+    "lpm": "(liter/min)",
+    "l": "liter",
+    "ppm": "ppm",
+    "%": "percent",
 }
 
 NAME_RE = re.compile(r"(?:[A-Za-z_]|\u00b0|\u00b5|\u03bc)(?:[A-Za-z0-9_]|\u00b0|\u00b5|\u03bc)*")
@@ -65,6 +69,10 @@ def gnu_expr(expr):
         n = m.group(0)
         return GNU_NAME.get(n, n)
 
+    # psi/100ft: our "100ft" is one factor, a hundred feet
+    expr = re.sub(r"/100([A-Za-z_]+)", r"/(100 \1)", expr)
+    if expr == "%":
+        return "percent"
     return NAME_RE.sub(name, expr)
 
 
@@ -166,8 +174,42 @@ SPECIAL = [
 ]
 
 
+# DESIGN 2.9: gauge and absolute pressures differ by the atmosphere, which
+# `headroom convert` takes as the standard one (GNU units' `atm`, 101325 Pa).
+# Each case: value, from, to, and the GNU expression of the same conversion.
+REFERENCES = [
+    (10, "psig", "psia", "(10 psi + atm)", "psi"),
+    (0, "psig", "psia", "(0 psi + atm)", "psi"),
+    (125, "psig", "kPaa", "(125 psi + atm)", "kPa"),
+    (30, "psia", "psig", "(30 psi - atm)", "psi"),
+    (5, "psia", "psig", "(5 psi - atm)", "psi"),
+    (350, "kPag", "psia", "(350 kPa + atm)", "psi"),
+    (2.5, "bara", "psig", "(2.5 bar - atm)", "psi"),
+    (1.2, "MPaa", "kPag", "(1.2 MPa - atm)", "kPa"),
+    (6, "barg", "kPaa", "(6 bar + atm)", "kPa"),
+    (80, "psig", "bara", "(80 psi + atm)", "bar"),
+    (400, "kPaa", "barg", "(400 kPa - atm)", "bar"),
+    (12, "psi", "psia", "(12 psi + atm)", "psi"),    # a plain pressure is read as gauge
+    (60, "psig", "kPag", "60 psi", "kPa"),          # gauge to gauge: no atmosphere
+    (14.7, "psia", "MPaa", "14.7 psi", "MPa"),
+    (40, "psig", "psi", "40 psi", "psi"),
+]
+
+# Rates, ratios and gradients per hundred lengths (issue 12).
+RATES = [
+    ("%", "1"), ("ppm", "1"), ("percent", "ppm"), ("psi/100ft", "kPa/m"), ("psi/100ft", "kPa/100m"),
+    ("ft/100ft", "percent"), ("m/100m", "%"), ("kPa/100m", "psi/100ft"), ("lpm", "gal/min"),
+    ("l/s", "gal/min"), ("lpm", "L/s"), ("ml", "in^3"), ("Btu/h", "W"),
+]
+
+
 def cases():
     out = []
+    for v, frm, to, gfrom, gto in REFERENCES:
+        out.append((fmt(v), frm, to, gfrom, gto))
+    for frm, to in RATES:
+        for v in (1, 3.7, 42):
+            out.append(case(v, frm, to))
     vi = 0
 
     def value():

@@ -40,7 +40,7 @@ def main():
             statements.append("%s = water(%s K)" % (name, num(T)))
         else:
             p = math.exp(rng.uniform(math.log(max(1.01 * ps, 1e3)), math.log(100e6)))
-            statements.append("%s = water(%s K, %s Pa)" % (name, num(T), num(p)))
+            statements.append("%s = water(%s K, %s kPaa)" % (name, num(T), num(p / 1e3)))
         states.append((name, T, p, ps))
     values, diags = run_calc(statements, "water properties against python3-iapws")
     for name, T, p, ps in states:

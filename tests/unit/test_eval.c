@@ -113,6 +113,117 @@ static void test_temperatures(void **state)
     assert_error(6, 18, "cannot subtract an absolute temperature");
 }
 
+/* A whole file, front matter included. */
+static void load_file(const char *text)
+{
+    doc_free(doc);
+    diag_free(&dl);
+    doc = doc_from_text("t.calc.md", text, strlen(text), &dl);
+    ev = eval_document(doc, &dl);
+}
+
+static PressureRef ref_of(const char *name)
+{
+    int slot = doc_lookup(doc, name);
+    assert_true(slot >= 0);
+    return ev->results[slot].value.q.pref;
+}
+
+/* DESIGN 2.9: the point/difference algebra of gauge and absolute pressures.
+ * psi = 4.4482216152605 N / (0.0254 m)^2 = 6894.757293168361 Pa (exact
+ * definitions); the standard atmosphere is 101325 Pa. */
+static void test_pressure_points(void **state)
+{
+    (void)state;
+    const double PSI = 4.4482216152605 / (0.0254 * 0.0254), ATM = 101325.0;
+    load("pa = 30 psia\n"
+         "pb = 20 psia\n"
+         "dp = pa - pb\n"       /* point - point: plain */
+         "pc = pb + 5 psi\n"    /* point + plain: point */
+         "pd = pa - 5 psi\n"
+         "pe = 5 psi + pb\n"    /* plain + point: point */
+         "g1 = 40 psig\n"
+         "g2 = g1 - 10 psig\n"  /* gauge - gauge: plain */
+         "g3 = 50 psi - g1\n"   /* plain - gauge: plain, read as gauge */
+         "ga = g1 as psia\n"    /* adds the atmosphere */
+         "ag = pa as psig\n"    /* takes it away */
+         "pl = 12 psi as kPaa\n" /* a plain pressure read as gauge */
+         "gp = g1 as psi\n"     /* gauge shown plain: plain */
+         "vac = -5 psig\n"      /* a negative literal on a scale is a value */
+         "m = mean(pa, pb)\n"
+         "l = lerp(pa, pb, 0.25)\n"
+         "mg = mean(g1, 10 psi)\n"
+         "check gauge_vs_plain: g1 <= 50 psi\n"
+         "check abs_vs_abs: pb <= pa\n");
+    assert_int_equal(dl.errors, 0);
+    assert_close(si("dp"), 10 * PSI, 1e-14);
+    assert_int_equal(ref_of("dp"), PRES_PLAIN);
+    assert_close(si("pc"), 25 * PSI, 1e-14);
+    assert_int_equal(ref_of("pc"), PRES_ABSOLUTE);
+    assert_int_equal(ref_of("pd"), PRES_ABSOLUTE);
+    assert_int_equal(ref_of("pe"), PRES_ABSOLUTE);
+    assert_int_equal(ref_of("g1"), PRES_GAUGE);
+    assert_int_equal(ref_of("g2"), PRES_PLAIN);
+    assert_close(si("g3"), 10 * PSI, 1e-14);
+    assert_int_equal(ref_of("g3"), PRES_PLAIN);
+    assert_close(si("ga"), 40 * PSI + ATM, 1e-14);
+    assert_int_equal(ref_of("ga"), PRES_ABSOLUTE);
+    assert_close(si("ag"), 30 * PSI - ATM, 1e-14);
+    assert_int_equal(ref_of("ag"), PRES_GAUGE);
+    assert_close(si("pl"), 12 * PSI + ATM, 1e-14);
+    assert_int_equal(ref_of("gp"), PRES_PLAIN);
+    assert_close(si("vac"), -5 * PSI, 1e-14);
+    assert_int_equal(ref_of("vac"), PRES_GAUGE);
+    assert_close(si("m"), 25 * PSI, 1e-14);
+    assert_int_equal(ref_of("m"), PRES_ABSOLUTE);
+    assert_close(si("l"), 27.5 * PSI, 1e-14);
+    assert_int_equal(ref_of("l"), PRES_ABSOLUTE);
+    assert_int_equal(ref_of("mg"), PRES_GAUGE);
+    assert_true(ev->results[doc_lookup(doc, "ga")].shown.pref == PRES_ABSOLUTE);
+    assert_string_equal(ev->results[doc_lookup(doc, "ag")].shown.text, "psig");
+    assert_string_equal(ev->results[doc_lookup(doc, "dp")].shown.text, "psi");
+    assert_string_equal(ev->results[doc_lookup(doc, "m")].shown.text, "psia");
+    assert_int_equal(ev->nchecks, 2);
+    assert_int_equal(ev->nfailed, 0);
+    assert_false(ev->atmosphere_used == false);
+
+    /* The forbidden mixes, each an error that says how to restate a side. */
+    load("a = 10 psig\n"
+         "b = 20 psia\n"
+         "c = a + b\n"
+         "d = b - a\n"
+         "e = b + b\n"
+         "f = 3 psi - b\n"
+         "h = 2*b\n"
+         "check k: b <= 30 psi\n"
+         "check m: a <= b\n"
+         "n = b as kPa\n");
+    assert_error(6, 7, "cannot add an absolute pressure (psia) to a gauge pressure (psig)");
+    assert_error(6, 7, "(write `as psia`");
+    assert_error(7, 7, "cannot subtract a gauge pressure (psig) from an absolute pressure (psia)");
+    assert_error(8, 7, "cannot add two absolute pressures");
+    assert_error(9, 11, "cannot subtract an absolute pressure (psia) from pressure (psi)");
+    assert_error(10, 7, "cannot multiply an absolute pressure");
+    assert_error(11, 10, "cannot compare an absolute pressure (psia) with pressure (psi)");
+    assert_error(12, 10, "cannot compare a gauge pressure (psig) with an absolute pressure (psia)");
+    assert_error(13, 10, "an absolute pressure is shown in psia, kPaa, bara or MPaa, not kPa");
+
+    /* The atmosphere from the front matter: given, or from the elevation by
+     * 101.325 kPa*(1 - 2.25577e-5*z/m)^5.25588 (worked here by hand: at
+     * 1500 m, 101325*(0.96616345)^5.25588 = 84556 Pa). */
+    load_file("---\natmosphere: 12 psia\n---\n```calc\np = 10 psig as psia\n```\n");
+    assert_int_equal(dl.errors, 0);
+    assert_close(si("p"), 22 * PSI, 1e-14);
+    assert_int_equal(doc->meta.atm_source, ATM_GIVEN);
+    load_file("---\nunits: SI\nelevation: 1500 m\n---\n```calc\np = 0 kPag as kPaa\n```\n");
+    assert_int_equal(dl.errors, 0);
+    assert_close(si("p"), 101325.0 * pow(1 - 2.25577e-5 * 1500, 5.25588), 1e-14);
+    assert_close(si("p"), 84556, 1e-4);
+    assert_int_equal(doc->meta.atm_source, ATM_ELEVATION);
+    load_file("---\nelevation: 0 ft\n---\n```calc\np = 0 psig as psia\n```\n");
+    assert_close(si("p"), ATM, 1e-15);
+}
+
 static void test_dimension_errors(void **state)
 {
     (void)state;
@@ -274,6 +385,7 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_arithmetic_and_units),
         cmocka_unit_test(test_temperatures),
+        cmocka_unit_test(test_pressure_points),
         cmocka_unit_test(test_dimension_errors),
         cmocka_unit_test(test_math_errors),
         cmocka_unit_test(test_failure_does_not_cascade),

@@ -619,8 +619,15 @@ static void test_suggest(void **state)
         {"gpm ", "gpm"},
         {"Gal/min", "gal/min"},
         {"gal/mn", "gal/min"},
-        {"psig", "psi"},
-        {"psia", "psi"},
+        {"psig", "psig"},      /* gauge and absolute are units of their own (DESIGN 2.9) */
+        {"psia", "psia"},
+        {"PSIA", "psia"},
+        {"kpag", "kPag"},
+        {"barA", "bara"},
+        {"MPag", NULL},        /* never kPag or MPa: another quantity */
+        {"psiaa", "psia"},     /* a doubled letter keeps the reference */
+        {"lps", "L/s"},
+        {"F", "degF"},
         {"lb", "lbm"},
         {"lbs", "lbm"},
         {"Psi", "psi"},
@@ -635,7 +642,7 @@ static void test_suggest(void **state)
         {"DegF", "degF"},
         {"ftH20", "ftH2O"},    /* zero for the letter O */
         {"inh2o", "inH2O"},
-        {"ml", "mL"},
+        {"ml", "ml"},          /* l is the litre too (SP 811) */
         {"hr", "h"},
         {"sec", "s"},
         {"gallons", "gal"},
@@ -654,7 +661,7 @@ static void test_suggest(void **state)
         {"\xc2\xb0" "c", "degC"},
         {"xyzzy", NULL},
         {"q", NULL},
-        {"C", NULL},
+        {"C", "degC"},         /* 140 F, 60 C: the scale was meant */
         {"", NULL},
         {"as", NULL},
         {"gal/xyzzy", NULL},
@@ -774,6 +781,8 @@ static void test_each(void **state)
         "L",     "mL",   "gal",   "gpm",  "cfs",   "cP",   "P",    "St",   "cSt",  "J",
         "kJ",    "Btu",  "W",     "kW",   "hp",    "K",    "degC", "degF", "degR", "delta_degC",
         "delta_degF", "rad", "deg", "percent", "A", "mol", "cd",   "Hz",
+        /* DESIGN 2.9 and issue 12 */
+        "psig", "kPag", "barg", "psia", "kPaa", "bara", "MPaa", "l", "lpm", "%", "ppm",
     };
     for (size_t i = 0; i < LEN(required); i++) {
         bool found = false;
@@ -789,6 +798,76 @@ static void test_each(void **state)
         assert_non_null(sug);
         assert_string_equal(sug, seen.names[j]);
     }
+}
+
+/* DESIGN 2.9 and issue 12: units that state a pressure reference, rates
+ * and ratios, gradients per hundred lengths, the trade's flow spellings.
+ * Factors from the exact definitions (1 lbf = 0.45359237 kg * 9.80665 m/s^2,
+ * 1 in = 0.0254 m, 1 ft = 0.3048 m). */
+static void test_references_and_rates(void **state)
+{
+    (void)state;
+    const double PSI = 0.45359237 * 9.80665 / (0.0254 * 0.0254);
+    static const struct {
+        const char *text;
+        PressureRef ref;
+    } refs[] = {
+        {"psig", PRES_GAUGE},    {"kPag", PRES_GAUGE}, {"barg", PRES_GAUGE}, {"psia", PRES_ABSOLUTE},
+        {"kPaa", PRES_ABSOLUTE}, {"bara", PRES_ABSOLUTE}, {"MPaa", PRES_ABSOLUTE}, {"psi", PRES_PLAIN},
+        {"kPa", PRES_PLAIN},     {"psia/ft", PRES_PLAIN}, /* inside a compound: no reference */
+    };
+    for (size_t i = 0; i < LEN(refs); i++) {
+        Unit u = parse_ok(refs[i].text);
+        if (u.pref != refs[i].ref)
+            fail_msg("%s: reference %d, want %d", refs[i].text, (int)u.pref, (int)refs[i].ref);
+        Quantity q = unit_to_qty(2, &u);
+        assert_int_equal(q.pref, refs[i].ref);
+    }
+    assert_close(parse_ok("psig").factor, PSI, 1e-15, "psig");
+    assert_close(parse_ok("psia").factor, PSI, 1e-15, "psia");
+    assert_close(parse_ok("MPaa").factor, 1e6, 0, "MPaa");
+    assert_close(parse_ok("barg").factor, 1e5, 0, "barg");
+
+    /* qty_to_ref: plain or gauge -> absolute adds the atmosphere, absolute
+     * -> gauge takes it away, plain <-> gauge changes nothing. */
+    Quantity g = qty(10 * PSI, DIM_PRESSURE);
+    g.pref = PRES_GAUGE;
+    Quantity a = qty_to_ref(g, PRES_ABSOLUTE, 101325);
+    assert_close(a.si, 10 * PSI + 101325, 1e-15, "gauge -> absolute");
+    assert_int_equal(a.pref, PRES_ABSOLUTE);
+    Quantity back = qty_to_ref(a, PRES_GAUGE, 101325);
+    assert_close(back.si, 10 * PSI, 1e-12, "absolute -> gauge");
+    Quantity plain = qty_to_ref(g, PRES_PLAIN, 101325);
+    assert_true(plain.si == g.si && plain.pref == PRES_PLAIN);
+    Quantity len = qty_to_ref(qty(3, DIM_L), PRES_ABSOLUTE, 101325);
+    assert_true(len.si == 3 && len.pref == PRES_PLAIN); /* not a pressure: untouched */
+
+    /* rates, ratios and gradients */
+    assert_close(parse_ok("%").factor, 0.01, 0, "%");
+    assert_true(dim_is_none(parse_ok("%").dim));
+    assert_close(parse_ok("ppm").factor, 1e-6, 0, "ppm");
+    assert_close(parse_ok("psi/100ft").factor, PSI / (100 * 0.3048), 1e-15, "psi/100ft");
+    assert_dim(parse_ok("psi/100ft").dim, dim_div(DIM_PRESSURE, DIM_L), "psi/100ft");
+    assert_close(parse_ok("ft/100ft").factor, 0.01, 1e-15, "ft/100ft");
+    assert_close(parse_ok("m/100m").factor, 0.01, 1e-15, "m/100m");
+    assert_close(parse_ok("kPa/100m").factor, 10, 1e-15, "kPa/100m");
+    assert_string_equal(parse_ok("psi/100ft").text, "psi/100ft");
+    Unit u;
+    assert_int_equal(unit_parse("psi/200ft", 9, &u, NULL, NULL), UNIT_SYNTAX); /* only a hundred */
+    assert_int_equal(unit_parse("100", 3, &u, NULL, NULL), UNIT_SYNTAX);
+
+    /* flow as the trade writes it; the litre as l */
+    assert_close(parse_ok("lpm").factor, 1e-3 / 60, 1e-15, "lpm");
+    assert_close(parse_ok("l/s").factor, 1e-3, 1e-15, "l/s");
+    assert_close(parse_ok("ml").factor, 1e-6, 1e-15, "ml");
+    assert_close(parse_ok("Btu/h").factor, 1055.05585262 / 3600, 1e-15, "Btu/h");
+
+    /* default display of points */
+    assert_string_equal(unit_default_ref(DIM_PRESSURE, TEMP_NONE, PRES_GAUGE, UNITS_US).text, "psig");
+    assert_string_equal(unit_default_ref(DIM_PRESSURE, TEMP_NONE, PRES_ABSOLUTE, UNITS_SI).text, "kPaa");
+    assert_string_equal(unit_default_ref(DIM_PRESSURE, TEMP_NONE, PRES_PLAIN, UNITS_US).text, "psi");
+    assert_string_equal(pressure_ref_name(PRES_ABSOLUTE), "absolute");
+    assert_null(pressure_ref_name(PRES_PLAIN));
 }
 
 static void test_qty(void **state)
@@ -818,6 +897,7 @@ int main(void)
         cmocka_unit_test(test_defaults),
         cmocka_unit_test(test_each),
         cmocka_unit_test(test_qty),
+        cmocka_unit_test(test_references_and_rates),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }

@@ -138,6 +138,13 @@ static Value temp_c(double c)
     return value_number(q);
 }
 
+static Value abs_pressure(double pa)
+{
+    Value v = value_number(qty(pa, DIM_PRESSURE));
+    v.q.pref = PRES_ABSOLUTE;
+    return v;
+}
+
 static bool call_water(Harness *h, const Value *args, size_t n, Value *out)
 {
     static const Pos pos[2] = {{"t.calc.md", 3, 11}, {"t.calc.md", 3, 20}};
@@ -197,21 +204,22 @@ static void test_fn_water(void **state)
     assert_non_null(strstr(h.diags.items[0].message, "saturation pressure is 198.7 kPa"));
 
     /* ... and is liquid at 300 kPa (absolute). */
-    args[1] = value_number(qty(300e3, DIM_PRESSURE));
+    args[1] = abs_pressure(300e3);
     assert_true(call_water(&h, args, 2, &out));
     assert_rel(field(&out, "rho"), 943.0, 1e-3); /* 943.1 kg/m^3 at 120 degC (from memory) */
+    assert_int_equal(record_get(out.rec, "p")->q.pref, PRES_ABSOLUTE);
 
-    /* Outside 0.01..150 degC: an error at the temperature naming the range. */
+    /* Outside 0..150 degC: an error at the temperature naming the range. */
     args[0] = temp_c(200.0);
-    args[1] = value_number(qty(2e6, DIM_PRESSURE));
+    args[1] = abs_pressure(2e6);
     assert_false(call_water(&h, args, 2, &out));
     assert_int_equal(h.diags.errors, 2);
     assert_int_equal(h.diags.items[1].pos.col, 11);
-    assert_non_null(strstr(h.diags.items[1].message, "0.01 degC to 150 degC"));
+    assert_non_null(strstr(h.diags.items[1].message, "0 degC to 150 degC"));
 
     /* Above 100 MPa: an error at the pressure. */
     args[0] = temp_c(20.0);
-    args[1] = value_number(qty(200e6, DIM_PRESSURE));
+    args[1] = abs_pressure(200e6);
     assert_false(call_water(&h, args, 2, &out));
     assert_int_equal(h.diags.items[2].pos.col, 20);
 
@@ -224,6 +232,69 @@ static void test_fn_water(void **state)
     args[0] = value_number(qty(20.0, DIM_L));
     assert_false(call_water(&h, args, 1, &out));
     assert_int_equal(h.diags.errors, 5);
+
+    /* DESIGN 2.9: a plain pressure is refused, naming both spellings; a
+     * gauge one has the atmosphere added (here the context's 90 kPa). */
+    args[0] = temp_c(20.0);
+    args[1] = value_number(qty(300e3, DIM_PRESSURE));
+    assert_false(call_water(&h, args, 2, &out));
+    assert_int_equal(h.diags.errors, 6);
+    assert_non_null(strstr(h.diags.items[5].message, "kPaa (absolute) or kPag (gauge)"));
+    assert_int_equal(h.diags.items[5].pos.col, 20);
+    args[1].q.pref = PRES_GAUGE;
+    h.cx.atmosphere = 90e3;
+    assert_true(call_water(&h, args, 2, &out));
+    assert_rel(field(&out, "p"), 390e3, 1e-15);
+    assert_true(h.cx.atmosphere_used);
+    /* water(T) is at the calc's atmosphere */
+    assert_true(call_water(&h, args, 1, &out));
+    assert_rel(field(&out, "p"), 90e3, 1e-15);
+
+    /* IF97 region 1 starts at 273.15 K: 0 degC and 32 degF are served. */
+    args[0] = temp_c(0.0);
+    assert_true(call_water(&h, args, 1, &out));
+    assert_rel(field(&out, "rho"), 999.8385458, 1e-8); /* python3-iapws 1.5.2, IAPWS97(T=273.15, P=0.09).rho */
+    Quantity f32 = qty(32.0 * 5.0 / 9.0 + 459.67 * 5.0 / 9.0, DIM_THETA);
+    f32.temp = TEMP_ABSOLUTE_OFFSET;
+    args[0] = value_number(f32);
+    assert_true(call_water(&h, args, 1, &out));
+    args[0] = temp_c(-0.01);
+    assert_false(call_water(&h, args, 1, &out));
+    assert_int_equal(h.diags.errors, 7);
+    harness_free(&h);
+}
+
+/* npsh_available against values worked by hand from the same record:
+ * NPSHa = (p_abs - p_vap)/(rho*g) + z - h_f. */
+static void test_fn_npsh(void **state)
+{
+    (void)state;
+    Harness h;
+    harness_init(&h);
+    Value wargs[1] = {temp_c(60.0)}, w;
+    assert_true(call_water(&h, wargs, 1, &w));
+    double rho = field(&w, "rho"), pv = field(&w, "p_vap");
+    Value p0 = value_number(qty(0, DIM_PRESSURE));
+    p0.q.pref = PRES_GAUGE;
+    Value args[4] = {p0, w, value_number(qty(2.0, DIM_L)), value_number(qty(0.5, DIM_L))}, out;
+    static const Pos pos[4] = {{"t.calc.md", 3, 20}, {"t.calc.md", 3, 28}, {"t.calc.md", 3, 31}, {"t.calc.md", 3, 36}};
+    CallArgs a = {.n = 4, .args = args, .arg_pos = pos, .pos = {"t.calc.md", 3, 5}, .name = "npsh_available"};
+    assert_true(fn_npsh_available(&h.cx, &a, &out));
+    assert_rel(out.q.si, (101325.0 - pv) / (rho * 9.80665) + 2.0 - 0.5, 1e-15);
+    assert_true(dim_eq(out.q.dim, DIM_L));
+    /* an absolute surface pressure is taken as it is */
+    args[0] = abs_pressure(50e3);
+    assert_true(fn_npsh_available(&h.cx, &a, &out));
+    assert_rel(out.q.si, (50e3 - pv) / (rho * 9.80665) + 1.5, 1e-15);
+    /* a lift so high the liquid flashes: a warning, not an error */
+    args[2] = value_number(qty(-20.0, DIM_L));
+    assert_true(fn_npsh_available(&h.cx, &a, &out));
+    assert_int_equal(h.diags.warnings, 1);
+    /* a plain pressure states no reference */
+    args[0] = value_number(qty(0, DIM_PRESSURE));
+    assert_false(fn_npsh_available(&h.cx, &a, &out));
+    assert_int_equal(h.diags.errors, 1);
+    assert_int_equal(h.diags.items[1].pos.col, 20);
     harness_free(&h);
 }
 
@@ -236,6 +307,7 @@ int main(void)
         cmocka_unit_test(test_props_20C),
         cmocka_unit_test(test_props_range),
         cmocka_unit_test(test_fn_water),
+        cmocka_unit_test(test_fn_npsh),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
