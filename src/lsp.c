@@ -533,7 +533,7 @@ static void hover_check(const Evaluated *ev, const Stmt *s, StrBuf *out)
     StrBuf v = {0};
     bool fails;
     render_check_verdict(ev, (size_t)s->index, &v, &fails);
-    sb_printf(out, "check %s: %s", s->label ? s->label : "", sb_str(&v));
+    sb_printf(out, "%s %s: %s", s->finding ? "finding" : "check", s->label ? s->label : "", sb_str(&v));
     if (s->description)
         sb_printf(out, "\n\n%s", s->description);
     put_cites(ev->doc, s, out);
@@ -635,6 +635,8 @@ static json_t *do_inlay_hints(Server *S, OpenDoc *od, json_t *params)
         if (s->kind == STMT_DEF || s->kind == STMT_SOLVE) {
             sb_puts(&label, "= ");
             render_value_text(ev, &r->value, &r->shown, &label);
+        } else if (s->kind == STMT_CHECK && s->finding) {
+            sb_puts(&label, r->holds ? "yes" : "no"); /* a finding's answer */
         } else if (s->kind == STMT_CHECK) {
             bool fails;
             StrBuf v = {0};
