@@ -412,8 +412,8 @@ static const Method METHOD_NPSHA = {
     "npsh_available",
     "Net positive suction head available",
     "NPSH_a = (p_abs - p_vap)/(rho*g) + z_s - h_f",
-    "p_abs the absolute pressure on the liquid surface; z_s the surface above the pump's "
-    "reference plane (negative for a suction lift); h_f the suction line's head loss",
+    "any absolute pressure on the liquid surface; the surface height is measured above the "
+    "pump's reference plane (negative for a suction lift); the suction loss is not negative",
     "ANSI/HI 9.6.1, Rotodynamic Pumps — Guideline for NPSH Margin (Hydraulic Institute), "
     "definition of NPSHA: the absolute suction head above the liquid's vapour pressure, "
     "at the impeller's reference plane. Velocity head at the surface taken as zero.",
