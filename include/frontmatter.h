@@ -16,4 +16,11 @@ size_t frontmatter_read(Document *doc, DiagList *diags);
  * 101.325 kPa * (1 - 2.25577e-5*z/m)^5.25588 (DESIGN 2.9). */
 double frontmatter_atmosphere_at(double z);
 
+/* The `status` is one of the issued (sealed) words: issued for permit, for
+ * construction, ... (compared without regard to case). */
+bool frontmatter_status_issued(const char *status);
+
+/* The accepted `status` words, comma-separated, into buf (for messages). */
+void frontmatter_statuses_list(char *buf, size_t size);
+
 #endif

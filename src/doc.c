@@ -138,7 +138,7 @@ typedef struct Resolver {
     const Expr *use_top;     /* the whole right-hand side of a definition: where use() may stand */
 } Resolver;
 
-static size_t edit_distance(const char *a, const char *b)
+size_t doc_edit_distance(const char *a, const char *b)
 {
     size_t la = strlen(a), lb = strlen(b);
     if (la > 40 || lb > 40)
@@ -168,7 +168,7 @@ typedef struct NearFn {
 static void near_builtin(const Builtin *b, void *vctx)
 {
     NearFn *n = vctx;
-    size_t d = edit_distance(n->name, b->name);
+    size_t d = doc_edit_distance(n->name, b->name);
     if (d < n->best_d) {
         n->best_d = d;
         n->best = b->name;
@@ -199,7 +199,7 @@ static const char *closest_name(const Document *doc, const char *name, int befor
         const Stmt *s = doc->stmts[i];
         if (!s->name || s->kind == STMT_CHECK)
             continue;
-        size_t d = edit_distance(name, s->name);
+        size_t d = doc_edit_distance(name, s->name);
         if (d < best_d) {
             best_d = d;
             best = s->name;

@@ -11,6 +11,7 @@
 
 #include <ctype.h>
 #include <math.h>
+#include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 #include <yaml.h>
@@ -25,7 +26,54 @@ typedef struct FmCtx {
     DiagList *diags;
     yaml_document_t *y;
     int line0;           /* file line of the YAML text's first line, minus 1 */
+    Pos status_pos, date_pos, revision_pos; /* where those values stand (line 0: absent) */
+    Pos *rev_date_pos;   /* per `revisions` row: where its date stands */
 } FmCtx;
+
+/* The accepted `status` words (DESIGN 2.1), compared without regard to case.
+ * The issued ones are the statuses a calc is sealed under: they need the
+ * seal data and are never marked preliminary. "issued for review" is a set
+ * sent out for comment, not sealed, so it is marked but needs no seal. */
+static const struct { const char *word; bool issued; } STATUSES[] = {
+    {"preliminary", false},          {"draft", false},
+    {"issued for review", false},    {"issued for bid", true},
+    {"issued for tender", true},     {"issued for permit", true},
+    {"issued for construction", true}, {"approved for construction", true},
+    {"issued for record", true},     {"final", true},
+    {"superseded", false},
+};
+
+static int status_index(const char *status)
+{
+    if (!status)
+        return -1;
+    for (size_t i = 0; i < sizeof STATUSES / sizeof STATUSES[0]; i++) {
+        const char *a = status, *b = STATUSES[i].word;
+        while (*a && *b && tolower((unsigned char)*a) == *b)
+            a++, b++;
+        if (!*a && !*b)
+            return (int)i;
+    }
+    return -1;
+}
+
+bool frontmatter_status_issued(const char *status)
+{
+    int i = status_index(status);
+    return i >= 0 && STATUSES[i].issued;
+}
+
+void frontmatter_statuses_list(char *buf, size_t size)
+{
+    size_t used = 0;
+    buf[0] = '\0';
+    for (size_t i = 0; i < sizeof STATUSES / sizeof STATUSES[0] && used + 1 < size; i++) {
+        int n = snprintf(buf + used, size - used, "%s%s", i ? ", " : "", STATUSES[i].word);
+        if (n < 0)
+            break;
+        used += (size_t)n < size - used ? (size_t)n : size - used - 1;
+    }
+}
 
 static Pos node_pos(const FmCtx *c, const yaml_node_t *n)
 {
@@ -109,6 +157,7 @@ static void revisions(FmCtx *c, yaml_node_t *n)
     size_t count = (size_t)(n->data.sequence.items.top - n->data.sequence.items.start);
     Meta *m = &c->doc->meta;
     m->revisions = arena_alloc(&c->doc->arena, (count + 1) * sizeof *m->revisions);
+    c->rev_date_pos = arena_alloc(&c->doc->arena, (count + 1) * sizeof *c->rev_date_pos);
     for (yaml_node_item_t *it = n->data.sequence.items.start; it < n->data.sequence.items.top; it++) {
         yaml_node_t *r = yaml_document_get_node(c->y, *it);
         if (!r || r->type != YAML_MAPPING_NODE) {
@@ -123,9 +172,10 @@ static void revisions(FmCtx *c, yaml_node_t *n)
             const char *ks = k && k->type == YAML_SCALAR_NODE ? (const char *)k->data.scalar.value : "";
             if (strcmp(ks, "rev") == 0)
                 rv->rev = scalar(c, v, "rev");
-            else if (strcmp(ks, "date") == 0)
+            else if (strcmp(ks, "date") == 0) {
                 rv->date = date_value(c, v, "date");
-            else if (strcmp(ks, "by") == 0)
+                c->rev_date_pos[rv - m->revisions] = node_pos(c, v);
+            } else if (strcmp(ks, "by") == 0)
                 rv->by = scalar(c, v, "by");
             else if (strcmp(ks, "note") == 0)
                 rv->note = scalar(c, v, "note");
@@ -277,15 +327,44 @@ static void one_key(FmCtx *c, const char *key, yaml_node_t *k, yaml_node_t *v)
         {"title", &m->title},     {"project", &m->project}, {"client", &m->client},
         {"number", &m->number},   {"subject", &m->subject}, {"revision", &m->revision},
         {"approved", &m->approved}, {"engineer", &m->engineer}, {"license", &m->license},
-        {"status", &m->status},
     };
     for (size_t i = 0; i < sizeof texts / sizeof texts[0]; i++)
         if (strcmp(key, texts[i].name) == 0) {
             *texts[i].slot = scalar(c, v, key);
             return;
         }
-    if (strcmp(key, "date") == 0) {
+    if (strcmp(key, "revision") == 0)
+        c->revision_pos = node_pos(c, v);
+    if (strcmp(key, "status") == 0) {
+        m->status = scalar(c, v, key);
+        c->status_pos = node_pos(c, v);
+        if (m->status && status_index(m->status) < 0) {
+            const char *near = NULL;
+            size_t best = strlen(m->status) <= 6 ? 3 : 6;
+            char low[64];
+            size_t n = 0;
+            for (; m->status[n] && n + 1 < sizeof low; n++)
+                low[n] = (char)tolower((unsigned char)m->status[n]);
+            low[n] = '\0';
+            for (size_t i = 0; i < sizeof STATUSES / sizeof STATUSES[0]; i++) {
+                size_t d = doc_edit_distance(low, STATUSES[i].word);
+                if (d < best) {
+                    best = d;
+                    near = STATUSES[i].word;
+                }
+            }
+            char list[256];
+            frontmatter_statuses_list(list, sizeof list);
+            if (near)
+                diag_error(c->diags, c->status_pos, "front matter: unknown status '%s'; did you mean '%s'? "
+                           "(accepted: %s)", m->status, near, list);
+            else
+                diag_error(c->diags, c->status_pos, "front matter: unknown status '%s' (accepted: %s)",
+                           m->status, list);
+        }
+    } else if (strcmp(key, "date") == 0) {
         m->date = date_value(c, v, key);
+        c->date_pos = node_pos(c, v);
     } else if (strcmp(key, "prepared") == 0) {
         person(c, v, key, &m->prepared, &m->prepared_date);
     } else if (strcmp(key, "checked") == 0) {
@@ -337,6 +416,49 @@ static void one_key(FmCtx *c, const char *key, yaml_node_t *k, yaml_node_t *v)
                    "front matter: unknown key '%s' (known: title, project, client, number, subject, "
                    "revision, date, prepared, checked, approved, engineer, license, status, units, "
                    "paper, digits, code, revisions, parts, atmosphere, elevation)", key);
+    }
+}
+
+/* An issued status names the sealing engineer and what is sealed; the cover
+ * date is the date of the current revision's row. */
+static void seal_data_check(FmCtx *c)
+{
+    const Meta *m = &c->doc->meta;
+    if (frontmatter_status_issued(m->status)) {
+        const char *missing[5];
+        size_t n = 0;
+        if (!m->engineer || !*m->engineer)
+            missing[n++] = "engineer";
+        if (!m->license || !*m->license)
+            missing[n++] = "license";
+        if (!m->revision || !*m->revision)
+            missing[n++] = "revision";
+        if (!m->date)
+            missing[n++] = "date";
+        if (!m->checked || !*m->checked)
+            missing[n++] = "checked";
+        if (n) {
+            char list[80] = "";
+            for (size_t i = 0; i < n; i++) {
+                strcat(list, i == 0 ? "" : i + 1 == n ? " and " : ", ");
+                strcat(list, missing[i]);
+            }
+            diag_error(c->diags, c->status_pos,
+                       "front matter: status '%s' is an issued status and needs %s (the seal "
+                       "block and the revision it seals)", m->status, list);
+        }
+    }
+    if (!m->revision || !m->date)
+        return;
+    for (size_t i = 0; i < m->nrevisions; i++) {
+        const Revision *rv = &m->revisions[i];
+        if (!rv->rev || strcmp(rv->rev, m->revision) != 0 || !rv->date)
+            continue;
+        if (strcmp(rv->date, m->date) != 0)
+            diag_error(c->diags, c->rev_date_pos[i],
+                       "front matter: the row of revision %s is dated %s but 'date' (line %d) is "
+                       "%s; the cover date is the date of the current revision",
+                       rv->rev, rv->date, c->date_pos.line, m->date);
     }
 }
 
@@ -397,7 +519,7 @@ size_t frontmatter_read(Document *doc, DiagList *diags)
 
     yaml_parser_t parser;
     yaml_document_t ydoc;
-    FmCtx c = {doc, diags, &ydoc, 1};
+    FmCtx c = {.doc = doc, .diags = diags, .y = &ydoc, .line0 = 1};
     if (!yaml_parser_initialize(&parser)) {
         Pos p = {doc->file, 1, 1};
         diag_error(diags, p, "front matter: cannot start the YAML reader");
@@ -440,6 +562,7 @@ size_t frontmatter_read(Document *doc, DiagList *diags)
         diag_error(diags, node_pos(&c, root), "front matter must be 'key: value' lines");
     }
     (void)closing_line;
+    seal_data_check(&c);
     yaml_document_delete(&ydoc);
     yaml_parser_delete(&parser);
     return consumed;

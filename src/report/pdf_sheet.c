@@ -10,6 +10,7 @@
  * criteria behind each check, the cautions and the numbered source. The
  * fixed wording lives in templates/ (compiled in as pdf_texts.inc). */
 #include "report/pdf_internal.h"
+#include "frontmatter.h"
 
 #include "uses.h"
 
@@ -221,24 +222,11 @@ void pdf_sheet_frame(Pdf *P, int sheet)
 /* ---- issued or not -------------------------------------------------------- */
 
 /* Statuses under which a package may be built from; anything else (draft,
- * preliminary, issued for review, no status) is marked on the cover. */
-static const char *const ISSUED[] = {"issued for construction", "issued for permit",
-                                     "issued for bid", "issued for record", "issued for tender",
-                                     "approved for construction", "final"};
-
+ * preliminary, issued for review, no status) is marked on the cover. The
+ * vocabulary is the front matter's. */
 bool pdf_status_issued(const char *status)
 {
-    if (!status)
-        return false;
-    char low[128];
-    size_t i = 0;
-    for (; status[i] && i + 1 < sizeof low; i++)
-        low[i] = (char)((status[i] >= 'A' && status[i] <= 'Z') ? status[i] + 32 : status[i]);
-    low[i] = '\0';
-    for (size_t k = 0; k < sizeof ISSUED / sizeof ISSUED[0]; k++)
-        if (strcmp(low, ISSUED[k]) == 0)
-            return true;
-    return false;
+    return frontmatter_status_issued(status);
 }
 
 /* ---- shared item pieces ----------------------------------------------------- */
