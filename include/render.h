@@ -122,4 +122,18 @@ void render_check_verdict(const Evaluated *ev, size_t stmt, StrBuf *out, bool *f
 /* A 1-based byte column of a line of `doc` as 1-based UTF-16 units. */
 int render_utf16_col(const Document *doc, int line, int byte_col);
 
+/* One caution of templates/cautions.md, "**Topic.** text" without the
+ * bullet; `len` bytes (not NUL-terminated). */
+typedef struct ReportCaution {
+    const char *text;
+    size_t len;
+} ReportCaution;
+
+/* The cautions that apply to `ev`, in the order of templates/cautions.md:
+ * every general one always, the surge caution only where surge() or
+ * wave_speed() is used, the demand cautions only where fixture loads or
+ * demands are. The text listing and the PDF both print this one list.
+ * Returns the count written to out (at most max). */
+size_t report_cautions(const Evaluated *ev, ReportCaution *out, size_t max);
+
 #endif

@@ -19,7 +19,6 @@
 #include <string.h>
 
 #include "parse.h"
-#include "report/pdf_texts.inc"
 
 #ifndef HEADROOM_VERSION
 #define HEADROOM_VERSION "0.0.0"
@@ -601,35 +600,34 @@ static double fn_caution(Pdf *P, const Item *it, double top)
     return h;
 }
 
-/* Did any statement take a load or a demand from a code's fixture tables? */
-static bool uses_fixture_demand(const Evaluated *ev)
-{
-    for (size_t i = 0; i < ev->nmethods; i++) {
-        const char *k = ev->methods[i]->key;
-        if (strncmp(k, "wsfu:", 5) == 0 || strncmp(k, "hunter:", 7) == 0)
-            return true;
-    }
-    return false;
-}
-
-/* The cautions of templates/cautions.md; the fixture demand caution only
- * where fixture loads or demands are used, since a caution that does not
- * apply is noise on a sealed sheet. */
+/* The cautions report_cautions() chooses, kept together on one sheet with
+ * their heading so no sheet holds an orphan bullet. */
 static void caution_items(Pdf *P, Vec *items, bool small)
 {
-    static const char DEMAND_TOPIC[] = "- **Fixture demand.**";
-    bool demand = uses_fixture_demand(P->ev);
-    const char *t = TEXT_CAUTIONS;
-    while (*t) {
-        const char *e = strchr(t, '\n');
-        size_t len = e ? (size_t)(e - t) : strlen(t);
-        bool skip = !demand && strncmp(t, DEMAND_TOPIC, sizeof DEMAND_TOPIC - 1) == 0;
-        if (len > 2 && t[0] == '-' && t[1] == ' ' && !skip) {
-            char *line = arena_strndup(&P->arena, t + 2, len - 2);
-            item_add(items, P, fn_caution, line, small, 4);
-        }
-        t += len + (e ? 1 : 0);
+    ReportCaution c[32];
+    size_t n = report_cautions(P->ev, c, sizeof c / sizeof c[0]);
+    if (items->len)
+        ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
+    for (size_t i = 0; i < n; i++) {
+        char *line = arena_strndup(&P->arena, c[i].text, c[i].len);
+        item_add(items, P, fn_caution, line, small, 4);
+        if (i + 1 < n)
+            ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
     }
+}
+
+/* The cover's pointer to the cautions, which are printed once, in full, at
+ * the end of the calculation. */
+static double fn_caution_pointer(Pdf *P, const Item *it, double top)
+{
+    (void)it;
+    return pdf_wrap(P, FONT_SERIF_ITALIC, 8.8, 11.4, P->sheet.body_l, top - 9,
+                    P->sheet.body_r - P->sheet.body_l,
+                    "The cautions that apply to this calculation — review and seal by a "
+                    "licensed professional, the adopted code and the authority having "
+                    "jurisdiction, manufacturer data, and what the calculation does not cover "
+                    "— are set out in full at the end, before the source listing. They are "
+                    "part of this report.") + 4;
 }
 
 /* ---- cover items ---------------------------------------------------------------- */
@@ -678,7 +676,8 @@ void pdf_cover_items(Pdf *P, Vec *items)
     pdf_network_cover_items(P, items);
     pdf_cases_cover_items(P, items);
     section(P, items, "Cautions", false, false);
-    caution_items(P, items, true);
+    ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
+    item_add(items, P, fn_caution_pointer, NULL, 0, 0);
 }
 
 /* A part's heading row in the package's summary of checks. */

@@ -768,6 +768,21 @@ bool render_text(const Evaluated *ev, FILE *out)
         sb_printf(&sb, "atmosphere: %s\n", atm);
     }
     put_blocks(ev, doc->blocks, &sb);
+    ReportCaution c[32];
+    size_t nc = report_cautions(ev, c, sizeof c / sizeof c[0]);
+    sb_puts(&sb, "\nCautions\n\n");
+    for (size_t i = 0; i < nc; i++) {
+        /* "**Topic.** text" printed as "- Topic. text" */
+        StrBuf line = {0};
+        sb_printf(&line, "%.*s", (int)c[i].len, c[i].text);
+        sb_puts(&sb, "- ");
+        for (size_t k = 0; k < line.len; k++)
+            if (!(line.data[k] == '*' && k + 1 < line.len && line.data[k + 1] == '*') &&
+                !(line.data[k] == '*' && k > 0 && line.data[k - 1] == '*'))
+                sb_printf(&sb, "%c", line.data[k]);
+        sb_puts(&sb, "\n");
+        sb_free(&line);
+    }
     size_t holds = ev->nchecks - ev->nfailed;
     sb_printf(&sb, "\nchecks: %zu hold, %zu fail\n", holds, ev->nfailed);
     if (ev->nfindings)
