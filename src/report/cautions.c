@@ -9,17 +9,24 @@
 
 #include "report/pdf_texts.inc"
 
-enum { USE_ALWAYS, USE_SURGE, USE_DEMAND };
+enum { USE_ALWAYS, USE_SURGE, USE_DEMAND, USE_NETWORK };
 
 /* The cautions that apply only to some calcs, by their topic. */
 static const struct { const char *topic; int use; } CONDITIONAL[] = {
     {"- **Surge.**", USE_SURGE},
     {"- **Demand.**", USE_DEMAND},
     {"- **Fixture demand.**", USE_DEMAND},
+    {"- **Networks.**", USE_NETWORK},
 };
 
 static bool uses(const Evaluated *ev, int use)
 {
+    if (use == USE_NETWORK) {
+        for (size_t i = 0; i < ev->doc->nstmts; i++)
+            if (ev->doc->stmts[i]->kind == STMT_NETWORK)
+                return true;
+        return false;
+    }
     for (size_t i = 0; i < ev->nmethods; i++) {
         const char *k = ev->methods[i]->key;
         if (use == USE_SURGE && (strcmp(k, "joukowsky") == 0 || strncmp(k, "korteweg", 8) == 0))
