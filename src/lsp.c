@@ -16,6 +16,8 @@
  * offsetEncoding extension). */
 #include <errno.h>
 #include <jansson.h>
+
+#include "json_text.h"
 #include <math.h>
 #include <stdarg.h>
 #include <stdlib.h>
@@ -152,21 +154,6 @@ static bool rd_bytes(Reader *r, char *dst, size_t n)
 
 /* ---- writing ------------------------------------------------------------ */
 
-/* A JSON string; bytes that are not UTF-8 become '?' (JSON text is Unicode). */
-static json_t *jstr(const char *s)
-{
-    json_t *j = json_string(s ? s : "");
-    if (j)
-        return j;
-    char *copy = xstrdup(s);
-    for (char *p = copy; *p; p++)
-        if ((unsigned char)*p >= 0x80)
-            *p = '?';
-    j = json_string(copy);
-    free(copy);
-    return j;
-}
-
 static void send_message(Server *S, json_t *msg)
 {
     json_object_set_new(msg, "jsonrpc", json_string("2.0"));
@@ -198,7 +185,7 @@ static void reply_error(Server *S, json_t *id, int code, const char *fmt, ...)
     va_end(ap);
     json_t *m = json_object();
     json_object_set(m, "id", id ? id : json_null());
-    json_object_set_new(m, "error", json_pack("{s:i,s:o}", "code", code, "message", jstr(msg)));
+    json_object_set_new(m, "error", json_pack("{s:i,s:o}", "code", code, "message", json_text(msg)));
     send_message(S, m);
 }
 
@@ -317,13 +304,13 @@ static void publish(Server *S, const OpenDoc *od, bool empty)
         bool here = !d->pos.file || strcmp(d->pos.file, od->name) == 0;
         if (here) {
             json_object_set_new(o, "range", diag_range(S, od, d));
-            json_object_set_new(o, "message", jstr(d->message));
+            json_object_set_new(o, "message", json_text(d->message));
         } else {
             /* A used file's diagnostic: shown at the top, naming its place. */
             char *m = xmalloc(strlen(d->message) + strlen(d->pos.file) + 48);
             sprintf(m, "%s:%d:%d: %s", d->pos.file, d->pos.line, d->pos.col, d->message);
             json_object_set_new(o, "range", range_json(S, od, 1, 0, 0));
-            json_object_set_new(o, "message", jstr(m));
+            json_object_set_new(o, "message", json_text(m));
             free(m);
         }
         json_object_set_new(o, "severity", json_integer(d->severity == SEV_ERROR     ? SEVERITY_ERROR
@@ -602,7 +589,7 @@ static json_t *do_hover(Server *S, OpenDoc *od, json_t *params)
         }
         free(w);
         if (out.len) {
-            json_t *h = json_pack("{s:{s:s,s:o},s:o}", "contents", "kind", "markdown", "value", jstr(sb_str(&out)), "range",
+            json_t *h = json_pack("{s:{s:s,s:o},s:o}", "contents", "kind", "markdown", "value", json_text(sb_str(&out)), "range",
                                   range_json(S, od, line, a, b));
             sb_free(&out);
             return h;
@@ -610,7 +597,7 @@ static json_t *do_hover(Server *S, OpenDoc *od, json_t *params)
     }
     if (!out.len)
         return json_null();
-    json_t *h = json_pack("{s:{s:s,s:o}}", "contents", "kind", "markdown", "value", jstr(sb_str(&out)));
+    json_t *h = json_pack("{s:{s:s,s:o}}", "contents", "kind", "markdown", "value", json_text(sb_str(&out)));
     sb_free(&out);
     return h;
 }
@@ -668,7 +655,7 @@ static json_t *do_inlay_hints(Server *S, OpenDoc *od, json_t *params)
         if (p) {
             json_t *h = json_object();
             json_object_set_new(h, "position", position_json(S, od, s->pos.line, len));
-            json_object_set_new(h, "label", jstr(sb_str(&label)));
+            json_object_set_new(h, "label", json_text(sb_str(&label)));
             json_object_set_new(h, "paddingLeft", json_true());
             json_array_append_new(hints, h);
         }
@@ -737,12 +724,12 @@ static void item_add(Items *it, const char *label, int kind, const char *detail,
     if (!prefix_ok(it, label))
         return;
     json_t *o = json_object();
-    json_object_set_new(o, "label", jstr(label));
+    json_object_set_new(o, "label", json_text(label));
     json_object_set_new(o, "kind", json_integer(kind));
     if (detail)
-        json_object_set_new(o, "detail", jstr(detail));
+        json_object_set_new(o, "detail", json_text(detail));
     if (doc)
-        json_object_set_new(o, "documentation", jstr(doc));
+        json_object_set_new(o, "documentation", json_text(doc));
     json_array_append_new(it->list, o);
 }
 

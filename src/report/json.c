@@ -5,12 +5,14 @@
  * the value in coherent SI base units at full precision (jansson prints
  * reals with 17 significant digits, which round-trips); `shown` is the value
  * in its display unit rounded to the document's significant digits, as the
- * report prints it. Only this file includes jansson. */
+ * report prints it. json_text() (json_text.h), the one encoder of a C string
+ * that every jansson user shares, lives here too. */
 #include <jansson.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
 
+#include "json_text.h"
 #include "numfmt.h"
 #include "render.h"
 #include "uses.h"
@@ -451,4 +453,18 @@ bool render_json(const Evaluated *const *evs, const DiagList *diags, size_t nfil
     fputc('\n', out);
     json_decref(root);
     return rc == 0;
+}
+
+json_t *json_text(const char *s)
+{
+    json_t *j = json_string(s ? s : "");
+    if (j)
+        return j;
+    char *copy = xstrdup(s);
+    for (char *p = copy; *p; p++)
+        if ((unsigned char)*p >= 0x80)
+            *p = '?';
+    j = json_string(copy);
+    free(copy);
+    return j;
 }

@@ -8,6 +8,8 @@
  * the file scheme, and every byte outside the unreserved set and '/' is
  * percent-encoded. The JSON adapter for this format; json.c has the other. */
 #include <jansson.h>
+
+#include "json_text.h"
 #include <stdlib.h>
 #include <string.h>
 
@@ -38,25 +40,9 @@ static char *file_uri(const char *path)
     return s;
 }
 
-/* A JSON string of `s`; a byte that is not UTF-8 (a file name may hold
- * one) becomes '?', since JSON text must be Unicode. */
-static json_t *string_json(const char *s)
-{
-    json_t *j = json_string(s ? s : "");
-    if (j)
-        return j;
-    char *copy = xstrdup(s);
-    for (char *p = copy; *p; p++)
-        if ((unsigned char)*p >= 0x80)
-            *p = '?';
-    j = json_string(copy);
-    free(copy);
-    return j;
-}
-
 static json_t *text_object(const char *s)
 {
-    return json_pack("{s:o}", "text", string_json(s));
+    return json_pack("{s:o}", "text", json_text(s));
 }
 
 static json_t *location(const char *file, size_t artifact, int line, int col)
