@@ -1,13 +1,16 @@
-/* eval.c — evaluating the statements of a document.
+/* eval.c — evaluating the statements of a document: expressions and the
+ * statement loop.
  *
  * Sequential and dimension-checked: every operation checks its operands'
  * dimensions and temperature kinds and says, in the document's units, what
  * it found. A statement whose inputs failed is marked not evaluated and not
- * reported again. `solve` varies an earlier name and re-evaluates exactly the
- * statements that depend on it (eval_recompute), which parametric cases use
- * too. The evaluator never formats numbers for display: it picks display
- * units and leaves the digits to the renderers. */
-#include "eval.h"
+ * reported again. `solve` (eval_solve.c) varies an earlier name and
+ * re-evaluates exactly the statements that depend on it (eval_recompute),
+ * which parametric cases (cases.c) use too. The other statement kinds have
+ * their own files (eval_internal.h lists them). The evaluator never formats
+ * numbers for display: it picks display units (eval_display.c) and leaves
+ * the digits to the renderers. */
+#include "eval_internal.h"
 
 #include <math.h>
 #include <stdint.h>
@@ -15,19 +18,8 @@
 #include <stdlib.h>
 #include <string.h>
 
-#include "flow.h"
-#include "network.h"
-#include "methods/devices_lib.h"
 #include "numfmt.h"
 #include "uses.h"
-
-typedef struct Ctx {
-    Evaluated *ev;
-    Document *doc;
-    DiagList *diags;
-    CallCtx *call;           /* the statement's method list */
-    int upstream;            /* an input failed earlier: say nothing more */
-} Ctx;
 
 static const double STANDARD_GRAVITY = 9.80665; /* m/s^2, exact (CGPM 1901) */
 
@@ -35,7 +27,7 @@ static const double STANDARD_GRAVITY = 9.80665; /* m/s^2, exact (CGPM 1901) */
 
 /* "pressure (psi)": the dimension's word and the unit the operand was
  * written or is shown in. */
-static void describe_operand(Ctx *c, const Expr *e, const Value *v, char *buf, size_t n)
+void eval_describe_operand(EvalCtx *c, const Expr *e, const Value *v, char *buf, size_t n)
 {
     if (v->kind != VAL_NUMBER) {
         value_describe(v, c->ev->units, buf, n);
@@ -71,13 +63,13 @@ static void describe_operand(Ctx *c, const Expr *e, const Value *v, char *buf, s
         snprintf(buf, n, "a quantity in %s", unit);
 }
 
-static bool fail_upstream(Ctx *c)
+static bool fail_upstream(EvalCtx *c)
 {
     c->upstream = 1;
     return false;
 }
 
-static bool finite_or_error(Ctx *c, Pos pos, double x, const char *what)
+static bool finite_or_error(EvalCtx *c, Pos pos, double x, const char *what)
 {
     if (isfinite(x))
         return true;
@@ -85,9 +77,7 @@ static bool finite_or_error(Ctx *c, Pos pos, double x, const char *what)
     return false;
 }
 
-static bool eval_expr(Ctx *c, const Expr *e, Value *out);
-
-static bool need_number(Ctx *c, const Expr *e, const Value *v, const char *role)
+bool eval_need_number(EvalCtx *c, const Expr *e, const Value *v, const char *role)
 {
     if (v->kind == VAL_NUMBER)
         return true;
@@ -111,7 +101,7 @@ static const char *op_verb(BinOp op)
 
 /* The unit that states `ref` in this calc's system, for the hints of the
  * messages below: "psia", "kPag". */
-static const char *ref_unit(const Ctx *c, PressureRef ref)
+const char *eval_ref_unit(const EvalCtx *c, PressureRef ref)
 {
     bool us = c->ev->units == UNITS_US;
     if (ref == PRES_ABSOLUTE)
@@ -125,22 +115,22 @@ static const char *ref_unit(const Ctx *c, PressureRef ref)
  * (a plain pressure is read as gauge). Two points added, a gauge and an
  * absolute point combined, and plain - absolute are errors that say how to
  * restate one side. */
-static bool add_sub_pressure(Ctx *c, const Expr *e, const Value *a, const Value *b, Value *out)
+static bool add_sub_pressure(EvalCtx *c, const Expr *e, const Value *a, const Value *b, Value *out)
 {
     PressureRef ra = a->q.pref, rb = b->q.pref, kind = PRES_PLAIN;
     bool add = e->op == OP_ADD;
     char da[128], db[128];
-    describe_operand(c, e->lhs, a, da, sizeof da);
-    describe_operand(c, e->rhs, b, db, sizeof db);
+    eval_describe_operand(c, e->lhs, a, da, sizeof da);
+    eval_describe_operand(c, e->rhs, b, db, sizeof db);
     if (ra != PRES_PLAIN && rb != PRES_PLAIN && ra != rb) {
         if (add)
             diag_error(c->diags, e->pos,
                        "cannot add %s to %s: state both on one reference first (write `as %s` "
-                       "on the line that defines the gauge one)", db, da, ref_unit(c, PRES_ABSOLUTE));
+                       "on the line that defines the gauge one)", db, da, eval_ref_unit(c, PRES_ABSOLUTE));
         else
             diag_error(c->diags, e->pos,
                        "cannot subtract %s from %s: state both on one reference first (write "
-                       "`as %s` on the line that defines the gauge one)", db, da, ref_unit(c, PRES_ABSOLUTE));
+                       "`as %s` on the line that defines the gauge one)", db, da, eval_ref_unit(c, PRES_ABSOLUTE));
         return false;
     }
     if (ra != PRES_PLAIN && rb != PRES_PLAIN) {
@@ -158,7 +148,7 @@ static bool add_sub_pressure(Ctx *c, const Expr *e, const Value *a, const Value 
             diag_error(c->diags, e->pos,
                        "cannot subtract %s from %s, which states no reference (write `as %s` "
                        "on the line that defines it, or write it in %s)", db, da,
-                       ref_unit(c, PRES_ABSOLUTE), ref_unit(c, PRES_ABSOLUTE));
+                       eval_ref_unit(c, PRES_ABSOLUTE), eval_ref_unit(c, PRES_ABSOLUTE));
             return false;
         }
         kind = rb;
@@ -194,12 +184,12 @@ static void keep_heat_rate(const Value *a, const Value *b, Value *out)
 /* Addition and subtraction with the temperature rules of DESIGN 2.3:
  * absolute - absolute = difference; absolute ± difference = absolute;
  * absolute + absolute and difference - absolute are errors. */
-static bool add_sub(Ctx *c, const Expr *e, const Value *a, const Value *b, Value *out)
+static bool add_sub(EvalCtx *c, const Expr *e, const Value *a, const Value *b, Value *out)
 {
     if (!dim_eq(a->q.dim, b->q.dim)) {
         char da[128], db[128];
-        describe_operand(c, e->lhs, a, da, sizeof da);
-        describe_operand(c, e->rhs, b, db, sizeof db);
+        eval_describe_operand(c, e->lhs, a, da, sizeof da);
+        eval_describe_operand(c, e->rhs, b, db, sizeof db);
         if (e->op == OP_ADD)
             diag_error(c->diags, e->pos, "cannot add %s to %s", db, da);
         else
@@ -235,14 +225,14 @@ static bool add_sub(Ctx *c, const Expr *e, const Value *a, const Value *b, Value
     return true;
 }
 
-static bool scalable(Ctx *c, const Expr *at, const Value *v, BinOp op)
+static bool scalable(EvalCtx *c, const Expr *at, const Value *v, BinOp op)
 {
     if (v->q.pref != PRES_PLAIN) {
         diag_error(c->diags, at->pos,
                    "cannot %s %s pressure (a point on a scale); subtract a point of the same "
                    "reference first, as in (p - 0 %s), to get a plain pressure",
                    op_verb(op), v->q.pref == PRES_GAUGE ? "a gauge" : "an absolute",
-                   ref_unit(c, v->q.pref));
+                   eval_ref_unit(c, v->q.pref));
         return false;
     }
     if (v->q.temp != TEMP_ABSOLUTE_OFFSET)
@@ -253,14 +243,14 @@ static bool scalable(Ctx *c, const Expr *at, const Value *v, BinOp op)
     return false;
 }
 
-static bool eval_binary(Ctx *c, const Expr *e, Value *out)
+static bool eval_binary(EvalCtx *c, const Expr *e, Value *out)
 {
     Value a, b;
     bool ok_a = eval_expr(c, e->lhs, &a);
     bool ok_b = eval_expr(c, e->rhs, &b);
     if (!ok_a || !ok_b)
         return false;
-    if (!need_number(c, e->lhs, &a, "the left operand") || !need_number(c, e->rhs, &b, "the right operand"))
+    if (!eval_need_number(c, e->lhs, &a, "the left operand") || !eval_need_number(c, e->rhs, &b, "the right operand"))
         return false;
     switch (e->op) {
     case OP_ADD:
@@ -289,7 +279,7 @@ static bool eval_binary(Ctx *c, const Expr *e, Value *out)
     case OP_POW: {
         if (!dim_is_none(b.q.dim)) {
             char db[128];
-            describe_operand(c, e->rhs, &b, db, sizeof db);
+            eval_describe_operand(c, e->rhs, &b, db, sizeof db);
             diag_error(c->diags, e->rhs->pos, "an exponent must be a pure number, found %s", db);
             return false;
         }
@@ -316,7 +306,7 @@ static bool eval_binary(Ctx *c, const Expr *e, Value *out)
 
 /* NAME = use("file.calc.md"): the used calc's values as a record. The
  * files it used are the user's too, so the list stays transitive. */
-static bool eval_use(Ctx *c, const Expr *e, Value *out)
+static bool eval_use(EvalCtx *c, const Expr *e, Value *out)
 {
     Evaluated *ev = c->ev;
     const UsedFile *u = use_set_resolve(ev->uses, c->doc, e->args[0]->text, e->args[0]->pos, c->diags);
@@ -341,7 +331,7 @@ static bool eval_use(Ctx *c, const Expr *e, Value *out)
     return true;
 }
 
-static bool eval_call(Ctx *c, const Expr *e, Value *out)
+static bool eval_call(EvalCtx *c, const Expr *e, Value *out)
 {
     if (e->callee_slot < 0 && strcmp(e->text, "use") == 0 && e->nargs == 1 &&
         e->args[0]->kind == EXPR_STRING)
@@ -423,7 +413,7 @@ static bool eval_call(Ctx *c, const Expr *e, Value *out)
     return true;
 }
 
-static bool eval_expr(Ctx *c, const Expr *e, Value *out)
+bool eval_expr(EvalCtx *c, const Expr *e, Value *out)
 {
     switch (e->kind) {
     case EXPR_NUMBER:
@@ -461,7 +451,7 @@ static bool eval_expr(Ctx *c, const Expr *e, Value *out)
         }
         if (!eval_expr(c, e->lhs, &v))
             return false;
-        if (!need_number(c, e->lhs, &v, "the operand of '-'"))
+        if (!eval_need_number(c, e->lhs, &v, "the operand of '-'"))
             return false;
         if (v.q.temp != TEMP_NONE) {
             diag_error(c->diags, e->pos, "cannot negate an absolute temperature");
@@ -506,295 +496,6 @@ static bool eval_expr(Ctx *c, const Expr *e, Value *out)
     return false;
 }
 
-/* ---- display units ------------------------------------------------------ */
-
-static Unit display_default(const Value *v, UnitSystem sys)
-{
-    Unit u = unit_default(v->q.dim, v->q.temp, sys);
-    bool difference = v->q.temp == TEMP_NONE || u.temp == TEMP_NONE;
-    if (sys != UNITS_SI && isfinite(v->q.si) && !isfinite(unit_from_si(v->q.si, &u, difference)))
-        return unit_default(v->q.dim, v->q.temp, UNITS_SI); /* too large for the customary unit */
-    return u;
-}
-
-Unit eval_display_unit(const Evaluated *ev, const Value *v, const Unit *as_unit)
-{
-    if (as_unit)
-        return *as_unit;
-    if (v->q.pref != PRES_PLAIN)
-        return unit_default_ref(v->q.dim, v->q.temp, v->q.pref, ev->units);
-    const char *hint = v->hint[ev->units];
-    if (hint) {
-        Unit u;
-        size_t bo, bl;
-        if (unit_parse(hint, strlen(hint), &u, &bo, &bl) == UNIT_OK && dim_eq(u.dim, v->q.dim)) {
-            bool difference = v->q.temp == TEMP_NONE || u.temp == TEMP_NONE;
-            if (v->q.temp == TEMP_NONE && u.temp != TEMP_NONE)
-                return display_default(v, ev->units);
-            if (!isfinite(v->q.si) || isfinite(unit_from_si(v->q.si, &u, difference)))
-                return u;
-        }
-    }
-    return display_default(v, ev->units);
-}
-
-/* `as UNIT` must fit the value: same dimension, and a point shown in a
- * point unit, a difference in a difference unit. Shared by statements and
- * inline {name as unit} values. */
-bool eval_unit_fits(DiagList *diags, UnitSystem sys, Pos at, const char *as_text, const Unit *u, const Value *v)
-{
-    if (v->kind != VAL_NUMBER) {
-        diag_error(diags, at, "'as %s' needs a number, but the value is %s", as_text,
-                   v->kind == VAL_STRING ? "a string" : "a record");
-        return false;
-    }
-    if (!dim_eq(v->q.dim, u->dim)) {
-        char dv[128], du[128];
-        dim_describe(v->q.dim, v->q.temp, sys, dv, sizeof dv);
-        dim_describe(u->dim, u->temp, sys, du, sizeof du);
-        diag_error(diags, at, "cannot show %s in %s, which is %s", dv, as_text, du);
-        return false;
-    }
-    if (v->q.temp != TEMP_NONE && u->temp == TEMP_NONE && u->offset == 0 &&
-        strncmp(u->text, "delta_", 6) == 0) {
-        diag_error(diags, at, "an absolute temperature is shown in degC, degF, K or degR, not %s", as_text);
-        return false;
-    }
-    if (v->q.temp == TEMP_NONE && u->temp == TEMP_ABSOLUTE_OFFSET) {
-        diag_error(diags, at, "this is a temperature difference; show it in delta_%s, not %s", as_text, as_text);
-        return false;
-    }
-    if (v->q.pref == PRES_ABSOLUTE && u->pref == PRES_PLAIN) {
-        diag_error(diags, at,
-                   "an absolute pressure is shown in psia, kPaa, bara or MPaa, not %s; write "
-                   "`as %s` for the pressure above the atmosphere",
-                   as_text, sys == UNITS_US ? "psig" : "kPag");
-        return false;
-    }
-    /* A point shown in a point unit converts with its offset; anything else
-     * as a difference. The number shown must be a number. */
-    bool difference = v->q.temp == TEMP_NONE || u->temp == TEMP_NONE;
-    if (isfinite(v->q.si) && !isfinite(unit_from_si(v->q.si, u, difference))) {
-        diag_error(diags, at, "the value is too large to show in %s (it overflows a double there)", as_text);
-        return false;
-    }
-    return true;
-}
-
-/* `as UNIT` of a pressure restates its reference (DESIGN 2.9): `as psia` of
- * a plain or gauge pressure adds the atmosphere, `as psig` of an absolute
- * one takes it away, a gauge pressure shown in a plain unit becomes plain. */
-static Value as_restate(Evaluated *ev, Value v, const Unit *u)
-{
-    if (v.kind != VAL_NUMBER || !dim_eq(v.q.dim, DIM_PRESSURE) || v.q.pref == u->pref)
-        return v;
-    if ((v.q.pref == PRES_ABSOLUTE) != (u->pref == PRES_ABSOLUTE))
-        ev->atmosphere_used = true;
-    v.q = qty_to_ref(v.q, u->pref, ev->atmosphere);
-    return v;
-}
-
-static bool as_fits(Ctx *c, const Stmt *s, const Value *v)
-{
-    if (!s->has_as)
-        return true;
-    return eval_unit_fits(c->diags, c->ev->units, s->as_pos, s->as_text, &s->as_unit, v);
-}
-
-/* Inline {name}, {name.field} and {name as unit} in prose: the field must
- * exist and the unit must fit, or the prose would show a wrong number. */
-static void check_inlines(Evaluated *ev, const Inline *in, DiagList *diags)
-{
-    for (; in; in = in->next) {
-        if (in->children)
-            check_inlines(ev, in->children, diags);
-        if (in->kind != INL_VALUE || in->slot < 0 || ev->results[in->slot].state != RES_OK)
-            continue;
-        const Value *v = &ev->results[in->slot].value;
-        if (in->field) {
-            Pos fp = in->pos;
-            fp.col += (int)strlen(in->text) + 1;
-            if (v->kind != VAL_RECORD) {
-                char got[96];
-                value_describe(v, ev->units, got, sizeof got);
-                diag_error(diags, fp, "'.%s' reads a field of a record, but '%s' is %s", in->field, in->text, got);
-                continue;
-            }
-            const Value *f = record_get(v->rec, in->field);
-            if (!f) {
-                diag_error(diags, fp, "a %s record has no field '%s'", v->rec->type, in->field);
-                continue;
-            }
-            v = f;
-        }
-        if (in->has_as)
-            if (eval_unit_fits(diags, ev->units, in->pos, in->as_unit.text, &in->as_unit, v) &&
-                (v->q.pref == PRES_ABSOLUTE) != (in->as_unit.pref == PRES_ABSOLUTE))
-                diag_error(diags, in->pos,
-                           "showing this pressure in %s adds or takes away the atmosphere; do it on a "
-                           "calc line (NAME = ... as %s) and show that name", in->as_unit.text, in->as_unit.text);
-
-    }
-}
-
-static void check_block_inlines(Evaluated *ev, const Block *b, DiagList *diags)
-{
-    for (; b; b = b->next) {
-        check_inlines(ev, b->inlines, diags);
-        check_block_inlines(ev, b->children, diags);
-    }
-}
-
-/* ---- statements --------------------------------------------------------- */
-
-static void eval_statement(Evaluated *ev, size_t i, DiagList *diags);
-
-typedef struct SolveCtx {
-    Evaluated *ev;
-    const Stmt *s;
-    DiagList *diags;
-    Dim dim;                 /* dimension of the equation's sides */
-} SolveCtx;
-
-static void set_var(Evaluated *ev, const Stmt *s, double x, DiagList *diags)
-{
-    StmtResult *v = &ev->results[s->var_slot];
-    v->value.q.si = x;
-    int changed = s->var_slot;
-    eval_recompute(ev, &changed, 1, (size_t)s->index, diags);
-}
-
-/* Evaluate both sides of the equation as they stand. */
-static bool equation_sides(Evaluated *ev, const Stmt *s, DiagList *diags, Value *l, Value *r)
-{
-    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL, ev->atmosphere, false};
-    Ctx c = {ev, ev->doc, diags, &cc, 0};
-    bool ok = eval_expr(&c, s->lhs, l);
-    ok = eval_expr(&c, s->rhs, r) && ok;
-    return ok && l->kind == VAL_NUMBER && r->kind == VAL_NUMBER;
-}
-
-static bool residual_at(double x, void *vctx, double *fx)
-{
-    SolveCtx *sc = vctx;
-    sc->diags->muted++;
-    set_var(sc->ev, sc->s, x, sc->diags);
-    Value l, r;
-    bool ok = equation_sides(sc->ev, sc->s, sc->diags, &l, &r);
-    sc->diags->muted--;
-    if (!ok)
-        return false;
-    *fx = l.q.si - r.q.si;
-    return isfinite(*fx);
-}
-
-static void format_si(const Evaluated *ev, double si, Dim d, char *buf, size_t n)
-{
-    Unit u = unit_default(d, TEMP_NONE, ev->units);
-    char num[48];
-    num_sig(unit_from_si(si, &u, true), 4, num, sizeof num);
-    if (dim_is_none(d) || strcmp(u.text, "1") == 0)
-        snprintf(buf, n, "%s", num);
-    else
-        snprintf(buf, n, "%s %s", num, u.text);
-}
-
-/* Push the slots an expression reads (names, and records called as f(x)). */
-static void expr_push_slots(const Expr *e, Vec *stack)
-{
-    if (!e)
-        return;
-    if (e->kind == EXPR_NAME && e->slot >= 0)
-        vec_push(stack, (void *)(intptr_t)(e->slot + 1));
-    if (e->kind == EXPR_CALL) {
-        if (e->callee_slot >= 0)
-            vec_push(stack, (void *)(intptr_t)(e->callee_slot + 1));
-        for (size_t i = 0; i < e->nargs; i++)
-            expr_push_slots(e->args[i], stack);
-        for (size_t i = 0; i < e->nkw; i++)
-            expr_push_slots(e->kw[i], stack);
-    }
-    expr_push_slots(e->lhs, stack);
-    expr_push_slots(e->rhs, stack);
-}
-
-/* Does the equation read `var` directly or through the statements it reads?
- * Iterative, over each statement once: a chain of 100,000 statements is no
- * deeper than one. */
-static bool equation_reads(const Document *doc, const Stmt *s, int var)
-{
-    Vec stack = {0};
-    expr_push_slots(s->lhs, &stack);
-    expr_push_slots(s->rhs, &stack);
-    unsigned char *seen = xcalloc(doc->nstmts + 1, 1);
-    bool found = false;
-    while (stack.len > 0 && !found) {
-        int slot = (int)(intptr_t)stack.items[--stack.len] - 1;
-        if (slot == var) {
-            found = true;
-        } else if (slot >= 0 && (size_t)slot < doc->nstmts && !seen[slot]) {
-            seen[slot] = 1;
-            const Stmt *t = doc->stmts[slot];
-            for (size_t k = 0; k < t->ndeps; k++)
-                vec_push(&stack, (void *)(intptr_t)(t->deps[k] + 1));
-        }
-    }
-    free(seen);
-    vec_free(&stack);
-    return found;
-}
-
-/* The slots an expression reads directly (names, the base of a field, a
- * record called as a function), each once, appended to *out. */
-static void collect_reads(const Expr *e, int **out, size_t *n, size_t *cap)
-{
-    if (!e)
-        return;
-    int slot = -1;
-    if (e->kind == EXPR_NAME)
-        slot = e->slot;
-    else if (e->kind == EXPR_CALL)
-        slot = e->callee_slot;
-    if (slot >= 0) {
-        bool seen = false;
-        for (size_t i = 0; i < *n && !seen; i++)
-            seen = (*out)[i] == slot;
-        if (!seen) {
-            if (*n == *cap) {
-                *cap = *cap ? 2 * *cap : 8;
-                *out = xrealloc(*out, *cap * sizeof **out);
-            }
-            (*out)[(*n)++] = slot;
-        }
-    }
-    collect_reads(e->lhs, out, n, cap);
-    collect_reads(e->rhs, out, n, cap);
-    for (size_t i = 0; i < e->nargs; i++)
-        collect_reads(e->args[i], out, n, cap);
-    for (size_t i = 0; i < e->nkw; i++)
-        collect_reads(e->kw[i], out, n, cap);
-}
-
-/* Keep what the equation reads at the root (set there by the caller). */
-static void record_root_reads(Evaluated *ev, const Stmt *s, StmtResult *res)
-{
-    int *slots = NULL;
-    size_t n = 0, cap = 0;
-    collect_reads(s->lhs, &slots, &n, &cap);
-    collect_reads(s->rhs, &slots, &n, &cap);
-    ReadValue *rv = n ? arena_alloc(&ev->doc->arena, n * sizeof *rv) : NULL;
-    size_t k = 0;
-    for (size_t i = 0; i < n; i++) {
-        const StmtResult *r = &ev->results[slots[i]];
-        if (r->state != RES_OK)
-            continue;
-        rv[k++] = (ReadValue){slots[i], r->value, r->shown};
-    }
-    free(slots);
-    res->at_root = rv;
-    res->nat_root = k;
-}
-
 bool eval_constant(int slot, Value *out)
 {
     if (slot == SLOT_PI)
@@ -823,491 +524,7 @@ const Value *eval_read(const Evaluated *ev, const StmtResult *row, int slot, Uni
     return &r->value;
 }
 
-static void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, DiagList *diags)
-{
-    Ctx c = {ev, ev->doc, diags, cc, 0};
-    StmtResult *var = &ev->results[s->var_slot];
-    if (var->state != RES_OK)
-        return;
-    if (var->value.kind != VAL_NUMBER) {
-        diag_error(diags, s->var_pos, "'%s' must be a number to be solved for", s->var);
-        res->state = RES_FAILED;
-        return;
-    }
-    Value trial = var->value;
-    /* Dimension check once, with errors shown, at the trial value. */
-    Value l, r;
-    bool ok = eval_expr(&c, s->lhs, &l);
-    ok = eval_expr(&c, s->rhs, &r) && ok;
-    if (!ok) {
-        res->state = c.upstream && diags->errors == 0 ? RES_NOT_EVALUATED : RES_FAILED;
-        return;
-    }
-    if (!need_number(&c, s->lhs, &l, "the left side of the equation") ||
-        !need_number(&c, s->rhs, &r, "the right side of the equation")) {
-        res->state = RES_FAILED;
-        return;
-    }
-    if (!dim_eq(l.q.dim, r.q.dim)) {
-        char dl[128], dr[128];
-        describe_operand(&c, s->lhs, &l, dl, sizeof dl);
-        describe_operand(&c, s->rhs, &r, dr, sizeof dr);
-        diag_error(diags, s->lhs->pos, "the two sides of the equation differ: %s on the left, %s on the right", dl, dr);
-        res->state = RES_FAILED;
-        return;
-    }
-    if (!equation_reads(ev->doc, s, s->var_slot)) {
-        /* an identity (5 = 5) holds for every value and a contradiction for
-         * none: either way there is nothing to solve for */
-        diag_error(diags, s->lhs->pos, "the equation does not depend on %s: no statement it reads "
-                                       "uses %s, so solving cannot choose a value", s->var, s->var);
-        res->state = RES_FAILED;
-        return;
-    }
-    Value lo, hi;
-    bool bracket = s->lo && s->hi;
-    if (bracket) {
-        bool okb = eval_expr(&c, s->lo, &lo);
-        okb = eval_expr(&c, s->hi, &hi) && okb;
-        if (!okb) {
-            res->state = RES_FAILED;
-            return;
-        }
-        const Value *ends[2] = {&lo, &hi};
-        const Expr *ex[2] = {s->lo, s->hi};
-        for (int k = 0; k < 2; k++) {
-            if (ends[k]->kind != VAL_NUMBER || !dim_eq(ends[k]->q.dim, trial.q.dim)) {
-                char de[128], dv[128];
-                describe_operand(&c, ex[k], ends[k], de, sizeof de);
-                dim_describe(trial.q.dim, trial.q.temp, ev->units, dv, sizeof dv);
-                diag_error(diags, ex[k]->pos, "the bracket must have the dimension of '%s', %s; found %s", s->var, dv, de);
-                res->state = RES_FAILED;
-                return;
-            }
-        }
-    }
-    SolveCtx sc = {ev, s, diags, l.q.dim};
-    /* Converge to the precision of the root itself (Brent's relative test,
-     * 2*eps*|x|), not to a fraction of the trial value: a root far smaller
-     * than the trial must still be resolved. The absolute floor only stops
-     * the search at a root of exactly zero. */
-    const double xtol = 1e-300;
-    SolveReport rep = bracket ? solve_brent(residual_at, &sc, lo.q.si, hi.q.si, xtol)
-                              : solve_expand(residual_at, &sc, trial.q.si, trial.q.si > 0, xtol);
-    /* At the root: record both sides, then put the varied name back. A
-     * bracketing method finds where the residual changes sign; if the sides
-     * do not agree there (a pole or a jump, not a root), it is no root. */
-    bool sign_change_only = false;
-    if (rep.status == SOLVE_OK) {
-        diags->muted++;
-        set_var(ev, s, rep.root, diags);
-        Value lr, rr;
-        bool okr = equation_sides(ev, s, diags, &lr, &rr);
-        diags->muted--;
-        if (okr) {
-            record_root_reads(ev, s, res);
-            res->lhs = lr;
-            res->rhs = rr;
-            res->lhs_shown = eval_display_unit(ev, &lr, NULL);
-            res->rhs_shown = eval_display_unit(ev, &rr, NULL);
-            double size = fmax(fabs(lr.q.si), fabs(rr.q.si));
-            sign_change_only = fabs(lr.q.si - rr.q.si) > 1e-6 * size;
-        }
-    }
-    diags->muted++;
-    var->value = trial;
-    set_var(ev, s, trial.q.si, diags);
-    diags->muted--;
-    res->solve = rep;
-    if (rep.status == SOLVE_OK && sign_change_only) {
-        char num[64], where[128], lv[96], rv[96];
-        num_sig(unit_from_si(rep.root, &var->shown, trial.q.temp == TEMP_NONE), 4, num, sizeof num);
-        bool plain = var->shown.text[0] == '\0' || strcmp(var->shown.text, "1") == 0;
-        snprintf(where, sizeof where, "%s%s%s", num, plain ? "" : " ", plain ? "" : var->shown.text);
-        format_si(ev, res->lhs.q.si, l.q.dim, lv, sizeof lv);
-        format_si(ev, res->rhs.q.si, l.q.dim, rv, sizeof rv);
-        diag_error(diags, s->lo ? s->lo->pos : s->var_pos,
-                   "the equation changes sign near %s = %s but has no root there (left %s, right "
-                   "%s): a pole or a jump in the bracket",
-                   s->var, where, lv, rv);
-        res->state = RES_FAILED;
-        return;
-    }
-    if (rep.status != SOLVE_OK) {
-        char a[128], b[128], fa[96], fb[96];
-        Unit vu = var->shown;
-        Value va = value_number(qty(rep.start_lo, trial.q.dim)), vb = value_number(qty(rep.start_hi, trial.q.dim));
-        va.q.temp = vb.q.temp = trial.q.temp;
-        va.q.pref = vb.q.pref = trial.q.pref;
-        char na[40], nb[40];
-        num_sig(unit_from_si(va.q.si, &vu, trial.q.temp == TEMP_NONE), 4, na, sizeof na);
-        num_sig(unit_from_si(vb.q.si, &vu, trial.q.temp == TEMP_NONE), 4, nb, sizeof nb);
-        bool plain = vu.text[0] == '\0' || strcmp(vu.text, "1") == 0;
-        snprintf(a, sizeof a, "%s%s%s", na, plain ? "" : " ", plain ? "" : vu.text);
-        snprintf(b, sizeof b, "%s%s%s", nb, plain ? "" : " ", plain ? "" : vu.text);
-        format_si(ev, rep.f_lo, l.q.dim, fa, sizeof fa);
-        format_si(ev, rep.f_hi, l.q.dim, fb, sizeof fb);
-        Pos at = s->lo ? s->lo->pos : s->var_pos;
-        switch (rep.status) {
-        case SOLVE_NO_BRACKET:
-            diag_error(diags, at,
-                       "no root of the equation between %s and %s: the residual (left - right) is %s "
-                       "and %s there, of the same sign", a, b, fa, fb);
-            break;
-        case SOLVE_NOT_FINITE:
-            if (bracket)
-                diag_error(diags, at, "the equation cannot be evaluated everywhere between %s and %s "
-                                      "(a value is not finite or a function fails there)", a, b);
-            else
-                diag_error(diags, at, "no root found by expanding around the trial value of '%s' "
-                                      "(reached %s to %s); give a bracket with 'between LO and HI'", s->var, a, b);
-            break;
-        case SOLVE_MAX_ITER:
-            diag_error(diags, at, "the solver did not converge in %d iterations", SOLVE_MAX_ITERATIONS);
-            break;
-        default:
-            break;
-        }
-        res->state = RES_FAILED;
-        return;
-    }
-    Value v = value_number(qty(rep.root, trial.q.dim));
-    v.q.temp = trial.q.temp;
-    v.q.pref = trial.q.pref;
-    if (!as_fits(&c, s, &v)) {
-        res->state = RES_FAILED;
-        return;
-    }
-    if (s->has_as)
-        v = as_restate(ev, v, &s->as_unit);
-    res->value = v;
-    res->shown = s->has_as ? s->as_unit : var->shown;
-    res->state = RES_OK;
-}
-
-/* The unit an expression states for itself: a literal's unit, or the
- * display unit of a plain name; NULL for anything computed. */
-static const Unit *written_unit(const Evaluated *ev, const Expr *e)
-{
-    while (e && e->kind == EXPR_PAREN)
-        e = e->lhs;
-    if (!e)
-        return NULL;
-    if (e->kind == EXPR_NUMBER && e->has_unit)
-        return &e->unit;
-    if (e->kind == EXPR_NAME && e->slot >= 0 && ev->results[e->slot].shown.text[0])
-        return &ev->results[e->slot].shown;
-    return NULL;
-}
-
-static void eval_check(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
-{
-    Value l, r;
-    bool ok = eval_expr(c, s->lhs, &l);
-    ok = eval_expr(c, s->rhs, &r) && ok;
-    if (!ok) {
-        res->state = c->upstream && !ok ? RES_NOT_EVALUATED : RES_FAILED;
-        return;
-    }
-    if (!need_number(c, s->lhs, &l, "the left side of a check") ||
-        !need_number(c, s->rhs, &r, "the right side of a check")) {
-        res->state = RES_FAILED;
-        return;
-    }
-    if (!dim_eq(l.q.dim, r.q.dim) || (l.q.temp == TEMP_NONE) != (r.q.temp == TEMP_NONE)) {
-        char dl[128], dr[128];
-        describe_operand(c, s->lhs, &l, dl, sizeof dl);
-        describe_operand(c, s->rhs, &r, dr, sizeof dr);
-        diag_error(c->diags, s->lhs->pos, "cannot compare %s with %s", dl, dr);
-        res->state = RES_FAILED;
-        return;
-    }
-    /* A plain pressure compares with a gauge point (it is read as gauge),
-     * never with an absolute one. */
-    if ((l.q.pref == PRES_ABSOLUTE) != (r.q.pref == PRES_ABSOLUTE)) {
-        char dl[128], dr[128];
-        describe_operand(c, s->lhs, &l, dl, sizeof dl);
-        describe_operand(c, s->rhs, &r, dr, sizeof dr);
-        bool left_abs = l.q.pref == PRES_ABSOLUTE;
-        PressureRef other = left_abs ? r.q.pref : l.q.pref;
-        diag_error(c->diags, s->lhs->pos,
-                   "cannot compare %s with %s: state both on one reference first (write `as %s` "
-                   "on the line that defines the %s one)", dl, dr, ref_unit(c, PRES_ABSOLUTE),
-                   other == PRES_GAUGE ? "gauge" : "plain");
-        res->state = RES_FAILED;
-        return;
-    }
-    double a = l.q.si, b = r.q.si;
-    switch (s->cmp) {
-    case CMP_LE: res->holds = a <= b; break;
-    case CMP_LT: res->holds = a < b; break;
-    case CMP_GE: res->holds = a >= b; break;
-    case CMP_GT: res->holds = a > b; break;
-    }
-    double num = (s->cmp == CMP_LE || s->cmp == CMP_LT) ? a : b;
-    double den = (s->cmp == CMP_LE || s->cmp == CMP_LT) ? b : a;
-    /* A ratio of demand to limit means something only when both are
-     * positive (a limit of zero or below, a gauge pressure below
-     * atmospheric): otherwise there is no utilisation to report. */
-    res->utilization = den > 0 && num >= 0 ? num / den : NAN;
-    res->lhs = l;
-    res->rhs = r;
-    /* Both sides in one unit, so a reviewer compares like with like: the
-     * unit the limit was written in (a literal's, or a name's display
-     * unit), else the left side's, else the system's default. */
-    const Unit *written = written_unit(ev, s->rhs);
-    if (!written)
-        written = written_unit(ev, s->lhs);
-    res->lhs_shown = res->rhs_shown = written ? *written : eval_display_unit(ev, &l, NULL);
-    res->state = RES_OK;
-}
-
-/* A path: evaluate every cell, then the hydraulics (flow.c). */
-/* The fixture load of every segment of a path with a fixtures column: the
- * fixtures taken off at a segment's outlet and at every outlet after it are
- * downstream of its inlet, so a segment's load is the sum of its own and
- * all later outlets' loads (a path is a single run). */
-static bool path_loads(Ctx *c, const PathSpec *ps, SegmentInput *in)
-{
-    bool ok = true;
-    double below = 0;
-    for (size_t i = ps->nsegs; i-- > 0;) {
-        const PathSegment *g = &ps->segs[i];
-        double outlet = 0;
-        in[i].fixture_each = arena_alloc(&c->doc->arena, (g->nfixtures + 1) * sizeof(double));
-        in[i].fixture_total = arena_alloc(&c->doc->arena, (g->nfixtures + 1) * sizeof(double));
-        for (size_t k = 0; k < g->nfixtures; k++) {
-            double each;
-            if (demand_item_load(c->call, g->fixtures[k].kind, g->fixtures[k].pos, &each)) {
-                in[i].fixture_each[k] = each;
-                in[i].fixture_total[k] = g->fixtures[k].count * each;
-                outlet += in[i].fixture_total[k];
-            } else {
-                ok = false;
-            }
-        }
-        below += outlet;
-        in[i].has_load = true;
-        in[i].load = below;
-    }
-    return ok;
-}
-
-static void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
-{
-    const PathSpec *ps = s->path;
-    Value fluid, start;
-    bool ok = eval_expr(c, ps->fluid, &fluid);
-    ok = eval_expr(c, ps->start, &start) && ok;
-    SegmentInput *in = arena_alloc(&ev->doc->arena, (ps->nsegs + 1) * sizeof *in);
-    bool fixtures_ok = !ps->has_fixtures || path_loads(c, ps, in);
-    for (size_t i = 0; i < ps->nsegs; i++) {
-        const PathSegment *g = &ps->segs[i];
-        if (g->flow)
-            ok = eval_expr(c, g->flow, &in[i].flow) && ok;
-        ok = eval_expr(c, g->pipe, &in[i].pipe) && ok;
-        ok = eval_expr(c, g->length, &in[i].length) && ok;
-        ok = eval_expr(c, g->rise, &in[i].rise) && ok;
-        if (g->K) {
-            in[i].has_K = true;
-            ok = eval_expr(c, g->K, &in[i].K) && ok;
-        }
-        if (g->C) {
-            in[i].has_C = true;
-            ok = eval_expr(c, g->C, &in[i].C) && ok;
-        }
-        if (g->device) {
-            in[i].has_device = true;
-            ok = eval_expr(c, g->device, &in[i].device) && ok;
-        }
-    }
-    if (!ok || !fixtures_ok) {
-        res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
-        return;
-    }
-    /* demand: each segment's flow is the demand of its summed load — loads
-     * add, demands do not */
-    for (size_t i = 0; i < ps->nsegs && ps->demand != PATH_DEMAND_NONE; i++) {
-        double Q = 0;
-        bool got = ps->demand == PATH_DEMAND_HUNTER
-                       ? demand_hunter_flow(c->call, ps->demand_system, in[i].load, ps->demand_pos, &Q)
-                       : demand_peak_flow(c->call, ps->demand_pos);
-        if (!got) {
-            res->state = RES_FAILED;
-            return;
-        }
-        in[i].flow = value_hinted(qty(Q, DIM_FLOW), "gal/min", "L/s");
-    }
-    const PathResult *pr = NULL;
-    if (!flow_path(c->call, s, &fluid, &start, in, &res->value, &pr)) {
-        res->state = RES_FAILED;
-        return;
-    }
-    res->path = pr;
-    res->state = RES_OK;
-}
-
-/* A curve: every cell a number, each column of one dimension, the argument
- * strictly increasing (and for log-log both above zero); the record it
- * binds reads the table (methods/devices_lib.c). Each problem is reported
- * at its cell. */
-static void eval_curve(const Stmt *s, StmtResult *res, Ctx *c)
-{
-    const CurveSpec *cs = s->curve;
-    Arena *a = &c->doc->arena;
-    size_t n = cs->npoints;
-    Value *v = arena_alloc(a, (2 * n + 1) * sizeof *v);
-    bool ok = true;
-    for (size_t i = 0; i < n; i++) {
-        ok = eval_expr(c, cs->x[i], &v[2 * i]) && ok;
-        ok = eval_expr(c, cs->y[i], &v[2 * i + 1]) && ok;
-    }
-    if (!ok) {
-        res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
-        return;
-    }
-    CurveData *cd = arena_alloc(a, sizeof *cd);
-    double *x = arena_alloc(a, (n + 1) * sizeof *x), *y = arena_alloc(a, (n + 1) * sizeof *y);
-    const char *head[2] = {cs->x_head, cs->y_head};
-    for (size_t i = 0; i < n && ok; i++) {
-        for (size_t k = 0; k < 2; k++) {
-            const Expr *e = k ? cs->y[i] : cs->x[i];
-            const Value *cv = &v[2 * i + k], *first = &v[k];
-            if (!need_number(c, e, cv, "a curve's cell")) {
-                ok = false;
-                break;
-            }
-            if (!dim_eq(cv->q.dim, first->q.dim) || (cv->q.temp == TEMP_NONE) != (first->q.temp == TEMP_NONE)) {
-                char d1[128], d2[128];
-                describe_operand(c, k ? cs->y[0] : cs->x[0], first, d1, sizeof d1);
-                describe_operand(c, e, cv, d2, sizeof d2);
-                diag_error(c->diags, e->pos, "column '%s' mixes dimensions: the first row is %s, this cell is %s", head[k],
-                           d1, d2);
-                ok = false;
-                break;
-            }
-            (k ? y : x)[i] = cv->q.si;
-        }
-    }
-    if (!ok) {
-        res->state = RES_FAILED;
-        return;
-    }
-    cd->name = s->name;
-    cd->curve = (Curve){x, y, n, cs->loglog ? CURVE_LOGLOG : CURVE_LINEAR};
-    cd->x_dim = v[0].q.dim;
-    cd->x_temp = v[0].q.temp;
-    cd->y_dim = v[1].q.dim;
-    cd->y_temp = v[1].q.temp;
-    size_t bad = 0;
-    char b1[112], b2[112];
-    switch (curve_check(&cd->curve, &bad)) {
-    case CURVE_OK:
-        break;
-    case CURVE_NOT_INCREASING: {
-        Unit u = eval_display_unit(c->ev, &v[0], written_unit(c->ev, cs->x[0]));
-        bool diff = v[0].q.temp == TEMP_NONE, unitless = !u.text[0] || strcmp(u.text, "1") == 0;
-        char n1[48], n2[48];
-        num_sig(unit_from_si(v[2 * bad].q.si, &u, diff), 4, n1, sizeof n1);
-        num_sig(unit_from_si(v[2 * (bad - 1)].q.si, &u, diff), 4, n2, sizeof n2);
-        snprintf(b1, sizeof b1, "%s%s%s", n1, unitless ? "" : " ", unitless ? "" : u.text);
-        snprintf(b2, sizeof b2, "%s%s%s", n2, unitless ? "" : " ", unitless ? "" : u.text);
-        diag_error(c->diags, cs->x[bad]->pos,
-                   "the argument column '%s' must increase strictly: %s here is not above %s in the row before",
-                   cs->x_head, b1, b2);
-        res->state = RES_FAILED;
-        return;
-    }
-    case CURVE_NOT_POSITIVE: {
-        bool xs = !(x[bad] > 0);
-        diag_error(c->diags, xs ? cs->x[bad]->pos : cs->y[bad]->pos,
-                   "interpolate: loglog needs values above zero in both columns; this '%s' cell is not",
-                   xs ? cs->x_head : cs->y_head);
-        res->state = RES_FAILED;
-        return;
-    }
-    case CURVE_NOT_FINITE:
-    case CURVE_TOO_FEW:
-        diag_error(c->diags, cs->x[bad]->pos, "this point of curve '%s' is not a finite number", s->name);
-        res->state = RES_FAILED;
-        return;
-    }
-    /* the table for the report, in the units the first row was written in */
-    ResultTable *t = arena_alloc(a, sizeof *t);
-    t->title = arena_printf(a, "Curve %s, %s interpolation", s->name, cs->loglog ? "log-log" : "linear");
-    t->ncols = 2;
-    t->nrows = n;
-    t->heads = arena_alloc(a, 2 * sizeof *t->heads);
-    t->heads[0] = cs->x_head;
-    t->heads[1] = cs->y_head;
-    t->units = arena_alloc(a, 2 * sizeof *t->units);
-    for (size_t k = 0; k < 2; k++)
-        t->units[k] = eval_display_unit(c->ev, &v[k], written_unit(c->ev, k ? cs->y[0] : cs->x[0]));
-    t->cells = v;
-    res->table = t;
-    res->value = (Value){.kind = VAL_RECORD, .rec = curve_record_new(a, cd)};
-    call_use_method(c->call, curve_method(cd->curve.interp));
-    res->state = RES_OK;
-}
-
-/* A network: evaluate every cell, then solve it (network.c). */
-static void eval_network(Evaluated *ev, const Stmt *s, StmtResult *res, Ctx *c)
-{
-    const NetworkSpec *ns = s->network;
-    Arena *a = &ev->doc->arena;
-    Value fluid, tol = {0};
-    bool ok = eval_expr(c, ns->fluid, &fluid);
-    if (ns->tolerance)
-        ok = eval_expr(c, ns->tolerance, &tol) && ok;
-    NetNodeInput *ni = arena_alloc(a, (ns->nnodes + 1) * sizeof *ni);
-    NetLinkInput *li = arena_alloc(a, (ns->nlinks + 1) * sizeof *li);
-    for (size_t i = 0; i < ns->nnodes; i++) {
-        const NetNode *nd = &ns->nodes[i];
-        Expr *cells[] = {nd->elevation, nd->demand, nd->head, nd->pressure, nd->x, nd->y};
-        Value *vals[] = {&ni[i].elevation, &ni[i].demand, &ni[i].head, &ni[i].pressure, &ni[i].x, &ni[i].y};
-        for (size_t k = 0; k < sizeof cells / sizeof cells[0]; k++)
-            if (cells[k])
-                ok = eval_expr(c, cells[k], vals[k]) && ok;
-    }
-    for (size_t l = 0; l < ns->nlinks; l++) {
-        const NetLink *lk = &ns->links[l];
-        Expr *cells[] = {lk->pipe, lk->length, lk->K, lk->C, lk->device};
-        Value *vals[] = {&li[l].pipe, &li[l].length, &li[l].K, &li[l].C, &li[l].device};
-        for (size_t k = 0; k < sizeof cells / sizeof cells[0]; k++)
-            if (cells[k])
-                ok = eval_expr(c, cells[k], vals[k]) && ok;
-    }
-    if (!ok) {
-        res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
-        return;
-    }
-    const NetworkResult *nr = NULL;
-    if (!network_solve(c->call, s, &fluid, &tol, ni, li, &res->value, &nr)) {
-        res->state = RES_FAILED;
-        return;
-    }
-    res->network = nr;
-    res->state = RES_OK;
-}
-
-static void eval_figure(const Stmt *s, StmtResult *res, Ctx *c)
-{
-    Value *args = arena_alloc(&c->doc->arena, (s->nargs + 1) * sizeof *args);
-    bool ok = true;
-    for (size_t i = 0; i < s->nargs; i++)
-        ok = eval_expr(c, s->args[i], &args[i]) && ok;
-    if (!ok) {
-        res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
-        return;
-    }
-    FigureData *fd = NULL;
-    if (!flow_figure(c->call, s, args, &fd)) {
-        res->state = RES_FAILED;
-        return;
-    }
-    res->figure = fd;
-    res->state = RES_OK;
-}
+/* ---- statements --------------------------------------------------------- */
 
 static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
 {
@@ -1326,7 +543,7 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
         if (ev->results[s->deps[k]].state != RES_OK)
             return; /* not evaluated: an input failed */
     CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL, ev->atmosphere, false};
-    Ctx c = {ev, ev->doc, diags, &cc, 0};
+    EvalCtx c = {ev, ev->doc, diags, &cc, 0};
     switch (s->kind) {
     case STMT_DEF: {
         Value v;
@@ -1334,12 +551,12 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
             res->state = c.upstream ? RES_NOT_EVALUATED : RES_FAILED;
             break;
         }
-        if (!as_fits(&c, s, &v)) {
+        if (!eval_as_fits(&c, s, &v)) {
             res->state = RES_FAILED;
             break;
         }
         if (s->has_as)
-            v = as_restate(ev, v, &s->as_unit);
+            v = eval_as_restate(ev, v, &s->as_unit);
         res->value = v;
         if (v.kind == VAL_NUMBER) {
             /* A plain reference to another name keeps that name's unit. */
@@ -1431,115 +648,6 @@ static void note_methods(Evaluated *ev, const StmtResult *r, Vec *all)
     (void)ev;
 }
 
-/* ---- parametric cases ---------------------------------------------------- */
-
-/* Evaluate one table: per row, give the inputs the row's values, re-evaluate
- * what depends on them (eval_recompute, as solve does), record the shown
- * values and every check, then put the inputs back. Diagnostics inside a
- * case are muted: a failure shows as "not evaluated" in that row. */
-static void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagList *diags)
-{
-    Document *doc = ev->doc;
-    Arena *a = &doc->arena;
-    cr->table = ct;
-    for (size_t i = 0; i < doc->nstmts; i++)
-        cr->nchecks += doc->stmts[i]->kind == STMT_CHECK && !doc->stmts[i]->finding;
-    cr->check_slots = arena_alloc(a, (cr->nchecks + 1) * sizeof *cr->check_slots);
-    for (size_t i = 0, k = 0; i < doc->nstmts; i++)
-        if (doc->stmts[i]->kind == STMT_CHECK && !doc->stmts[i]->finding)
-            cr->check_slots[k++] = (int)i;
-    cr->rows = arena_alloc(a, (ct->nrows + 1) * sizeof *cr->rows);
-
-    size_t ni = ct->ninputs;
-    Value *base = arena_alloc(a, (ni + 1) * sizeof *base);
-    int *slots = arena_alloc(a, (ni + 1) * sizeof *slots);
-    for (size_t k = 0; k < ni; k++) {
-        slots[k] = ct->input_slots[k];
-        if (slots[k] < 0 || ev->results[slots[k]].state != RES_OK)
-            return; /* reported already, or the input itself failed */
-        base[k] = ev->results[slots[k]].value;
-    }
-    CallCtx cc = {a, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL, ev->atmosphere, false};
-    Ctx c = {ev, doc, diags, &cc, 0};
-    /* The shown expressions are checked once, with the calc's own values and
-     * errors reported, so a bad field or dimension is an error, not a
-     * silent "not evaluated" in every row. */
-    bool shown_ok = true;
-    for (size_t k = 0; k < ct->nshow; k++) {
-        Value v;
-        c.upstream = 0;
-        if (ct->show_exprs[k] && !eval_expr(&c, ct->show_exprs[k], &v) && !c.upstream)
-            shown_ok = false;
-    }
-    if (!shown_ok)
-        return;
-    for (size_t r = 0; r < ct->nrows; r++) {
-        CaseRow *row = &cr->rows[r];
-        row->inputs = arena_alloc(a, (ni + 1) * sizeof *row->inputs);
-        bool ok = true;
-        for (size_t k = 0; k < ni; k++) {
-            const Expr *e = ct->cells[r * ni + k];
-            Value v;
-            if (!e || !eval_expr(&c, e, &v)) {
-                ok = false;
-                continue;
-            }
-            const Value *b = &base[k];
-            if (v.kind != b->kind || (v.kind == VAL_NUMBER && (!dim_eq(v.q.dim, b->q.dim) || (v.q.temp == TEMP_NONE) != (b->q.temp == TEMP_NONE) || v.q.pref != b->q.pref))) {
-                char dv[128], db[128];
-                describe_operand(&c, e, &v, dv, sizeof dv);
-                value_describe(b, ev->units, db, sizeof db);
-                diag_error(diags, e->pos, "case value for '%s' must be %s like the input, found %s", ct->inputs[k], db, dv);
-                ok = false;
-                continue;
-            }
-            ev->results[slots[k]].value = v;
-            row->inputs[k] = v;
-        }
-        if (!ok) {
-            for (size_t k = 0; k < ni; k++)
-                ev->results[slots[k]].value = base[k];
-            return; /* errors reported; the table is not evaluated */
-        }
-        diags->muted++;
-        eval_recompute(ev, slots, ni, doc->nstmts, diags);
-        row->shown = arena_alloc(a, (ct->nshow + 1) * sizeof *row->shown);
-        row->shown_unit = arena_alloc(a, (ct->nshow + 1) * sizeof *row->shown_unit);
-        row->shown_ok = arena_alloc(a, (ct->nshow + 1) * sizeof *row->shown_ok);
-        for (size_t k = 0; k < ct->nshow; k++) {
-            const Expr *e = ct->show_exprs[k];
-            Value v;
-            c.upstream = 0;
-            if (e && eval_expr(&c, e, &v)) {
-                row->shown[k] = v;
-                /* a plain name keeps its display unit */
-                if (e->kind == EXPR_NAME && e->slot >= 0)
-                    row->shown_unit[k] = ev->results[e->slot].shown;
-                else if (v.kind == VAL_NUMBER)
-                    row->shown_unit[k] = eval_display_unit(ev, &v, NULL);
-                row->shown_ok[k] = true;
-            }
-        }
-        row->holds = arena_alloc(a, (cr->nchecks + 1) * sizeof *row->holds);
-        row->utilization = arena_alloc(a, (cr->nchecks + 1) * sizeof *row->utilization);
-        row->check_ok = arena_alloc(a, (cr->nchecks + 1) * sizeof *row->check_ok);
-        for (size_t k = 0; k < cr->nchecks; k++) {
-            const StmtResult *res = &ev->results[cr->check_slots[k]];
-            row->check_ok[k] = res->state == RES_OK;
-            row->holds[k] = res->state == RES_OK && res->holds;
-            row->utilization[k] = res->state == RES_OK ? res->utilization : NAN;
-            if (!row->holds[k])
-                row->nfailed++;
-        }
-        if (row->nfailed)
-            cr->rows_failing++;
-        for (size_t k = 0; k < ni; k++)
-            ev->results[slots[k]].value = base[k];
-        eval_recompute(ev, slots, ni, doc->nstmts, diags);
-        diags->muted--;
-    }
-}
-
 const Value *eval_named_value_at(const Evaluated *ev, const StmtResult *row, const Expr *e,
                                  Unit *shown)
 {
@@ -1619,7 +727,7 @@ Evaluated *eval_document_in(Document *doc, UseSet *uses, DiagList *diags)
                 ev->nfailed++;
         }
     }
-    check_block_inlines(ev, doc->blocks, diags);
+    eval_check_inlines(ev, doc->blocks, diags);
     ev->ncases = doc->ncases;
     ev->cases = arena_alloc(&doc->arena, (doc->ncases + 1) * sizeof *ev->cases);
     for (size_t i = 0; i < doc->ncases; i++) {
