@@ -14,6 +14,7 @@
 
 #include <math.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
 #include "numfmt.h"
@@ -281,7 +282,7 @@ static double render_block(Pdf *P, const Block *b, double x, double top, double 
 
 static double measure_block(Pdf *P, const Block *b, double width)
 {
-    HPDF_Page keep = P->page;
+    DrawPage *keep = P->page;
     P->page = NULL;
     double h = render_block(P, b, 0, 0, width);
     P->page = keep;
@@ -319,7 +320,7 @@ static double render_table(Pdf *P, const Block *t, double x, double top, double 
     double size = 8.8, lead = 11, pad = 4;
     double *nat = xcalloc((size_t)nc, sizeof *nat);
     double *cw = xcalloc((size_t)nc, sizeof *cw);
-    HPDF_Page keep = P->page;
+    DrawPage *keep = P->page;
     P->page = NULL;
     for (const Block *row = t->children; row; row = row->next) {
         int c = 0;
@@ -522,9 +523,9 @@ double pdf_row_margin(Pdf *P, const Stmt *st, double top)
         Rgb c = r->holds ? PASS : FAIL;
         double bw = s->margin_w - 10, bh = 14;
         if (P->page) {
-            HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+            draw_stroke_rgb(P->page, c);
             pdf_rect(P, x, y - bh, bw, bh, r->holds ? 0.7 : 1.4);
-            HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)INK.r, (HPDF_REAL)INK.g, (HPDF_REAL)INK.b);
+            draw_stroke_rgb(P->page, INK);
         }
         double vw = pdf_width(P, FONT_SANS_BOLD, 8.5, v);
         pdf_text_color(P, FONT_SANS_BOLD, 8.5, x + (bw - vw) / 2, y - 10.2, v, c);
@@ -705,9 +706,9 @@ static double fn_stmt(Pdf *P, const Item *it, double top)
         h = mh + 1;
     h += 3;
     if (P->page) {
-        HPDF_Page_SetRGBStroke(P->page, 0.80f, 0.80f, 0.80f);
+        draw_stroke_rgb(P->page, (Rgb){0.80, 0.80, 0.80});
         pdf_line(P, s->body_l, top - h + 1.5, s->body_r, top - h + 1.5, 0.25);
-        HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)INK.r, (HPDF_REAL)INK.g, (HPDF_REAL)INK.b);
+        draw_stroke_rgb(P->page, INK);
     }
     return h;
 }

@@ -125,13 +125,13 @@ static bool figure_axes(const FigureData *fd, Axis *ax, Axis *ay)
 static void stroke_rgb(Pdf *P, Rgb c)
 {
     if (P->page)
-        HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+        draw_stroke_rgb(P->page, c);
 }
 
 static void fill_rgb(Pdf *P, Rgb c)
 {
     if (P->page)
-        HPDF_Page_SetRGBFill(P->page, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+        draw_fill_rgb(P->page, c);
 }
 
 static const Rgb GRID_MAJOR = {0.80, 0.80, 0.80};
@@ -145,32 +145,32 @@ static void set_style(Pdf *P, int style, double heavy)
 {
     if (!P->page)
         return;
-    static const HPDF_UINT16 DASH[2] = {5, 3}, DOT[2] = {1, 2};
-    HPDF_Page pg = P->page;
-    HPDF_Page_SetLineJoin(pg, HPDF_ROUND_JOIN);
+    static const unsigned short DASH[2] = {5, 3}, DOT[2] = {1, 2};
+    DrawPage *pg = P->page;
+    draw_line_join(pg, DRAW_JOIN_ROUND);
     switch (style) {
     case 1:
-        HPDF_Page_SetDash(pg, DASH, 2, 0);
-        HPDF_Page_SetLineCap(pg, HPDF_BUTT_END);
-        HPDF_Page_SetLineWidth(pg, (HPDF_REAL)(heavy * 0.85));
+        draw_dash(pg, DASH, 2, 0);
+        draw_line_cap(pg, DRAW_CAP_BUTT);
+        draw_line_width(pg, (heavy * 0.85));
         stroke_rgb(P, INK);
         break;
     case 2:
-        HPDF_Page_SetDash(pg, DOT, 2, 0);
-        HPDF_Page_SetLineCap(pg, HPDF_ROUND_END);
-        HPDF_Page_SetLineWidth(pg, (HPDF_REAL)(heavy * 0.9));
+        draw_dash(pg, DOT, 2, 0);
+        draw_line_cap(pg, DRAW_CAP_ROUND);
+        draw_line_width(pg, (heavy * 0.9));
         stroke_rgb(P, INK);
         break;
     case 3:
-        HPDF_Page_SetDash(pg, NULL, 0, 0);
-        HPDF_Page_SetLineCap(pg, HPDF_BUTT_END);
-        HPDF_Page_SetLineWidth(pg, 0.6f);
+        draw_dash(pg, NULL, 0, 0);
+        draw_line_cap(pg, DRAW_CAP_BUTT);
+        draw_line_width(pg, 0.6);
         stroke_rgb(P, THIN);
         break;
     default:
-        HPDF_Page_SetDash(pg, NULL, 0, 0);
-        HPDF_Page_SetLineCap(pg, HPDF_BUTT_END);
-        HPDF_Page_SetLineWidth(pg, (HPDF_REAL)heavy);
+        draw_dash(pg, NULL, 0, 0);
+        draw_line_cap(pg, DRAW_CAP_BUTT);
+        draw_line_width(pg, heavy);
         stroke_rgb(P, INK);
         break;
     }
@@ -180,9 +180,9 @@ static void plain_style(Pdf *P)
 {
     if (!P->page)
         return;
-    HPDF_Page_SetDash(P->page, NULL, 0, 0);
-    HPDF_Page_SetLineCap(P->page, HPDF_BUTT_END);
-    HPDF_Page_SetLineJoin(P->page, HPDF_MITER_JOIN);
+    draw_dash(P->page, NULL, 0, 0);
+    draw_line_cap(P->page, DRAW_CAP_BUTT);
+    draw_line_join(P->page, DRAW_JOIN_MITER);
     stroke_rgb(P, INK);
     fill_rgb(P, INK);
 }
@@ -192,11 +192,11 @@ static void dot(Pdf *P, double x, double y, double r)
     if (!P->page)
         return;
     fill_rgb(P, (Rgb){1, 1, 1});
-    HPDF_Page_Circle(P->page, (HPDF_REAL)x, (HPDF_REAL)y, (HPDF_REAL)(r + 1.1));
-    HPDF_Page_Fill(P->page);
+    draw_circle_path(P->page, x, y, (r + 1.1));
+    draw_fill(P->page);
     fill_rgb(P, MARK);
-    HPDF_Page_Circle(P->page, (HPDF_REAL)x, (HPDF_REAL)y, (HPDF_REAL)r);
-    HPDF_Page_Fill(P->page);
+    draw_circle_path(P->page, x, y, r);
+    draw_fill(P->page);
     fill_rgb(P, INK);
 }
 
@@ -206,13 +206,8 @@ static void text_up(Pdf *P, FontRole f, double size, double x, double y, const c
     if (!P->page)
         return;
     double w = pdf_width(P, f, size, s);
-    HPDF_Page pg = P->page;
     fill_rgb(P, INK);
-    HPDF_Page_BeginText(pg);
-    HPDF_Page_SetFontAndSize(pg, P->font[f], (HPDF_REAL)size);
-    HPDF_Page_SetTextMatrix(pg, 0, 1, -1, 0, (HPDF_REAL)x, (HPDF_REAL)(y - w / 2));
-    HPDF_Page_ShowText(pg, s);
-    HPDF_Page_EndText(pg);
+    draw_text_matrix(P->page, (int)f, size, 0, 1, -1, 0, x, y - w / 2, s);
 }
 
 #define TICK_FONT FONT_SANS
@@ -330,9 +325,9 @@ static double draw_legend(Pdf *P, const LegendEntry *e, size_t n, double x, doub
         if (P->page) {
             if (e[i].kind == 0) {
                 set_style(P, e[i].style, 1.1);
-                HPDF_Page_MoveTo(P->page, (HPDF_REAL)cx, (HPDF_REAL)(base + 2.6));
-                HPDF_Page_LineTo(P->page, (HPDF_REAL)(cx + sample), (HPDF_REAL)(base + 2.6));
-                HPDF_Page_Stroke(P->page);
+                draw_move_to(P->page, cx, (base + 2.6));
+                draw_line_to(P->page, (cx + sample), (base + 2.6));
+                draw_stroke(P->page);
                 plain_style(P);
             } else if (e[i].kind == 1) {
                 dot(P, cx + sample / 2, base + 2.6, 2.3);
@@ -480,8 +475,8 @@ static void draw_segments(Pdf *P, const Stmt *st, const Axis *ax, const Axis *ay
         const SegmentResult *g = &pr->segs[i];
         double a = axis_map(ax, shown(g->x_in, xu, false)), b = axis_map(ax, shown(g->x_out, xu, false));
         if (i > 0 && P->page) {
-            static const HPDF_UINT16 D[2] = {2, 2};
-            HPDF_Page_SetDash(P->page, D, 2, 0);
+            static const unsigned short D[2] = {2, 2};
+            draw_dash(P->page, D, 2, 0);
             stroke_rgb(P, THIN);
             pdf_line(P, a, ay->p0, a, ay->p0 + 14, 0.5);
             plain_style(P);
@@ -568,7 +563,7 @@ double pdf_fn_figure(Pdf *P, const Item *it, double top)
     ax.p0 = plot_l, ax.p1 = plot_r;
     ay.p0 = plot_b, ay.p1 = plot_t;
 
-    HPDF_Page pg = P->page;
+    DrawPage *pg = P->page;
     if (pg) {
         /* the band, then the grid */
         if (isfinite(fd->band_lo) && isfinite(fd->band_hi)) {
@@ -607,11 +602,10 @@ double pdf_fn_figure(Pdf *P, const Item *it, double top)
             draw_segments(P, st, &ax, &ay, &fd->x_unit);
 
         /* the series, clipped to the plot */
-        HPDF_Page_GSave(pg);
-        HPDF_Page_Rectangle(pg, (HPDF_REAL)plot_l, (HPDF_REAL)plot_b, (HPDF_REAL)(plot_r - plot_l),
-                            (HPDF_REAL)plot_h);
-        HPDF_Page_Clip(pg);
-        HPDF_Page_EndPath(pg);
+        draw_save(pg);
+        draw_rect_path(pg, plot_l, plot_b, (plot_r - plot_l),
+                            plot_h);
+        draw_clip(pg);
         double heavy = fd->nseries > 4 ? 0.75 : 1.15;
         for (size_t k = 0; k < fd->nseries; k++) {
             const Series *se = &fd->series[k];
@@ -626,15 +620,15 @@ double pdf_fn_figure(Pdf *P, const Item *it, double top)
                 }
                 double px = axis_map(&ax, x), py = axis_map(&ay, y);
                 if (pen)
-                    HPDF_Page_LineTo(pg, (HPDF_REAL)px, (HPDF_REAL)py);
+                    draw_line_to(pg, px, py);
                 else
-                    HPDF_Page_MoveTo(pg, (HPDF_REAL)px, (HPDF_REAL)py);
+                    draw_move_to(pg, px, py);
                 pen = true;
             }
             if (se->n)
-                HPDF_Page_Stroke(pg);
+                draw_stroke(pg);
         }
-        HPDF_Page_GRestore(pg);
+        draw_restore(pg);
         plain_style(P);
 
         /* labels at the right-hand end of grouped curves */

@@ -34,7 +34,7 @@ static double text_width(const Pdf *P)
 static void stroke(Pdf *P, Rgb c)
 {
     if (P->page)
-        HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+        draw_stroke_rgb(P->page, c);
 }
 
 /* ---- the segment table ---------------------------------------------------- */
@@ -497,7 +497,7 @@ static CaseLayout case_layout(Pdf *P, const CaseTable *ct, const CaseResult *cr)
     L.head_h = 16;
     if (L.per_check)
         for (size_t k = 0; k < cr->nchecks; k++) {
-            HPDF_Page keep = P->page;
+            DrawPage *keep = P->page;
             P->page = NULL;
             double h = pdf_wrap(P, FONT_SANS_BOLD, 6.4, 7.6, 0, 0, L.x[fixed + k + 1] - L.x[fixed + k] - 6,
                                 case_check(P, cr, k)->label);
@@ -608,7 +608,7 @@ static double fn_case_table(Pdf *P, const Item *it, double top)
             }
             list = arena_strdup(&P->arena, sb_str(&sb));
             sb_free(&sb);
-            HPDF_Page keep = P->page;
+            DrawPage *keep = P->page;
             P->page = NULL;
             verdict_h = pdf_wrap(P, FONT_SANS_BOLD, 7.2, 9, 0, 0, L.x[fixed + 1] - L.x[fixed] - 8, list);
             P->page = keep;

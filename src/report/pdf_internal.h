@@ -6,17 +6,17 @@
  * no current page it only returns its height; with a page it draws at the
  * given top and returns the same height. pagelayout.c assigns the measured
  * items to sheets, so the sheet count is known before the first sheet is
- * drawn. Only the pdf*.c files include libharu. The Pdf context owns an
- * Arena for boxes and items, freed when rendering ends. */
+ * drawn. The files draw through draw.h (which shows how they include one
+ * another); none of them includes libharu. The Pdf context owns an Arena
+ * for boxes and items, freed when rendering ends. */
 #ifndef HEADROOM_PDF_INTERNAL_H
 #define HEADROOM_PDF_INTERNAL_H
-
-#include <hpdf.h>
 
 #include "diff.h"
 #include "mathbox.h"
 #include "pagelayout.h"
 #include "render.h"
+#include "report/draw.h"
 
 typedef struct Pdf Pdf;
 typedef struct Item Item;
@@ -62,10 +62,6 @@ typedef struct PdfScope {
     int first_sheet, last_sheet;   /* the part's sheets, 0-based; -1 before layout */
 } PdfScope;
 
-typedef struct Rgb {
-    double r, g, b;
-} Rgb;
-
 /* The geometry of a sheet, in points, y upwards. */
 typedef struct Sheet {
     double w, h;
@@ -75,10 +71,9 @@ typedef struct Sheet {
 } Sheet;
 
 struct Pdf {
-    HPDF_Doc doc;
-    HPDF_Font font[FONT_ROLE_COUNT];
-    HPDF_Page page;          /* NULL while measuring */
-    HPDF_Page *pages;
+    Draw *draw;              /* the document; fonts by FontRole */
+    DrawPage *page;          /* NULL while measuring */
+    DrawPage **pages;
     int npages;
     const Evaluated *ev;
     const Document *d;
@@ -102,8 +97,8 @@ struct Pdf {
     int *ref_page;           /* by reference number */
     double *ref_y;
     /* the outline: the latest entry per level */
-    HPDF_Outline outline[7];
-    HPDF_Outline root;
+    DrawOutline *outline[7];
+    DrawOutline *root;
     /* figures: the number of each figure statement (by statement index), 0 for none */
     int *figure_no;
     int nfigures;
@@ -119,15 +114,13 @@ struct Pdf {
     size_t pkg_failed;       /* failing checks and case rows over the package */
     const Diff *const *pkg_since;  /* build --since: one Diff per part, NULL for a new part */
     char pkg_digest[65];     /* a package: SHA-256 of every source's digest, for the file ID */
-    HPDF_STATUS error;       /* first libharu error */
-    HPDF_STATUS error_detail;
     /* a path or cases table is split into chunks that share one column
      * layout, measured over every row once (pdf_flow.c), not once a chunk */
     const void *path_layout_key, *case_layout_key;
     void *path_layout, *case_layout;
 };
 
-/* ---- primitives (pdf.c) -------------------------------------------------- */
+/* ---- primitives (pdf_prim.c) --------------------------------------------- */
 double pdf_width(Pdf *P, FontRole f, double size, const char *s);
 void pdf_text(Pdf *P, FontRole f, double size, double x, double y, const char *s);
 void pdf_text_color(Pdf *P, FontRole f, double size, double x, double y, const char *s, Rgb c);
@@ -142,6 +135,8 @@ double pdf_wrap(Pdf *P, FontRole f, double size, double lead, double x, double t
 double pdf_wrap_color(Pdf *P, FontRole f, double size, double lead, double x, double top,
                       double width, const char *s, Rgb color);
 void item_add(Vec *items, Pdf *P, ItemFn fn, const void *p, int aux, double space_before);
+/* The math layout's environment, metrics and painter (P->env, ...). */
+void pdf_math_setup(Pdf *P);
 
 extern const Rgb INK, GREY, RULE, FAIL, PASS, SHADE, LINK, WARN;
 
@@ -219,11 +214,11 @@ void pdf_package_placed(Pdf *P, Vec *items, const PagePlace *place);
 void pdf_package_cover_items(Pdf *P, Vec *items);
 /* Attach the source of every calc of the package; *specs gets their file
  * specifications (in the Pdf's arena), the count is returned. */
-size_t pdf_attach_sources(Pdf *P, HPDF_Dict **specs);
-/* One calc's source under its own name, or under `name`; its file
- * specification, NULL on failure. */
-HPDF_Dict pdf_attach_source(Pdf *P);
-HPDF_Dict pdf_attach_named(Pdf *P, const Document *d, const char *name);
+size_t pdf_attach_sources(Pdf *P, DrawFile ***specs);
+/* One calc's source under its own name, or under `name` (pdf_prim.c); its
+ * file specification, NULL on failure. */
+DrawFile *pdf_attach_source(Pdf *P);
+DrawFile *pdf_attach_named(Pdf *P, const Document *d, const char *name);
 
 /* ---- revision marks (pdf_revision.c) ------------------------------------- */
 /* With P->since: narrow the body for the column of marks. */
@@ -241,16 +236,5 @@ bool pdf_revision_row_missing(const Pdf *P);
 const char *pdf_revision_row_note(Pdf *P);
 /* The appendix "Changes since revision X". */
 void pdf_revision_items(Pdf *P, Vec *items);
-
-/* pdf_archive.c: PDF/A-3b. The document information as both the Info
- * dictionary and the XMP metadata state it (NULL: absent). */
-typedef struct PdfInfo {
-    const char *title, *author, *subject, *keywords, *creator;
-} PdfInfo;
-/* Make the file archival just before it is saved: XMP, the sRGB output
- * intent, valid ToUnicode maps, the source as associated file (its file
- * specification `source_spec`, may be NULL), dates and the file ID. */
-bool pdf_archive_prepare(Pdf *P, const PdfInfo *info, HPDF_Dict *source_specs, size_t nspecs);
-extern const char *const PDF_ICC_PROFILE;
 
 #endif

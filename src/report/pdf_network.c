@@ -260,11 +260,11 @@ static double fn_net_table(Pdf *P, const Item *it, double top)
         }
         y -= rh;
         if (P->page)
-            HPDF_Page_SetRGBStroke(P->page, 0.72f, 0.72f, 0.72f);
+            draw_stroke_rgb(P->page, (Rgb){0.72, 0.72, 0.72});
         if (k + 1 < first + count && k + 1 < rows)
             pdf_line(P, L.x[0], y, L.x[c.n], y, 0.25);
         if (P->page)
-            HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)INK.r, (HPDF_REAL)INK.g, (HPDF_REAL)INK.b);
+            draw_stroke_rgb(P->page, INK);
     }
     pdf_line(P, L.x[0], y, L.x[c.n], y, 0.9);
     return top - y;
@@ -388,13 +388,13 @@ static Rgb speed_colour(double t)
 static void set_stroke(Pdf *P, Rgb c)
 {
     if (P->page)
-        HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+        draw_stroke_rgb(P->page, c);
 }
 
 static void set_fill(Pdf *P, Rgb c)
 {
     if (P->page)
-        HPDF_Page_SetRGBFill(P->page, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+        draw_fill_rgb(P->page, c);
 }
 
 double pdf_network_figure(Pdf *P, const Stmt *st, const NetworkResult *nr, int number, const char *default_caption,
@@ -426,7 +426,7 @@ double pdf_network_figure(Pdf *P, const Stmt *st, const NetworkResult *nr, int n
     }
     if (!(vmax > vmin))
         vmax = vmin + 1e-12;
-    HPDF_Page pg = P->page;
+    DrawPage *pg = P->page;
 #define PX(v) (pl + pad + ((v) - xmin) * scale)
 #define PY(v) (pb + pad + ((v) - ymin) * scale)
     if (pg) {
@@ -440,20 +440,20 @@ double pdf_network_figure(Pdf *P, const Stmt *st, const NetworkResult *nr, int n
             Rgb c = closed ? GREY : speed_colour((fabs(g->V) - vmin) / (vmax - vmin));
             set_stroke(P, c);
             if (closed)
-                HPDF_Page_SetDash(pg, (HPDF_UINT16[]){3, 2}, 2, 0);
+                draw_dash(pg, (const unsigned short[]){3, 2}, 2, 0);
             pdf_line(P, ax, ay, bx, by, closed ? 0.8 : 2.2);
             if (closed)
-                HPDF_Page_SetDash(pg, NULL, 0, 0);
+                draw_dash(pg, NULL, 0, 0);
             double dx = bx - ax, dy = by - ay, len = sqrt(dx * dx + dy * dy);
             if (len > 14 && !closed && g->Q != 0) {
                 double ux = dx / len * (g->Q > 0 ? 1 : -1), uy = dy / len * (g->Q > 0 ? 1 : -1);
                 double mx = (ax + bx) / 2, my = (ay + by) / 2, h = 4.2, w = 2.6;
                 set_fill(P, c);
-                HPDF_Page_MoveTo(pg, (HPDF_REAL)(mx + ux * h), (HPDF_REAL)(my + uy * h));
-                HPDF_Page_LineTo(pg, (HPDF_REAL)(mx - ux * h - uy * w), (HPDF_REAL)(my - uy * h + ux * w));
-                HPDF_Page_LineTo(pg, (HPDF_REAL)(mx - ux * h + uy * w), (HPDF_REAL)(my - uy * h - ux * w));
-                HPDF_Page_ClosePath(pg);
-                HPDF_Page_Fill(pg);
+                draw_move_to(pg, (mx + ux * h), (my + uy * h));
+                draw_line_to(pg, (mx - ux * h - uy * w), (my - uy * h + ux * w));
+                draw_line_to(pg, (mx - ux * h + uy * w), (my - uy * h - ux * w));
+                draw_close(pg);
+                draw_fill(pg);
                 /* the link's id beside its middle */
                 double tw = pdf_width(P, FONT_SANS, 5.6, g->id);
                 pdf_text_color(P, FONT_SANS, 5.6, mx - uy * 7 - tw / 2, my + ux * 7 - 2, g->id, GREY);
@@ -466,13 +466,13 @@ double pdf_network_figure(Pdf *P, const Stmt *st, const NetworkResult *nr, int n
             double cx = PX(n->x), cy = PY(n->y);
             if (n->supply) {
                 set_fill(P, INK);
-                HPDF_Page_Rectangle(pg, (HPDF_REAL)(cx - 3.4), (HPDF_REAL)(cy - 3.4), 6.8f, 6.8f);
-                HPDF_Page_Fill(pg);
+                draw_rect_path(pg, (cx - 3.4), (cy - 3.4), 6.8, 6.8);
+                draw_fill(pg);
             } else {
                 set_fill(P, (Rgb){1, 1, 1});
-                HPDF_Page_SetLineWidth(pg, 0.7f);
-                HPDF_Page_Circle(pg, (HPDF_REAL)cx, (HPDF_REAL)cy, 2.6f);
-                HPDF_Page_FillStroke(pg);
+                draw_line_width(pg, 0.7);
+                draw_circle_path(pg, cx, cy, 2.6);
+                draw_fill_stroke(pg);
             }
             set_fill(P, INK);
             pdf_text_color(P, FONT_SANS_BOLD, 6, cx + 4.5, cy + 3.5, n->id, INK);
@@ -480,12 +480,12 @@ double pdf_network_figure(Pdf *P, const Stmt *st, const NetworkResult *nr, int n
         /* the critical node */
         const NodeResult *c = &nr->nodes[nr->p_min_node];
         set_stroke(P, FAIL);
-        HPDF_Page_SetLineWidth(pg, 1.2f);
-        HPDF_Page_Circle(pg, (HPDF_REAL)PX(c->x), (HPDF_REAL)PY(c->y), 6.0f);
-        HPDF_Page_Stroke(pg);
+        draw_line_width(pg, 1.2);
+        draw_circle_path(pg, PX(c->x), PY(c->y), 6.0);
+        draw_stroke(pg);
         set_stroke(P, INK);
         set_fill(P, INK);
-        HPDF_Page_SetLineWidth(pg, 1);
+        draw_line_width(pg, 1);
     }
 #undef PX
 #undef PY
@@ -503,8 +503,8 @@ double pdf_network_figure(Pdf *P, const Stmt *st, const NetworkResult *nr, int n
     lx += pdf_width(P, FONT_SANS, 6.8, lead) + 4;
     for (int k = 0; k < 24 && pg; k++) {
         set_fill(P, speed_colour(k / 23.0));
-        HPDF_Page_Rectangle(pg, (HPDF_REAL)(lx + k * 3), (HPDF_REAL)(y - 8), 3.1f, 6);
-        HPDF_Page_Fill(pg);
+        draw_rect_path(pg, (lx + k * 3), (y - 8), 3.1, 6);
+        draw_fill(pg);
     }
     set_fill(P, INK);
     lx += 24 * 3 + 4;

@@ -135,10 +135,7 @@ static double fn_contents_row(Pdf *P, const Item *it, double top)
         pdf_text_color(P, FONT_MONO, 7, cx[3] + 3, top - 10.5 - lead, dig, GREY);
         pdf_text(P, FONT_SERIF, size, cx[4] + 3, top - 10.5, sheets);
         if (first >= 0 && first < P->npages) {
-            HPDF_Destination dst = HPDF_Page_CreateDestination(P->pages[first]);
-            HPDF_Rect r = {(HPDF_REAL)x, (HPDF_REAL)(top - h), (HPDF_REAL)(x + W), (HPDF_REAL)top};
-            HPDF_Annotation a = HPDF_Page_CreateLinkAnnot(P->page, r, dst);
-            HPDF_LinkAnnot_SetBorderStyle(a, 0, 0, 0);
+            draw_link(P->page, x, top - h, x + W, top, P->pages[first], NAN, DRAW_LINK_PLAIN);
         }
         pdf_line(P, x, top - h, x + W, top - h, 0.3);
     }
@@ -281,7 +278,7 @@ static int by_name(const void *a, const void *b)
     return strcmp(((const Attachment *)a)->name, ((const Attachment *)b)->name);
 }
 
-size_t pdf_attach_sources(Pdf *P, HPDF_Dict **specs)
+size_t pdf_attach_sources(Pdf *P, DrawFile ***specs)
 {
     /* the index, every part and every file the parts use that is not a
      * part; names made distinct ("2-basis.calc.md" for a second basis) and

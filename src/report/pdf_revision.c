@@ -103,13 +103,13 @@ void pdf_revision_triangle(Pdf *P, double cx, double base, const char *letter)
 {
     double y0 = base - 2.0;
     if (P->page) {
-        HPDF_Page pg = P->page;
-        HPDF_Page_SetLineWidth(pg, 0.8f);
-        HPDF_Page_SetLineJoin(pg, HPDF_MITER_JOIN);
-        HPDF_Page_MoveTo(pg, (HPDF_REAL)(cx - TRI_W / 2), (HPDF_REAL)y0);
-        HPDF_Page_LineTo(pg, (HPDF_REAL)(cx + TRI_W / 2), (HPDF_REAL)y0);
-        HPDF_Page_LineTo(pg, (HPDF_REAL)cx, (HPDF_REAL)(y0 + TRI_H));
-        HPDF_Page_ClosePathStroke(pg);
+        DrawPage *pg = P->page;
+        draw_line_width(pg, 0.8);
+        draw_line_join(pg, DRAW_JOIN_MITER);
+        draw_move_to(pg, cx - TRI_W / 2, y0);
+        draw_line_to(pg, cx + TRI_W / 2, y0);
+        draw_line_to(pg, cx, y0 + TRI_H);
+        draw_close_stroke(pg);
     }
     /* the letter in the lower part of the triangle, smaller when it is long */
     double size = 6.8;
@@ -125,7 +125,7 @@ void pdf_revision_mark(Pdf *P, const Item *it, double top)
         return;
     const Sheet *s = &P->sheet;
     double bx = s->frame_r - 5;
-    HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)INK.r, (HPDF_REAL)INK.g, (HPDF_REAL)INK.b);
+    draw_stroke_rgb(P->page, INK);
     pdf_line(P, bx, top, bx, top - it->layout.height, BAR_WIDTH);
     if (it->rev_mark == 1)
         pdf_revision_triangle(P, s->body_r + 12, top - LETTER_DROP, letter_of(P));
@@ -211,9 +211,9 @@ static double fn_entry(Pdf *P, const Item *it, double top)
     pdf_text(P, FONT_SERIF, 9, s->body_l + 1, top - 1.5 - 9 * 0.85, "–");
     pdf_text_color(P, FONT_SANS, 6.6, s->body_r - s->margin_w + 8, top - 8.5, where, GREY);
     if (P->page) {
-        HPDF_Page_SetRGBStroke(P->page, 0.80f, 0.80f, 0.80f);
+        draw_stroke_rgb(P->page, (Rgb){0.80, 0.80, 0.80});
         pdf_line(P, s->body_l, top - h + 1, s->body_r, top - h + 1, 0.25);
-        HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)INK.r, (HPDF_REAL)INK.g, (HPDF_REAL)INK.b);
+        draw_stroke_rgb(P->page, INK);
     }
     return h;
 }

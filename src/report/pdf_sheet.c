@@ -102,7 +102,6 @@ static void dated(char *buf, size_t n, const char *who, const char *date)
 
 static void draw_watermark(Pdf *P, const char *text)
 {
-    HPDF_Page pg = P->page;
     double size = 44;
     double w = pdf_width(P, FONT_SANS_BOLD, size, text);
     while (w > (P->sheet.h * 0.85) && size > 16) {
@@ -112,14 +111,9 @@ static void draw_watermark(Pdf *P, const char *text)
     double a = atan2(P->sheet.h - 240, P->sheet.w - 120);
     double c = cos(a), s = sin(a);
     double cx = P->sheet.w / 2, cy = P->sheet.h / 2 - 40;
-    HPDF_Page_SetRGBFill(pg, 0.93f, 0.88f, 0.88f);
-    HPDF_Page_BeginText(pg);
-    HPDF_Page_SetFontAndSize(pg, P->font[FONT_SANS_BOLD], (HPDF_REAL)size);
-    HPDF_Page_SetTextMatrix(pg, (HPDF_REAL)c, (HPDF_REAL)s, (HPDF_REAL)-s, (HPDF_REAL)c,
-                            (HPDF_REAL)(cx - c * w / 2 + s * size / 3),
-                            (HPDF_REAL)(cy - s * w / 2 - c * size / 3));
-    HPDF_Page_ShowText(pg, text);
-    HPDF_Page_EndText(pg);
+    draw_fill_rgb(P->page, (Rgb){0.93, 0.88, 0.88});
+    draw_text_matrix(P->page, FONT_SANS_BOLD, size, c, s, -s, c, cx - c * w / 2 + s * size / 3,
+                     cy - s * w / 2 - c * size / 3, text);
 }
 
 /* A check fails in the calc itself or in one of its cases. */
@@ -153,7 +147,7 @@ void pdf_sheet_frame(Pdf *P, int sheet)
     char buf[256];
     if (sheet == 0 && marking(P))
         draw_watermark(P, P->preliminary && !any_failed(P) ? "PRELIMINARY" : "NOT SATISFIED");
-    HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)INK.r, (HPDF_REAL)INK.g, (HPDF_REAL)INK.b);
+    draw_stroke_rgb(P->page, INK);
     pdf_rect(P, s->frame_l, s->frame_b, s->frame_r - s->frame_l, s->frame_t - s->frame_b, 1.1);
 
     /* title block: two rows of cells across the top of the frame */
@@ -374,11 +368,9 @@ static double fn_cover(Pdf *P, const Item *it, double top)
         double bh = 30;
         if (P->page) {
             pdf_fill(P, x, y - bh, W, bh, (Rgb){0.98, 0.93, 0.92});
-            HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)FAIL.r, (HPDF_REAL)FAIL.g,
-                                   (HPDF_REAL)FAIL.b);
+            draw_stroke_rgb(P->page, FAIL);
             pdf_rect(P, x, y - bh, W, bh, 1.4);
-            HPDF_Page_SetRGBStroke(P->page, (HPDF_REAL)INK.r, (HPDF_REAL)INK.g,
-                                   (HPDF_REAL)INK.b);
+            draw_stroke_rgb(P->page, INK);
         }
         double tw = pdf_width(P, FONT_SANS_BOLD, 13, mark);
         pdf_text_color(P, FONT_SANS_BOLD, 13, x + (W - tw) / 2, y - 19.5, mark, FAIL);
@@ -466,7 +458,7 @@ static double fn_summary_row(Pdf *P, const Item *it, double top)
     }
     double lh = 0;
     /* measure the label's wrapped height without drawing */
-    HPDF_Page keep = P->page;
+    DrawPage *keep = P->page;
     P->page = NULL;
     lh = pdf_wrap(P, gov ? FONT_SERIF_BOLD : FONT_SERIF, size, 10.5, 0, 0,
                   SUMMARY_COL[1] * W - 6, st->label);

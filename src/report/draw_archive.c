@@ -1,4 +1,4 @@
-/* pdf_archive.c — what makes a report an archival PDF/A-3b file.
+/* draw_archive.c — what makes a report an archival PDF/A-3b file.
  *
  * ISO 19005-3 (PDF/A-3) level B asks for a few objects libharu 2.3 does not
  * write, and for some it writes differently: an XMP metadata stream whose
@@ -11,11 +11,15 @@
  * file is saved, so the bytes stay a function of the source alone (the
  * identifier is the source digest, never a clock).
  *
+ * This is the drawing layer's second file (see draw.h): it works on
+ * libharu's object layer, which nothing above the layer sees.
+ *
  * The ICC profile is Debian's icc-profiles-free sRGB.icc (the Makefile
  * installs the package), read at build time like the fonts. */
-#include "report/pdf_internal.h"
+#include "report/draw_lib.h"
 
 #include <hpdf_catalog.h>
+#include <hpdf_namedict.h>
 
 #include <stdio.h>
 #include <stdlib.h>
@@ -25,7 +29,7 @@
 #define HEADROOM_VERSION "0.0.0"
 #endif
 
-const char *const PDF_ICC_PROFILE = "/usr/share/color/icc/sRGB.icc";
+const char *const DRAW_ICC_PROFILE = "/usr/share/color/icc/sRGB.icc";
 static const char ICC_CONDITION[] = "sRGB IEC61966-2.1";
 static const char PRODUCER[] = "headroom " HEADROOM_VERSION " with libharu " HPDF_VERSION_TEXT;
 
@@ -68,12 +72,12 @@ static void write_tounicode(HPDF_Stream s)
                             "end\n");
 }
 
-static void fix_tounicode(Pdf *P)
+static void fix_tounicode(Draw *D)
 {
-    for (int f = 0; f < FONT_ROLE_COUNT; f++) {
-        if (!P->font[f])
+    for (int f = 0; f < DRAW_FONTS; f++) {
+        if (!D->font[f])
             continue;
-        HPDF_Dict font = (HPDF_Dict)P->font[f];
+        HPDF_Dict font = (HPDF_Dict)D->font[f];
         HPDF_Dict cmap = HPDF_Dict_GetItem(font, "ToUnicode", HPDF_OCLASS_DICT);
         if (!cmap || !cmap->stream)
             continue;
@@ -146,9 +150,9 @@ static void xmp_list(HPDF_Stream s, const char *tag, const char *kind, const cha
     HPDF_Stream_WriteStr(s, open);
 }
 
-static HPDF_Dict make_xmp(Pdf *P, const PdfInfo *info, const char *xmp_date)
+static HPDF_Dict make_xmp(Draw *D, const DrawInfo *info, const char *xmp_date)
 {
-    HPDF_Doc pdf = P->doc;
+    HPDF_Doc pdf = D->doc;
     HPDF_Dict md = HPDF_DictStream_New(pdf->mmgr, pdf->xref);
     if (!md)
         return NULL;
@@ -187,14 +191,14 @@ static HPDF_Dict make_xmp(Pdf *P, const PdfInfo *info, const char *xmp_date)
 
 /* ---- output intent ---------------------------------------------------------- */
 
-static bool add_output_intent(Pdf *P)
+static bool add_output_intent(Draw *D)
 {
-    HPDF_Doc pdf = P->doc;
-    FILE *f = fopen(PDF_ICC_PROFILE, "rb");
+    HPDF_Doc pdf = D->doc;
+    FILE *f = fopen(DRAW_ICC_PROFILE, "rb");
     if (!f) {
-        diag_error(P->diags, ((Pos){NULL, 0, 0}),
+        diag_error(D->diags, ((Pos){NULL, 0, 0}),
                    "cannot read the sRGB colour profile '%s' (Debian package icc-profiles-free)",
-                   PDF_ICC_PROFILE);
+                   DRAW_ICC_PROFILE);
         return false;
     }
     HPDF_Dict icc = HPDF_DictStream_New(pdf->mmgr, pdf->xref);
@@ -211,8 +215,8 @@ static bool add_output_intent(Pdf *P)
     bool read_ok = !ferror(f);
     fclose(f);
     if (!read_ok) {
-        diag_error(P->diags, ((Pos){NULL, 0, 0}), "cannot read the sRGB colour profile '%s'",
-                   PDF_ICC_PROFILE);
+        diag_error(D->diags, ((Pos){NULL, 0, 0}), "cannot read the sRGB colour profile '%s'",
+                   DRAW_ICC_PROFILE);
         return false;
     }
     HPDF_Dict oi = HPDF_Dict_New(pdf->mmgr);
@@ -229,22 +233,86 @@ static bool add_output_intent(Pdf *P)
     return HPDF_Dict_Add(pdf->catalog, "OutputIntents", intents) == HPDF_OK;
 }
 
+/* ---- attachments -------------------------------------------------------------- */
+
+/* libharu's HPDF_AttachFile reads a file and files it under the path it
+ * was given (without /Type /Filespec), so the embedded-file stream, its
+ * file specification and the name-tree entry are made here from libharu's
+ * object layer, straight from the bytes in memory. */
+DrawFile *draw_attach(Draw *D, const char *base, const char *desc, const char *bytes, size_t len,
+                      bool sorted)
+{
+    HPDF_Doc pdf = D->doc;
+    HPDF_MMgr mm = pdf->mmgr;
+    HPDF_Xref xref = pdf->xref;
+    HPDF_NameDict names = HPDF_Catalog_GetNames(pdf->catalog);
+    if (!names) {
+        names = HPDF_NameDict_New(mm, xref);
+        if (!names || HPDF_Catalog_SetNames(pdf->catalog, names) != HPDF_OK)
+            return NULL;
+    }
+    HPDF_NameTree tree = HPDF_NameDict_GetNameTree(names, HPDF_NAME_EMBEDDED_FILES);
+    if (!tree) {
+        tree = HPDF_NameTree_New(mm, xref);
+        if (!tree || HPDF_NameDict_SetNameTree(names, HPDF_NAME_EMBEDDED_FILES, tree) != HPDF_OK)
+            return NULL;
+    }
+    HPDF_Dict file = HPDF_DictStream_New(mm, xref);
+    HPDF_Dict params = HPDF_Dict_New(mm);
+    HPDF_Dict spec = HPDF_Dict_New(mm);
+    HPDF_Dict ef = HPDF_Dict_New(mm);
+    if (!file || !params || !spec || !ef || HPDF_Xref_Add(xref, spec) != HPDF_OK)
+        return NULL;
+    file->filter = HPDF_STREAM_FILTER_FLATE_DECODE;
+    HPDF_Dict_AddName(file, "Type", "EmbeddedFile");
+    HPDF_Dict_AddName(file, "Subtype", "text/markdown");
+    HPDF_Dict_AddNumber(params, "Size", (HPDF_INT32)len);
+    HPDF_Dict_Add(file, "Params", params);
+    HPDF_Stream_Write(file->stream, (const HPDF_BYTE *)bytes, (HPDF_UINT)len);
+
+    /* an ASCII file name, anything else replaced */
+    char name[256];
+    size_t n = 0;
+    for (const char *c = base; *c && n + 1 < sizeof name; c++)
+        name[n++] = ((unsigned char)*c < 0x80 && (unsigned char)*c >= 0x20) ? *c : '_';
+    name[n] = '\0';
+    HPDF_Dict_AddName(spec, "Type", "Filespec");
+    HPDF_Dict_Add(spec, "F", HPDF_String_New(mm, name, NULL));
+    HPDF_Dict_Add(spec, "UF", HPDF_String_New(mm, name, NULL));
+    HPDF_Dict_Add(spec, "Desc", HPDF_String_New(mm, desc, NULL));
+    HPDF_Dict_Add(ef, "F", file);
+    HPDF_Dict_Add(spec, "EF", ef);
+    if (!sorted) {
+        HPDF_NameTree_Add(tree, HPDF_String_New(mm, name, NULL), spec);
+        return (DrawFile *)spec;
+    }
+    /* files added in sorted order: each entry is appended to the tree's
+     * Names array directly, key then value */
+    HPDF_Array items = HPDF_Dict_GetItem(tree, "Names", HPDF_OCLASS_ARRAY);
+    if (items) {
+        HPDF_Array_Add(items, HPDF_String_New(mm, name, NULL));
+        HPDF_Array_Add(items, spec);
+    }
+    return (DrawFile *)spec;
+}
+
 /* ---- the whole ---------------------------------------------------------------- */
 
-bool pdf_archive_prepare(Pdf *P, const PdfInfo *info, HPDF_Dict *source_specs, size_t nspecs)
+bool draw_archive_prepare(Draw *D, const DrawInfo *info, const char *day, const char *digest,
+                          DrawFile *const *files, size_t nspecs)
 {
-    HPDF_Doc pdf = P->doc;
+    HPDF_Doc pdf = D->doc;
     HPDF_MMgr mm = pdf->mmgr;
     pdf->pdf_version = HPDF_VER_17; /* PDF/A-3 is based on ISO 32000-1 */
 
-    fix_tounicode(P);
+    fix_tounicode(D);
 
     /* information dictionary: producer and dates as XMP repeats them */
     HPDF_SetInfoAttr(pdf, HPDF_INFO_PRODUCER, PRODUCER);
     char pdf_date[40], xmp_date[40];
-    bool dated = P->date[0] != '\0';
+    bool dated = day && day[0] != '\0';
     if (dated) {
-        date_forms(P->date, pdf_date, sizeof pdf_date, xmp_date, sizeof xmp_date);
+        date_forms(day, pdf_date, sizeof pdf_date, xmp_date, sizeof xmp_date);
         HPDF_Dict infodict = pdf->info;
         if (infodict) {
             HPDF_Dict_Add(infodict, "CreationDate", HPDF_String_New(mm, pdf_date, NULL));
@@ -252,10 +320,10 @@ bool pdf_archive_prepare(Pdf *P, const PdfInfo *info, HPDF_Dict *source_specs, s
         }
     }
 
-    HPDF_Dict md = make_xmp(P, info, dated ? xmp_date : NULL);
+    HPDF_Dict md = make_xmp(D, info, dated ? xmp_date : NULL);
     if (!md || HPDF_Dict_Add(pdf->catalog, "Metadata", md) != HPDF_OK)
         return false;
-    if (!add_output_intent(P))
+    if (!add_output_intent(D))
         return false;
 
     /* the sources as the associated files the report was made from (a
@@ -264,7 +332,7 @@ bool pdf_archive_prepare(Pdf *P, const PdfInfo *info, HPDF_Dict *source_specs, s
     if (nspecs && !af)
         return false;
     for (size_t i = 0; i < nspecs; i++) {
-        HPDF_Dict source_spec = source_specs[i];
+        HPDF_Dict source_spec = (HPDF_Dict)files[i];
         if (!source_spec)
             continue;
         HPDF_Dict_AddName(source_spec, "AFRelationship", "Source");
@@ -281,7 +349,6 @@ bool pdf_archive_prepare(Pdf *P, const PdfInfo *info, HPDF_Dict *source_specs, s
     /* the file identifier: the first 16 bytes of the source's SHA-256 (a
      * package's: of all its sources' digests), so the same source gives the
      * same file and a changed one a new ID */
-    const char *digest = P->pkg_digest[0] ? P->pkg_digest : P->d->digest;
     HPDF_BYTE id[16];
     for (int i = 0; i < 16; i++) {
         unsigned v = 0;
@@ -293,5 +360,5 @@ bool pdf_archive_prepare(Pdf *P, const PdfInfo *info, HPDF_Dict *source_specs, s
         return false;
     HPDF_Array_Add(ids, HPDF_Binary_New(mm, id, 16));
     HPDF_Array_Add(ids, HPDF_Binary_New(mm, id, 16));
-    return HPDF_Dict_Add(pdf->trailer, "ID", ids) == HPDF_OK && !P->error;
+    return HPDF_Dict_Add(pdf->trailer, "ID", ids) == HPDF_OK && !D->error;
 }
