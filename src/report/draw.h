@@ -8,6 +8,25 @@
  * pass (a page) run the same code. Fonts are named by a small index (the
  * report's FontRole); the file behind each is given once and loaded at its
  * first use. Numbers are points, y upwards from the bottom-left corner.
+ *
+ * The PDF report's files, each calling only files on rows below its own
+ * (tests/layers checks this against the code, and that no other file
+ * includes libharu):
+ *
+ *   pdf.c                        collect, measure, place, draw, save
+ *     pdf_package.c              a package: cover, contents, parts
+ *       pdf_sheet.c              sheet frame, cover, end matter
+ *       pdf_body.c               the document's blocks and statement rows
+ *         pdf_figure.c           figures
+ *           pdf_network.c        network tables, figure, cover line
+ *           pdf_flow.c           path and case tables
+ *           pdf_table.c          laid-out tables, curve blocks
+ *             pdf_row.c          a row's margin column, method lines
+ *             pdf_revision.c     revision marks and appendix
+ *             pdf_state.c        a package part's scope, figure numbers
+ *               pdf_prim.c       text, wrapping, rules, links, sections, attachments
+ *                 draw.c         the drawing layer (libharu)
+ *                 draw_archive.c PDF/A-3b objects, attachments (libharu)
  */
 #ifndef HEADROOM_DRAW_H
 #define HEADROOM_DRAW_H

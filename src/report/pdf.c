@@ -16,6 +16,8 @@
 #include <string.h>
 #include <time.h>
 
+#include "package.h"
+
 #ifndef HEADROOM_VERSION
 #define HEADROOM_VERSION "0.0.0"
 #endif
@@ -213,6 +215,10 @@ static bool build(Pdf *P, const char *path)
     return draw_save_file(P->draw, path);
 }
 
+static bool pdf_render(const Evaluated *ev, const struct Package *pkg, const Diff *const *pkg_since,
+                       const Diff *since, const char *since_label, const char *path,
+                       DiagList *diags);
+
 bool render_pdf(const Evaluated *ev, const char *path, DiagList *diags)
 {
     return render_pdf_since(ev, NULL, NULL, path, diags);
@@ -224,8 +230,9 @@ bool render_pdf_since(const Evaluated *ev, const Diff *since, const char *since_
     return pdf_render(ev, NULL, NULL, since, since_label, path, diags);
 }
 
-bool pdf_render(const Evaluated *ev, const struct Package *pkg, const Diff *const *pkg_since,
-                const Diff *since, const char *since_label, const char *path, DiagList *diags)
+static bool pdf_render(const Evaluated *ev, const struct Package *pkg, const Diff *const *pkg_since,
+                       const Diff *since, const char *since_label, const char *path,
+                       DiagList *diags)
 {
     Pdf *P = xcalloc(1, sizeof *P);
     P->pkg = pkg;
@@ -253,4 +260,17 @@ bool pdf_render(const Evaluated *ev, const struct Package *pkg, const Diff *cons
     arena_free(&P->arena);
     free(P);
     return ok;
+}
+
+bool render_package_pdf(const Package *pkg, const Diff *const *since, const char *since_label,
+                        const char *path, DiagList *diags)
+{
+    const Diff *any = NULL;
+    for (size_t i = 0; since && i < pkg->nparts && !any; i++)
+        any = since[i];
+    if (since && !any) {
+        /* every part is new since OLD: nothing to compare, still a revision */
+        any = NULL;
+    }
+    return pdf_render(pkg->index_ev, pkg, since, any, since_label, path, diags);
 }

@@ -19,50 +19,6 @@
 #include "numfmt.h"
 #include "ticks.h"
 
-/* ---- numbering --------------------------------------------------------- */
-
-void pdf_number_figures(Pdf *P)
-{
-    const Document *d = P->d;
-    P->figure_no = arena_alloc(&P->arena, (d->nstmts + 1) * sizeof(int));
-    int n = 0;
-    for (const Block *b = d->blocks; b; b = b->next) {
-        if (b->kind != BLK_CALC)
-            continue;
-        for (size_t i = 0; i < b->nstmts; i++) {
-            const Stmt *st = d->stmts[b->first_stmt + i];
-            if (st->kind == STMT_FIGURE && !st->parse_failed)
-                P->figure_no[st->index] = ++n;
-        }
-    }
-    P->nfigures = n;
-}
-
-/* "Figure 1", "Figures 1 and 2", "Figures 1, 2 and 3" for the figures
- * whose first argument is the statement `slot` (a path); "" when none. */
-void pdf_figures_of(const Pdf *P, int slot, char *buf, size_t n)
-{
-    int nums[16];
-    size_t k = 0;
-    for (size_t i = 0; i < P->d->nstmts && k < 16; i++) {
-        const Stmt *st = P->d->stmts[i];
-        if (st->kind != STMT_FIGURE || !P->figure_no[i])
-            continue;
-        for (size_t a = 0; a < st->nargs; a++)
-            if (st->args[a] && st->args[a]->kind == EXPR_NAME && st->args[a]->slot == slot) {
-                nums[k++] = P->figure_no[i];
-                break;
-            }
-    }
-    buf[0] = '\0';
-    if (!k)
-        return;
-    size_t at = (size_t)snprintf(buf, n, "Figure%s ", k > 1 ? "s" : "");
-    for (size_t i = 0; i < k && at < n; i++)
-        at += (size_t)snprintf(buf + at, n - at, "%s%d", i == 0 ? "" : i + 1 == k ? " and " : ", ",
-                               nums[i]);
-}
-
 /* ---- geometry ---------------------------------------------------------- */
 
 typedef struct Axis {

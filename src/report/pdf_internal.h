@@ -137,6 +137,8 @@ double pdf_wrap_color(Pdf *P, FontRole f, double size, double lead, double x, do
 void item_add(Vec *items, Pdf *P, ItemFn fn, const void *p, int aux, double space_before);
 /* The math layout's environment, metrics and painter (P->env, ...). */
 void pdf_math_setup(Pdf *P);
+/* A section title of the end matter and the cover (kept with what follows). */
+Item *pdf_section(Pdf *P, Vec *items, const char *title, bool new_sheet, bool outline);
 
 extern const Rgb INK, GREY, RULE, FAIL, PASS, SHADE, LINK, WARN;
 
@@ -151,17 +153,24 @@ void pdf_body_items(Pdf *P, Vec *items);
 double pdf_inlines(Pdf *P, const Inline *in, FontRole base, double size, double lead, double x,
                    double top, double width);
 
+/* ---- statement rows (pdf_row.c) ------------------------------------------ */
 /* The right-margin column of a statement row (checks' verdict, source keys,
  * method references, the line); returns its height. */
 double pdf_row_margin(Pdf *P, const Stmt *st, double top);
 /* A published method under its row: title, reference number, formula. */
 double pdf_method_line(Pdf *P, const Method *m, int ref, double x, double top, double width);
 
-/* ---- figures (pdf_figure.c) ----------------------------------------------- */
+/* ---- scopes and figure numbers (pdf_state.c) ------------------------------- */
+/* Load scope `k` (no-op for a single calc's report); save the state now
+ * loaded into `s`. */
+void pdf_scope_load(Pdf *P, int k);
+void pdf_scope_save(const Pdf *P, PdfScope *s);
 /* Number the figure statements in document order (P->figure_no). */
 void pdf_number_figures(Pdf *P);
 /* "Figures 1 and 2": the figures drawn from the statement `slot`, "" if none. */
 void pdf_figures_of(const Pdf *P, int slot, char *buf, size_t n);
+
+/* ---- figures (pdf_figure.c) ----------------------------------------------- */
 /* A figure statement as one unsplittable item; it->aux is its number. */
 double pdf_fn_figure(Pdf *P, const Item *it, double top);
 
@@ -196,15 +205,8 @@ void pdf_cover_items(Pdf *P, Vec *items);
 void pdf_end_items(Pdf *P, Vec *items);
 void pdf_number_references(Pdf *P);
 bool pdf_status_issued(const char *status);
-/* A section title of the end matter (kept with what follows). */
-Item *pdf_section(Pdf *P, Vec *items, const char *title, bool new_sheet, bool outline);
 
 /* ---- packages (pdf_package.c) ------------------------------------------ */
-/* Render one calc (pkg NULL) or a package (ev: the index's) to `path`. */
-bool pdf_render(const Evaluated *ev, const struct Package *pkg, const Diff *const *pkg_since,
-                const Diff *since, const char *since_label, const char *path, DiagList *diags);
-/* Load scope `k` (no-op for a single calc's report). */
-void pdf_scope_load(Pdf *P, int k);
 /* The items of a package report: cover, contents, then every part. */
 void pdf_package_items(Pdf *P, Vec *items);
 /* After layout: each sheet's scope and each part's sheets. */

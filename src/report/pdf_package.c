@@ -21,47 +21,6 @@
 #define HEADROOM_VERSION "0.0.0"
 #endif
 
-static void scope_save(const Pdf *P, PdfScope *s)
-{
-    s->ev = P->ev;
-    s->d = P->d;
-    s->env = P->env;
-    s->governing = P->governing;
-    s->preliminary = P->preliminary;
-    s->source_ref = P->source_ref;
-    s->method_ref = P->method_ref;
-    s->method_first = P->method_first;
-    s->nrefs = P->nrefs;
-    s->ref_page = P->ref_page;
-    s->ref_y = P->ref_y;
-    s->figure_no = P->figure_no;
-    s->nfigures = P->nfigures;
-    s->since = P->since;
-}
-
-void pdf_scope_load(Pdf *P, int k)
-{
-    if (!P->scopes || k == P->scope || k < 0 || k >= P->nscopes)
-        return;
-    scope_save(P, &P->scopes[P->scope]);
-    const PdfScope *s = &P->scopes[k];
-    P->ev = s->ev;
-    P->d = s->d;
-    P->env = s->env;
-    P->governing = s->governing;
-    P->preliminary = s->preliminary;
-    P->source_ref = s->source_ref;
-    P->method_ref = s->method_ref;
-    P->method_first = s->method_first;
-    P->nrefs = s->nrefs;
-    P->ref_page = s->ref_page;
-    P->ref_y = s->ref_y;
-    P->figure_no = s->figure_no;
-    P->nfigures = s->nfigures;
-    P->since = s->since;
-    P->scope = k;
-}
-
 /* ---- the contents table ------------------------------------------------------ */
 
 static const double CONTENTS_COL[] = {0.07, 0.43, 0.14, 0.24, 0.12}; /* part, subject, calc no., file, sheets */
@@ -167,7 +126,7 @@ void pdf_package_items(Pdf *P, Vec *items)
     P->scopes = arena_alloc(&P->arena, (size_t)n * sizeof *P->scopes);
     P->nscopes = n;
     P->scope = 0;
-    scope_save(P, &P->scopes[0]);
+    pdf_scope_save(P, &P->scopes[0]);
     /* every part's numbering, as its own report would have it */
     for (int k = 1; k < n; k++) {
         const PackagePart *pp = &pkg->parts[k - 1];
@@ -180,7 +139,7 @@ void pdf_package_items(Pdf *P, Vec *items)
         pdf_number_references(P);
         pdf_number_figures(P);
         P->scope = k;
-        scope_save(P, &P->scopes[k]);
+        pdf_scope_save(P, &P->scopes[k]);
         P->scopes[k].first_sheet = P->scopes[k].last_sheet = -1;
     }
     P->scope = n - 1;
@@ -265,7 +224,7 @@ void pdf_package_placed(Pdf *P, Vec *items, const PagePlace *place)
         if (P->sheet_scope[s] < 0)
             P->sheet_scope[s] = s > 0 ? P->sheet_scope[s - 1] : 0;
     /* the scope in force is P's, whatever was loaded last: keep arrays in step */
-    scope_save(P, &P->scopes[P->scope]);
+    pdf_scope_save(P, &P->scopes[P->scope]);
 }
 
 typedef struct Attachment {
@@ -312,17 +271,4 @@ size_t pdf_attach_sources(Pdf *P, DrawFile ***specs)
     sb_free(&all);
     free(a);
     return n;
-}
-
-bool render_package_pdf(const Package *pkg, const Diff *const *since, const char *since_label,
-                        const char *path, DiagList *diags)
-{
-    const Diff *any = NULL;
-    for (size_t i = 0; since && i < pkg->nparts && !any; i++)
-        any = since[i];
-    if (since && !any) {
-        /* every part is new since OLD: nothing to compare, still a revision */
-        any = NULL;
-    }
-    return pdf_render(pkg->index_ev, pkg, since, any, since_label, path, diags);
 }

@@ -190,6 +190,32 @@ void pdf_math_setup(Pdf *P)
     P->painter = (MathPainter){paint_text, paint_line, paint_curve, P};
 }
 
+/* ---- shared items ---------------------------------------------------------- */
+
+/* A section title in the end matter and on the cover: small caps-like sans
+ * with a rule below. */
+static double fn_section(Pdf *P, const Item *it, double top)
+{
+    const Sheet *s = &P->sheet;
+    const char *t = it->p;
+    pdf_text(P, FONT_SANS_BOLD, 11, s->body_l, top - 11, t);
+    pdf_line(P, s->body_l, top - 15, s->body_r, top - 15, 0.6);
+    return 22;
+}
+
+Item *pdf_section(Pdf *P, Vec *items, const char *title, bool new_sheet, bool outline)
+{
+    item_add(items, P, fn_section, title, 0, 16);
+    Item *it = items->items[items->len - 1];
+    it->layout.keep_with_next = true;
+    it->layout.break_before = new_sheet;
+    if (outline) {
+        it->outline = title;
+        it->outline_level = 1;
+    }
+    return it;
+}
+
 /* ---- attachments ----------------------------------------------------------- */
 
 static const char *base_name(const char *path)

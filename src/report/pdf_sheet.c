@@ -224,35 +224,6 @@ bool pdf_status_issued(const char *status)
 
 /* ---- shared item pieces ----------------------------------------------------- */
 
-/* A section title in the end matter and on the cover: small caps-like sans
- * with a rule below. */
-static double fn_section(Pdf *P, const Item *it, double top)
-{
-    const Sheet *s = &P->sheet;
-    const char *t = it->p;
-    pdf_text(P, FONT_SANS_BOLD, 11, s->body_l, top - 11, t);
-    pdf_line(P, s->body_l, top - 15, s->body_r, top - 15, 0.6);
-    return 22;
-}
-
-static Item *section(Pdf *P, Vec *items, const char *title, bool new_sheet, bool outline)
-{
-    item_add(items, P, fn_section, title, 0, 16);
-    Item *it = items->items[items->len - 1];
-    it->layout.keep_with_next = true;
-    it->layout.break_before = new_sheet;
-    if (outline) {
-        it->outline = title;
-        it->outline_level = 1;
-    }
-    return it;
-}
-
-Item *pdf_section(Pdf *P, Vec *items, const char *title, bool new_sheet, bool outline)
-{
-    return section(P, items, title, new_sheet, outline);
-}
-
 static double fn_gap(Pdf *P, const Item *it, double top)
 {
     (void)P;
@@ -643,7 +614,7 @@ void pdf_cover_items(Pdf *P, Vec *items)
     Item *cov = items->items[items->len - 1];
     cov->outline = "Cover";
     cov->outline_level = 1;
-    section(P, items, "Summary of checks", false, false);
+    pdf_section(P, items, "Summary of checks", false, false);
     item_add(items, P, fn_summary_head, NULL, 0, 0);
     ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
     int no = 0, nfind = 0;
@@ -656,7 +627,7 @@ void pdf_cover_items(Pdf *P, Vec *items)
         item_add(items, P, fn_summary_none, NULL, 0, 0);
     /* Findings apart from the checks: answers recorded, never verdicts. */
     if (nfind) {
-        section(P, items, "Findings", false, false);
+        pdf_section(P, items, "Findings", false, false);
         item_add(items, P, fn_summary_head, NULL, 1, 0);
         ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
         no = 0;
@@ -667,7 +638,7 @@ void pdf_cover_items(Pdf *P, Vec *items)
     item_add(items, P, fn_cover_warnings, NULL, 0, 0);
     pdf_network_cover_items(P, items);
     pdf_cases_cover_items(P, items);
-    section(P, items, "Cautions", false, false);
+    pdf_section(P, items, "Cautions", false, false);
     ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
     item_add(items, P, fn_caution_pointer, NULL, 0, 0);
 }
@@ -697,7 +668,7 @@ void pdf_package_cover_items(Pdf *P, Vec *items)
     Item *cov = items->items[items->len - 1];
     cov->outline = "Cover";
     cov->outline_level = 1;
-    section(P, items, "Summary of checks, every part", false, false);
+    pdf_section(P, items, "Summary of checks, every part", false, false);
     item_add(items, P, fn_summary_head, NULL, 0, 0);
     ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
     int no = 0;
@@ -716,7 +687,7 @@ void pdf_package_cover_items(Pdf *P, Vec *items)
         pdf_cases_cover_items(P, items);
         pdf_scope_load(P, 0);
     }
-    section(P, items, "Cautions", false, true);
+    pdf_section(P, items, "Cautions", false, true);
     caution_items(P, items, false);
 }
 
@@ -999,7 +970,7 @@ void pdf_end_items(Pdf *P, Vec *items)
     const Document *d = P->d;
     const Evaluated *ev = P->ev;
 
-    section(P, items, "References", true, true);
+    pdf_section(P, items, "References", true, true);
     if (P->nrefs == 0)
         item_add(items, P, fn_summary_none, NULL, 0, 0);
     for (size_t i = 0; i < d->nsources; i++) {
@@ -1011,7 +982,7 @@ void pdf_end_items(Pdf *P, Vec *items)
         ((Item *)items->items[items->len - 1])->ref = P->method_ref[i];
     }
 
-    section(P, items, "Design criteria", false, true);
+    pdf_section(P, items, "Design criteria", false, true);
     item_add(items, P, fn_crit_head, NULL, 0, 0);
     ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
     size_t nchecks = 0;
@@ -1024,12 +995,12 @@ void pdf_end_items(Pdf *P, Vec *items)
         item_add(items, P, fn_summary_none, NULL, 0, 0);
 
     if (!P->pkg) { /* a package states its cautions once, on its cover */
-        section(P, items, "Cautions", false, true);
+        pdf_section(P, items, "Cautions", false, true);
         caution_items(P, items, false);
         item_add(items, P, fn_gap, NULL, 6, 0);
     }
 
-    section(P, items, "Appendix A — Source listing", true, true);
+    pdf_section(P, items, "Appendix A — Source listing", true, true);
     item_add(items, P, fn_listing_intro, NULL, 0, 0);
     ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
     const char *t = d->text;
