@@ -398,8 +398,4 @@ bool expr_is_simple(const Expr *e);
 int doc_lookup(const Document *doc, const char *name);
 const char *doc_source_line(const Document *doc, int line, size_t *len);
 
-/* Levenshtein distance between two short words (99 when either is longer
- * than 40 bytes): the measure behind every "did you mean". */
-size_t doc_edit_distance(const char *a, const char *b);
-
 #endif

@@ -100,7 +100,19 @@ bool arg_record(CallCtx *cx, const CallArgs *a, size_t i, const char *type, cons
 /* Keyword argument lookup: NULL when absent. Unknown keywords are reported
  * by kw_check(). */
 const Value *kw_get(const CallArgs *a, const char *name, Pos *pos);
-bool kw_check(CallCtx *cx, const CallArgs *a, const char *const *allowed);
+/* Every keyword of the call is one the function's builtins.def entry
+ * lists (the only list of them); else an error at the first that is not.
+ * The evaluator checks every call so; kw_check does it for a function
+ * called by its C name. */
+bool builtin_keywords_ok(CallCtx *cx, const Builtin *b, const CallArgs *a);
+bool kw_check(CallCtx *cx, const CallArgs *a);
+
+/* Call a library function through its C function (builtin_fns.h) from C
+ * code, as path and network hydraulics do, with `n` positional values and
+ * at most one keyword value (none when kw is NULL); true with a number in
+ * *out. `name` is the function's name for its messages. */
+bool builtin_call(CallCtx *cx, BuiltinFn fn, const char *name, Pos at, const Value *args, const Pos *pos,
+                  size_t n, const char *kw_name, const Value *kw, Value *out);
 
 /* "pressure (psi)", "length (ft)", "kg*m^-3" — a dimension as messages name
  * it: its plain word and the unit the document's system shows it in. */

@@ -13,6 +13,8 @@
 #include <stdbool.h>
 #include <stddef.h>
 
+#include "constants.h"
+
 enum {
     DIM_LENGTH,      /* m   */
     DIM_MASS,        /* kg  */
@@ -128,7 +130,7 @@ Unit unit_default(Dim d, TempKind temp, UnitSystem sys);
 Unit unit_default_ref(Dim d, TempKind temp, PressureRef ref, UnitSystem sys);
 
 /* The standard atmosphere, 101.325 kPa (ISO 2533; the definition of 1 atm). */
-#define UNIT_STANDARD_ATMOSPHERE 101325.0
+#define UNIT_STANDARD_ATMOSPHERE CONST_STANDARD_ATMOSPHERE
 
 /* Re-state a pressure on another reference, `atm` the atmosphere in Pa:
  * plain or gauge -> absolute adds it, absolute -> gauge or plain subtracts

@@ -185,30 +185,46 @@ const Value *kw_get(const CallArgs *a, const char *name, Pos *pos)
     return NULL;
 }
 
-bool kw_check(CallCtx *cx, const CallArgs *a, const char *const *allowed)
+bool builtin_keywords_ok(CallCtx *cx, const Builtin *b, const CallArgs *a)
 {
-    bool ok = true;
+    const char *list = b ? b->keywords : "";
+    const char *name = b ? b->name : a->name;
     for (size_t i = 0; i < a->nkw; i++) {
-        bool found = false;
-        for (size_t j = 0; allowed && allowed[j]; j++)
-            if (strcmp(allowed[j], a->kw_names[i]) == 0)
-                found = true;
-        if (!found) {
-            char list[256] = "";
-            size_t len = 0;
-            for (size_t j = 0; allowed && allowed[j] && len < sizeof list - 40; j++)
-                len += (size_t)snprintf(list + len, sizeof list - len, "%s%s", j ? ", " : "", allowed[j]);
-            Pos p = a->kw_pos ? a->kw_pos[i] : a->pos;
-            if (len)
-                diag_error(cx->diags, p, "%s: unknown keyword '%s' (it takes: %s)", a->name,
-                           a->kw_names[i], list);
+        const char *k = a->kw_names[i];
+        size_t kl = strlen(k);
+        bool known = false;
+        for (const char *p = list; *p && !known;) {
+            const char *end = strchr(p, ' ');
+            size_t wl = end ? (size_t)(end - p) : strlen(p);
+            known = wl == kl && memcmp(p, k, wl) == 0;
+            p += wl;
+            while (*p == ' ')
+                p++;
+        }
+        if (!known) {
+            Pos at = a->kw_pos ? a->kw_pos[i] : a->pos;
+            if (*list)
+                diag_error(cx->diags, at, "%s: unknown keyword '%s' (it takes: %s)", name, k, list);
             else
-                diag_error(cx->diags, p, "%s: takes no keyword arguments, found '%s'", a->name,
-                           a->kw_names[i]);
-            ok = false;
+                diag_error(cx->diags, at, "%s takes no keyword arguments, found '%s'", name, k);
+            return false;
         }
     }
-    return ok;
+    return true;
+}
+
+bool kw_check(CallCtx *cx, const CallArgs *a)
+{
+    return builtin_keywords_ok(cx, builtin_lookup(a->name), a);
+}
+
+bool builtin_call(CallCtx *cx, BuiltinFn fn, const char *name, Pos at, const Value *args, const Pos *pos,
+                  size_t n, const char *kw_name, const Value *kw, Value *out)
+{
+    const char *names[1] = {kw_name};
+    Pos kwp[1] = {at};
+    CallArgs ca = {n, args, pos, kw ? 1u : 0u, names, kw, kwp, at, name};
+    return fn(cx, &ca, out) && out->kind == VAL_NUMBER;
 }
 
 /* ---- math ------------------------------------------------------------- */

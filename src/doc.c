@@ -13,11 +13,13 @@
 #include <string.h>
 
 #include "frontmatter.h"
+#include "lexicon.h"
 #include "library.h"
 #include "markdown.h"
 #include "source.h"
 #include "lookalike.h"
 #include "strmap.h"
+#include "suggest.h"
 #include "uses.h"
 
 /* ---- name table: open addressing, names -> slots ---------------------- */
@@ -138,28 +140,6 @@ typedef struct Resolver {
     const Expr *use_top;     /* the whole right-hand side of a definition: where use() may stand */
 } Resolver;
 
-size_t doc_edit_distance(const char *a, const char *b)
-{
-    size_t la = strlen(a), lb = strlen(b);
-    if (la > 40 || lb > 40)
-        return 99;
-    size_t d[41][41];
-    for (size_t i = 0; i <= la; i++)
-        d[i][0] = i;
-    for (size_t j = 0; j <= lb; j++)
-        d[0][j] = j;
-    for (size_t i = 1; i <= la; i++)
-        for (size_t j = 1; j <= lb; j++) {
-            size_t c = d[i - 1][j - 1] + (a[i - 1] != b[j - 1]);
-            if (d[i - 1][j] + 1 < c)
-                c = d[i - 1][j] + 1;
-            if (d[i][j - 1] + 1 < c)
-                c = d[i][j - 1] + 1;
-            d[i][j] = c;
-        }
-    return d[la][lb];
-}
-
 typedef struct NearFn {
     const char *name, *best;
     size_t best_d;
@@ -168,7 +148,7 @@ typedef struct NearFn {
 static void near_builtin(const Builtin *b, void *vctx)
 {
     NearFn *n = vctx;
-    size_t d = doc_edit_distance(n->name, b->name);
+    size_t d = suggest_distance_str(n->name, b->name);
     if (d < n->best_d) {
         n->best_d = d;
         n->best = b->name;
@@ -199,7 +179,7 @@ static const char *closest_name(const Document *doc, const char *name, int befor
         const Stmt *s = doc->stmts[i];
         if (!s->name || s->kind == STMT_CHECK)
             continue;
-        size_t d = doc_edit_distance(name, s->name);
+        size_t d = suggest_distance_str(name, s->name);
         if (d < best_d) {
             best_d = d;
             best = s->name;
@@ -216,10 +196,9 @@ static void note_dep(Resolver *r, int slot)
 
 static int resolve_name(Resolver *r, const char *name, Pos pos, bool called)
 {
-    if (strcmp(name, "pi") == 0)
-        return SLOT_PI;
-    if (strcmp(name, "g") == 0)
-        return SLOT_G;
+    const NamedConstant *k = lexicon_constant(name, strlen(name));
+    if (k)
+        return k->slot;
     int slot = doc_lookup(r->doc, name);
     if (slot >= 0 && slot < r->current) {
         note_dep(r, slot);

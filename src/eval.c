@@ -18,10 +18,9 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "lexicon.h"
 #include "numfmt.h"
 #include "uses.h"
-
-static const double STANDARD_GRAVITY = 9.80665; /* m/s^2, exact (CGPM 1901) */
 
 /* ---- describing operands in messages ----------------------------------- */
 
@@ -380,28 +379,11 @@ static bool eval_call(EvalCtx *c, const Expr *e, Value *out)
                        b->max_args, n);
         return false;
     }
-    /* Keywords are checked here, once for every function, so a misspelt or
-     * unsupported keyword can never be ignored silently. */
-    for (size_t i = 0; i < nk; i++) {
-        const char *k = e->kw_names[i], *list = b->keywords;
-        size_t kl = strlen(k);
-        bool known = false;
-        for (const char *p = list; *p && !known;) {
-            const char *end = strchr(p, ' ');
-            size_t wl = end ? (size_t)(end - p) : strlen(p);
-            known = wl == kl && memcmp(p, k, wl) == 0;
-            p += wl;
-            while (*p == ' ')
-                p++;
-        }
-        if (!known) {
-            if (*list)
-                diag_error(c->diags, e->kw_pos[i], "%s: unknown keyword '%s' (it takes: %s)", b->name, k, list);
-            else
-                diag_error(c->diags, e->kw_pos[i], "%s takes no keyword arguments, found '%s'", b->name, k);
-            return false;
-        }
-    }
+    /* Keywords are checked here, once for every function, against its
+     * builtins.def entry, so a misspelt or unsupported keyword can never be
+     * ignored silently. */
+    if (!builtin_keywords_ok(c->call, b, &ca))
+        return false;
     size_t before = c->diags->errors;
     if (!b->fn(c->call, &ca, out)) {
         if (c->diags->errors == before && c->diags->muted == 0)
@@ -498,12 +480,10 @@ bool eval_expr(EvalCtx *c, const Expr *e, Value *out)
 
 bool eval_constant(int slot, Value *out)
 {
-    if (slot == SLOT_PI)
-        *out = value_number(qty_number(3.14159265358979323846));
-    else if (slot == SLOT_G)
-        *out = value_number(qty(STANDARD_GRAVITY, DIM_ACCEL));
-    else
+    const NamedConstant *k = lexicon_constant_at(slot);
+    if (!k)
         return false;
+    *out = value_number(qty(k->si, *k->dim));
     return true;
 }
 

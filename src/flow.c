@@ -20,26 +20,15 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "builtin_fns.h"
+#include "constants.h"
 #include "methods/devices_lib.h"
 #include "methods/fittings.h"
 #include "methods/friction.h"
 #include "methods/pumps.h"
 
-static const double G = 9.80665; /* standard gravity, m/s^2 */
-static const double PI = 3.14159265358979323846;
-
-/* Call a library function by name with positional and keyword values. */
-static bool call_builtin(CallCtx *cx, const char *name, Pos at, const Value *args, const Pos *pos, size_t n,
-                         const char *kw_name, const Value *kw, Value *out)
-{
-    const Builtin *b = builtin_lookup(name);
-    if (!b)
-        return false;
-    const char *names[1] = {kw_name};
-    Pos kwp[1] = {at};
-    CallArgs ca = {n, args, pos, kw ? 1u : 0u, names, kw, kwp, at, name};
-    return b->fn(cx, &ca, out) && out->kind == VAL_NUMBER;
-}
+static const double G = CONST_STANDARD_GRAVITY;
+static const double PI = CONST_PI;
 
 static bool need(CallCtx *cx, const Value *v, Dim d, Pos at, const char *what)
 {
@@ -179,7 +168,7 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
             Value args[2] = {v_re, value_number(qty_number(eps / g->D))};
             Pos pos[2] = {flow_pos, sp->pipe->pos};
             Value kw = value_string(ps->friction ? ps->friction : "colebrook");
-            if (!call_builtin(cx, "friction_factor", sp->pos, args, pos, 2, "method", ps->friction ? &kw : NULL, &v_out)) {
+            if (!builtin_call(cx, fn_friction_factor, "friction_factor", sp->pos, args, pos, 2, "method", ps->friction ? &kw : NULL, &v_out)) {
                 ok = false;
                 continue;
             }
@@ -188,7 +177,7 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
         } else {
             Value args[4] = {si->flow, si->C, value_number(qty(g->D, DIM_L)), si->length};
             Pos pos[4] = {flow_pos, sp->C->pos, sp->pipe->pos, sp->length->pos};
-            if (!call_builtin(cx, "hazen_williams", sp->pos, args, pos, 4, NULL, NULL, &v_out)) {
+            if (!builtin_call(cx, fn_hazen_williams, "hazen_williams", sp->pos, args, pos, 4, NULL, NULL, &v_out)) {
                 ok = false;
                 continue;
             }
@@ -214,7 +203,7 @@ bool flow_path(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *star
             Value args[3] = {value_string(it->kind), value_number(qty(g->D, DIM_L)), v_re};
             Pos pos[3] = {it->pos, sp->pipe->pos, flow_pos};
             Value kw = value_string(ps->fittings ? ps->fittings : "crane");
-            if (!call_builtin(cx, "k_fitting", it->pos, args, pos, 3, "method", ps->fittings ? &kw : NULL, &v_out)) {
+            if (!builtin_call(cx, fn_k_fitting, "k_fitting", it->pos, args, pos, 3, "method", ps->fittings ? &kw : NULL, &v_out)) {
                 ok = false;
                 break;
             }

@@ -18,6 +18,7 @@
 
 #include "bounds.h"
 #include "strmap.h"
+#include "suggest.h"
 #include "numfmt.h"
 #include "parse.h"
 
@@ -317,7 +318,7 @@ static void atmosphere_key(FmCtx *c, const char *key, yaml_node_t *v)
 
 double frontmatter_atmosphere_at(double z)
 {
-    return 101325.0 * pow(1.0 - 2.25577e-5 * z, 5.25588);
+    return CONST_STANDARD_ATMOSPHERE * pow(1.0 - 2.25577e-5 * z, 5.25588);
 }
 
 static void one_key(FmCtx *c, const char *key, yaml_node_t *k, yaml_node_t *v)
@@ -347,7 +348,7 @@ static void one_key(FmCtx *c, const char *key, yaml_node_t *k, yaml_node_t *v)
                 low[n] = (char)tolower((unsigned char)m->status[n]);
             low[n] = '\0';
             for (size_t i = 0; i < sizeof STATUSES / sizeof STATUSES[0]; i++) {
-                size_t d = doc_edit_distance(low, STATUSES[i].word);
+                size_t d = suggest_distance_str(low, STATUSES[i].word);
                 if (d < best) {
                     best = d;
                     near = STATUSES[i].word;

@@ -10,10 +10,10 @@
 #include <stdbool.h>
 #include <string.h>
 
+#include "lexicon.h"
 #include "lookalike.h"
 #include "numfmt.h"
 
-static const char *const keywords[] = {"and", "as", "where", "between", "solve", "check", NULL};
 
 static Pos pos_at(const Lexer *lx, size_t off)
 {
@@ -102,14 +102,6 @@ static size_t name_length(const char *s, size_t left)
             break;
     }
     return i;
-}
-
-static int is_keyword(const char *s, size_t len)
-{
-    for (int i = 0; keywords[i]; i++)
-        if (strlen(keywords[i]) == len && memcmp(keywords[i], s, len) == 0)
-            return 1;
-    return 0;
 }
 
 /* An exponent after a unit or a unit group: `^2`, `^-1`, `^0.5`; its
@@ -227,7 +219,7 @@ Token lex_next(Lexer *lx)
         while (lx->at < end && (s[lx->at] == ' ' || s[lx->at] == '\t'))
             lx->at++;
         size_t ul = lx->at < end ? unit_length(s + lx->at, end - lx->at) : 0;
-        if (ul > 0 && !is_keyword(s + lx->at, ul)) {
+        if (ul > 0 && !lexicon_keyword(s + lx->at, ul, KW_ENDS_UNIT)) {
             t.unit = s + lx->at;
             t.unit_len = ul;
             t.unit_pos = pos_at(lx, lx->at);

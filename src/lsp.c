@@ -27,6 +27,7 @@
 
 #include "bounds.h"
 #include "eval.h"
+#include "lexicon.h"
 #include "library.h"
 #include "lsp.h"
 #include "methods/fittings.h"
@@ -548,6 +549,14 @@ static bool hover_field(const Evaluated *ev, int slot, const char *field, StrBuf
     return false;
 }
 
+/* A named constant as the editor shows it: its value to ten significant
+ * figures, its unit and what it is. */
+static void constant_detail(const NamedConstant *k, char *buf, size_t n)
+{
+    snprintf(buf, n, "%.10g%s%s%s%s", k->si, k->unit[0] ? " " : "", k->unit, k->what ? ", " : "",
+             k->what ? k->what : "");
+}
+
 static json_t *do_hover(Server *S, OpenDoc *od, json_t *params)
 {
     int line;
@@ -580,10 +589,13 @@ static json_t *do_hover(Server *S, OpenDoc *od, json_t *params)
             const Builtin *fn = builtin_lookup(w);
             put_signature(fn, &out);
             sb_printf(&out, "\n\n%s", fn->summary);
-        } else if (strcmp(w, "pi") == 0) {
-            sb_puts(&out, "pi = 3.141592654 (the constant)");
-        } else if (strcmp(w, "g") == 0) {
-            sb_puts(&out, "g = 9.80665 m/s^2, standard gravity (NIST SP 811)");
+        } else if (lexicon_constant(w, strlen(w))) {
+            const NamedConstant *k = lexicon_constant(w, strlen(w));
+            char detail[96];
+            constant_detail(k, detail, sizeof detail);
+            sb_printf(&out, "%s = %s", k->name, detail);
+            if (k->source)
+                sb_printf(&out, " (%s)", k->source);
         } else if (here && here->kind == STMT_CHECK) {
             hover_check(ev, here, &out);
         }
@@ -818,8 +830,11 @@ static void add_names(Items *it, const OpenDoc *od)
         item_add(it, s->name, ITEM_VARIABLE, r->state == RES_OK ? sb_str(&v) : "not evaluated", s->description);
         sb_free(&v);
     }
-    item_add(it, "pi", ITEM_CONSTANT, "3.141592654", NULL);
-    item_add(it, "g", ITEM_CONSTANT, "9.80665 m/s^2, standard gravity", NULL);
+    for (const NamedConstant *k = lexicon_constants; k->name; k++) {
+        char detail[96];
+        constant_detail(k, detail, sizeof detail);
+        item_add(it, k->name, ITEM_CONSTANT, detail, NULL);
+    }
 }
 
 /* Inside a string argument: the call it belongs to and the argument's
@@ -961,9 +976,9 @@ static json_t *do_completion(Server *S, OpenDoc *od, json_t *params)
         add_fitting_kinds(&it);
     add_names(&it, od);
     builtin_each(add_builtin, &it);
-    static const char *const keywords[] = {"check", "solve", "where", "between", "and", "as", "figure"};
-    for (size_t i = 0; i < sizeof keywords / sizeof keywords[0]; i++)
-        item_add(&it, keywords[i], ITEM_KEYWORD, NULL, NULL);
+    for (const Keyword *kw = lexicon_keywords; kw->word; kw++)
+        if (kw->roles & KW_OFFERED)
+            item_add(&it, kw->word, ITEM_KEYWORD, NULL, NULL);
     return it.list;
 }
 

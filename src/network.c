@@ -21,6 +21,8 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "builtin_fns.h"
+#include "constants.h"
 #include "methods/devices_lib.h"
 #include "methods/fittings.h"
 #include "methods/friction.h"
@@ -28,8 +30,8 @@
 #include "methods/pumps.h"
 #include "numfmt.h"
 
-static const double G = 9.80665; /* standard gravity, m/s^2 */
-static const double PI = 3.14159265358979323846;
+static const double G = CONST_STANDARD_GRAVITY;
+static const double PI = CONST_PI;
 static const double QHW_LINEAR = 1e-6;  /* m^3/s */
 static const double HW_EXP = 1.852;
 static const int MAX_ITERATIONS = 200;
@@ -166,19 +168,6 @@ static bool field_si(CallCtx *cx, const Record *r, const char *name, Dim d, Pos 
     return true;
 }
 
-/* Call a library function by name (as flow.c does), for the final pass. */
-static bool call_builtin(CallCtx *cx, const char *name, Pos at, const Value *args, const Pos *pos, size_t n,
-                         const char *kw_name, const Value *kw, Value *out)
-{
-    const Builtin *b = builtin_lookup(name);
-    if (!b)
-        return false;
-    const char *names[1] = {kw_name};
-    Pos kwp[1] = {at};
-    CallArgs ca = {n, args, pos, kw ? 1u : 0u, names, kw, kwp, at, name};
-    return b->fn(cx, &ca, out) && out->kind == VAL_NUMBER;
-}
-
 /* K of a link's fittings at Reynolds number Re, plus its K column; false
  * (with an error at the fitting) when a kind cannot be used. */
 static bool fittings_K(CallCtx *cx, const NetworkSpec *ns, const NetLink *lk, double K0, double D, double Re,
@@ -201,7 +190,7 @@ static bool fittings_K(CallCtx *cx, const NetworkSpec *ns, const NetLink *lk, do
             Value args[3] = {value_string(it->kind), value_number(qty(D, DIM_L)), value_number(qty_number(Re))};
             Pos pos[3] = {it->pos, lk->pipe->pos, lk->pos};
             Value kw = value_string(ns->fittings ? ns->fittings : "crane"), v;
-            if (!call_builtin(cx, "k_fitting", it->pos, args, pos, 3, "method", ns->fittings ? &kw : NULL, &v))
+            if (!builtin_call(cx, fn_k_fitting, "k_fitting", it->pos, args, pos, 3, "method", ns->fittings ? &kw : NULL, &v))
                 return false;
             Kf = v.q.si;
         } else {
@@ -211,7 +200,7 @@ static bool fittings_K(CallCtx *cx, const NetworkSpec *ns, const NetLink *lk, do
                 Value args[3] = {value_string(it->kind), value_number(qty(D, DIM_L)), value_number(qty_number(Re))};
                 Pos pos[3] = {it->pos, lk->pipe->pos, lk->pos};
                 Value kw = value_string(ns->fittings ? ns->fittings : "crane"), v;
-                if (!call_builtin(cx, "k_fitting", it->pos, args, pos, 3, "method", ns->fittings ? &kw : NULL, &v))
+                if (!builtin_call(cx, fn_k_fitting, "k_fitting", it->pos, args, pos, 3, "method", ns->fittings ? &kw : NULL, &v))
                     return false;
                 Kf = v.q.si;
             }
@@ -542,7 +531,7 @@ bool network_solve(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *
                     Value args[2] = {value_number(qty_number(at[e])), value_number(qty_number(lp->eps / lp->D))};
                     Pos pos[2] = {lk->pos, lk->pipe->pos};
                     Value kw = value_string(ns->friction ? ns->friction : "colebrook");
-                    if (!call_builtin(cx, "friction_factor", lk->pos, args, pos, 2, "method", ns->friction ? &kw : NULL,
+                    if (!builtin_call(cx, fn_friction_factor, "friction_factor", lk->pos, args, pos, 2, "method", ns->friction ? &kw : NULL,
                                       &v))
                         ok = false;
                 }
@@ -567,7 +556,7 @@ bool network_solve(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *
                 Value args[4] = {value_number(qty(q, DIM_FLOW)), value_number(qty_number(lp->C)),
                                  value_number(qty(lp->D, DIM_L)), value_number(qty(lp->L, DIM_L))};
                 Pos pos[4] = {lk->pos, lk->C->pos, lk->pipe->pos, lk->length->pos};
-                if (!call_builtin(cx, "hazen_williams", lk->pos, args, pos, 4, NULL, NULL, &v)) {
+                if (!builtin_call(cx, fn_hazen_williams, "hazen_williams", lk->pos, args, pos, 4, NULL, NULL, &v)) {
                     ok = false;
                     continue;
                 }

@@ -13,6 +13,7 @@
 #include <string.h>
 
 #include "lex.h"
+#include "lexicon.h"
 
 typedef struct Parser {
     Lexer lx;
@@ -249,12 +250,11 @@ static Expr *parse_primary(Parser *p)
         return e;
     }
     case TOK_NAME: {
-        static const char *const reserved[] = {"and", "as", "where", "between", "solve", "check", NULL};
-        for (int i = 0; reserved[i]; i++)
-            if (tok_is_word(&t, reserved[i])) {
-                fail(p, t.pos, "'%s' is a keyword and cannot be used as a value here", reserved[i]);
-                return NULL;
-            }
+        const Keyword *kw = lexicon_keyword(t.text, t.len, KW_NOT_VALUE);
+        if (kw) {
+            fail(p, t.pos, "'%s' is a keyword and cannot be used as a value here", kw->word);
+            return NULL;
+        }
         advance(p);
         if (p->tok.kind == TOK_LPAREN) {
             Expr *e = new_expr(p, EXPR_CALL, t.pos);
@@ -671,13 +671,11 @@ Stmt *parse_statement(Arena *a, const char *line, size_t len, Pos start, DiagLis
     Token name = p.tok;
     st->name = arena_strndup(a, name.text, name.len);
     st->name_pos = name.pos;
-    static const char *const reserved[] = {"and", "as", "where", "between", "solve", "pi", "g", NULL};
-    for (int i = 0; reserved[i]; i++)
-        if (tok_is_word(&name, reserved[i])) {
-            fail(&p, name.pos, "'%s' is reserved and cannot be defined", reserved[i]);
-            st->parse_failed = 1;
-            return st;
-        }
+    if (lexicon_keyword(name.text, name.len, KW_NOT_DEFINED) || lexicon_constant(name.text, name.len)) {
+        fail(&p, name.pos, "'%s' is reserved and cannot be defined", st->name);
+        st->parse_failed = 1;
+        return st;
+    }
     advance(&p);
     if (p.tok.kind != TOK_ASSIGN) {
         expected(&p, "'=' after the name");

@@ -22,6 +22,8 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "suggest.h"
+
 /* ---- dimensions ------------------------------------------------------- */
 
 /* Exponent vectors in the enum order L M T I Theta N J. */
@@ -875,37 +877,6 @@ static char lower(char c)
     return (c >= 'A' && c <= 'Z') ? (char)(c - 'A' + 'a') : c;
 }
 
-/* Optimal string alignment distance (Levenshtein plus adjacent
- * transpositions), optionally ignoring case. Names here are short; longer
- * inputs are never close to any of them. */
-static size_t edit_distance(const char *a, size_t na, const char *b, size_t nb, bool fold)
-{
-    enum { MAXN = 32 };
-    if (na >= MAXN || nb >= MAXN)
-        return (size_t)-1;
-    size_t d[MAXN + 1][MAXN + 1];
-    for (size_t i = 0; i <= na; i++)
-        d[i][0] = i;
-    for (size_t j = 0; j <= nb; j++)
-        d[0][j] = j;
-    for (size_t i = 1; i <= na; i++) {
-        for (size_t j = 1; j <= nb; j++) {
-            char ca = fold ? lower(a[i - 1]) : a[i - 1];
-            char cb = fold ? lower(b[j - 1]) : b[j - 1];
-            size_t best = d[i - 1][j - 1] + (ca != cb);
-            if (d[i - 1][j] + 1 < best)
-                best = d[i - 1][j] + 1;
-            if (d[i][j - 1] + 1 < best)
-                best = d[i][j - 1] + 1;
-            if (i > 1 && j > 1 && ca == (fold ? lower(b[j - 2]) : b[j - 2]) &&
-                (fold ? lower(a[i - 2]) : a[i - 2]) == cb && d[i - 2][j - 2] + 1 < best)
-                best = d[i - 2][j - 2] + 1;
-            d[i][j] = best;
-        }
-    }
-    return d[na][nb];
-}
-
 /* Suggestions built from pieces live here; a table name is returned as is. */
 static _Thread_local char suggest_buf[sizeof(((Unit *)0)->text)];
 
@@ -928,7 +899,7 @@ static PressureRef typed_reference(const char *key, size_t n, double *factor)
     }
     for (size_t i = 0; i < REGISTRY_LEN; i++)
         if (dim_eq(registry[i].dim, DIM_PRESSURE) && !(registry[i].flags & (U_GAUGE | U_ABSP)) &&
-            strlen(registry[i].name) == n - 1 && edit_distance(key, n - 1, registry[i].name, n - 1, true) == 0) {
+            strlen(registry[i].name) == n - 1 && suggest_distance(key, n - 1, registry[i].name, n - 1, true) == 0) {
             *factor = registry[i].factor;
             return ref;
         }
@@ -989,7 +960,7 @@ static const char *suggest_any(const char *name, size_t len)
     }
     /* The same letters in another case: a row first, then a prefixed form. */
     for (size_t i = 0; i < REGISTRY_LEN; i++)
-        if (strlen(registry[i].name) == n && edit_distance(key, n, registry[i].name, n, true) == 0)
+        if (strlen(registry[i].name) == n && suggest_distance(key, n, registry[i].name, n, true) == 0)
             return registry[i].name;
     /* (Only onto names of two letters or more: "mn" is a slip for "min",
      * not the millinewton.) */
@@ -1000,8 +971,8 @@ static const char *suggest_any(const char *name, size_t len)
             if (!(registry[i].flags & U_PFX) || rl < 2 || pl + rl != n ||
                 n >= sizeof suggest_buf)
                 continue;
-            if (edit_distance(key, pl, prefixes[j].sym, pl, true) == 0 &&
-                edit_distance(key + pl, rl, registry[i].name, rl, true) == 0) {
+            if (suggest_distance(key, pl, prefixes[j].sym, pl, true) == 0 &&
+                suggest_distance(key + pl, rl, registry[i].name, rl, true) == 0) {
                 memcpy(suggest_buf, prefixes[j].sym, pl);
                 memcpy(suggest_buf + pl, registry[i].name, rl + 1);
                 return suggest_buf;
@@ -1018,8 +989,8 @@ static const char *suggest_any(const char *name, size_t len)
     for (size_t i = 0; i < REGISTRY_LEN; i++) {
         const char *r = registry[i].name;
         size_t rl = strlen(r);
-        size_t ci = edit_distance(key, n, r, rl, true);
-        size_t cs = edit_distance(key, n, r, rl, false);
+        size_t ci = suggest_distance(key, n, r, rl, true);
+        size_t cs = suggest_distance(key, n, r, rl, false);
         if (ci < best_ci ||
             (ci == best_ci && best && (cs < best_cs || (cs == best_cs && rl > best_len)))) {
             best_ci = ci;

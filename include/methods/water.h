@@ -7,11 +7,13 @@
 #ifndef HEADROOM_METHODS_WATER_H
 #define HEADROOM_METHODS_WATER_H
 
+#include "constants.h"
+
 #define WATER_T_MIN 273.15            /* K: 0 degC, the lower bound of IF97 region 1 */
 #define WATER_T_MAX 423.15            /* K: 150 degC */
 #define WATER_P_MAX 100.0e6           /* Pa: upper bound of IF97 region 1 */
-#define WATER_P_DEFAULT 101325.0      /* Pa: one standard atmosphere */
-#define WATER_G 9.80665               /* m/s^2: standard gravity */
+#define WATER_P_DEFAULT CONST_STANDARD_ATMOSPHERE /* Pa */
+#define WATER_G CONST_STANDARD_GRAVITY           /* m/s^2 */
 
 typedef enum WaterStatus {
     WATER_OK,

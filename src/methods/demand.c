@@ -12,6 +12,7 @@
 #include "methods/demand.h"
 
 #include "arena.h"
+#include "suggest.h"
 
 #include <ctype.h>
 #include <math.h>
@@ -144,34 +145,12 @@ double fixture_load_value(const FixtureLoadRow *r, WaterSide w)
     return isnan(v) ? 0.0 : v;
 }
 
-/* Levenshtein distance over lower-cased bytes, short strings only. */
-static size_t distance(const char *a, const char *b)
-{
-    enum { MAXN = 64 };
-    size_t na = strlen(a), nb = strlen(b);
-    if (na >= MAXN || nb >= MAXN)
-        return (size_t)-1;
-    size_t prev[MAXN + 1], cur[MAXN + 1];
-    for (size_t j = 0; j <= nb; j++)
-        prev[j] = j;
-    for (size_t i = 1; i <= na; i++) {
-        cur[0] = i;
-        for (size_t j = 1; j <= nb; j++) {
-            size_t sub = prev[j - 1] + (tolower((unsigned char)a[i - 1]) != tolower((unsigned char)b[j - 1]));
-            size_t del = prev[j] + 1, ins = cur[j - 1] + 1;
-            cur[j] = sub < del ? (sub < ins ? sub : ins) : (del < ins ? del : ins);
-        }
-        memcpy(prev, cur, (nb + 1) * sizeof prev[0]);
-    }
-    return prev[nb];
-}
-
 const char *fixture_kind_nearest(const PlumbingCode *c, const char *kind)
 {
     const char *best = NULL;
     size_t bestd = (size_t)-1;
     for (size_t i = 0; i < c->nloads; i++) {
-        size_t d = distance(kind, c->loads[i].kind);
+        size_t d = suggest_distance(kind, strlen(kind), c->loads[i].kind, strlen(c->loads[i].kind), true);
         if (d < bestd) {
             bestd = d;
             best = c->loads[i].kind;

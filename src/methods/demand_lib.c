@@ -121,9 +121,8 @@ static void load_error(CallCtx *cx, const PlumbingCode *c, const char *fn, Pos a
  * where the table has one, else its only row. */
 bool fn_wsfu(CallCtx *cx, const CallArgs *a, Value *out)
 {
-    static const char *const allowed[] = {"water", "use", NULL};
     const char *kind;
-    if (!kw_check(cx, a, allowed) || !arg_string(cx, a, 0, "KIND", &kind))
+    if (!kw_check(cx, a) || !arg_string(cx, a, 0, "KIND", &kind))
         return false;
     int side = kw_choice(cx, a, "water", SIDES);
     int use = kw_choice(cx, a, "use", USES);
@@ -195,9 +194,8 @@ bool demand_hunter_flow(CallCtx *cx, const char *system, double load, Pos at, do
  * refused outside the table. system= defaults to "flush tank". */
 bool fn_hunter(CallCtx *cx, const CallArgs *a, Value *out)
 {
-    static const char *const allowed[] = {"system", NULL};
     double load, Q;
-    if (!kw_check(cx, a, allowed) || !arg_dimensionless(cx, a, 0, "LOAD, in water supply fixture units", &load))
+    if (!kw_check(cx, a) || !arg_dimensionless(cx, a, 0, "LOAD, in water supply fixture units", &load))
         return false;
     int sys = kw_choice(cx, a, "system", SYSTEMS);
     if (sys == -2)
@@ -331,9 +329,8 @@ bool demand_peak_flow(CallCtx *cx, Pos at)
  * for the number itself. */
 bool fn_peak_demand(CallCtx *cx, const CallArgs *a, Value *out)
 {
-    static const char *const allowed[] = {"percentile", NULL};
     const char *list;
-    if (!kw_check(cx, a, allowed) || !arg_string(cx, a, 0, "FIXTURES", &list))
+    if (!kw_check(cx, a) || !arg_string(cx, a, 0, "FIXTURES", &list))
         return false;
     Pos pp;
     const Value *pv = kw_get(a, "percentile", &pp);

@@ -14,6 +14,7 @@
 #include <string.h>
 
 #include "builtin_fns.h"
+#include "constants.h"
 #include "numfmt.h"
 #include "solve.h"
 
@@ -328,7 +329,7 @@ bool fn_bore(CallCtx *cx, const CallArgs *a, Value *out)
     record_set(r, i++, "id", value_hinted(qty(D, DIM_L), "in", "mm"));
     if (geometry)
         record_set(r, i++, "wall", value_hinted(qty(wall, DIM_L), "in", "mm"));
-    record_set(r, i++, "area", value_hinted(qty(3.14159265358979323846 * D * D / 4, DIM_AREA), "in^2", "mm^2"));
+    record_set(r, i++, "area", value_hinted(qty(CONST_PI * D * D / 4, DIM_AREA), "in^2", "mm^2"));
     record_set(r, i++, "roughness", value_hinted(qty(eps, DIM_L), "in", "mm"));
     if (has_E)
         record_set(r, i++, "E", value_hinted(qty(E, DIM_PRESSURE), "psi", "MPa"));

@@ -13,6 +13,8 @@
 #include <math.h>
 #include <string.h>
 
+#include "constants.h"
+
 /* Validity ranges as stated by the authors or the usual secondary sources:
  * - Colebrook (1939) was fitted to turbulent data; the Moody (1944) chart
  *   spans 4000 <= Re <= 1e8 and 0 <= rr <= 0.05 (the range of the chart's
@@ -212,6 +214,6 @@ double friction_hazen_williams(double Q, double C, double D, double L)
 
 double friction_hazen_williams_k_derived(void)
 {
-    const double pi = 3.14159265358979323846;
+    const double pi = CONST_PI;
     return pow(4.0 / pi / (0.849 * pow(0.25, 0.63)), 1.0 / 0.54);
 }

@@ -23,6 +23,7 @@
 #include <string.h>
 
 #include "builtin_fns.h"
+#include "constants.h"
 
 /* ---- the published methods ------------------------------------------- */
 
@@ -522,8 +523,7 @@ static bool friction_call(CallCtx *cx, const CallArgs *a, FrictionMethod m, bool
 
 bool fn_friction_factor(CallCtx *cx, const CallArgs *a, Value *out)
 {
-    static const char *const allowed[] = {"method", NULL};
-    if (!kw_check(cx, a, allowed))
+    if (!kw_check(cx, a))
         return false;
     FrictionMethod m = FRICTION_COLEBROOK;
     Pos mp;
@@ -595,7 +595,7 @@ bool fn_hazen_williams(CallCtx *cx, const CallArgs *a, Value *out)
         return false;
     }
     call_use_method(cx, &METHOD_HAZEN_WILLIAMS);
-    double V = 4.0 * Q / (3.14159265358979323846 * D * D);
+    double V = 4.0 * Q / (CONST_PI * D * D);
     if (V < HW_V_MIN || V > HW_V_MAX)
         diag_warning(cx->diags, a->pos,
                      "%s: velocity %s is outside %s to %s, the range where Hazen-Williams is "
@@ -793,8 +793,7 @@ static bool rating_metal(CallCtx *cx, const CallArgs *a, const Record *pipe,
 
 bool fn_pressure_rating(CallCtx *cx, const CallArgs *a, Value *out)
 {
-    static const char *const allowed[] = {"S", "E", "W", "Y", "c", "mill", "HDS", NULL};
-    if (!kw_check(cx, a, allowed))
+    if (!kw_check(cx, a))
         return false;
     const Record *pipe;
     double T;
@@ -839,8 +838,7 @@ bool fn_pressure_rating(CallCtx *cx, const CallArgs *a, Value *out)
 
 bool fn_wave_speed(CallCtx *cx, const CallArgs *a, Value *out)
 {
-    static const char *const allowed[] = {"support", "poisson", NULL};
-    if (!kw_check(cx, a, allowed))
+    if (!kw_check(cx, a))
         return false;
     const Record *pipe, *fluid;
     if (!arg_record(cx, a, 0, "pipe", "pipe", &pipe) ||

@@ -9,6 +9,7 @@
  * top of pipetab.def. */
 #include "methods/pipes.h"
 
+#include "constants.h"
 #include "methods/roughness.h"
 
 #include <ctype.h>
@@ -18,7 +19,7 @@
 #include <string.h>
 
 #define PSI 6894.757293168361   /* Pa per lbf/in^2 (NIST SP 811) */
-#define PI 3.14159265358979323846
+#define PI CONST_PI
 
 /* Elastic moduli, room temperature, each with its source. B31.9 is ASME
  * B31.9, Building Services Piping, Table 919.3.1 "Moduli of Elasticity and

@@ -216,7 +216,7 @@ static const char *size_text_of(const PipeStandard *s, double nps)
 bool fn_pipe(CallCtx *cx, const CallArgs *a, Value *out)
 {
     const char *std_text;
-    if (!kw_check(cx, a, NULL) || !arg_string(cx, a, 0, "STANDARD", &std_text))
+    if (!kw_check(cx, a) || !arg_string(cx, a, 0, "STANDARD", &std_text))
         return false;
     const PipeStandard *s = pipe_standard_find(std_text);
     if (!s) {
@@ -305,7 +305,7 @@ bool fn_pipe(CallCtx *cx, const CallArgs *a, Value *out)
 bool fn_roughness(CallCtx *cx, const CallArgs *a, Value *out)
 {
     const char *name;
-    if (!kw_check(cx, a, NULL) || !arg_string(cx, a, 0, "MATERIAL", &name))
+    if (!kw_check(cx, a) || !arg_string(cx, a, 0, "MATERIAL", &name))
         return false;
     const RoughnessRow *row;
     if (roughness_lookup(name, &row) != ROUGHNESS_OK) {
@@ -343,10 +343,9 @@ static bool kw_length(CallCtx *cx, const CallArgs *a, const char *name, double *
  * "entrance rounded" (without it, a well rounded entrance, r/d >= 0.15). */
 bool fn_k_fitting(CallCtx *cx, const CallArgs *a, Value *out)
 {
-    static const char *const allowed[] = {"method", "D2", "r", NULL};
     const char *kind_text;
     double D, Re;
-    if (!kw_check(cx, a, allowed))
+    if (!kw_check(cx, a))
         return false;
     bool ok = arg_string(cx, a, 0, "KIND", &kind_text);
     /* D is a bore, or a pipe record: its id is the bore and its nominal

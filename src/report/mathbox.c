@@ -604,7 +604,8 @@ static MathBox *expr_box(const MathEnv *env, const Expr *e, double size, bool su
         if (e->slot == SLOT_PI)
             return mbox_text(env, FONT_SERIF, size, "π");
         if (sub && e->slot == SLOT_G && env->ev) {
-            Value g = value_number(qty(9.80665, DIM_ACCEL));
+            Value g;
+            eval_constant(SLOT_G, &g);
             Unit u = eval_display_unit(env->ev, &g, NULL);
             return value_box(env, &g, &u, size, ctx);
         }

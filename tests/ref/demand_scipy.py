@@ -29,7 +29,7 @@ def build_probe():
     tmp = tempfile.mkdtemp(prefix="headroom-demand-")
     exe = os.path.join(tmp, "probe")
     src = [os.path.join(HERE, "demand_probe.c"), os.path.join(ROOT, "src", "methods", "demand.c"),
-           os.path.join(ROOT, "src", "arena.c")]
+           os.path.join(ROOT, "src", "arena.c"), os.path.join(ROOT, "src", "suggest.c")]
     cmd = [os.environ.get("CC", "cc"), "-std=c11", "-O1", "-g", "-D_POSIX_C_SOURCE=200809L",
            "-fsanitize=address,undefined", "-I" + os.path.join(ROOT, "include"),
            "-I" + os.path.join(ROOT, "src")] + src + ["-lm", "-o", exe]

@@ -1,0 +1,56 @@
+/* lexicon.c — the keywords and named constants of the calc language. */
+#include "lexicon.h"
+
+#include <string.h>
+
+#include "doc.h"
+
+/* The order is the order the language server offers them in. `finding`
+ * and `figure` begin a statement only where the parser sees one (`figure`
+ * followed by a name); elsewhere they are names. */
+const Keyword lexicon_keywords[] = {
+    {"check", KW_ENDS_UNIT | KW_NOT_VALUE | KW_NOT_DEFINED | KW_OFFERED},
+    {"solve", KW_ENDS_UNIT | KW_NOT_VALUE | KW_NOT_DEFINED | KW_OFFERED},
+    {"where", KW_ENDS_UNIT | KW_NOT_VALUE | KW_NOT_DEFINED | KW_OFFERED},
+    {"between", KW_ENDS_UNIT | KW_NOT_VALUE | KW_NOT_DEFINED | KW_OFFERED},
+    {"and", KW_ENDS_UNIT | KW_NOT_VALUE | KW_NOT_DEFINED | KW_OFFERED},
+    {"as", KW_ENDS_UNIT | KW_NOT_VALUE | KW_NOT_DEFINED | KW_OFFERED},
+    {"figure", KW_OFFERED},
+    {"finding", KW_NOT_DEFINED},
+    {NULL, 0},
+};
+
+const NamedConstant lexicon_constants[] = {
+    {"pi", SLOT_PI, CONST_PI, &DIM_NONE, "", NULL, NULL},
+    {"g", SLOT_G, CONST_STANDARD_GRAVITY, &DIM_ACCEL, "m/s^2", "standard gravity", "NIST SP 811"},
+    {NULL, 0, 0, NULL, NULL, NULL, NULL},
+};
+
+static bool spelled(const char *word, const char *s, size_t len)
+{
+    return strlen(word) == len && memcmp(word, s, len) == 0;
+}
+
+const Keyword *lexicon_keyword(const char *s, size_t len, unsigned roles)
+{
+    for (const Keyword *k = lexicon_keywords; k->word; k++)
+        if ((k->roles & roles) && spelled(k->word, s, len))
+            return k;
+    return NULL;
+}
+
+const NamedConstant *lexicon_constant(const char *s, size_t len)
+{
+    for (const NamedConstant *c = lexicon_constants; c->name; c++)
+        if (spelled(c->name, s, len))
+            return c;
+    return NULL;
+}
+
+const NamedConstant *lexicon_constant_at(int slot)
+{
+    for (const NamedConstant *c = lexicon_constants; c->name; c++)
+        if (c->slot == slot)
+            return c;
+    return NULL;
+}
