@@ -97,7 +97,7 @@ typedef struct PathSegment {
 } PathSegment;
 
 /* The `demand:` option of a path: how a segment's fixture load becomes its flow. */
-typedef enum PathDemand { PATH_DEMAND_NONE, PATH_DEMAND_HUNTER, PATH_DEMAND_PEAK } PathDemand;
+typedef enum PathDemand { PATH_DEMAND_NONE, PATH_DEMAND_HUNTER, PATH_DEMAND_PEAK, PATH_DEMAND_CURVE } PathDemand;
 
 typedef enum PathLoss { LOSS_DARCY, LOSS_HAZEN_WILLIAMS } PathLoss;
 
@@ -108,8 +108,9 @@ typedef struct PathSpec {
     PathLoss loss;
     const char *friction;    /* friction_factor method, NULL: default */
     const char *fittings;    /* k_fitting method, NULL: default */
-    PathDemand demand;       /* `demand:` hunter("flush tank"|"flush valve") or peak_demand */
+    PathDemand demand;       /* `demand:` hunter("flush tank"|"flush valve"), peak_demand or a curve */
     const char *demand_system; /* hunter's system, "flush tank" or "flush valve" */
+    Expr *demand_curve;      /* `demand: NAME`: a curve of demand (a flow) against load (wsfu) */
     Pos demand_pos;
     bool has_fixtures;       /* the table has a fixtures column */
     PathSegment *segs;

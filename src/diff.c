@@ -201,6 +201,7 @@ static bool path_same(const Diff *d, const PathSpec *a, const PathSpec *b)
         return a == b;
     if (a->loss != b->loss || !str_same(a->friction, b->friction) || !str_same(a->fittings, b->fittings) ||
         a->demand != b->demand || !str_same(a->demand_system, b->demand_system) ||
+        !expr_same(d, a->demand_curve, b->demand_curve) ||
         a->nsegs != b->nsegs || !expr_same(d, a->fluid, b->fluid) || !expr_same(d, a->start, b->start))
         return false;
     for (size_t i = 0; i < a->nsegs; i++) {

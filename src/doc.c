@@ -426,6 +426,8 @@ static void resolve_statements(Document *doc, DiagList *diags)
             PathSpec *ps = s->path;
             ok = resolve_expr(&r, ps->fluid);
             ok = resolve_expr(&r, ps->start) && ok;
+            if (ps->demand_curve)
+                ok = resolve_expr(&r, ps->demand_curve) && ok;
             for (size_t k = 0; k < ps->nsegs; k++) {
                 PathSegment *g = &ps->segs[k];
                 Expr *cells[] = {g->flow, g->pipe, g->length, g->rise, g->K, g->C, g->device};

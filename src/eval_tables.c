@@ -77,12 +77,20 @@ void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, EvalCtx *c)
         res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
         return;
     }
+    /* demand: NAME — the curve of demand against load the calc gives */
+    Value dcurve;
+    if (ps->demand == PATH_DEMAND_CURVE && !eval_expr(c, ps->demand_curve, &dcurve)) {
+        res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
+        return;
+    }
     /* demand: each segment's flow is the demand of its summed load — loads
      * add, demands do not */
     for (size_t i = 0; i < ps->nsegs && ps->demand != PATH_DEMAND_NONE; i++) {
         double Q = 0;
         bool got = ps->demand == PATH_DEMAND_HUNTER
                        ? demand_hunter_flow(c->call, ps->demand_system, in[i].load, ps->demand_pos, &Q)
+                   : ps->demand == PATH_DEMAND_CURVE
+                       ? demand_curve_flow(c->call, &dcurve, in[i].load, ps->demand_pos, ps->segs[i].id, &Q)
                        : demand_peak_flow(c->call, ps->demand_pos);
         if (!got) {
             res->state = RES_FAILED;

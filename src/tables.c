@@ -304,8 +304,11 @@ static const char *const column_names[NCOLS] = {"segment", "flow", "pipe", "leng
 static const bool column_required[NCOLS] = {true, true, true, true, true, false, false, false, false, false};
 
 /* `demand: hunter("flush tank")`, `hunter("flush valve")`, `hunter` (flush
- * tank) or `peak_demand`. */
-static bool parse_demand_option(const Cell *v, PathSpec *ps, DiagList *diags)
+ * tank), `peak_demand`, or the name of a ```curve block giving the demand
+ * (a flow) against the load in water supply fixture units — the demand table
+ * of the code adopted for the project, typed by the engineer and cited in
+ * the calc, where the program ships none. */
+static bool parse_demand_option(Arena *a, const Cell *v, PathSpec *ps, DiagList *diags)
 {
     static const char *const forms[][2] = {
         {"hunter", "flush tank"},
@@ -323,8 +326,19 @@ static bool parse_demand_option(const Cell *v, PathSpec *ps, DiagList *diags)
         ps->demand = PATH_DEMAND_PEAK;
         return true;
     }
+    bool name = v->len > 0 && (isalpha((unsigned char)v->text[0]) || v->text[0] == '_');
+    for (size_t i = 0; i < v->len && name; i++)
+        name = isalnum((unsigned char)v->text[i]) || v->text[i] == '_';
+    if (name) {
+        ps->demand_curve = parse_expression_at(a, v->text, v->len, v->pos, diags);
+        if (!ps->demand_curve)
+            return false;
+        ps->demand = PATH_DEMAND_CURVE;
+        return true;
+    }
     diag_error(diags, v->pos,
-               "demand must be hunter(\"flush tank\"), hunter(\"flush valve\") or peak_demand, found '%.*s'",
+               "demand must be hunter(\"flush tank\"), hunter(\"flush valve\"), peak_demand or the name of a "
+               "curve of demand against load, found '%.*s'",
                (int)v->len, v->text);
     return false;
 }
@@ -409,7 +423,7 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
                 ok = false;
             }
         } else if (cell_is(&key, "demand")) {
-            ok = parse_demand_option(&value, ps, diags) && ok;
+            ok = parse_demand_option(a, &value, ps, diags) && ok;
         } else if (cell_is(&key, "fittings")) {
             ps->fittings = word_value(a, &value);
             if (fitting_method_parse(ps->fittings) < 0) {
@@ -468,7 +482,7 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
         if (column_required[c] && col_of[c] < 0 && !(c == COL_FLOW && demand)) {
             if (c == COL_FLOW && ps->has_fixtures)
                 diag_error(diags, header_pos,
-                           "path table is missing the 'flow' column (or give 'demand: hunter(\"flush tank\")' to take each segment's flow from its fixtures)");
+                           "path table is missing the 'flow' column (or give 'demand: NAME', a curve of demand against load, to take each segment's flow from its fixtures)");
             else
                 diag_error(diags, header_pos, "path table is missing the '%s' column", column_names[c]);
             ok = false;

@@ -34,7 +34,7 @@ static const PlumbingCode CODES[] = {
      "Appendix E, Table E103.3(2), Load values assigned to fixtures", IPC2018_LOADS,
      sizeof IPC2018_LOADS / sizeof IPC2018_LOADS[0],
      "Appendix E, Table E103.3(3), Table for estimating demand", NULL, 0,
-     "no published copy of its rows could be read and verified row by row, so none is shipped"},
+     "no published copy of its rows could be read and verified row by row"},
 };
 
 enum { NCODES = sizeof CODES / sizeof CODES[0] };

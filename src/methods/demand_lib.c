@@ -10,6 +10,7 @@
 #include "library.h"
 
 #include "methods/demand.h"
+#include "methods/devices_lib.h"
 
 #include <ctype.h>
 #include <math.h>
@@ -155,8 +156,10 @@ bool demand_hunter_flow(CallCtx *cx, const char *system, double load, Pos at, do
         break;
     case DEMAND_NO_TABLE:
         diag_error(cx->diags, at,
-                   "hunter: the %s demand table (%s) is not shipped: %s; take the demand from the "
-                   "table of the code adopted for the project and enter it as a flow",
+                   "hunter: the %s demand table (%s) is not shipped: %s; enter the demand as a flow "
+                   "taken from the code adopted for the project, or enter that code's demand table as a "
+                   "```curve block of demand against load in wsfu and read it as NAME(load) (in a path: "
+                   "demand: NAME)",
                    c->key, c->demand_table, c->why_no_demand ? c->why_no_demand : "it has no rows");
         return false;
     case DEMAND_BAD_LOAD:
@@ -186,6 +189,62 @@ bool demand_hunter_flow(CallCtx *cx, const char *system, double load, Pos at, do
     m->reference = arena_printf(cx->arena, "%s, %s", c->name, c->demand_table);
     call_use_method(cx, m);
     *Q = gpm * GPM;
+    return true;
+}
+
+/* `demand: NAME` in a path: the segment's demand read from the calc's own
+ * curve of demand (a flow) against load (wsfu) — the table of the code
+ * adopted for the project as the engineer enters and cites it. Read between
+ * its rows by the curve's interpolation; a load outside its rows is refused
+ * (a demand table is not extrapolated), as hunter() refuses one. */
+bool demand_curve_flow(CallCtx *cx, const Value *curve, double load, Pos at, const char *segment, double *Q)
+{
+    const CurveData *cd = curve_of(curve);
+    if (!cd) {
+        char got[96];
+        value_describe(curve, cx->units, got, sizeof got);
+        diag_error(cx->diags, at, "demand: expected the name of a ```curve block of demand against load, found %s", got);
+        return false;
+    }
+    if (!dim_is_none(cd->x_dim) || cd->x_temp != TEMP_NONE || !dim_eq(cd->y_dim, DIM_FLOW)) {
+        char x[96], y[96];
+        dim_describe(cd->x_dim, cd->x_temp, cx->units, x, sizeof x);
+        dim_describe(cd->y_dim, cd->y_temp, cx->units, y, sizeof y);
+        diag_error(cx->diags, at,
+                   "demand: curve '%s' must give a flow against a load in water supply fixture units (a pure "
+                   "number), but it gives %s against %s",
+                   cd->name, y, x);
+        return false;
+    }
+    const Curve *c = &cd->curve;
+    if (!isfinite(load) || curve_side(c, load) != 0) {
+        diag_error(cx->diags, at,
+                   "demand: segment %s carries %g wsfu, outside curve '%s', which runs from %g to %g wsfu; a "
+                   "demand table is not extrapolated: extend the curve with rows of the adopted code's table",
+                   segment, load, cd->name, c->x[0], c->x[c->n - 1]);
+        return false;
+    }
+    double q = curve_eval(c, load, NULL);
+    if (!isfinite(q) || q < 0) {
+        diag_error(cx->diags, at, "demand: curve '%s' gives no finite demand at %g wsfu", cd->name, load);
+        return false;
+    }
+    Method *m = arena_alloc(cx->arena, sizeof *m);
+    bool loglog = c->interp == CURVE_LOGLOG;
+    m->key = arena_printf(cx->arena, "demand_curve:%s", cd->name);
+    m->title = arena_printf(cx->arena,
+                            "Peak demand of each segment's summed fixture load by the curve %s (demand against "
+                            "load), %s between its rows",
+                            cd->name, loglog ? "log-log" : "linear");
+    m->formula = loglog ? "Q = Q_1*(L/L_1)^(ln(Q_2/Q_1)/ln(L_2/L_1))" : "Q = Q_1 + (Q_2 - Q_1)*(L - L_1)/(L_2 - L_1)";
+    m->validity = "loads within the curve's rows; the demand of fixtures, not of continuous uses";
+    m->reference = arena_printf(cx->arena,
+                                "The curve %s is the calc's own table: the demand table of the plumbing code "
+                                "adopted for the project, as entered and cited in the calc; the program ships "
+                                "no demand table for it",
+                                cd->name);
+    call_use_method(cx, m);
+    *Q = q;
     return true;
 }
 
@@ -315,7 +374,9 @@ bool demand_item_load(CallCtx *cx, const char *words, Pos at, double *wsfu_each)
 static const char PEAK_NOT_SHIPPED[] =
     "peak_demand: the fixture probabilities and flows of the water demand calculator "
     "(UPC Appendix M; IPC Appendix N) are not shipped: no published copy of that table "
-    "could be verified, so no peak demand can be computed from it; enter the demand as a flow";
+    "could be verified, so no peak demand can be computed from it; enter the demand as a flow, "
+    "or (in a path) give demand: NAME, a ```curve block of demand against load taken from the "
+    "code adopted for the project";
 
 bool demand_peak_flow(CallCtx *cx, Pos at)
 {
