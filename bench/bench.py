@@ -84,10 +84,10 @@ def diff_pair(path):
     return old_path, new_path
 
 
-def calc_100_sheets():
-    """Prose, a table and calc rows enough for about a hundred sheets."""
+def calc_100_sheets(sections=60, name="sheets100"):
+    """Prose, a table and calc rows: 60 sections make 144 sheets."""
     lines = ["---", "title: Benchmark, a long report", "units: SI", "paper: a4", "---", ""]
-    for s in range(60):
+    for s in range(sections):
         lines += [f"# Section {s}", "",
                   "This section carries a paragraph of prose that wraps over several lines so "
                   "that the layout has real text to break, with *emphasis*, **strong words** "
@@ -102,7 +102,7 @@ def calc_100_sheets():
             lines.append(f"h_{s}_{k} = f_{s}*(({10 + k} m)/D_{s})*V_{s}^2/(2*g) as m  # friction over run {k}")
         lines.append(f"check velocity {s}: V_{s} <= 3 m/s")
         lines += ["```", ""]
-    path = os.path.join(OUT, "sheets100.calc.md")
+    path = os.path.join(OUT, name + ".calc.md")
     with open(path, "w") as f:
         f.write("\n".join(lines) + "\n")
     return path
@@ -198,6 +198,45 @@ def pdf_pages(path):
     return 0
 
 
+def paired(a, b, repeat=5):
+    """Run a and b alternately `repeat` times; the median wall time of each,
+    the median of the per-pair ratios a/b, and the peak memory of each."""
+    ta, tb, ratios, ma, mb = [], [], [], 0.0, 0.0
+    for _ in range(repeat):
+        t1, m1 = run(a, repeat=1)
+        t2, m2 = run(b, repeat=1)
+        ta.append(t1)
+        tb.append(t2)
+        ratios.append(t1 / t2)
+        ma, mb = max(ma, m1), max(mb, m2)
+    med = lambda v: sorted(v)[len(v) // 2]
+    return med(ta), med(tb), med(ratios), ma, mb
+
+
+def build_against_floor(rows):
+    """`build` of a 144-sheet report against a bare libharu program writing
+    the same pages, fonts and text (bench/pdf_floor.c, its input read out of
+    the report by bench/pdf_runs.py)."""
+    calc = calc_100_sheets(60, "sheets144")
+    pdf = os.path.join(OUT, "sheets144.pdf")
+    subprocess.run([HEADROOM, "build", calc, "-o", pdf], check=True, capture_output=True)
+    runs = os.path.join(OUT, "sheets144.runs")
+    subprocess.run(["/usr/bin/python3", os.path.join(os.path.dirname(__file__), "pdf_runs.py"), pdf, runs],
+                   check=True)
+    floor_pdf = os.path.join(OUT, "sheets144-floor.pdf")
+    th, tf, ratio, mh, mf = paired([HEADROOM, "build", calc, "-o", pdf],
+                                   [os.path.join(OUT, "pdf_floor"), runs, floor_pdf])
+    with open(runs, encoding="utf-8") as f:
+        facts = f.read().splitlines()
+    nfonts = sum(1 for l in facts if l.startswith("F "))
+    ntext = sum(1 for l in facts if l.startswith("T "))
+    pages = pdf_pages(pdf)
+    rows.append((f"build, {pages} sheets, {nfonts} fonts, {ntext} text runs", f"{th * 1000:.1f} ms",
+                 f"{mh:.1f} MB", "peak <= 25 MB"))
+    rows.append(("  same pages, fonts and text, bare libharu", f"{tf * 1000:.1f} ms", f"{mf:.1f} MB",
+                 f"ratio {ratio:.2f}x (target <= 1.3x)"))
+
+
 def main():
     os.makedirs(OUT, exist_ok=True)
     rows = []
@@ -221,6 +260,8 @@ def main():
     pages = pdf_pages(pdf)
     size = os.path.getsize(pdf) / 1024.0 if os.path.exists(pdf) else 0
     rows.append((f"build, {pages} sheets ({size:.0f} KB)", f"{t * 1000:.1f} ms", f"{m:.1f} MB", "< 1 s, < 64 MB"))
+
+    build_against_floor(rows)
 
     index = package_50()
     t, m = run([HEADROOM, "check", index], repeat=3)
