@@ -92,6 +92,7 @@ static HPDF_Font font_of(Draw *D, int index)
                    D->font_path[index], (unsigned)D->error);
         free(D->font_path[index]);
         D->font_path[index] = NULL;   /* reported once */
+        D->font_failed = true;
         return NULL;
     }
     D->font[index] = HPDF_GetFont(D->doc, name, "UTF-8");
@@ -374,6 +375,8 @@ void draw_info(Draw *D, const DrawInfo *info)
 
 bool draw_save_file(Draw *D, const char *path)
 {
+    if (D->font_failed)
+        return false;   /* reported when it failed; no file is written */
     if (HPDF_SaveToFile(D->doc, path) != HPDF_OK || D->error) {
         diag_error(D->diags, ((Pos){NULL, 0, 0}), "cannot write '%s' (libharu error 0x%04X)", path,
                    (unsigned)D->error);

@@ -59,7 +59,10 @@ unsigned draw_error(const Draw *D);
 unsigned draw_error_detail(const Draw *D);
 /* Font `index` is the TrueType file at `path`, embedded as a subset with
  * UTF-8 encoding; it is opened now (false and a diagnostic when it cannot
- * be) and loaded into the document at its first use. */
+ * be) and loaded into the document at its first use (measuring or
+ * drawing), so a font the report never uses is never loaded: libharu
+ * builds a 65,536-entry glyph map for each. A font that then fails to load
+ * is reported once, and draw_save_file writes nothing. */
 bool draw_font_file(Draw *D, int index, const char *path);
 /* Load every font now, in index order. */
 bool draw_fonts_load(Draw *D);

@@ -14,6 +14,7 @@ struct Draw {
     char *font_path[DRAW_FONTS];
     DrawPage **pages;
     int npages, cap;
+    bool font_failed;        /* a font could not be loaded (reported) */
     HPDF_STATUS error;       /* the first libharu error */
     HPDF_STATUS error_detail;
 };

@@ -47,7 +47,7 @@ static bool load_fonts(Pdf *P)
         if (!draw_font_file(P->draw, i, path))
             return false;
     }
-    return draw_fonts_load(P->draw);
+    return true;   /* each is loaded at its first use */
 }
 
 /* The report date: the front matter's, else SOURCE_DATE_EPOCH, else none. */
