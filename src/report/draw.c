@@ -139,46 +139,100 @@ DrawPage *draw_page_add(Draw *D, bool a4)
 
 /* ---- colour, line style, paths --------------------------------------------------- */
 
+/* ---- the graphics state: each operator only when its value changes --------------- */
+
+static bool same_rgb(const HPDF_REAL have[3], const HPDF_REAL want[3])
+{
+    return have[0] == want[0] && have[1] == want[1] && have[2] == want[2];
+}
+
 void draw_stroke_rgb(DrawPage *pg, Rgb c)
 {
-    if (pg)
-        HPDF_Page_SetRGBStroke(pg->pg, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+    if (!pg)
+        return;
+    HPDF_REAL v[3] = {(HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b};
+    if (pg->st.stroke_ok && same_rgb(pg->st.stroke, v))
+        return;
+    HPDF_Page_SetRGBStroke(pg->pg, v[0], v[1], v[2]);
+    memcpy(pg->st.stroke, v, sizeof v);
+    pg->st.stroke_ok = true;
 }
 
 void draw_fill_rgb(DrawPage *pg, Rgb c)
 {
-    if (pg)
-        HPDF_Page_SetRGBFill(pg->pg, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+    if (!pg)
+        return;
+    HPDF_REAL v[3] = {(HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b};
+    if (pg->st.fill_ok && same_rgb(pg->st.fill, v))
+        return;
+    HPDF_Page_SetRGBFill(pg->pg, v[0], v[1], v[2]);
+    memcpy(pg->st.fill, v, sizeof v);
+    pg->st.fill_ok = true;
 }
 
 void draw_line_width(DrawPage *pg, double w)
 {
-    if (pg)
-        HPDF_Page_SetLineWidth(pg->pg, (HPDF_REAL)w);
+    if (!pg)
+        return;
+    HPDF_REAL v = (HPDF_REAL)w;
+    if (pg->st.width_ok && pg->st.width == v)
+        return;
+    HPDF_Page_SetLineWidth(pg->pg, v);
+    pg->st.width = v;
+    pg->st.width_ok = true;
 }
 
 void draw_line_cap(DrawPage *pg, DrawCap cap)
 {
-    if (pg)
-        HPDF_Page_SetLineCap(pg->pg, cap == DRAW_CAP_ROUND ? HPDF_ROUND_END : HPDF_BUTT_END);
+    if (!pg || (pg->st.cap_ok && pg->st.cap == (int)cap))
+        return;
+    HPDF_Page_SetLineCap(pg->pg, cap == DRAW_CAP_ROUND ? HPDF_ROUND_END : HPDF_BUTT_END);
+    pg->st.cap = (int)cap;
+    pg->st.cap_ok = true;
 }
 
 void draw_line_join(DrawPage *pg, DrawJoin join)
 {
-    if (pg)
-        HPDF_Page_SetLineJoin(pg->pg, join == DRAW_JOIN_ROUND ? HPDF_ROUND_JOIN : HPDF_MITER_JOIN);
+    if (!pg || (pg->st.join_ok && pg->st.join == (int)join))
+        return;
+    HPDF_Page_SetLineJoin(pg->pg, join == DRAW_JOIN_ROUND ? HPDF_ROUND_JOIN : HPDF_MITER_JOIN);
+    pg->st.join = (int)join;
+    pg->st.join_ok = true;
 }
 
 void draw_dash(DrawPage *pg, const unsigned short *pattern, int n, double phase)
 {
     if (!pg)
         return;
-    HPDF_UINT16 p[8];
+    HPDF_UINT16 p[8] = {0};
     if (n > 8)
         n = 8;
+    if (n < 0 || !pattern)
+        n = 0;
     for (int i = 0; i < n; i++)
         p[i] = (HPDF_UINT16)pattern[i];
-    HPDF_Page_SetDash(pg->pg, n > 0 ? p : NULL, (HPDF_UINT)(n > 0 ? n : 0), (HPDF_UINT)phase);
+    HPDF_UINT ph = n > 0 ? (HPDF_UINT)phase : 0;
+    if (pg->st.dash_ok && pg->st.ndash == n && pg->st.dash_phase == ph &&
+        memcmp(pg->st.dash, p, sizeof p) == 0)
+        return;
+    HPDF_Page_SetDash(pg->pg, n > 0 ? p : NULL, (HPDF_UINT)n, ph);
+    memcpy(pg->st.dash, p, sizeof p);
+    pg->st.ndash = n;
+    pg->st.dash_phase = ph;
+    pg->st.dash_ok = true;
+}
+
+/* The text font and size are part of the graphics state too: they hold
+ * from one text object to the next. */
+static void set_font(DrawPage *pg, HPDF_Font f, double size)
+{
+    HPDF_REAL v = (HPDF_REAL)size;
+    if (pg->st.font_ok && pg->st.font == f && pg->st.size == v)
+        return;
+    HPDF_Page_SetFontAndSize(pg->pg, f, v);
+    pg->st.font = f;
+    pg->st.size = v;
+    pg->st.font_ok = true;
 }
 
 void draw_move_to(DrawPage *pg, double x, double y)
@@ -244,8 +298,12 @@ void draw_fill_stroke(DrawPage *pg)
 
 void draw_save(DrawPage *pg)
 {
-    if (pg)
-        HPDF_Page_GSave(pg->pg);
+    if (!pg)
+        return;
+    HPDF_Page_GSave(pg->pg);
+    if (pg->depth < DRAW_SAVED)
+        pg->saved[pg->depth] = pg->st;
+    pg->depth++;
 }
 
 void draw_clip(DrawPage *pg)
@@ -258,8 +316,14 @@ void draw_clip(DrawPage *pg)
 
 void draw_restore(DrawPage *pg)
 {
-    if (pg)
-        HPDF_Page_GRestore(pg->pg);
+    if (!pg || pg->depth == 0)
+        return;
+    HPDF_Page_GRestore(pg->pg);
+    pg->depth--;
+    if (pg->depth < DRAW_SAVED)
+        pg->st = pg->saved[pg->depth];
+    else
+        pg->st = (DrawState){0};   /* not known: every value is set again */
 }
 
 /* ---- text ------------------------------------------------------------------------- */
@@ -272,9 +336,9 @@ void draw_text(DrawPage *pg, int font, double size, double x, double y, const ch
     if (!f)
         return;
     HPDF_Page p = pg->pg;
-    HPDF_Page_SetRGBFill(p, (HPDF_REAL)c.r, (HPDF_REAL)c.g, (HPDF_REAL)c.b);
+    draw_fill_rgb(pg, c);
     HPDF_Page_BeginText(p);
-    HPDF_Page_SetFontAndSize(p, f, (HPDF_REAL)size);
+    set_font(pg, f, size);
     HPDF_Page_TextOut(p, (HPDF_REAL)x, (HPDF_REAL)y, s);
     HPDF_Page_EndText(p);
 }
@@ -289,7 +353,7 @@ void draw_text_matrix(DrawPage *pg, int font, double size, double a, double b, d
         return;
     HPDF_Page p = pg->pg;
     HPDF_Page_BeginText(p);
-    HPDF_Page_SetFontAndSize(p, f, (HPDF_REAL)size);
+    set_font(pg, f, size);
     HPDF_Page_SetTextMatrix(p, (HPDF_REAL)a, (HPDF_REAL)b, (HPDF_REAL)c, (HPDF_REAL)d,
                             (HPDF_REAL)x, (HPDF_REAL)y);
     HPDF_Page_ShowText(p, s);

@@ -19,9 +19,28 @@ struct Draw {
     HPDF_STATUS error_detail;
 };
 
+/* What a page's graphics state holds now, as written to its content
+ * stream, so an operator that would set the same value again is left out.
+ * A flag false: not known (a new page, or after a restore deeper than the
+ * saved states). Values are kept as libharu writes them (single precision). */
+typedef struct DrawState {
+    bool fill_ok, stroke_ok, width_ok, cap_ok, join_ok, dash_ok, font_ok;
+    HPDF_REAL fill[3], stroke[3], width, size;
+    int cap, join;
+    HPDF_UINT16 dash[8];
+    int ndash;
+    HPDF_UINT dash_phase;
+    HPDF_Font font;
+} DrawState;
+
+enum { DRAW_SAVED = 8 };
+
 struct DrawPage {
     HPDF_Page pg;
     Draw *D;
+    DrawState st;
+    DrawState saved[DRAW_SAVED];
+    int depth;               /* graphics states saved (may exceed DRAW_SAVED) */
 };
 
 #endif
