@@ -1,5 +1,5 @@
-/* builtins.c — the table of callable functions, argument checking, and the
- * math functions of DESIGN 2.3.
+/* library.c — the calc functions' table (library.h), argument and keyword
+ * checking, and the math functions of DESIGN 2.3.
  *
  * The table is generated from builtins.def so a function is listed in one
  * place. Math functions check dimensions the way the language does: exp, ln,
