@@ -1,7 +1,10 @@
 /* doc.h — the document tree: what the reading stages produce.
  *
- * source -> (frontmatter, markdown) -> blocks of prose and calc -> (lex,
- * parse) -> statements with expression trees. Everything hangs off one
+ * source -> front matter -> markdown (blocks of prose, raw fences) ->
+ * fences (lex, parse, tables: statements with expression trees, sources,
+ * case tables) -> resolve (names to slots), chained by load.c (doc_load,
+ * doc_from_text below); doc.c holds the tree's small accessors and
+ * resolve.c doc_lookup's name table. Everything hangs off one
  * Document and lives in its Arena; doc_free() releases it all. The evaluator
  * adds results in a separate Evaluated (eval.h) so this tree stays what the
  * author wrote, and renderers read both without re-parsing anything. */
@@ -267,7 +270,10 @@ struct Block {
     int ncols;               /* TABLE */
     Inline *inlines;         /* HEADING, PARAGRAPH, TABLE_CELL */
     const char *text;        /* CODE, HTML: literal */
-    const char *info;        /* CODE: info string */
+    const char *info;        /* CODE and the fences below: info string */
+    const char *raw;         /* CALC, SOURCES, PATH, CURVE, NETWORK, CASES: the fence's lines as
+                                cmark gave them, for the fences stage */
+    int raw_line;            /* the file line of raw's first line */
     size_t first_stmt, nstmts;  /* CALC */
     Block *children;         /* LIST, ITEM, QUOTE, TABLE, TABLE_ROW */
     Block *next;

@@ -1,4 +1,4 @@
-/* source.h — reading a calc file: bytes, checks and digest.
+/* source.h — reading a calc file: bytes, checks, digest and line index.
  *
  * The bytes are read whole (a file, standard input for "-", or a buffer),
  * checked to be UTF-8 without control characters other than tab, CR and LF,
@@ -26,5 +26,14 @@ bool source_check_text(const char *text, size_t len, const char *display, DiagLi
 
 /* SHA-256 as 64 lower-case hex digits and a NUL. */
 void source_digest(const char *text, size_t len, char out[65]);
+
+/* The line index: the byte offset where each line of text starts (index 0
+ * is line 1), allocated in `a`; *nlines gets their number. */
+struct Arena;
+size_t *source_line_index(struct Arena *a, const char *text, size_t len, size_t *nlines);
+/* Line `line` (1-based) of text by its index, without the newline or a CR
+ * before it; NULL when there is no such line. */
+const char *source_line(const char *text, size_t len, const size_t *line_start, size_t nlines, int line,
+                        size_t *n);
 
 #endif

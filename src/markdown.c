@@ -1,12 +1,15 @@
 /* markdown.c — from cmark-gfm's tree to the document model.
  *
- * Two details carry the design. Positions: calc lines are parsed from the
- * original source lines (found by the code block's start line), so every
- * column a diagnostic names is the column in the file, whatever container
- * the fence sits in. Escapes: cmark turns `\{` into a plain `{`, which would
- * make a literal brace look like an inline value; before parsing, `\{` is
- * replaced by the same number of bytes (0x1A then `{`), a byte that cannot
- * occur in a checked source, and restored afterwards. */
+ * Prose becomes Blocks and Inlines (with the inline {name}, {rec.field}
+ * and {name as unit} values found); the fences the calc language owns are
+ * checked closed and left raw for the fences stage (fences.c). Two details
+ * carry the design. Positions: every position is the one in the file,
+ * whatever container a block sits in (a table header cmark places on the
+ * paragraph line above it is moved back). Escapes: cmark turns `\{` into a
+ * plain `{`, which would make a literal brace look like an inline value;
+ * before parsing, `\{` is replaced by the same number of bytes
+ * (MARKDOWN_ESCAPED_BRACE then `{`), a byte that cannot occur in a checked
+ * source, and restored afterwards. */
 #include "markdown.h"
 
 #include <cmark-gfm-core-extensions.h>
@@ -16,18 +19,12 @@
 
 #include "parse.h"
 #include "source.h"
-#include "strmap.h"
-#include "tables.h"
 
-enum { ESCAPED_BRACE = 0x1A };
+enum { ESCAPED_BRACE = MARKDOWN_ESCAPED_BRACE };
 
 typedef struct Md {
     Document *doc;
     DiagList *diags;
-    Vec stmts;
-    Vec sources;
-    StrMap source_keys;      /* key -> index in sources */
-    Vec cases;
     int heading_count[6];
     int too_deep;
     /* A table header right after a paragraph line: cmark places it on the
@@ -35,8 +32,13 @@ typedef struct Md {
      * that header is converted, positions on fix_line move to true_line and
      * fix_shift columns left. */
     int fix_line, true_line, fix_shift;
-    bool too_many;           /* DOC_MAX_STATEMENTS was reported */
 } Md;
+
+/* A line of the source (source.c's line index), without its newline. */
+static const char *md_line(const Md *m, int line, size_t *len)
+{
+    return source_line(m->doc->text, m->doc->len, m->doc->line_start, m->doc->nlines, line, len);
+}
 
 static Pos at(const Md *m, int line, int col)
 {
@@ -80,7 +82,7 @@ static Inline *split_text(Md *m, const char *s, int line, int col, Inline ***tai
     StrBuf plain = {0};
     const char *orig_line = NULL;
     size_t orig_len = 0;
-    orig_line = doc_source_line(m->doc, line, &orig_len);
+    orig_line = md_line(m, line, &orig_len);
     size_t search_from = col > 0 ? (size_t)col - 1 : 0;
     for (const char *p = s; *p;) {
         if (*p == ESCAPED_BRACE && p[1] == '{') {
@@ -263,176 +265,6 @@ static Inline *convert_inlines(Md *m, cmark_node *parent, int depth)
     return first;
 }
 
-/* Lines of a fenced block, each with its file line and the column of its
- * first byte (the original line minus whatever prefix cmark removed). */
-static void each_fence_line(Md *m, cmark_node *n, void (*fn)(Md *, const char *, size_t, Pos, void *), void *ctx)
-{
-    const char *lit = cmark_node_get_literal(n);
-    if (!lit)
-        return;
-    int line = cmark_node_get_start_line(n) + 1;
-    for (const char *p = lit; *p; line++) {
-        const char *nl = strchr(p, '\n');
-        size_t len = nl ? (size_t)(nl - p) : strlen(p);
-        size_t olen = 0;
-        const char *orig = doc_source_line(m->doc, line, &olen);
-        int col = 1;
-        if (orig && olen >= len)
-            col = (int)(olen - len) + 1;
-        if (orig && olen >= len && len > 0 && memcmp(orig + olen - len, p, len) == 0) {
-            /* use the original bytes: same text, exact position */
-            fn(m, orig + olen - len, len, at(m, line, col), ctx);
-        } else {
-            fn(m, p, len, at(m, line, col), ctx);
-        }
-        if (!nl)
-            break;
-        p = nl + 1;
-    }
-}
-
-/* Room for one more statement? Reported once, at the first one over. */
-static bool stmt_room(Md *m, Pos pos)
-{
-    if (m->stmts.len < DOC_MAX_STATEMENTS)
-        return true;
-    if (!m->too_many)
-        diag_error(m->diags, pos, "too many statements: the limit is %d in a file", DOC_MAX_STATEMENTS);
-    m->too_many = true;
-    return false;
-}
-
-static void calc_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
-{
-    (void)ctx;
-    if (len > SOURCE_MAX_LINE) {
-        diag_error(m->diags, pos, "line is %zu bytes long; the limit inside a calc block is %d", len, SOURCE_MAX_LINE);
-        return;
-    }
-    /* Restore escape markers that the pre-pass put into the copy cmark saw
-     * (original bytes never contain them; this is for the fallback path). */
-    char *copy = NULL;
-    if (memchr(s, ESCAPED_BRACE, len)) {
-        copy = arena_strndup(&m->doc->arena, s, len);
-        for (size_t i = 0; i < len; i++)
-            if (copy[i] == ESCAPED_BRACE)
-                copy[i] = '\\';
-        s = copy;
-    }
-    if (m->stmts.len >= DOC_MAX_STATEMENTS) {
-        /* Over the limit: not parsed at all, so a file of millions of
-         * statements is refused in memory proportional to the limit. */
-        size_t i = 0;
-        while (i < len && (s[i] == ' ' || s[i] == '\t' || s[i] == '\r'))
-            i++;
-        if (i < len && s[i] != '#') {
-            Pos at_stmt = pos;
-            at_stmt.col += (int)i;
-            stmt_room(m, at_stmt);
-        }
-        return;
-    }
-    Stmt *st = parse_statement(&m->doc->arena, s, len, pos, m->diags);
-    if (st && stmt_room(m, st->pos))
-        vec_push(&m->stmts, st);
-}
-
-typedef struct LineList {
-    FenceLine *items;
-    size_t len, cap;
-} LineList;
-
-static void collect_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
-{
-    (void)m;
-    LineList *ll = ctx;
-    if (ll->len == ll->cap) {
-        ll->cap = ll->cap ? ll->cap * 2 : 16;
-        ll->items = xrealloc(ll->items, ll->cap * sizeof *ll->items);
-    }
-    ll->items[ll->len++] = (FenceLine){s, len, pos};
-}
-
-/* "path NAME", "curve NAME", "network NAME": the name is an identifier,
- * like any defined name; `keyword` is the length of the block's word. */
-static const char *block_name(Md *m, const char *info, size_t keyword, Pos at)
-{
-    const char *p = info + keyword;
-    while (*p == ' ' || *p == '\t')
-        p++;
-    size_t n = strlen(p);
-    while (n && (p[n - 1] == ' ' || p[n - 1] == '\t'))
-        n--;
-    bool ok = n > 0 && !(p[0] >= '0' && p[0] <= '9');
-    for (size_t i = 0; i < n && ok; i++) {
-        unsigned char c = (unsigned char)p[i];
-        ok = c == '_' || c >= 0x80 || (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || (c >= '0' && c <= '9');
-    }
-    if (!ok) {
-        if (keyword == 4)
-            diag_error(m->diags, at, "a path block is opened with ```path NAME, NAME a plain name such as riser_cw2");
-        else if (keyword == 5)
-            diag_error(m->diags, at, "a curve block is opened with ```curve NAME, NAME a plain name such as meter_dp");
-        else
-            diag_error(m->diags, at, "a network block is opened with ```network NAME, NAME a plain name such as cw_main");
-        return NULL;
-    }
-    return arena_strndup(&m->doc->arena, p, n);
-}
-
-static void sources_line(Md *m, const char *s, size_t len, Pos pos, void *ctx)
-{
-    (void)ctx;
-    size_t i = 0;
-    while (i < len && (s[i] == ' ' || s[i] == '\t'))
-        i++;
-    if (i == len || s[i] == '#')
-        return;
-    const char *colon = memchr(s + i, ':', len - i);
-    Pos kp = pos;
-    kp.col += (int)i;
-    if (!colon) {
-        diag_error(m->diags, kp, "a sources line is 'key: citation text'");
-        return;
-    }
-    size_t ke = (size_t)(colon - s);
-    while (ke > i && (s[ke - 1] == ' ' || s[ke - 1] == '\t'))
-        ke--;
-    for (size_t k = i; k < ke; k++) {
-        char c = s[k];
-        if (!((c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || (c >= '0' && c <= '9') || c == '_' ||
-              c == '-' || c == '.')) {
-            diag_error(m->diags, kp, "a source key is letters, digits, '_', '-' or '.', found '%.*s'", (int)(ke - i), s + i);
-            return;
-        }
-    }
-    if (ke == i) {
-        diag_error(m->diags, kp, "a sources line is 'key: citation text'");
-        return;
-    }
-    size_t ts = (size_t)(colon - s) + 1;
-    while (ts < len && (s[ts] == ' ' || s[ts] == '\t'))
-        ts++;
-    size_t te = len;
-    while (te > ts && (s[te - 1] == ' ' || s[te - 1] == '\t' || s[te - 1] == '\r'))
-        te--;
-    if (te == ts) {
-        diag_error(m->diags, kp, "source '%.*s' has no citation text", (int)(ke - i), s + i);
-        return;
-    }
-    Source *src = arena_alloc(&m->doc->arena, sizeof *src);
-    src->key = arena_strndup(&m->doc->arena, s + i, ke - i);
-    src->text = arena_strndup(&m->doc->arena, s + ts, te - ts);
-    src->pos = kp;
-    size_t had;
-    if (!strmap_add(&m->source_keys, src->key, m->sources.len, &had)) {
-        const Source *o = m->sources.items[had];
-        diag_error(m->diags, kp, "source key '%s' is already defined at %d:%d", src->key, o->pos.line, o->pos.col);
-        return;
-    }
-    vec_push(&m->sources, src);
-}
-
 /* A fenced block must be closed: cmark closes an open fence at the end of
  * its container, so look at the block's last line for a closing fence. */
 static int fence_closed(Md *m, cmark_node *n)
@@ -442,7 +274,7 @@ static int fence_closed(Md *m, cmark_node *n)
     if (end_line <= start_line)
         return 0;
     size_t len = 0;
-    const char *s = doc_source_line(m->doc, end_line, &len);
+    const char *s = md_line(m, end_line, &len);
     if (!s)
         return 0;
     int fence_len = 0, fence_off = 0;
@@ -484,12 +316,38 @@ static void header_position(Md *m, cmark_node *header)
     int sep = row ? cmark_node_get_start_line(row) - 1 : cmark_node_get_end_line(table);
     int line = sep - 1, reported = cmark_node_get_start_line(header);
     size_t len;
-    if (line < 1 || line == reported || !doc_source_line(m->doc, line, &len))
+    if (line < 1 || line == reported || !md_line(m, line, &len))
         return;
     int shift = cmark_node_get_end_column(header) - (int)len;
     m->fix_line = reported;
     m->true_line = line;
     m->fix_shift = shift > 0 ? shift : 0;
+}
+
+/* The kind of block a fence's info string opens: ```calc, ```sources,
+ * ```cases, ```path NAME, ```curve NAME, ```network NAME; BLK_CODE for any
+ * other. */
+static bool info_word(const char *info, const char *word)
+{
+    size_t n = strlen(word);
+    return strncmp(info, word, n) == 0 && (info[n] == ' ' || info[n] == '\t' || info[n] == '\0');
+}
+
+static BlockKind fence_kind(const char *info)
+{
+    if (strcmp(info, "calc") == 0)
+        return BLK_CALC;
+    if (strcmp(info, "sources") == 0)
+        return BLK_SOURCES;
+    if (strcmp(info, "cases") == 0)
+        return BLK_CASES;
+    if (info_word(info, "path"))
+        return BLK_PATH;
+    if (info_word(info, "curve"))
+        return BLK_CURVE;
+    if (info_word(info, "network"))
+        return BLK_NETWORK;
+    return BLK_CODE;
 }
 
 static Block *convert_block(Md *m, cmark_node *n, int depth)
@@ -548,62 +406,19 @@ static Block *convert_block(Md *m, cmark_node *n, int depth)
         int fence_len = 0, fence_off = 0;
         char fence_char = 0;
         int fenced = cmark_node_get_fenced(n, &fence_len, &fence_off, &fence_char);
-        bool is_path = strncmp(info, "path", 4) == 0 && (info[4] == ' ' || info[4] == '\t' || info[4] == '\0');
-        bool is_curve = strncmp(info, "curve", 5) == 0 && (info[5] == ' ' || info[5] == '\t' || info[5] == '\0');
-        bool is_network = strncmp(info, "network", 7) == 0 && (info[7] == ' ' || info[7] == '\t' || info[7] == '\0');
-        bool is_cases = strcmp(info, "cases") == 0;
-        if (fenced && (is_path || is_cases || is_curve || is_network)) {
-            Pos at_fence = at(m, cmark_node_get_start_line(n), cmark_node_get_start_column(n));
-            if (!fence_closed(m, n)) {
-                diag_error(m->diags, at_fence, "unterminated ```%s fence: expected a closing ``` line", info);
-                return NULL;
-            }
-            LineList ll = {0};
-            each_fence_line(m, n, collect_line, &ll);
-            if (is_path || is_curve) {
-                const char *name = block_name(m, info, is_path ? 4 : 5, at_fence);
-                if (name && stmt_room(m, at_fence)) {
-                    b = new_block(m, is_path ? BLK_PATH : BLK_CURVE, n);
-                    b->first_stmt = m->stmts.len;
-                    b->nstmts = 1;
-                    Arena *ar = &m->doc->arena;
-                    vec_push(&m->stmts, is_path ? tables_parse_path(ar, name, at_fence, ll.items, ll.len, m->diags)
-                                                : tables_parse_curve(ar, name, at_fence, ll.items, ll.len, m->diags));
-                }
-            } else if (is_network) {
-                const char *name = block_name(m, info, 7, at_fence);
-                if (name && stmt_room(m, at_fence)) {
-                    b = new_block(m, BLK_NETWORK, n);
-                    b->first_stmt = m->stmts.len;
-                    b->nstmts = 1;
-                    vec_push(&m->stmts, tables_parse_network(&m->doc->arena, name, at_fence, ll.items, ll.len, m->diags));
-                }
-            } else {
-                CaseTable *ct = tables_parse_cases(&m->doc->arena, at_fence, ll.items, ll.len, m->diags);
-                if (ct) {
-                    b = new_block(m, BLK_CASES, n);
-                    b->first_stmt = m->cases.len;
-                    vec_push(&m->cases, ct);
-                }
-            }
-            free(ll.items);
-            break;
-        }
-        if (fenced && (strcmp(info, "calc") == 0 || strcmp(info, "sources") == 0)) {
+        BlockKind kind = fence_kind(info);
+        if (fenced && kind != BLK_CODE) {
             if (!fence_closed(m, n)) {
                 diag_error(m->diags, at(m, cmark_node_get_start_line(n), cmark_node_get_start_column(n)),
                            "unterminated ```%s fence: expected a closing ``` line", info);
                 return NULL;
             }
-            if (strcmp(info, "calc") == 0) {
-                b = new_block(m, BLK_CALC, n);
-                b->first_stmt = m->stmts.len;
-                each_fence_line(m, n, calc_line, NULL);
-                b->nstmts = m->stmts.len - b->first_stmt;
-            } else {
-                b = new_block(m, BLK_SOURCES, n);
-                each_fence_line(m, n, sources_line, NULL);
-            }
+            /* Raw: the fences stage (fences.c) parses its lines. */
+            b = new_block(m, kind, n);
+            b->info = arena_strdup(&m->doc->arena, info);
+            const char *lit = cmark_node_get_literal(n);
+            b->raw = arena_strdup(&m->doc->arena, lit ? lit : "");
+            b->raw_line = cmark_node_get_start_line(n) + 1;
             break;
         }
         b = new_block(m, BLK_CODE, n);
@@ -689,22 +504,4 @@ void markdown_read(Document *doc, size_t body_start, DiagList *diags)
     cmark_parser_free(parser);
     free(text);
 
-    doc->nstmts = m.stmts.len;
-    doc->stmts = arena_alloc(&doc->arena, (m.stmts.len + 1) * sizeof *doc->stmts);
-    for (size_t i = 0; i < m.stmts.len; i++) {
-        doc->stmts[i] = m.stmts.items[i];
-        doc->stmts[i]->index = (int)i;
-    }
-    doc->nsources = m.sources.len;
-    doc->sources = arena_alloc(&doc->arena, (m.sources.len + 1) * sizeof *doc->sources);
-    for (size_t i = 0; i < m.sources.len; i++)
-        doc->sources[i] = *(Source *)m.sources.items[i];
-    doc->ncases = m.cases.len;
-    doc->cases = arena_alloc(&doc->arena, (m.cases.len + 1) * sizeof *doc->cases);
-    for (size_t i = 0; i < m.cases.len; i++)
-        doc->cases[i] = m.cases.items[i];
-    vec_free(&m.stmts);
-    vec_free(&m.sources);
-    strmap_free(&m.source_keys);
-    vec_free(&m.cases);
 }

@@ -163,3 +163,32 @@ void source_digest(const char *text, size_t len, char out[65])
     }
     out[64] = '\0';
 }
+
+size_t *source_line_index(Arena *a, const char *text, size_t len, size_t *nlines)
+{
+    size_t n = 1;
+    for (size_t i = 0; i < len; i++)
+        n += text[i] == '\n';
+    size_t *start = arena_alloc(a, n * sizeof *start);
+    size_t k = 0;
+    start[k++] = 0;
+    for (size_t i = 0; i < len; i++)
+        if (text[i] == '\n')
+            start[k++] = i + 1;
+    *nlines = k;
+    return start;
+}
+
+const char *source_line(const char *text, size_t len, const size_t *line_start, size_t nlines, int line,
+                        size_t *n)
+{
+    if (line < 1 || (size_t)line > nlines)
+        return NULL;
+    const char *p = text + line_start[line - 1], *end = text + len;
+    const char *nl = memchr(p, '\n', (size_t)(end - p));
+    size_t k = (size_t)((nl ? nl : end) - p);
+    if (k && p[k - 1] == '\r')
+        k--;
+    *n = k;
+    return p;
+}
