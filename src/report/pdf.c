@@ -138,6 +138,7 @@ static bool build(Pdf *P, const char *path)
         Item *it = items.items[i];
         pdf_scope_load(P, it->scope);
         it->layout.height = it->fn(P, it, 0);
+        arena_free(&P->scratch);
         pi[i] = it->layout;
     }
     double body_h = P->sheet.body_top - P->sheet.body_bottom;
@@ -173,6 +174,7 @@ static bool build(Pdf *P, const char *path)
             P->page = P->pages[s];
             pdf_scope_load(P, P->sheet_scope ? P->sheet_scope[s] : 0);
             pdf_sheet_frame(P, s);
+            arena_free(&P->scratch);
         }
         P->root = NULL;
         for (size_t i = 0; i < n; i++) {
@@ -184,6 +186,7 @@ static bool build(Pdf *P, const char *path)
                 outline_add(P, it, place[i].page, top);
             it->fn(P, it, top);
             pdf_revision_mark(P, it, top);
+            arena_free(&P->scratch);
         }
         P->page = NULL;
     }
@@ -244,6 +247,7 @@ static bool pdf_render(const Evaluated *ev, const struct Package *pkg, const Dif
     P->diags = diags;
     P->governing = -1;
     arena_init(&P->arena);
+    arena_init(&P->scratch);
     P->draw = draw_new(diags);
     bool ok = false;
     if (!P->draw) {
@@ -257,6 +261,7 @@ static bool pdf_render(const Evaluated *ev, const struct Package *pkg, const Dif
     }
     free(P->pages);
     free(P->warning_sheets);
+    arena_free(&P->scratch);
     arena_free(&P->arena);
     free(P);
     return ok;

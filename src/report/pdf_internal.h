@@ -79,6 +79,10 @@ struct Pdf {
     const Document *d;
     DiagList *diags;
     Arena arena;
+    /* the math boxes and texts one item builds while it is measured or
+     * drawn (MathEnv's arena): freed after each item and each sheet frame,
+     * so a long report does not keep every box it ever laid out */
+    Arena scratch;
     MathMetrics metrics;
     MathEnv env;
     MathPainter painter;

@@ -132,7 +132,7 @@ void pdf_package_items(Pdf *P, Vec *items)
         const PackagePart *pp = &pkg->parts[k - 1];
         P->ev = pp->ev;
         P->d = pp->doc;
-        P->env = (MathEnv){&P->arena, &P->metrics, pp->ev, pp->ev->digits > 0 ? pp->ev->digits : 4, NULL};
+        P->env = (MathEnv){&P->scratch, &P->metrics, pp->ev, pp->ev->digits > 0 ? pp->ev->digits : 4, NULL};
         P->governing = -1;
         P->preliminary = !pdf_status_issued(pp->doc->meta.status);
         P->since = P->pkg_since ? P->pkg_since[k - 1] : NULL;
