@@ -19,7 +19,10 @@
 #   - summing the outlets' demands instead gives T(6.4) + 3*T(5) = 9.12 +
 #     3*8 = 33.12 gal/min for R-1, not 18.56 (a check in the calc);
 #   - the text report's path table shows load and flow per segment and the
-#     method names the curve.
+#     method names the curve;
+#   - with `interpolate: loglog` the curve is read as a power law between
+#     rows: R-4 8*(6.4/5)^(ln(12/8)/ln(10/5)) = 9.242805 gal/min, R-1
+#     18*(21.4/20)^(ln(26/18)/ln(40/20)) = 18.657826 gal/min (to 1e-9).
 # Bad input (a load outside the curve, a curve of the wrong dimensions, a
 # name that is not a curve) is in tests/bad/path_demand_curve.
 
@@ -37,4 +40,10 @@ demand_curve_run() {
         no "demand_curve: the path table lacks load and flow for R-1 (21.40, 18.56) and R-4 (6.400, 9.120)"; fi
     if grep -qF 'method: Peak demand of each segment'"'"'s summed fixture load by the curve T (demand against load), linear between its rows' "$TMP/out"; then ok; else
         no "demand_curve: the method does not name the curve T"; fi
+    # the same riser on the curve read log-log
+    sed 's/^```curve T$/```curve T\ninterpolate: loglog/' "$calc" >"$TMP/demand_loglog.calc.md"
+    prun check "$TMP/demand_loglog.calc.md" --json
+    status_is 0 "demand_curve: the log-log riser's checks hold"
+    cp "$TMP/out" "$TMP/demand_loglog.json"
+    json_near "$TMP/demand_loglog.json" 1e-9 riser.R_4.Q=0.0005831303939220423 riser.R_1.Q=0.0011771258877694981
 }
