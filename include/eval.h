@@ -5,7 +5,9 @@
  * (re-evaluating every name that depends on the varied one) and decides
  * checks. Results sit in an Evaluated beside the Document, one StmtResult per
  * statement, so renderers read the tree and the numbers and never compute.
- * The Evaluated borrows the Document and allocates in its Arena. */
+ * The Evaluated borrows the Document and allocates in its Arena. Implemented
+ * by eval.c and the files src/eval_internal.h lists (one per statement
+ * kind, display units, parametric cases). */
 #ifndef HEADROOM_EVAL_H
 #define HEADROOM_EVAL_H
 

@@ -91,6 +91,9 @@ void call_use_method(CallCtx *cx, const Method *m);
  * entry). */
 bool method_same(const Method *a, const Method *b);
 
+/* Where argument i was written (the call's name when there is no such
+ * argument), for messages about it. */
+Pos arg_at(const CallArgs *a, size_t i);
 /* Argument helpers: each reports a diagnostic naming the function, the
  * argument and the expected and found dimension, and returns false. */
 bool arg_number(CallCtx *cx, const CallArgs *a, size_t i, Dim want, const char *what, double *si);

@@ -20,4 +20,9 @@ size_t suggest_distance(const char *a, size_t na, const char *b, size_t nb, bool
 /* The same for two NUL-terminated words, case counting. */
 size_t suggest_distance_str(const char *a, const char *b);
 
+/* The choices a message offers, into buf: each word inside `quote`, joined
+ * by ", " and by `last` before the final one ("crane, hooper or darby"). */
+const char *suggest_choices(char *buf, size_t n, const char *const *words, size_t count, const char *quote,
+                            const char *last);
+
 #endif

@@ -97,7 +97,7 @@ void value_describe(const Value *v, UnitSystem sys, char *buf, size_t n)
     }
 }
 
-static Pos arg_pos(const CallArgs *a, size_t i)
+Pos arg_at(const CallArgs *a, size_t i)
 {
     return i < a->n && a->arg_pos ? a->arg_pos[i] : a->pos;
 }
@@ -115,14 +115,14 @@ bool arg_number(CallCtx *cx, const CallArgs *a, size_t i, Dim want, const char *
         dim_describe(want, dim_eq(want, DIM_THETA) ? TEMP_ABSOLUTE_OFFSET : TEMP_NONE, cx->units, want_s,
                      sizeof want_s);
         value_describe(v, cx->units, got_s, sizeof got_s);
-        diag_error(cx->diags, arg_pos(a, i), "%s: argument %zu (%s) must be %s, found %s",
+        diag_error(cx->diags, arg_at(a, i), "%s: argument %zu (%s) must be %s, found %s",
                    a->name, i + 1, what, want_s, got_s);
         return false;
     }
     /* A gauge pressure is what a plain pressure argument means; an absolute
      * one would be off by the atmosphere. */
     if (v->q.pref == PRES_ABSOLUTE) {
-        diag_error(cx->diags, arg_pos(a, i),
+        diag_error(cx->diags, arg_at(a, i),
                    "%s: argument %zu (%s) is a pressure above the atmosphere, found an absolute "
                    "pressure; write it `as %s` first", a->name, i + 1, what,
                    cx->units == UNITS_US ? "psig" : "kPag");
@@ -147,7 +147,7 @@ bool arg_string(CallCtx *cx, const CallArgs *a, size_t i, const char *what, cons
     if (v->kind != VAL_STRING) {
         char got_s[96];
         value_describe(v, cx->units, got_s, sizeof got_s);
-        diag_error(cx->diags, arg_pos(a, i), "%s: argument %zu (%s) must be a string in \"...\", found %s",
+        diag_error(cx->diags, arg_at(a, i), "%s: argument %zu (%s) must be a string in \"...\", found %s",
                    a->name, i + 1, what, got_s);
         return false;
     }
@@ -166,7 +166,7 @@ bool arg_record(CallCtx *cx, const CallArgs *a, size_t i, const char *type, cons
     if (v->kind != VAL_RECORD || (type && strcmp(v->rec->type, type) != 0)) {
         char got_s[96];
         value_describe(v, cx->units, got_s, sizeof got_s);
-        diag_error(cx->diags, arg_pos(a, i), "%s: argument %zu (%s) must be a %s record, found %s",
+        diag_error(cx->diags, arg_at(a, i), "%s: argument %zu (%s) must be a %s record, found %s",
                    a->name, i + 1, what, type ? type : "", got_s);
         return false;
     }
@@ -245,7 +245,7 @@ static bool any_number(CallCtx *cx, const CallArgs *a, size_t i, const Value **v
         char got_s[96] = "nothing";
         if (i < a->n)
             value_describe(&a->args[i], cx->units, got_s, sizeof got_s);
-        diag_error(cx->diags, arg_pos(a, i), "%s: argument %zu must be a number, found %s", a->name,
+        diag_error(cx->diags, arg_at(a, i), "%s: argument %zu must be a number, found %s", a->name,
                    i + 1, got_s);
         return false;
     }
@@ -256,7 +256,7 @@ static bool any_number(CallCtx *cx, const CallArgs *a, size_t i, const Value **v
 static bool not_offset_temperature(CallCtx *cx, const CallArgs *a, size_t i, const Value *v)
 {
     if (v->q.pref != PRES_PLAIN) {
-        diag_error(cx->diags, arg_pos(a, i),
+        diag_error(cx->diags, arg_at(a, i),
                    "%s: cannot apply to %s pressure (a point on a scale); subtract a point of the "
                    "same reference first, as in (p - 0 %s)", a->name,
                    v->q.pref == PRES_GAUGE ? "a gauge" : "an absolute",
@@ -265,7 +265,7 @@ static bool not_offset_temperature(CallCtx *cx, const CallArgs *a, size_t i, con
         return false;
     }
     if (v->q.temp == TEMP_ABSOLUTE_OFFSET) {
-        diag_error(cx->diags, arg_pos(a, i),
+        diag_error(cx->diags, arg_at(a, i),
                    "%s: cannot apply to an absolute temperature on the Celsius or Fahrenheit "
                    "scale; subtract a reference temperature first, or use K",
                    a->name);
@@ -280,7 +280,7 @@ bool fn_sqrt(CallCtx *cx, const CallArgs *a, Value *out)
     if (!any_number(cx, a, 0, &v) || !not_offset_temperature(cx, a, 0, v))
         return false;
     if (v->q.si < 0) {
-        diag_error(cx->diags, arg_pos(a, 0), "sqrt: argument is negative (%g)", v->q.si);
+        diag_error(cx->diags, arg_at(a, 0), "sqrt: argument is negative (%g)", v->q.si);
         return false;
     }
     return finite_result(cx, a, sqrt(v->q.si), out, dim_pow(v->q.dim, 0.5));
@@ -305,7 +305,7 @@ static bool pure_unary(CallCtx *cx, const CallArgs *a, Value *out, Unary f, bool
     if (!arg_dimensionless(cx, a, 0, "a pure number", &x))
         return false;
     if (positive && x <= 0) {
-        diag_error(cx->diags, arg_pos(a, 0), "%s: argument must be positive, found %g", a->name, x);
+        diag_error(cx->diags, arg_at(a, 0), "%s: argument must be positive, found %g", a->name, x);
         return false;
     }
     return finite_result(cx, a, f(x), out, DIM_NONE);
@@ -340,7 +340,7 @@ static bool extremum(CallCtx *cx, const CallArgs *a, Value *out, int sign)
             char d0[96], di[96];
             value_describe(&a->args[0], cx->units, d0, sizeof d0);
             value_describe(v, cx->units, di, sizeof di);
-            diag_error(cx->diags, arg_pos(a, i),
+            diag_error(cx->diags, arg_at(a, i),
                        "%s: arguments must have one dimension; argument 1 is %s, argument %zu is %s",
                        a->name, d0, i + 1, di);
             return false;
@@ -366,7 +366,7 @@ static bool alike(CallCtx *cx, const CallArgs *a, size_t i, const Value *first, 
     char d0[96], di[96];
     value_describe(first, cx->units, d0, sizeof d0);
     value_describe(w, cx->units, di, sizeof di);
-    diag_error(cx->diags, arg_pos(a, i), "%s: arguments must be of one kind; argument 1 is %s, argument %zu is %s",
+    diag_error(cx->diags, arg_at(a, i), "%s: arguments must be of one kind; argument 1 is %s, argument %zu is %s",
                a->name, d0, i + 1, di);
     return false;
 }
@@ -406,7 +406,7 @@ bool fn_lerp(CallCtx *cx, const CallArgs *a, Value *out)
         !arg_dimensionless(cx, a, 2, "the fraction of the way from a to b", &t))
         return false;
     if (t < 0 || t > 1)
-        diag_warning(cx->diags, arg_pos(a, 2), "lerp: t = %g lies outside 0 to 1: this extrapolates beyond a and b", t);
+        diag_warning(cx->diags, arg_at(a, 2), "lerp: t = %g lies outside 0 to 1: this extrapolates beyond a and b", t);
     if (!finite_result(cx, a, va->q.si + (vb->q.si - va->q.si) * t, out, va->q.dim))
         return false;
     out->q.temp = va->q.temp;

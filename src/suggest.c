@@ -2,6 +2,7 @@
 #include "suggest.h"
 
 #include <stdint.h>
+#include <stdio.h>
 #include <string.h>
 
 static char fold_case(char c, bool fold)
@@ -44,4 +45,20 @@ size_t suggest_distance(const char *a, size_t na, const char *b, size_t nb, bool
 size_t suggest_distance_str(const char *a, const char *b)
 {
     return suggest_distance(a, strlen(a), b, strlen(b), false);
+}
+
+const char *suggest_choices(char *buf, size_t n, const char *const *words, size_t count, const char *quote,
+                            const char *last)
+{
+    size_t len = 0;
+    if (n)
+        buf[0] = '\0';
+    for (size_t i = 0; i < count && len < n; i++) {
+        const char *sep = i == 0 ? "" : i + 1 == count ? last : ", ";
+        int w = snprintf(buf + len, n - len, "%s%s%s%s", sep, quote, words[i], quote);
+        if (w < 0)
+            break;
+        len += (size_t)w;
+    }
+    return buf;
 }

@@ -15,6 +15,7 @@
 #include "methods/friction.h"
 #include "parse.h"
 #include "strmap.h"
+#include "suggest.h"
 
 typedef struct Cell {
     const char *text;
@@ -23,6 +24,22 @@ typedef struct Cell {
 } Cell;
 
 enum { MAX_COLUMNS = 32 };
+
+/* The methods a `friction:` or `fittings:` option may name, as the method
+ * modules list them: "colebrook, swamee_jain, haaland or churchill". */
+static const char *friction_choices(char *buf, size_t n)
+{
+    const char *w[FRICTION_METHOD_COUNT];
+    return suggest_choices(buf, n, w, friction_method_choices(w, FRICTION_METHOD_COUNT), "", " or ");
+}
+
+static const char *fittings_choices(char *buf, size_t n)
+{
+    const char *w[FIT_METHOD_COUNT];
+    for (int m = 0; m < FIT_METHOD_COUNT; m++)
+        w[m] = fitting_method_name((FittingMethod)m);
+    return suggest_choices(buf, n, w, FIT_METHOD_COUNT, "", " or ");
+}
 
 static bool is_table_line(const FenceLine *l)
 {
@@ -418,8 +435,9 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
             ps->friction = word_value(a, &value);
             int m = friction_method_lookup(ps->friction);
             if (m < 0 || m == FRICTION_LAMINAR) {
-                diag_error(diags, value.pos,
-                           "friction must be colebrook, swamee_jain, haaland or churchill, found '%s'", ps->friction);
+                char choices[128];
+                diag_error(diags, value.pos, "friction must be %s, found '%s'", friction_choices(choices, sizeof choices),
+                           ps->friction);
                 ok = false;
             }
         } else if (cell_is(&key, "demand")) {
@@ -427,7 +445,9 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
         } else if (cell_is(&key, "fittings")) {
             ps->fittings = word_value(a, &value);
             if (fitting_method_parse(ps->fittings) < 0) {
-                diag_error(diags, value.pos, "fittings must be crane, hooper or darby, found '%s'", ps->fittings);
+                char choices[128];
+                diag_error(diags, value.pos, "fittings must be %s, found '%s'", fittings_choices(choices, sizeof choices),
+                           ps->fittings);
                 ok = false;
             }
         } else {
@@ -1026,14 +1046,17 @@ static void parse_network_options(Arena *a, NetworkSpec *ns, const FenceLine *l,
         ns->friction = word_value(a, &value);
         int m = friction_method_lookup(ns->friction);
         if (m < 0 || m == FRICTION_LAMINAR) {
-            diag_error(diags, value.pos, "friction must be colebrook, swamee_jain, haaland or churchill, found '%s'",
+            char choices[128];
+            diag_error(diags, value.pos, "friction must be %s, found '%s'", friction_choices(choices, sizeof choices),
                        ns->friction);
             *ok = false;
         }
     } else if (cell_is(&key, "fittings")) {
         ns->fittings = word_value(a, &value);
         if (fitting_method_parse(ns->fittings) < 0) {
-            diag_error(diags, value.pos, "fittings must be crane, hooper or darby, found '%s'", ns->fittings);
+            char choices[128];
+            diag_error(diags, value.pos, "fittings must be %s, found '%s'", fittings_choices(choices, sizeof choices),
+                       ns->fittings);
             *ok = false;
         }
     } else {

@@ -8,6 +8,7 @@
 #define HEADROOM_METHODS_FRICTION_H
 
 #include <stdbool.h>
+#include <stddef.h>
 
 #define FRICTION_RE_LAMINAR 2000.0     /* below: laminar, f = 64/Re */
 #define FRICTION_RE_TURBULENT 4000.0   /* 2000..4000: transition zone */
@@ -38,6 +39,9 @@ const FrictionRange *friction_range(FrictionMethod m);
 /* Name used in calc files ("colebrook", ...) and back; -1 if unknown. */
 const char *friction_method_name(FrictionMethod m);
 int friction_method_lookup(const char *name);
+/* The names a calc may choose (every method but the laminar law, which is
+ * chosen by Re), in enum order, into out; their count. */
+size_t friction_method_choices(const char **out, size_t max);
 
 /* The correlations themselves; each checks Re > 0, 0 <= rr < 1. */
 FrictionStatus friction_colebrook(double Re, double rr, double *f);

@@ -10,8 +10,6 @@
 
 #include "library.h"
 
-/* Where argument i was written (the call when it was not). */
-Pos glue_arg_at(const CallArgs *a, size_t i);
 /* A quantity as messages show it: 4 significant figures in the document's
  * unit system ("101.3 kPa", "68.00 degF"). */
 const char *glue_show(CallCtx *cx, double si, Dim d, TempKind temp, char *buf, size_t n);

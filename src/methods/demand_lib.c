@@ -24,11 +24,6 @@ bool fn_peak_demand(CallCtx *cx, const CallArgs *a, Value *out);
 
 #define GPM (0.003785411784 / 60.0) /* 1 gal/min in m^3/s: 231 in^3 per minute */
 
-static Pos pos_of(const CallArgs *a, size_t i)
-{
-    return i < a->n && a->arg_pos ? a->arg_pos[i] : a->pos;
-}
-
 static const PlumbingCode *code_of(const CallCtx *cx)
 {
     const PlumbingCode *c = cx->code ? plumbing_code_find(cx->code) : NULL;
@@ -134,7 +129,7 @@ bool fn_wsfu(CallCtx *cx, const CallArgs *a, Value *out)
     const FixtureLoadRow *row = NULL;
     LoadStatus st = fixture_load_find(c, kind, fu, &row);
     if (st != LOAD_OK) {
-        load_error(cx, c, "wsfu", pos_of(a, 0), kind, st, fu);
+        load_error(cx, c, "wsfu", arg_at(a, 0), kind, st, fu);
         return false;
     }
     call_use_method(cx, load_method(cx, c, row));
@@ -261,7 +256,7 @@ bool fn_hunter(CallCtx *cx, const CallArgs *a, Value *out)
         return false;
     /* a table that is not shipped is the call's fault, a load outside it the argument's */
     const PlumbingCode *c = code_of(cx);
-    Pos at = c->demand ? pos_of(a, 0) : a->pos;
+    Pos at = c->demand ? arg_at(a, 0) : a->pos;
     if (!demand_hunter_flow(cx, SYSTEMS[sys == 1 ? 1 : 0], load, at, &Q))
         return false;
     *out = value_hinted(qty(Q, DIM_FLOW), "gal/min", "L/s");
@@ -401,7 +396,7 @@ bool fn_peak_demand(CallCtx *cx, const CallArgs *a, Value *out)
     }
     enum { MAX_ITEMS = 64 };
     FixtureItem items[MAX_ITEMS];
-    long n = fixtures_parse(cx, "peak_demand", list, pos_of(a, 0), items, MAX_ITEMS);
+    long n = fixtures_parse(cx, "peak_demand", list, arg_at(a, 0), items, MAX_ITEMS);
     if (n < 0)
         return false;
     (void)out;

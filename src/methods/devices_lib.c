@@ -86,11 +86,6 @@ const Method *curve_method(CurveInterp interp)
 
 /* ---- helpers ----------------------------------------------------------- */
 
-static Pos arg_at(const CallArgs *a, size_t i)
-{
-    return i < a->n && a->arg_pos ? a->arg_pos[i] : a->pos;
-}
-
 static const char *show(UnitSystem sys, double si, Dim d, TempKind temp, char *buf, size_t n)
 {
     Unit u = unit_default(d, temp, sys);

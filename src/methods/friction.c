@@ -62,6 +62,15 @@ int friction_method_lookup(const char *name)
     return -1;
 }
 
+size_t friction_method_choices(const char **out, size_t max)
+{
+    size_t k = 0;
+    for (int i = 0; i < FRICTION_METHOD_COUNT && k < max; i++)
+        if (i != FRICTION_LAMINAR)
+            out[k++] = NAMES[i];
+    return k;
+}
+
 static FrictionStatus check_inputs(double Re, double rr)
 {
     if (!(Re > 0.0) || !isfinite(Re))

@@ -15,6 +15,7 @@
 #include "methods/friction.h"
 #include "methods/glue.h"
 #include "numfmt.h"
+#include "suggest.h"
 
 static const Method METHOD_COLEBROOK = {
     "colebrook",
@@ -101,12 +102,12 @@ static bool friction_call(CallCtx *cx, const CallArgs *a, FrictionMethod m, bool
         return false;
     char b1[128], b2[128];
     if (!(Re > 0.0) || !isfinite(Re)) {
-        diag_error(cx->diags, glue_arg_at(a, 0), "%s: Reynolds number must be positive, found %s",
+        diag_error(cx->diags, arg_at(a, 0), "%s: Reynolds number must be positive, found %s",
                    a->name, glue_show_num(Re, b1, sizeof b1));
         return false;
     }
     if (!(rr >= 0.0) || !(rr < 1.0)) {
-        diag_error(cx->diags, glue_arg_at(a, 1),
+        diag_error(cx->diags, arg_at(a, 1),
                    "%s: relative roughness (roughness/diameter) must be at least 0 and below 1, "
                    "found %s",
                    a->name, glue_show_num(rr, b1, sizeof b1));
@@ -152,10 +153,10 @@ bool fn_friction_factor(CallCtx *cx, const CallArgs *a, Value *out)
     if (mv) {
         int k = mv->kind == VAL_STRING ? friction_method_lookup(mv->str) : -1;
         if (k < 0 || k == FRICTION_LAMINAR) {
-            diag_error(cx->diags, mp,
-                       "%s: method= must be one of \"colebrook\", \"swamee_jain\", "
-                       "\"haaland\", \"churchill\"%s%s%s",
-                       a->name, mv->kind == VAL_STRING ? ", found \"" : "",
+            const char *w[FRICTION_METHOD_COUNT];
+            char choices[128];
+            suggest_choices(choices, sizeof choices, w, friction_method_choices(w, FRICTION_METHOD_COUNT), "\"", ", ");
+            diag_error(cx->diags, mp, "%s: method= must be one of %s%s%s%s", a->name, choices, mv->kind == VAL_STRING ? ", found \"" : "",
                        mv->kind == VAL_STRING ? mv->str : "", mv->kind == VAL_STRING ? "\"" : "");
             return false;
         }
@@ -196,22 +197,22 @@ bool fn_hazen_williams(CallCtx *cx, const CallArgs *a, Value *out)
         return false;
     char b1[128], b2[128], b3[128];
     if (!(Q >= 0.0) || !isfinite(Q)) {
-        diag_error(cx->diags, glue_arg_at(a, 0), "%s: flow rate must be zero or positive, found %s",
+        diag_error(cx->diags, arg_at(a, 0), "%s: flow rate must be zero or positive, found %s",
                    a->name, glue_show(cx, Q, DIM_FLOW, TEMP_NONE, b1, sizeof b1));
         return false;
     }
     if (!(C > 0.0) || !isfinite(C)) {
-        diag_error(cx->diags, glue_arg_at(a, 1), "%s: C must be positive, found %s", a->name,
+        diag_error(cx->diags, arg_at(a, 1), "%s: C must be positive, found %s", a->name,
                    glue_show_num(C, b1, sizeof b1));
         return false;
     }
     if (!(D > 0.0) || !isfinite(D)) {
-        diag_error(cx->diags, glue_arg_at(a, 2), "%s: diameter must be positive, found %s", a->name,
+        diag_error(cx->diags, arg_at(a, 2), "%s: diameter must be positive, found %s", a->name,
                    glue_show(cx, D, DIM_L, TEMP_NONE, b1, sizeof b1));
         return false;
     }
     if (!(L >= 0.0) || !isfinite(L)) {
-        diag_error(cx->diags, glue_arg_at(a, 3), "%s: length must be zero or positive, found %s",
+        diag_error(cx->diags, arg_at(a, 3), "%s: length must be zero or positive, found %s",
                    a->name, glue_show(cx, L, DIM_L, TEMP_NONE, b1, sizeof b1));
         return false;
     }

@@ -5,11 +5,6 @@
 
 #include "numfmt.h"
 
-Pos glue_arg_at(const CallArgs *a, size_t i)
-{
-    return i < a->n && a->arg_pos ? a->arg_pos[i] : a->pos;
-}
-
 /* A quantity as messages show it: 4 significant figures in the document's
  * unit system ("101.3 kPa", "68.00 degF"). */
 const char *glue_show(CallCtx *cx, double si, Dim d, TempKind temp, char *buf, size_t n)
@@ -39,7 +34,7 @@ bool glue_arg_temperature(CallCtx *cx, const CallArgs *a, size_t i, double *T)
     if (!arg_number(cx, a, i, DIM_THETA, "temperature", T))
         return false;
     if (a->args[i].q.temp == TEMP_NONE) {
-        diag_error(cx->diags, glue_arg_at(a, i),
+        diag_error(cx->diags, arg_at(a, i),
                    "%s: argument %zu must be a temperature such as 68 degF or 20 degC, "
                    "found a temperature difference",
                    a->name, i + 1);
@@ -57,7 +52,7 @@ bool glue_field_number(CallCtx *cx, const CallArgs *a, size_t i, const Record *r
     if (!v || v->kind != VAL_NUMBER || !dim_eq(v->q.dim, want)) {
         char want_s[96];
         dim_describe(want, TEMP_NONE, cx->units, want_s, sizeof want_s);
-        diag_error(cx->diags, glue_arg_at(a, i), "%s: the %s record has no field '%s' (%s)",
+        diag_error(cx->diags, arg_at(a, i), "%s: the %s record has no field '%s' (%s)",
                    a->name, r->type ? r->type : "", field, want_s);
         return false;
     }

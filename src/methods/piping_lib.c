@@ -11,6 +11,7 @@
 #include "methods/fittings.h"
 #include "methods/pipes.h"
 #include "methods/roughness.h"
+#include "suggest.h"
 
 #include <math.h>
 #include <stdio.h>
@@ -126,11 +127,6 @@ static const Method METHOD_DARBY = {
 
 /* ---- shared helpers ----------------------------------------------------- */
 
-static Pos pos_of(const CallArgs *a, size_t i)
-{
-    return i < a->n && a->arg_pos ? a->arg_pos[i] : a->pos;
-}
-
 /* A Method citing one roughness row, kept in the document's arena. */
 static const Method *roughness_method(CallCtx *cx, const RoughnessRow *row)
 {
@@ -176,7 +172,7 @@ static bool string_or_number(CallCtx *cx, const CallArgs *a, size_t i, const cha
     }
     char got[96];
     value_describe(v, cx->units, got, sizeof got);
-    diag_error(cx->diags, pos_of(a, i), "%s: argument %zu (%s) must be a string in \"...\" or a pure number, found %s",
+    diag_error(cx->diags, arg_at(a, i), "%s: argument %zu (%s) must be a string in \"...\" or a pure number, found %s",
                a->name, i + 1, what, got);
     return false;
 }
@@ -222,7 +218,7 @@ bool fn_pipe(CallCtx *cx, const CallArgs *a, Value *out)
     if (!s) {
         char list[256];
         pipe_standards_list(list, sizeof list);
-        diag_error(cx->diags, pos_of(a, 0), "pipe: unknown standard \"%s\"; known standards: %s",
+        diag_error(cx->diags, arg_at(a, 0), "pipe: unknown standard \"%s\"; known standards: %s",
                    std_text, list);
         return false;
     }
@@ -233,7 +229,7 @@ bool fn_pipe(CallCtx *cx, const CallArgs *a, Value *out)
     if (!string_or_number(cx, a, 1, "SIZE", size_text, sizeof size_text, &num, &nps))
         return false;
     if (!num && !pipe_size_parse(size_text, &nps)) {
-        diag_error(cx->diags, pos_of(a, 1),
+        diag_error(cx->diags, arg_at(a, 1),
                    "pipe: cannot read the size \"%s\"; write it as \"1-1/2\", \"1 1/2\", \"3/4\" or 1.5",
                    size_text);
         return false;
@@ -250,12 +246,12 @@ bool fn_pipe(CallCtx *cx, const CallArgs *a, Value *out)
     case PIPE_BAD_SIZE:
     case PIPE_UNKNOWN_SIZE:
         pipe_sizes_list(s, NULL, list, sizeof list);
-        diag_error(cx->diags, pos_of(a, 1), "pipe: %s has no size %s; its sizes are %s", s->name,
+        diag_error(cx->diags, arg_at(a, 1), "pipe: %s has no size %s; its sizes are %s", s->name,
                    size_text, list);
         return false;
     case PIPE_UNKNOWN_CLASS:
         pipe_classes_list(s, list, sizeof list);
-        diag_error(cx->diags, pos_of(a, 2), "pipe: %s has no class \"%s\"; its classes are %s",
+        diag_error(cx->diags, arg_at(a, 2), "pipe: %s has no class \"%s\"; its classes are %s",
                    s->name, cls_text, list);
         return false;
     case PIPE_NOT_IN_CLASS: {
@@ -264,7 +260,7 @@ bool fn_pipe(CallCtx *cx, const CallArgs *a, Value *out)
         classes_at_size(s, nps_text ? nps_text : "", list, sizeof list);
         pipe_sizes_list(s, cls_text, sizes, sizeof sizes);
         pipe_class_normalize(s, cls_text, canon, sizeof canon);
-        diag_error(cx->diags, pos_of(a, 2),
+        diag_error(cx->diags, arg_at(a, 2),
                    "pipe: %s lists no \"%s\" at size %s; that size comes in %s, and \"%s\" in sizes %s",
                    s->name, canon, nps_text ? nps_text : size_text, list, canon, sizes);
         return false;
@@ -311,7 +307,7 @@ bool fn_roughness(CallCtx *cx, const CallArgs *a, Value *out)
     if (roughness_lookup(name, &row) != ROUGHNESS_OK) {
         char list[512];
         roughness_list(list, sizeof list);
-        diag_error(cx->diags, pos_of(a, 0), "roughness: unknown material \"%s\"; known materials: %s",
+        diag_error(cx->diags, arg_at(a, 0), "roughness: unknown material \"%s\"; known materials: %s",
                    name, list);
         return false;
     }
@@ -357,7 +353,7 @@ bool fn_k_fitting(CallCtx *cx, const CallArgs *a, Value *out)
         const Value *id = record_get(dv->rec, "id");
         const Value *nv = record_get(dv->rec, "nps");
         if (!id || id->kind != VAL_NUMBER || !dim_eq(id->q.dim, DIM_L)) {
-            diag_error(cx->diags, pos_of(a, 1), "k_fitting: the pipe record has no bore 'id'");
+            diag_error(cx->diags, arg_at(a, 1), "k_fitting: the pipe record has no bore 'id'");
             return false;
         }
         D = id->q.si;
@@ -376,7 +372,12 @@ bool fn_k_fitting(CallCtx *cx, const CallArgs *a, Value *out)
     if (mv) {
         int mi = mv->kind == VAL_STRING ? fitting_method_parse(mv->str) : -1;
         if (mi < 0) {
-            diag_error(cx->diags, mpos, "k_fitting: method= must be \"crane\", \"hooper\" or \"darby\"%s%s%s",
+            const char *w[FIT_METHOD_COUNT];
+            for (int k = 0; k < FIT_METHOD_COUNT; k++)
+                w[k] = fitting_method_name((FittingMethod)k);
+            char choices[96];
+            suggest_choices(choices, sizeof choices, w, FIT_METHOD_COUNT, "\"", " or ");
+            diag_error(cx->diags, mpos, "k_fitting: method= must be %s%s%s%s", choices,
                        mv->kind == VAL_STRING ? ", found \"" : "", mv->kind == VAL_STRING ? mv->str : "",
                        mv->kind == VAL_STRING ? "\"" : "");
             return false;
@@ -388,7 +389,7 @@ bool fn_k_fitting(CallCtx *cx, const CallArgs *a, Value *out)
     FittingInput in = {fitting_kind_parse(kind_text), D, Re, 0.0, -1.0, nps};
     if (in.kind == FIT_NONE || !fitting_method_has(m, in.kind)) {
         fitting_method_kinds(m, list, sizeof list);
-        diag_error(cx->diags, pos_of(a, 0), "k_fitting: the %s method has no fitting \"%s\"; its kinds are %s",
+        diag_error(cx->diags, arg_at(a, 0), "k_fitting: the %s method has no fitting \"%s\"; its kinds are %s",
                    m == FIT_CRANE ? "Crane TP-410" : m == FIT_HOOPER ? "Hooper 2-K" : "Darby 3-K",
                    kind_text, list);
         return false;
@@ -417,10 +418,10 @@ bool fn_k_fitting(CallCtx *cx, const CallArgs *a, Value *out)
     case FIT_OK:
         break;
     case FIT_BAD_DIAMETER:
-        diag_error(cx->diags, pos_of(a, 1), "k_fitting: the bore D must be positive, found %g m", D);
+        diag_error(cx->diags, arg_at(a, 1), "k_fitting: the bore D must be positive, found %g m", D);
         return false;
     case FIT_BAD_RE:
-        diag_error(cx->diags, pos_of(a, 2), "k_fitting: the Reynolds number must be positive, found %g", Re);
+        diag_error(cx->diags, arg_at(a, 2), "k_fitting: the Reynolds number must be positive, found %g", Re);
         return false;
     case FIT_NEEDS_D2:
         diag_error(cx->diags, a->pos,
@@ -455,14 +456,14 @@ bool fn_k_fitting(CallCtx *cx, const CallArgs *a, Value *out)
             call_use_method(cx, &METHOD_CRANE_K);
             call_use_method(cx, &METHOD_CRANE_FT);
             if (D < 0.5 * INCH || D > 24.0 * INCH)
-                diag_warning(cx->diags, pos_of(a, 1),
+                diag_warning(cx->diags, arg_at(a, 1),
                              "k_fitting: Crane's equivalent lengths and f_T cover bores of 1/2 to 24 in; "
                              "D = %.4g in is outside",
                              D / INCH);
             break;
         }
         if (Re < 4000)
-            diag_warning(cx->diags, pos_of(a, 2),
+            diag_warning(cx->diags, arg_at(a, 2),
                          "k_fitting: Crane's K is for fully turbulent flow; at Re = %.4g the loss is "
                          "larger (method=\"darby\" or \"hooper\" follows Re)",
                          Re);

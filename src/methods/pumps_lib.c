@@ -103,19 +103,19 @@ bool fn_pump_curve(CallCtx *cx, const CallArgs *a, Value *out)
     char b1[128];
     for (size_t i = 0; i < 3; i++) {
         if (!(Q[i] >= 0.0) || !isfinite(Q[i])) {
-            diag_error(cx->diags, glue_arg_at(a, 2 * i), "%s: Q%zu must be zero or positive, found %s",
+            diag_error(cx->diags, arg_at(a, 2 * i), "%s: Q%zu must be zero or positive, found %s",
                        a->name, i + 1, glue_show(cx, Q[i], DIM_FLOW, TEMP_NONE, b1, sizeof b1));
             return false;
         }
         if (!isfinite(H[i])) {
-            diag_error(cx->diags, glue_arg_at(a, 2 * i + 1), "%s: H%zu must be finite", a->name, i + 1);
+            diag_error(cx->diags, arg_at(a, 2 * i + 1), "%s: H%zu must be finite", a->name, i + 1);
             return false;
         }
     }
     PumpCurve *pc = arena_alloc(cx->arena, sizeof *pc);
     int dup = 0;
     if (pump_fit(Q, H, pc, &dup) != PUMP_OK) {
-        diag_error(cx->diags, glue_arg_at(a, 2 * (size_t)dup),
+        diag_error(cx->diags, arg_at(a, 2 * (size_t)dup),
                    "%s: Q%d repeats the flow of an earlier point; three different flows are "
                    "needed for a quadratic",
                    a->name, dup + 1);
@@ -150,7 +150,7 @@ bool fn_operating_point(CallCtx *cx, const CallArgs *a, Value *out)
             return false;
         if (!(k >= 0.0) || !isfinite(k)) {
             char b1[64];
-            diag_error(cx->diags, glue_arg_at(a, 2),
+            diag_error(cx->diags, arg_at(a, 2),
                        "%s: k must be zero or positive (system head rises with flow), found %s", a->name,
                        glue_show_num(k, b1, sizeof b1));
             return false;
@@ -163,12 +163,12 @@ bool fn_operating_point(CallCtx *cx, const CallArgs *a, Value *out)
         return false;
     const PumpCurve *pc = pump_of(pump);
     if (!pc) {
-        diag_error(cx->diags, glue_arg_at(a, 0), "%s: this pump record has no curve", a->name);
+        diag_error(cx->diags, arg_at(a, 0), "%s: this pump record has no curve", a->name);
         return false;
     }
     char b1[128], b2[128];
     if (!(k >= 0.0) || !isfinite(k)) {
-        diag_error(cx->diags, glue_arg_at(a, 2),
+        diag_error(cx->diags, arg_at(a, 2),
                    "%s: k must be zero or positive (system head rises with flow), found %s",
                    a->name, glue_show_num(k, b1, sizeof b1));
         return false;

@@ -111,7 +111,7 @@ static bool rating_thermoplastic(CallCtx *cx, const CallArgs *a, const Record *p
     case RATING_OK:
         break;
     case RATING_T_ABOVE_MAX:
-        diag_error(cx->diags, glue_arg_at(a, 1),
+        diag_error(cx->diags, arg_at(a, 1),
                    "%s: %s is above %s, the highest temperature of the %s derating table; "
                    "%s pipe is not rated there",
                    a->name, glue_show_temp(cx, T, b1, sizeof b1),
@@ -120,7 +120,7 @@ static bool rating_thermoplastic(CallCtx *cx, const CallArgs *a, const Record *p
                    m->designation, m->material);
         return false;
     default:
-        diag_error(cx->diags, glue_arg_at(a, 0),
+        diag_error(cx->diags, arg_at(a, 0),
                    "%s: the pipe's dimension ratio SDR = %s must be greater than 1", a->name,
                    glue_show_num(sdr, b1, sizeof b1));
         return false;
@@ -219,7 +219,7 @@ static bool rating_metal(CallCtx *cx, const CallArgs *a, const Record *pipe,
         return false;
     }
     if (st != RATING_OK) {
-        diag_error(cx->diags, glue_arg_at(a, 0),
+        diag_error(cx->diags, arg_at(a, 0),
                    "%s: the pipe's od and wall give no valid geometry (D - 2*Y*(t - c) <= 0)",
                    a->name);
         return false;
@@ -253,7 +253,7 @@ bool fn_pressure_rating(CallCtx *cx, const CallArgs *a, Value *out)
          * only the geometry and the stress the engineer gives. */
         Pos hp;
         if (!record_get(pipe, "wall")) {
-            diag_error(cx->diags, glue_arg_at(a, 0),
+            diag_error(cx->diags, arg_at(a, 0),
                        "%s: this bore has no wall to rate; give bore(D, roughness, od=..., wall=...)", a->name);
             return false;
         }
@@ -274,7 +274,7 @@ bool fn_pressure_rating(CallCtx *cx, const CallArgs *a, Value *out)
     case RATING_UNKNOWN:
         break;
     }
-    diag_error(cx->diags, glue_arg_at(a, 0),
+    diag_error(cx->diags, arg_at(a, 0),
                "%s: no rating rule for material \"%s\" (known: PVC, CPVC, PEX; steel and "
                "copper with S= and E=)",
                a->name, material ? material : "");

@@ -34,11 +34,6 @@ static const Method METHOD_SELECT = {
     "velocity V = Q/A from the standard's bore; the limits are the calc's design criteria.",
 };
 
-static Pos arg_at(const CallArgs *a, size_t i)
-{
-    return i < a->n && a->arg_pos ? a->arg_pos[i] : a->pos;
-}
-
 static int cmp_double(const void *a, const void *b)
 {
     double x = *(const double *)a, y = *(const double *)b;

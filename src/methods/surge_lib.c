@@ -63,7 +63,7 @@ bool fn_wave_speed(CallCtx *cx, const CallArgs *a, Value *out)
     double E, D, e, K, rho;
     const char *material = glue_field_string(pipe, "material");
     if (material && strcmp(material, "bore") == 0 && (!record_get(pipe, "wall") || !record_get(pipe, "E"))) {
-        diag_error(cx->diags, glue_arg_at(a, 0),
+        diag_error(cx->diags, arg_at(a, 0),
                    "%s: a bore needs its wall and the pipe material's elastic modulus for the wave speed; give "
                    "bore(D, roughness, wall=..., E=...)",
                    a->name);
@@ -71,7 +71,7 @@ bool fn_wave_speed(CallCtx *cx, const CallArgs *a, Value *out)
     }
     if (!record_get(pipe, "E") && glue_field_string(pipe, "standard")) {
         const char *mat = glue_field_string(pipe, "material");
-        diag_error(cx->diags, glue_arg_at(a, 0),
+        diag_error(cx->diags, arg_at(a, 0),
                    "%s: no verified data for the elastic modulus of %s (%s pipe): no published "
                    "value could be checked, so headroom ships none; take E from the "
                    "manufacturer's data",
@@ -156,17 +156,17 @@ bool fn_surge(CallCtx *cx, const CallArgs *a, Value *out)
         return false;
     char b1[128];
     if (!(rho > 0.0) || !isfinite(rho)) {
-        diag_error(cx->diags, glue_arg_at(a, 0), "%s: density must be positive, found %s", a->name,
+        diag_error(cx->diags, arg_at(a, 0), "%s: density must be positive, found %s", a->name,
                    glue_show(cx, rho, DIM_DENSITY, TEMP_NONE, b1, sizeof b1));
         return false;
     }
     if (!(c > 0.0) || !isfinite(c)) {
-        diag_error(cx->diags, glue_arg_at(a, 1), "%s: wave speed must be positive, found %s",
+        diag_error(cx->diags, arg_at(a, 1), "%s: wave speed must be positive, found %s",
                    a->name, glue_show(cx, c, DIM_VELOCITY, TEMP_NONE, b1, sizeof b1));
         return false;
     }
     if (!isfinite(dV)) {
-        diag_error(cx->diags, glue_arg_at(a, 2), "%s: velocity change must be finite", a->name);
+        diag_error(cx->diags, arg_at(a, 2), "%s: velocity change must be finite", a->name);
         return false;
     }
     call_use_method(cx, &METHOD_JOUKOWSKY);
@@ -182,12 +182,12 @@ bool fn_closure_time(CallCtx *cx, const CallArgs *a, Value *out)
         return false;
     char b1[128];
     if (!(L >= 0.0) || !isfinite(L)) {
-        diag_error(cx->diags, glue_arg_at(a, 0), "%s: length must be zero or positive, found %s",
+        diag_error(cx->diags, arg_at(a, 0), "%s: length must be zero or positive, found %s",
                    a->name, glue_show(cx, L, DIM_L, TEMP_NONE, b1, sizeof b1));
         return false;
     }
     if (!(c > 0.0) || !isfinite(c)) {
-        diag_error(cx->diags, glue_arg_at(a, 1), "%s: wave speed must be positive, found %s",
+        diag_error(cx->diags, arg_at(a, 1), "%s: wave speed must be positive, found %s",
                    a->name, glue_show(cx, c, DIM_VELOCITY, TEMP_NONE, b1, sizeof b1));
         return false;
     }

@@ -64,7 +64,7 @@ static bool arg_pressure_point(CallCtx *cx, const CallArgs *a, size_t i, const c
         return false;
     if (v->q.pref == PRES_PLAIN) {
         bool us = cx->units == UNITS_US;
-        diag_error(cx->diags, glue_arg_at(a, i),
+        diag_error(cx->diags, arg_at(a, i),
                    "%s: argument %zu (%s) must say whether it is absolute or gauge: write it in "
                    "%s (absolute) or %s (gauge); a plain %s states no reference",
                    a->name, i + 1, what, us ? "psia" : "kPaa", us ? "psig" : "kPag", us ? "psi" : "kPa");
@@ -99,19 +99,19 @@ bool fn_water(CallCtx *cx, const CallArgs *a, Value *out)
                    a->name);
         return false;
     case WATER_T_OUT_OF_RANGE:
-        diag_error(cx->diags, glue_arg_at(a, 0),
+        diag_error(cx->diags, arg_at(a, 0),
                    "%s: temperature %s is outside the range served, %s "
                    "(IAPWS-IF97 region 1, liquid water)",
                    a->name, glue_show_temp(cx, T, b1, sizeof b1),
                    cx->units == UNITS_US ? "32 degF to 302 degF" : "0 degC to 150 degC");
         return false;
     case WATER_P_TOO_HIGH:
-        diag_error(cx->diags, glue_arg_at(a, 1),
+        diag_error(cx->diags, arg_at(a, 1),
                    "%s: pressure %s is above 100 MPa, the upper bound of IAPWS-IF97 region 1",
                    a->name, glue_show(cx, p, DIM_PRESSURE, TEMP_NONE, b1, sizeof b1));
         return false;
     case WATER_P_BELOW_SATURATION:
-        diag_error(cx->diags, a->n > 1 ? glue_arg_at(a, 1) : glue_arg_at(a, 0),
+        diag_error(cx->diags, a->n > 1 ? arg_at(a, 1) : arg_at(a, 0),
                    "%s: at %s (absolute) water at %s is steam: the saturation pressure is %s; "
                    "%s an absolute pressure of at least %s",
                    a->name, glue_show(cx, p, DIM_PRESSURE, TEMP_NONE, b1, sizeof b1),
@@ -169,12 +169,12 @@ bool fn_npsh_available(CallCtx *cx, const CallArgs *a, Value *out)
         return false;
     if (!(p_abs > 0)) {
         char b1[64];
-        diag_error(cx->diags, glue_arg_at(a, 0), "%s: the absolute pressure on the surface is %s; it must be above zero",
+        diag_error(cx->diags, arg_at(a, 0), "%s: the absolute pressure on the surface is %s; it must be above zero",
                    a->name, glue_show(cx, p_abs, DIM_PRESSURE, TEMP_NONE, b1, sizeof b1));
         return false;
     }
     if (h_f < 0) {
-        diag_error(cx->diags, glue_arg_at(a, 3), "%s: the suction head loss must not be negative", a->name);
+        diag_error(cx->diags, arg_at(a, 3), "%s: the suction head loss must not be negative", a->name);
         return false;
     }
     call_use_method(cx, &METHOD_NPSHA);
