@@ -1,10 +1,18 @@
 """bench.py — time headroom on generated calcs and print one table.
 
-Each command runs in a fresh process; the best wall time of several runs is
-reported (the machine has other load), and peak resident memory comes from
-wait4's rusage of that process. Inputs are generated here into BUILD/bench/.
+Not a test: nothing here fails a build. Every row is a figure measured
+beside its floor in the same run: the two commands run alternately (paired
+runs), each in a fresh process, and the table shows the median of each and
+the median of the paired ratios, with the target beside it. Peak resident
+memory comes from wait4's rusage of the measured process. Inputs are
+generated here into BUILD/bench/.
+
+To add a row, write one function `row_NAME()` that returns a Row (or a list
+of them) and add it to ROWS at the bottom; `paired()` measures a command
+against its floor, `solo()` a command alone.
 """
 import os
+import statistics
 import subprocess
 import sys
 import time
@@ -12,33 +20,75 @@ import time
 BUILD = sys.argv[1] if len(sys.argv) > 1 else "build"
 HEADROOM = os.path.join(BUILD, "headroom")
 OUT = os.path.join(BUILD, "bench")
+CMARK = os.path.join(OUT, "cmark_parse")
 
 
-def run(argv, repeat=5):
-    best, peak = float("inf"), 0
-    for _ in range(repeat):
-        start = time.perf_counter()
-        proc = subprocess.Popen(argv, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE)
-        _, status, usage = os.wait4(proc.pid, 0)
-        wall = time.perf_counter() - start
-        err = proc.stderr.read().decode(errors="replace")
-        proc.stderr.close()
-        code = os.waitstatus_to_exitcode(status)
-        if code not in (0, 1):
-            sys.exit(f"bench: {' '.join(argv)} exited {code}\n{err[:2000]}")
-        best = min(best, wall)
-        peak = max(peak, usage.ru_maxrss)  # KiB on Linux
-    return best, peak / 1024.0
+class Row:
+    """One line of the table: the figure, its floor, their ratio and the
+    target the ratio (or figure) is held to."""
+
+    def __init__(self, job, figure, floor="", ratio="", target="", memory=""):
+        self.cells = (job, figure, memory, floor, ratio, target)
 
 
-def calc_5000():
-    """5,000 statements in 50 calc blocks: inputs, arithmetic with units,
-    water properties, friction factors, a solve every block, and checks."""
-    lines = ["---", "title: Benchmark, 5000 statements", "units: US", "---", ""]
+HEADER = ("job", "figure", "peak memory", "floor", "ratio", "target")
+
+
+def run_once(argv):
+    """Wall time (s), peak RSS (MiB) and exit code of one fresh process."""
+    start = time.perf_counter()
+    proc = subprocess.Popen(argv, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE)
+    _, status, usage = os.wait4(proc.pid, 0)
+    wall = time.perf_counter() - start
+    err = proc.stderr.read().decode(errors="replace")
+    proc.stderr.close()
+    code = os.waitstatus_to_exitcode(status)
+    if code not in (0, 1):
+        sys.exit(f"bench: {' '.join(argv)} exited {code}\n{err[:2000]}")
+    return wall, usage.ru_maxrss / 1024.0
+
+
+class Paired:
+    """A figure command and its floor, run alternately `repeat` times."""
+
+    def __init__(self, figure, floor, repeat=5):
+        figs, floors, ratios, self.peak, self.floor_peak = [], [], [], 0.0, 0.0
+        for _ in range(repeat):
+            t, m = run_once(figure)
+            tf, mf = run_once(floor)
+            figs.append(t)
+            floors.append(tf)
+            ratios.append(t / tf)
+            self.peak, self.floor_peak = max(self.peak, m), max(self.floor_peak, mf)
+        self.figure = statistics.median(figs)
+        self.floor = statistics.median(floors)
+        self.ratio = statistics.median(ratios)
+
+
+def solo(argv, repeat=5):
+    """Median wall time and peak memory of a command alone."""
+    runs = [run_once(argv) for _ in range(repeat)]
+    return statistics.median(r[0] for r in runs), max(r[1] for r in runs)
+
+
+def ms(t):
+    return f"{t * 1000:.1f} ms"
+
+
+def mb(m):
+    return f"{m:.1f} MB"
+
+
+# ---- generated inputs --------------------------------------------------------
+
+def calc_statements(blocks, name):
+    """100 statements a block: inputs, arithmetic with units, water
+    properties, friction factors, a solve every block, and checks."""
+    lines = ["---", f"title: Benchmark, {blocks * 100} statements", "units: US", "---", ""]
     n = 0
-    for b in range(50):
+    for b in range(blocks):
         lines += [f"# Block {b}", "", "```calc"]
-        lines.append(f"Q_{b} = {50 + b} gal/min  # flow")
+        lines.append(f"Q_{b} = {50 + b % 50} gal/min  # flow")
         lines.append(f"D_{b} = {2 + (b % 5) * 0.5} in")
         lines.append(f"T_{b} = {50 + b % 30} degF")
         lines.append(f"w_{b} = water(T_{b})")
@@ -57,10 +107,14 @@ def calc_5000():
         lines.append(f"check velocity {b}: V_{b} <= 10 ft/s")
         n += 2
         lines += ["```", ""]
-    path = os.path.join(OUT, "check5000.calc.md")
+    path = os.path.join(OUT, name)
     with open(path, "w") as f:
         f.write("\n".join(lines) + "\n")
     return path, n
+
+
+def calc_5000():
+    return calc_statements(50, "check5000.calc.md")
 
 
 def diff_pair(path):
@@ -82,6 +136,38 @@ def diff_pair(path):
         with open(p, "w") as f:
             f.write(text)
     return old_path, new_path
+
+
+CASE_ROWS = 1000
+
+
+def calc_cases(rows):
+    """A 50-segment path of copper tube, a solve over it (the flow that
+    leaves 20 psi at the end) and a cases table of `rows` supply pressures.
+    With rows == 0 there is no cases block: one evaluation of the calc."""
+    lines = ["---", "title: Benchmark, cases over a path", "units: US", "---", "", "```calc",
+             "w = water(60 degF)", "Q = 30 gal/min", "p0 = 80 psi", 'tube = pipe("ASTM B88", "2", "L")',
+             "```", "", "```path main", "fluid: w", "start: p0",
+             "| segment | flow | pipe | length | rise | fittings |", "|---|---|---|---|---|---|"]
+    for i in range(50):
+        lines.append(f"| S{i} | Q | tube | {10 + i % 7} ft | {i % 3} ft | 1 elbow 90 std, 1 tee run |")
+    lines += ["```", "", "```calc", "Q_max = solve Q where main.p_end = 20 psi",
+              "check end pressure: main.p_end >= 20 psi", "```", ""]
+    if rows:
+        lines += ["```cases", "show: Q_max, main.p_end", "| p0 |", "|---|"]
+        lines += [f"| {60 + i * 40.0 / rows:.3f} psi |" for i in range(rows)]
+        lines += ["```", ""]
+    path = os.path.join(OUT, f"cases{rows}.calc.md")
+    with open(path, "w") as f:
+        f.write("\n".join(lines))
+    return path
+
+
+def tiny_calc():
+    path = os.path.join(OUT, "tiny.calc.md")
+    with open(path, "w") as f:
+        f.write("```calc\na = 1 m\n```\n")
+    return path
 
 
 def calc_100_sheets(sections=60, name="sheets100"):
@@ -198,22 +284,96 @@ def pdf_pages(path):
     return 0
 
 
-def paired(a, b, repeat=5):
-    """Run a and b alternately `repeat` times; the median wall time of each,
-    the median of the per-pair ratios a/b, and the peak memory of each."""
-    ta, tb, ratios, ma, mb = [], [], [], 0.0, 0.0
-    for _ in range(repeat):
-        t1, m1 = run(a, repeat=1)
-        t2, m2 = run(b, repeat=1)
-        ta.append(t1)
-        tb.append(t2)
-        ratios.append(t1 / t2)
-        ma, mb = max(ma, m1), max(mb, m2)
-    med = lambda v: sorted(v)[len(v) // 2]
-    return med(ta), med(tb), med(ratios), ma, mb
+# ---- rows --------------------------------------------------------------------
+
+SHARED = {}   # figures later rows compare with (one check of the 5k calc)
 
 
-def build_against_floor(rows):
+def row_check_5000():
+    path, n = calc_5000()
+    p = Paired([HEADROOM, "check", path], [CMARK, path], repeat=7)
+    SHARED["check5000"] = (path, n, p.figure)
+    return Row(f"check, {n} statements", ms(p.figure), f"cmark-gfm parse {ms(p.floor)}",
+               f"{p.ratio:.2f}x", "<= 4x", mb(p.peak))
+
+
+def row_check_100k():
+    path, n = calc_statements(1000, "check100k.calc.md")
+    p = Paired([HEADROOM, "check", path], [CMARK, path], repeat=3)
+    _, n5, t5 = SHARED["check5000"]
+    per = p.peak * 1024.0 / n
+    linear = (p.figure / n) / (t5 / n5)
+    return [Row(f"check, {n} statements", ms(p.figure), f"cmark-gfm parse {ms(p.floor)}",
+                f"{p.ratio:.2f}x", "<= 5x", mb(p.peak)),
+            Row("  memory per statement", f"{per:.2f} KB", "", "", "<= 1 KB"),
+            Row("  time per statement, 100k / 5k", f"{linear:.2f}", "", "", "linear: about 1")]
+
+
+def row_json():
+    path, n, _ = SHARED["check5000"]
+    p = Paired([HEADROOM, "check", path, "--json"], [HEADROOM, "check", path], repeat=7)
+    return Row(f"check --json, {n} statements", ms(p.figure), f"check {ms(p.floor)}",
+               f"{p.ratio:.2f}x", "<= 1.3x", mb(p.peak))
+
+
+def row_diff():
+    path, n, _ = SHARED["check5000"]
+    old, new = diff_pair(path)
+    p = Paired([HEADROOM, "diff", old, new], [HEADROOM, "check", new], repeat=7)
+    return Row(f"diff, two revisions of {n} statements", ms(p.figure), f"check {ms(p.floor)}",
+               f"{p.ratio:.2f}x", "<= 1.2x", mb(p.peak))
+
+
+def row_cases():
+    """The cases table against 1,000 times one evaluation of the same calc;
+    one evaluation is a check of the calc without the cases block less the
+    start-up (a check of a tiny calc), both medians of paired runs."""
+    path = calc_cases(CASE_ROWS)
+    one = Paired([HEADROOM, "check", calc_cases(0)], [HEADROOM, "check", tiny_calc()], repeat=15)
+    evaluation = max(one.figure - one.floor, 1e-6)
+    t, m = solo([HEADROOM, "check", path], repeat=3)
+    floor = CASE_ROWS * evaluation
+    return [Row(f"cases, {CASE_ROWS} rows, 50-segment path, a solve", ms(t),
+                f"{CASE_ROWS} x one evaluation {ms(floor)}", f"{t / floor:.2f}x", "<= 1.5x", mb(m)),
+            Row("  peak memory of the cases run", mb(m), "", "", "<= 64 MB")]
+
+
+def row_startup():
+    tiny = tiny_calc()
+    p = Paired([HEADROOM, "check", tiny], ["/bin/true"], repeat=41)
+    return Row("start-up, check of a one-line calc", ms(p.figure), f"/bin/true {ms(p.floor)}",
+               f"{p.ratio:.2f}x", "<= 1.5x", mb(p.peak))
+
+
+def row_colebrook():
+    """ns per Colebrook solve in headroom's friction module against the
+    two-iteration Clamond (2009) floor program, alternately."""
+    def ns(prog):
+        out = subprocess.run([os.path.join(OUT, prog)], capture_output=True, text=True).stdout
+        for line in out.splitlines():
+            if "ns per solve" in line:
+                return float(line.split(" ns per solve")[0].split(", ")[-1])
+        sys.exit(f"bench: {prog} printed no timing:\n{out}")
+    figs, floors = [], []
+    for _ in range(5):
+        figs.append(ns("colebrook"))
+        floors.append(ns("clamond"))
+    f, fl = statistics.median(figs), statistics.median(floors)
+    ratio = statistics.median(a / b for a, b in zip(figs, floors))
+    return Row("Colebrook solve, 1e6 over the chart", f"{f:.1f} ns", f"Clamond, 2 iterations {fl:.1f} ns",
+               f"{ratio:.2f}x", "<= 30 ns")
+
+
+def row_build_sheets():
+    long_calc = calc_100_sheets()
+    pdf = os.path.join(OUT, "sheets100.pdf")
+    t, m = solo([HEADROOM, "build", long_calc, "-o", pdf], repeat=3)
+    pages = pdf_pages(pdf)
+    size = os.path.getsize(pdf) / 1024.0 if os.path.exists(pdf) else 0
+    return Row(f"build, {pages} sheets ({size:.0f} KB)", ms(t), "", "", "(figure only)", mb(m))
+
+
+def row_build_floor():
     """`build` of a 144-sheet report against a bare libharu program writing
     the same pages, fonts and text (bench/pdf_floor.c, its input read out of
     the report by bench/pdf_runs.py)."""
@@ -224,70 +384,64 @@ def build_against_floor(rows):
     subprocess.run(["/usr/bin/python3", os.path.join(os.path.dirname(__file__), "pdf_runs.py"), pdf, runs],
                    check=True)
     floor_pdf = os.path.join(OUT, "sheets144-floor.pdf")
-    th, tf, ratio, mh, mf = paired([HEADROOM, "build", calc, "-o", pdf],
-                                   [os.path.join(OUT, "pdf_floor"), runs, floor_pdf])
+    p = Paired([HEADROOM, "build", calc, "-o", pdf], [os.path.join(OUT, "pdf_floor"), runs, floor_pdf])
     with open(runs, encoding="utf-8") as f:
         facts = f.read().splitlines()
-    nfonts = sum(1 for l in facts if l.startswith("F "))
-    ntext = sum(1 for l in facts if l.startswith("T "))
-    pages = pdf_pages(pdf)
-    rows.append((f"build, {pages} sheets, {nfonts} fonts, {ntext} text runs", f"{th * 1000:.1f} ms",
-                 f"{mh:.1f} MB", "peak <= 25 MB"))
-    rows.append(("  same pages, fonts and text, bare libharu", f"{tf * 1000:.1f} ms", f"{mf:.1f} MB",
-                 f"ratio {ratio:.2f}x (target <= 1.3x)"))
+    nfonts = sum(1 for line in facts if line.startswith("F "))
+    ntext = sum(1 for line in facts if line.startswith("T "))
+    return [Row(f"build, {pdf_pages(pdf)} sheets, {nfonts} fonts, {ntext} text runs", ms(p.figure),
+                f"bare libharu, same pages {ms(p.floor)}", f"{p.ratio:.2f}x", "<= 1.3x", mb(p.peak)),
+            Row("  peak memory of that build", mb(p.peak), f"bare libharu {mb(p.floor_peak)}", "", "<= 25 MB")]
+
+
+def row_package():
+    index = package_50()
+    t, m = solo([HEADROOM, "check", index], repeat=3)
+    ppdf = os.path.join(OUT, "package50.pdf")
+    tb, mb_ = solo([HEADROOM, "build", index, "-o", ppdf], repeat=2)
+    return [Row("check, package of 50 parts x 100 statements", ms(t), "", "", "(figure only)", mb(m)),
+            Row(f"build, that package ({pdf_pages(ppdf)} sheets)", ms(tb), "", "", "(figure only)", mb(mb_))]
+
+
+def row_network():
+    net, nn, nl = network_2000()
+    t, m = solo([HEADROOM, "check", net], repeat=3)
+    its, imb = network_iterations(net)
+    return Row(f"network, {nn} nodes, {nl} links, solved", ms(t), "", "",
+               f"(figure only; {its} iterations, imbalance {imb:.1e} m^3/s)", mb(m))
+
+
+def row_script():
+    """The 5k calc as a pint + fluids + iapws + scipy script."""
+    path, _, _ = SHARED["check5000"]
+    p = Paired(["/usr/bin/python3", os.path.join(os.path.dirname(__file__), "script_equivalent.py")],
+               [HEADROOM, "check", path], repeat=3)
+    return Row("same 5k calc as a Python script (pint, fluids)", ms(p.figure), f"check {ms(p.floor)}",
+               f"{p.ratio:.0f}x", ">= 30x (the script is slower)", mb(p.peak))
+
+
+ROWS = [row_check_5000, row_check_100k, row_json, row_diff, row_cases, row_startup, row_colebrook,
+        row_script, row_build_sheets, row_build_floor, row_package, row_network]
 
 
 def main():
     os.makedirs(OUT, exist_ok=True)
+    only = os.environ.get("BENCH_ONLY")   # e.g. BENCH_ONLY=check_5000,cases
     rows = []
-    path, n = calc_5000()
-    t, m = run([HEADROOM, "check", path])
-    t_check = t
-    rows.append((f"check, {n} statements", f"{t * 1000:.1f} ms", f"{m:.1f} MB", "< 100 ms, < 64 MB"))
-    # The same calc as a Python script with pint, python3-fluids, python3-iapws
-    # and scipy, in the same run, for the ratio.
-    ts, ms = run(["/usr/bin/python3", os.path.join(os.path.dirname(__file__), "script_equivalent.py")], repeat=3)
-    rows.append(("  same calc as a pint + fluids script", f"{ts * 1000:.1f} ms", f"{ms:.1f} MB",
-                 f"ratio {ts / t:.0f}x (target >= 30x)"))
-
-    old_path, new_path = diff_pair(path)
-    t, m = run([HEADROOM, "diff", old_path, new_path])
-    rows.append((f"diff, two revisions of {n} statements", f"{t * 1000:.1f} ms", f"{m:.1f} MB", "< 200 ms"))
-
-    long_calc = calc_100_sheets()
-    pdf = os.path.join(OUT, "sheets100.pdf")
-    t, m = run([HEADROOM, "build", long_calc, "-o", pdf], repeat=3)
-    pages = pdf_pages(pdf)
-    size = os.path.getsize(pdf) / 1024.0 if os.path.exists(pdf) else 0
-    rows.append((f"build, {pages} sheets ({size:.0f} KB)", f"{t * 1000:.1f} ms", f"{m:.1f} MB", "< 1 s, < 64 MB"))
-
-    build_against_floor(rows)
-
-    index = package_50()
-    t, m = run([HEADROOM, "check", index], repeat=3)
-    rows.append(("check, package of 50 parts x 100 statements", f"{t * 1000:.1f} ms", f"{m:.1f} MB",
-                 "(figure only)"))
-    ppdf = os.path.join(OUT, "package50.pdf")
-    t, m = run([HEADROOM, "build", index, "-o", ppdf], repeat=2)
-    rows.append((f"build, that package ({pdf_pages(ppdf)} sheets)", f"{t * 1000:.1f} ms", f"{m:.1f} MB",
-                 "(figure only)"))
-
-    net, nn, nl = network_2000()
-    tn, mn = run([HEADROOM, "check", net], repeat=3)
-    its, imb = network_iterations(net)
-    rows.append((f"network, {nn} nodes, {nl} links, solved", f"{tn * 1000:.1f} ms", f"{mn:.1f} MB",
-                 f"< 1 s; {its} iterations, imbalance {imb:.1e} m^3/s; {tn / t_check:.1f}x the {n}-statement check"))
-
-    out = subprocess.run([os.path.join(OUT, "colebrook")], capture_output=True, text=True).stdout.strip()
-    per = [l for l in out.splitlines() if "per solve" in l]
-    rows.append(("1e6 Colebrook solves", per[0].split(", ")[1] if per else "?", "", "< 0.2 us each"))
-
-    w = [max(len(r[i]) for r in rows + [("job", "time", "peak memory", "target")]) for i in range(4)]
+    for fn in ROWS:
+        name = fn.__name__[4:]
+        if only and name not in only.split(",") and name != "check_5000":
+            continue
+        got = fn()
+        rows += got if isinstance(got, list) else [got]
+    cells = [HEADER] + [r.cells for r in rows]
+    w = [max(len(c[i]) for c in cells) for i in range(len(HEADER))]
     fmt = "  ".join("{:<%d}" % x for x in w)
-    print(fmt.format("job", "time", "peak memory", "target"))
+    print("paired runs, medians; ratio = figure / floor, median of the pairs")
+    print(fmt.format(*HEADER))
     print(fmt.format(*("-" * x for x in w)))
-    for r in rows:
-        print(fmt.format(*r))
+    for c in cells[1:]:
+        print(fmt.format(*c))
 
 
 main()
