@@ -500,6 +500,9 @@ bool network_solve(CallCtx *cx, const Stmt *s, const Value *fluid, const Value *
     case GRADIENT_NO_MEMORY:
         diag_error(cx->diags, s->pos, "network '%s': out of memory in the sparse solve", s->name);
         return false;
+    case GRADIENT_NO_LIBRARY:
+        diag_error(cx->diags, s->pos, "network '%s' cannot be solved: %s", s->name, gr.no_library);
+        return false;
     }
     nr->iterations = gr.iterations;
     nr->imbalance = gr.imbalance;

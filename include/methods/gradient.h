@@ -23,7 +23,8 @@ typedef enum GradientStatus {
     GRADIENT_NO_CONVERGENCE,  /* max_iter reached: *imbalance_node is the worst node */
     GRADIENT_SINGULAR,        /* a part of the network lost every supply (links closed) */
     GRADIENT_NOT_FINITE,      /* a loss callback returned NaN or infinity */
-    GRADIENT_NO_MEMORY
+    GRADIENT_NO_MEMORY,
+    GRADIENT_NO_LIBRARY       /* CHOLMOD could not be loaded: GradientResult.no_library says why */
 } GradientStatus;
 
 typedef enum GradientLinkKind {
@@ -64,6 +65,7 @@ typedef struct GradientResult {
     size_t imbalance_node;
     double last_change;              /* largest flow change of the last iteration, m^3/s */
     double energy_residual;          /* largest |H_from - H_to - h(Q)| over open links, m */
+    const char *no_library;          /* GRADIENT_NO_LIBRARY: why the sparse solver did not load */
 } GradientResult;
 
 /* Solve. H holds the fixed heads (and a starting guess at junctions) and

@@ -38,7 +38,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#include <suitesparse/cholmod.h>
+#include "cholmod_load.h"   /* CHOLMOD, loaded at the first solve */
 
 /* The smallest dh/dQ a link may have in the Jacobian (s/m^2): a pump on
  * the rising part of its curve would otherwise give zero or less. */
@@ -236,6 +236,8 @@ GradientStatus gradient_solve(const GradientNetwork *n, double *H, double *Q, Gr
     memset(&w, 0, sizeof w);
     w.net = n;
     memset(out, 0, sizeof *out);
+    if (!cholmod_load(&out->no_library))
+        return GRADIENT_NO_LIBRARY;
     cholmod_l_start(&w.cm);
     w.cm.print = 0;
     size_t nn = n->nnodes, nl = n->nlinks;

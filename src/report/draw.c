@@ -24,6 +24,11 @@ static void on_error(HPDF_STATUS error, HPDF_STATUS detail, void *user)
 
 Draw *draw_new(DiagList *diags)
 {
+    const char *why = NULL;
+    if (!hpdf_load(&why)) {
+        diag_error(diags, ((Pos){NULL, 0, 0}), "cannot write a PDF: %s", why);
+        return NULL;
+    }
     Draw *D = xcalloc(1, sizeof *D);
     D->diags = diags;
     D->doc = HPDF_New(on_error, D);

@@ -1,9 +1,10 @@
 /* draw_lib.h — the drawing layer's own state, shared by draw.c and
- * draw_archive.c only (the two files that include <hpdf.h>). */
+ * draw_archive.c only (the two files that call libharu, through
+ * hpdf_load.h). */
 #ifndef HEADROOM_DRAW_LIB_H
 #define HEADROOM_DRAW_LIB_H
 
-#include <hpdf.h>
+#include "hpdf_load.h"   /* libharu, loaded at the first build */
 
 #include "report/draw.h"
 

@@ -248,10 +248,12 @@ static bool pdf_render(const Evaluated *ev, const struct Package *pkg, const Dif
     P->governing = -1;
     arena_init(&P->arena);
     arena_init(&P->scratch);
+    size_t errors_before = diags->errors;
     P->draw = draw_new(diags);
     bool ok = false;
     if (!P->draw) {
-        diag_error(diags, ((Pos){NULL, 0, 0}), "cannot start the PDF library");
+        if (diags->errors == errors_before) /* not already told why */
+            diag_error(diags, ((Pos){NULL, 0, 0}), "cannot start the PDF library");
     } else {
         ok = build(P, path);
         if (!ok && draw_error(P->draw) && diags->errors == 0)
