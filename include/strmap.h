@@ -24,6 +24,9 @@ bool strmap_add(StrMap *m, const char *key, size_t val, size_t *had);
 /* The value of key: true and *val when present. */
 bool strmap_get(const StrMap *m, const char *key, size_t *val);
 
+/* The same for the n bytes at key, which need not end in a NUL. */
+bool strmap_get_n(const StrMap *m, const char *key, size_t n, size_t *val);
+
 void strmap_free(StrMap *m);
 
 #endif

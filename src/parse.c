@@ -419,8 +419,13 @@ static Expr *parse_expr(Parser *p)
  * description. */
 static void parse_comment(Parser *p, Stmt *st, const char *c, size_t len, Pos pos)
 {
-    StrBuf desc = {0};
     Vec cites = {0};
+    /* One pass: the description is the comment without its citations, with
+     * leading and trailing blanks dropped and every run of blanks inside
+     * squeezed to one space; it never grows, so len + 1 bytes hold it. */
+    char *out = arena_alloc(p->arena, len + 1);
+    size_t n = 0;
+    bool space = false, ended = false;
     size_t i = 0;
     while (i < len) {
         if (c[i] == '[') {
@@ -438,30 +443,25 @@ static void parse_comment(Parser *p, Stmt *st, const char *c, size_t len, Pos po
                 continue;
             }
         }
-        sb_putc(&desc, c[i]);
-        i++;
-    }
-    /* Trim and squeeze the spaces the citations left. */
-    const char *d = sb_str(&desc);
-    StrBuf out = {0};
-    int space = 0;
-    for (; *d; d++) {
-        if (*d == ' ' || *d == '\t') {
-            space = out.len > 0;
+        char ch = c[i++];
+        if (ended || ch == '\0') {
+            ended = true;    /* the description ends at a NUL byte */
+            continue;
+        }
+        if (ch == ' ' || ch == '\t') {
+            space = n > 0;
             continue;
         }
         if (space)
-            sb_putc(&out, ' ');
-        space = 0;
-        sb_putc(&out, *d);
+            out[n++] = ' ';
+        space = false;
+        out[n++] = ch;
     }
-    st->description = out.len ? arena_strdup(p->arena, sb_str(&out)) : NULL;
+    st->description = n ? out : NULL;
     st->ncites = cites.len;
     st->cites = arena_alloc(p->arena, (cites.len + 1) * sizeof *st->cites);
     for (size_t k = 0; k < cites.len; k++)
         st->cites[k] = *(Cite *)cites.items[k];
-    sb_free(&desc);
-    sb_free(&out);
     vec_free(&cites);
 }
 

@@ -7,22 +7,29 @@
 
 #include "arena.h"
 
-static uint64_t strmap_hash(const char *s)
+static uint64_t strmap_hash(const char *s, size_t n)
 {
     uint64_t h = 1469598103934665603u; /* FNV-1a */
-    for (; *s; s++) {
-        h ^= (unsigned char)*s;
+    for (size_t k = 0; k < n; k++) {
+        h ^= (unsigned char)s[k];
         h *= 1099511628211u;
     }
     return h;
 }
 
-static size_t strmap_slot(const char *const *keys, size_t cap, const char *key)
+/* The slot of the n bytes at key (no NUL among them), or the empty slot
+ * where they would go. */
+static size_t strmap_slot_n(const char *const *keys, size_t cap, const char *key, size_t n)
 {
-    size_t i = (size_t)strmap_hash(key) & (cap - 1);
-    while (keys[i] && strcmp(keys[i], key) != 0)
+    size_t i = (size_t)strmap_hash(key, n) & (cap - 1);
+    while (keys[i] && (strncmp(keys[i], key, n) != 0 || keys[i][n] != '\0'))
         i = (i + 1) & (cap - 1);
     return i;
+}
+
+static size_t strmap_slot(const char *const *keys, size_t cap, const char *key)
+{
+    return strmap_slot_n(keys, cap, key, strlen(key));
 }
 
 static void strmap_grow(StrMap *m)
@@ -64,6 +71,17 @@ bool strmap_get(const StrMap *m, const char *key, size_t *val)
     if (m->cap == 0)
         return false;
     size_t i = strmap_slot(m->keys, m->cap, key);
+    if (!m->keys[i])
+        return false;
+    *val = m->vals[i];
+    return true;
+}
+
+bool strmap_get_n(const StrMap *m, const char *key, size_t n, size_t *val)
+{
+    if (m->cap == 0 || memchr(key, '\0', n))
+        return false;
+    size_t i = strmap_slot_n(m->keys, m->cap, key, n);
     if (!m->keys[i])
         return false;
     *val = m->vals[i];

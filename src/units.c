@@ -19,9 +19,11 @@
 #include "units.h"
 
 #include <math.h>
+#include <pthread.h>
 #include <stdio.h>
 #include <string.h>
 
+#include "strmap.h"
 #include "suggest.h"
 
 /* ---- dimensions ------------------------------------------------------- */
@@ -373,12 +375,22 @@ static const struct {
     {"lps", "L/s"},  {"gph", "gal/h"}, {"cfm", "ft^3/min"},
 };
 
-static const UnitDef *find_exact(const char *key, size_t n)
+/* The registry's names in a hash map, built once (on any thread) at the
+ * first lookup; a name listed twice keeps its first row. */
+static StrMap registry_index;
+static pthread_once_t registry_index_once = PTHREAD_ONCE_INIT;
+
+static void registry_index_build(void)
 {
     for (size_t i = 0; i < REGISTRY_LEN; i++)
-        if (strlen(registry[i].name) == n && memcmp(registry[i].name, key, n) == 0)
-            return &registry[i];
-    return NULL;
+        strmap_add(&registry_index, registry[i].name, i, NULL);
+}
+
+static const UnitDef *find_exact(const char *key, size_t n)
+{
+    pthread_once(&registry_index_once, registry_index_build);
+    size_t i;
+    return strmap_get_n(&registry_index, key, n, &i) ? &registry[i] : NULL;
 }
 
 static bool is_refused(const char *key, size_t n)
