@@ -11,6 +11,7 @@
 #include <errno.h>
 #include <fcntl.h>
 #include <math.h>
+#include <pthread.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -861,6 +862,46 @@ static int diff_packages(Evaluated *ev[2], DiagList dl[2], bool json, const Diff
     return status;
 }
 
+/* Read and evaluate one revision (what load_revision does, without
+ * printing), on its own thread: documents share no mutable state, so the
+ * two revisions of a diff are evaluated side by side. */
+typedef struct RevisionJob {
+    const char *arg;
+    DiagList *dl;
+    Document *doc;
+    Evaluated *ev;
+} RevisionJob;
+
+static void *revision_job_run(void *p)
+{
+    RevisionJob *job = p;
+    job->doc = revision_load(job->arg, job->dl);
+    if (job->doc)
+        job->ev = eval_document(job->doc, job->dl);
+    return NULL;
+}
+
+/* Both revisions, the second on a thread of its own (in turn if no thread
+ * can be started). */
+static void revisions_load_two(RevisionJob job[2])
+{
+    pthread_t t;
+    pthread_attr_t attr;
+    bool threaded = false;
+    if (pthread_attr_init(&attr) == 0) {
+        /* the same stack as the main thread's usual 8 MiB: deep input is
+         * refused by the limits long before that */
+        pthread_attr_setstacksize(&attr, (size_t)8 << 20);
+        threaded = pthread_create(&t, &attr, revision_job_run, &job[1]) == 0;
+        pthread_attr_destroy(&attr);
+    }
+    revision_job_run(&job[0]);
+    if (threaded)
+        pthread_join(t, NULL);
+    else
+        revision_job_run(&job[1]);
+}
+
 static int cmd_diff(int argc, char **argv)
 {
     const char *side[2] = {NULL, NULL};
@@ -900,9 +941,16 @@ static int cmd_diff(int argc, char **argv)
     Document *doc[2] = {NULL, NULL};
     Evaluated *ev[2] = {NULL, NULL};
     int status = 0;
-    for (int k = 0; k < 2; k++)
-        if (!(ev[k] = load_revision(side[k], &dl[k], &doc[k])))
+    RevisionJob job[2] = {{side[0], &dl[0], NULL, NULL}, {side[1], &dl[1], NULL, NULL}};
+    revisions_load_two(job);
+    for (int k = 0; k < 2; k++) {
+        doc[k] = job[k].doc;
+        print_diags(&dl[k], doc[k]);
+        if (!doc[k] || dl[k].errors)
             status = EXIT_INPUT;
+        else
+            ev[k] = job[k].ev;
+    }
     if (status == 0 && (package_is_index(doc[0]) || package_is_index(doc[1]))) {
         status = diff_packages(ev, dl, json, &opt);
     } else if (status == 0) {

@@ -14,6 +14,7 @@
 
 #include <cmark-gfm-core-extensions.h>
 #include <cmark-gfm.h>
+#include <pthread.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -170,6 +171,15 @@ static Inline *split_text(Md *m, const char *s, int line, int col, Inline ***tai
 }
 
 static Inline *convert_inlines(Md *m, cmark_node *parent, int depth);
+
+/* cmark-gfm's extension registry is process-wide and not locked: register
+ * once, before any thread parses (diff reads two revisions at once). */
+static pthread_once_t extensions_once = PTHREAD_ONCE_INIT;
+
+static void extensions_register(void)
+{
+    cmark_gfm_core_extensions_ensure_registered();
+}
 
 static void convert_one_inline(Md *m, cmark_node *n, Inline ***link, int depth)
 {
@@ -486,7 +496,7 @@ void markdown_read(Document *doc, size_t body_start, DiagList *diags)
         if (text[i] == '\\' && text[i + 1] == '{')
             text[i] = ESCAPED_BRACE;
 
-    cmark_gfm_core_extensions_ensure_registered();
+    pthread_once(&extensions_once, extensions_register);
     /* cmark's own allocator aborts when memory runs out; ours exits 3 with
      * a message like every other allocation. */
     static cmark_mem mem = {xcalloc, xrealloc, free};
