@@ -23,9 +23,9 @@ static double clamond(double Re, double rr)
     double x2 = log(Re) - 0.779397488455682028;  /* ln(Re*ln(10)/5.02) */
     double F = x2 - 0.2;
     double e = (log(x1 + F) - 0.2) / (1.0 + x1 + F);
-    F -= (1.0 + x1 + x2 - e) * e / (1.0 + x1 + F);
+    F -= (1.0 + x1 + F + 0.5 * e) * e * (x1 + F) / (1.0 + x1 + F + e * (1.0 + e / 3.0));
     e = (log(x1 + F) + F - x2) / (1.0 + x1 + F);
-    F -= (1.0 + x1 + x2 - e) * e / (1.0 + x1 + F);
+    F -= (1.0 + x1 + F + 0.5 * e) * e * (x1 + F) / (1.0 + x1 + F + e * (1.0 + e / 3.0));
     F = 1.151292546497022842 / F;                /* ln(10)/2 / F */
     return F * F;
 }

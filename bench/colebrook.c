@@ -2,7 +2,7 @@
  *
  * Not a test: it times friction_colebrook() over a spread of Reynolds
  * numbers (4e3..1e8, log-spaced) and relative roughnesses (0..0.05) and
- * prints the mean time per solve and the mean number of Halley steps. The
+ * prints the mean time per solve and the mean number of correction steps. The
  * sum of the results is printed so the work cannot be optimised away.
  *
  * Build and run from the repository root:
@@ -45,7 +45,7 @@ int main(void)
         steps += it;
     }
     double t = now_seconds() - t0;
-    printf("colebrook: %d solves in %.3f s, %.1f ns per solve, %.2f Halley steps on average\n",
+    printf("colebrook: %d solves in %.3f s, %.1f ns per solve, %.2f correction steps on average\n",
            N_SOLVES, t, 1e9 * t / N_SOLVES, (double)steps / N_SOLVES);
     printf("colebrook: checksum %.12g, %d failures\n", sum, failures);
     return failures ? 1 : 0;

@@ -49,8 +49,13 @@ FrictionStatus friction_swamee_jain(double Re, double rr, double *f);
 FrictionStatus friction_haaland(double Re, double rr, double *f);
 FrictionStatus friction_churchill(double Re, double rr, double *f);
 
-/* Colebrook with the number of correction steps taken (for the bench). */
+/* Colebrook with the number of correction steps taken (for the bench):
+ * Clamond's (2009) two-step solution for Re >= 100, the Halley solver
+ * below it. */
 FrictionStatus friction_colebrook_iter(double Re, double rr, double *f, int *iterations);
+/* Colebrook by Halley's method on the equation's own residual, to rounding
+ * (any Re > 0); the tests hold the Clamond solution to it. */
+FrictionStatus friction_colebrook_halley(double Re, double rr, double *f, int *iterations);
 
 /* One correlation by enum (FRICTION_LAMINAR: 64/Re). */
 FrictionStatus friction_eval(FrictionMethod m, double Re, double rr, double *f);

@@ -11,6 +11,10 @@ relative roughness log-uniform 1e-6..0.05 plus smooth pipe where allowed):
   haaland     vs fluids.friction.Haaland          rel 1e-12 (same formula)
   churchill   vs fluids.friction.Churchill_1977   rel 1e-12 (same formula),
               Re 10..1e8 (all regimes)
+  clamond     headroom's colebrook vs fluids.friction.Clamond rel 4e-15
+              (both are Clamond's 2009 two-step solution of Colebrook's
+              equation, so they agree to rounding, not just to the 1e-10
+              of the Lambert-W form)
 Inside each range the program must give no diagnostic at all."""
 import math
 import random
@@ -29,11 +33,12 @@ def log_uniform(lo, hi):
 
 
 FAMILIES = [
-    # name, reference, Re range, allow rr = 0, tolerance
-    ("colebrook", F.Colebrook, (4000.0, 1e8), True, 1e-10),
-    ("swamee_jain", F.Swamee_Jain_1976, (5000.0, 1e8), False, 2e-5),
-    ("haaland", F.Haaland, (4000.0, 1e8), False, 1e-12),
-    ("churchill", F.Churchill_1977, (10.0, 1e8), True, 1e-12),
+    # label, headroom function, reference, Re range, allow rr = 0, tolerance
+    ("colebrook", "colebrook", F.Colebrook, (4000.0, 1e8), True, 1e-10),
+    ("swamee_jain", "swamee_jain", F.Swamee_Jain_1976, (5000.0, 1e8), False, 2e-5),
+    ("haaland", "haaland", F.Haaland, (4000.0, 1e8), False, 1e-12),
+    ("churchill", "churchill", F.Churchill_1977, (10.0, 1e8), True, 1e-12),
+    ("clamond", "colebrook", F.Clamond, (4000.0, 1e8), True, 4e-15),
 ]
 
 
@@ -41,14 +46,14 @@ def main():
     tally = Tally("friction-fluids")
     print("reference: python3-fluids %s (fluids.friction)" % fluids.__version__)
     statements, expected = [], []
-    for fam, ref, (re_lo, re_hi), smooth, tol in FAMILIES:
+    for fam, fn, ref, (re_lo, re_hi), smooth, tol in FAMILIES:
         for i in range(N):
             Re = log_uniform(re_lo, re_hi)
             rr = 0.0 if (smooth and i % 10 == 0) else log_uniform(1e-6, 0.05)
             if fam == "churchill" and 2000.0 <= Re < 4000.0:
                 Re = 4000.0 + Re        # stay out of the flagged transition zone
             name = "%s_%d" % (fam, i)
-            statements.append("%s = %s(%s, %s)" % (name, fam, num(Re), num(rr)))
+            statements.append("%s = %s(%s, %s)" % (name, fn, num(Re), num(rr)))
             expected.append((name, fam, Re, rr, ref(Re, rr), tol))
     values, diags = run_calc(statements, "friction factors against python3-fluids")
     for name, fam, Re, rr, want, tol in expected:
