@@ -46,7 +46,7 @@ struct Expr {
     double number;           /* as written, in `unit` */
     const char *text;        /* the literal as written: number, string or name */
     bool has_unit;
-    Unit unit;               /* resolved unit, when has_unit */
+    const Unit *unit;        /* resolved unit (in the arena), when has_unit */
     /* EXPR_NAME: text is the name */
     int slot;
     /* EXPR_NEG (operand in lhs), EXPR_BINARY, EXPR_PAREN (inner in lhs) */

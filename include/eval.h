@@ -141,7 +141,7 @@ typedef struct StmtResult {
     const NetworkResult *network; /* NETWORK */
     const ResultTable *table;/* CURVE: its points; DEF: a table a function laid out */
     const FigureData *figure;/* FIGURE */
-    const Method *methods[CALL_MAX_METHODS];  /* published methods the line used */
+    const Method *const *methods; /* published methods the line used (nmethods; in the arena) */
     size_t nmethods;
 } StmtResult;
 

@@ -138,7 +138,7 @@ static const Expr *bare(const Expr *e)
 
 static Quantity literal_qty(const Expr *e)
 {
-    return e->has_unit ? unit_to_qty(e->number, &e->unit) : qty_number(e->number);
+    return e->has_unit ? unit_to_qty(e->number, e->unit) : qty_number(e->number);
 }
 
 static bool slot_same(const Diff *d, int o, int n)

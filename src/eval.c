@@ -38,7 +38,7 @@ void eval_describe_operand(EvalCtx *c, const Expr *e, const Value *v, char *buf,
         inner = inner->lhs;
     Unit shown;
     if (inner && inner->kind == EXPR_NUMBER && inner->has_unit) {
-        unit = inner->unit.text;
+        unit = inner->unit->text;
     } else if (inner && inner->kind == EXPR_NAME && inner->slot >= 0) {
         shown = c->ev->results[inner->slot].shown;
         unit = shown.text[0] ? shown.text : NULL;
@@ -403,10 +403,10 @@ bool eval_expr(EvalCtx *c, const Expr *e, Value *out)
             diag_error(c->diags, e->pos, "number '%s' is out of range", e->text);
             return false;
         }
-        *out = e->has_unit ? value_number(unit_to_qty(e->number, &e->unit)) : value_number(qty_number(e->number));
+        *out = e->has_unit ? value_number(unit_to_qty(e->number, e->unit)) : value_number(qty_number(e->number));
         if (out->q.pref == PRES_ABSOLUTE)
             c->ev->atmosphere_used = true;
-        if (e->has_unit && dim_eq(out->q.dim, DIM_POWER) && strstr(e->unit.text, "Btu")) {
+        if (e->has_unit && dim_eq(out->q.dim, DIM_POWER) && strstr(e->unit->text, "Btu")) {
             out->hint[UNITS_US] = HEAT_RATE_HINT[UNITS_US];
             out->hint[UNITS_SI] = HEAT_RATE_HINT[UNITS_SI];
         }
@@ -425,10 +425,10 @@ bool eval_expr(EvalCtx *c, const Expr *e, Value *out)
         return eval_expr(c, e->lhs, out);
     case EXPR_NEG: {
         Value v;
-        if (e->lhs->kind == EXPR_NUMBER && e->lhs->has_unit && e->lhs->unit.temp != TEMP_NONE) {
+        if (e->lhs->kind == EXPR_NUMBER && e->lhs->has_unit && e->lhs->unit->temp != TEMP_NONE) {
             /* -10 degC is a temperature written with a sign, a point below
              * zero on its scale: the literal -10 in degC, not a negation. */
-            *out = value_number(unit_to_qty(-e->lhs->number, &e->lhs->unit));
+            *out = value_number(unit_to_qty(-e->lhs->number, e->lhs->unit));
             return true;
         }
         if (!eval_expr(c, e->lhs, &v))
@@ -514,6 +514,8 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
      * evaluation the report shows */
     const char *const *warnings = res->warnings;
     size_t nwarnings = res->nwarnings;
+    const Method *const *methods = res->methods;
+    size_t nmethods = res->nmethods;
     memset(res, 0, sizeof *res);
     res->warnings = warnings;
     res->nwarnings = nwarnings;
@@ -572,7 +574,15 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
     case STMT_NOTE:
         break;
     }
-    memcpy(res->methods, cc.methods, sizeof res->methods);
+    /* the methods the line used, kept in the arena only when they change
+     * (a re-evaluation almost always uses the same ones) */
+    if (cc.nmethods && nmethods == cc.nmethods && memcmp(methods, cc.methods, nmethods * sizeof *methods) == 0) {
+        res->methods = methods;
+    } else if (cc.nmethods) {
+        const Method **m = arena_alloc(&ev->doc->arena, cc.nmethods * sizeof *m);
+        memcpy(m, cc.methods, cc.nmethods * sizeof *m);
+        res->methods = m;
+    }
     res->nmethods = cc.nmethods;
     if (!res->table)
         res->table = res->state == RES_OK ? cc.table : NULL;

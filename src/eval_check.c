@@ -14,7 +14,7 @@ const Unit *eval_written_unit(const Evaluated *ev, const Expr *e)
     if (!e)
         return NULL;
     if (e->kind == EXPR_NUMBER && e->has_unit)
-        return &e->unit;
+        return e->unit;
     if (e->kind == EXPR_NAME && e->slot >= 0 && ev->results[e->slot].shown.text[0])
         return &ev->results[e->slot].shown;
     return NULL;

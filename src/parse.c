@@ -232,7 +232,9 @@ static Expr *parse_primary(Parser *p)
         if (t.unit) {
             e->text = arena_strndup(p->arena, t.text, (size_t)(t.unit + t.unit_len - t.text));
             e->has_unit = 1;
-            if (!resolve_unit(t.unit, t.unit_len, t.unit_pos, &e->unit, p->diags, t.text, t.len))
+            Unit *u = arena_alloc(p->arena, sizeof *u);
+            e->unit = u;
+            if (!resolve_unit(t.unit, t.unit_len, t.unit_pos, u, p->diags, t.text, t.len))
                 p->failed = 1;
             p->unit_text = t.unit;
             p->unit_len = t.unit_len;
@@ -354,7 +356,7 @@ static Expr *parse_unary(Parser *p)
         if (!operand || t.kind == TOK_PLUS) {
             r = operand;
         } else if (operand->kind == EXPR_NUMBER && operand->has_unit &&
-                   (operand->unit.temp != TEMP_NONE || operand->unit.pref != PRES_PLAIN)) {
+                   (operand->unit->temp != TEMP_NONE || operand->unit->pref != PRES_PLAIN)) {
             /* `-10 degC`, `-5 psig`: a negative value on a scale, not the
              * negation of a point (which is an error). */
             operand->number = -operand->number;

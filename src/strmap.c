@@ -27,9 +27,22 @@ static size_t strmap_slot_n(const char *const *keys, size_t cap, const char *key
     return i;
 }
 
+static uint64_t strmap_hash_z(const char *s)
+{
+    uint64_t h = 1469598103934665603u; /* FNV-1a, the same as strmap_hash */
+    for (; *s; s++) {
+        h ^= (unsigned char)*s;
+        h *= 1099511628211u;
+    }
+    return h;
+}
+
 static size_t strmap_slot(const char *const *keys, size_t cap, const char *key)
 {
-    return strmap_slot_n(keys, cap, key, strlen(key));
+    size_t i = (size_t)strmap_hash_z(key) & (cap - 1);
+    while (keys[i] && strcmp(keys[i], key) != 0)
+        i = (i + 1) & (cap - 1);
+    return i;
 }
 
 static void strmap_grow(StrMap *m)

@@ -592,7 +592,7 @@ static MathBox *expr_box(const MathEnv *env, const Expr *e, double size, bool su
             const char *u = t + nlen;
             while (*u == ' ')
                 u++;
-            b = with_unit(env, b, *u ? u : e->unit.text, size, false);
+            b = with_unit(env, b, *u ? u : e->unit->text, size, false);
             if (ctx == CTX_POW_BASE)
                 b = paren(env, b, size);
         }

@@ -566,7 +566,7 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
             /* An input shown in the unit it was written in needs no result. */
             bool unitless = r->shown.text[0] == '\0' || strcmp(r->shown.text, "1") == 0;
             bool literal = bare->kind == EXPR_STRING ||
-                           (bare->kind == EXPR_NUMBER && (bare->has_unit ? strcmp(bare->unit.text, r->shown.text) == 0 : unitless));
+                           (bare->kind == EXPR_NUMBER && (bare->has_unit ? strcmp(bare->unit->text, r->shown.text) == 0 : unitless));
             if (!literal && r->value.kind != VAL_RECORD)
                 sb_printf(out, " = %s", sb_str(&res));
             sb_free(&res);
