@@ -1,4 +1,5 @@
-/* diff_json.c — `headroom diff --json`, written with jansson.
+/* diff_json.c — `headroom diff --json`, written by the streaming writer
+ * json_out.h.
  *
  * The shape (also in the README, "Reviewing revisions"):
  *   { "old": {"file", "digest", "revision"}, "new": {...},
@@ -18,86 +19,92 @@
  * the unit the document shows it in), {"text"} for a string and null when
  * absent; "relative_change" is (new - old)/|old| or null. Checks come in the
  * order now fails, now holds, then the rest ("change": "now_fails",
- * "now_holds", "utilization", "condition"). Only the JSON writers include
- * jansson. */
-#include <jansson.h>
-#include <math.h>
+ * "now_holds", "utilization", "condition"). */
 #include <string.h>
 
 #include "diff.h"
+#include "json_out.h"
 #include "render.h"
 
-static json_t *real_or_null(double x)
+/* null without a text; a text that is not UTF-8 leaves the member out */
+static void text_or_null(JsonOut *w, const char *key, const char *s)
 {
-    return isfinite(x) ? json_real(x) : json_null();
+    if (s)
+        json_out_string(w, key, s);
+    else
+        json_out_null(w, key);
 }
 
-static json_t *text_or_null(const char *s)
+static void value_write(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *u)
 {
-    return s ? json_string(s) : json_null();
-}
-
-static json_t *value_json(const Evaluated *ev, const Value *v, const Unit *u)
-{
-    json_t *o = json_object();
-    StrBuf sb = {0};
     switch (v->kind) {
     case VAL_NUMBER: {
         char si_unit[64];
+        StrBuf sb = {0};
         dim_format_si(v->q.dim, si_unit, sizeof si_unit);
-        json_object_set_new(o, "si", real_or_null(v->q.si));
-        json_object_set_new(o, "si_unit", json_string(si_unit));
+        json_out_begin_object(w, key);
+        json_out_real(w, "si", v->q.si);
+        json_out_string(w, "si_unit", si_unit);
         render_value_text(ev, v, u, &sb);
-        json_object_set_new(o, "text", json_string(sb_str(&sb)));
+        json_out_string(w, "text", sb_str(&sb));
+        json_out_end_object(w);
+        sb_free(&sb);
         break;
     }
     case VAL_STRING:
-        json_object_set_new(o, "text", json_string(v->str));
+        json_out_begin_object(w, key);
+        json_out_string(w, "text", v->str);
+        json_out_end_object(w);
         break;
     case VAL_RECORD:
-        json_object_set_new(o, "record", json_string(v->rec->type));
+        json_out_begin_object(w, key);
+        json_out_string(w, "record", v->rec->type);
+        json_out_end_object(w);
         break;
     default:
-        json_decref(o);
-        o = json_null();
+        json_out_null(w, key);
         break;
     }
-    sb_free(&sb);
-    return o;
 }
 
-static void set_lines(json_t *o, const Diff *d, int new_slot, int old_slot)
+static void lines_write(JsonOut *w, const Diff *d, int new_slot, int old_slot)
 {
-    json_object_set_new(o, "line", new_slot >= 0 ? json_integer(d->new_ev->doc->stmts[new_slot]->pos.line) : json_null());
-    json_object_set_new(o, "old_line", old_slot >= 0 ? json_integer(d->old_ev->doc->stmts[old_slot]->pos.line) : json_null());
+    if (new_slot >= 0)
+        json_out_int(w, "line", d->new_ev->doc->stmts[new_slot]->pos.line);
+    else
+        json_out_null(w, "line");
+    if (old_slot >= 0)
+        json_out_int(w, "old_line", d->old_ev->doc->stmts[old_slot]->pos.line);
+    else
+        json_out_null(w, "old_line");
 }
 
-static json_t *side_json(const Document *doc)
+static void side_write(JsonOut *w, const char *key, const Document *doc)
 {
-    json_t *o = json_object();
-    json_object_set_new(o, "file", json_string(doc->file));
-    json_object_set_new(o, "digest", json_string(doc->digest));
-    json_object_set_new(o, "revision", text_or_null(doc->meta.revision));
-    return o;
+    json_out_begin_object(w, key);
+    json_out_string(w, "file", doc->file);
+    json_out_string(w, "digest", doc->digest);
+    text_or_null(w, "revision", doc->meta.revision);
+    json_out_end_object(w);
 }
 
-static json_t *value_change_json(const Diff *d, const ValueChange *c, bool result)
+static void value_change_write(JsonOut *w, const Diff *d, const ValueChange *c, bool result)
 {
-    json_t *o = json_object();
-    json_object_set_new(o, "name", json_string(c->name));
-    set_lines(o, d, c->new_slot, c->old_slot);
-    json_object_set_new(o, "old", value_json(d->old_ev, &c->old_value, &c->old_unit));
-    json_object_set_new(o, "new", value_json(d->new_ev, &c->new_value, &c->new_unit));
-    json_object_set_new(o, "relative_change", real_or_null(c->rel));
-    json_object_set_new(o, "dimension_changed", json_boolean(c->dim_changed));
+    json_out_begin_object(w, NULL);
+    json_out_string(w, "name", c->name);
+    lines_write(w, d, c->new_slot, c->old_slot);
+    value_write(w, "old", d->old_ev, &c->old_value, &c->old_unit);
+    value_write(w, "new", d->new_ev, &c->new_value, &c->new_unit);
+    json_out_real(w, "relative_change", c->rel);
+    json_out_bool(w, "dimension_changed", c->dim_changed);
     if (result) {
-        json_object_set_new(o, "formula_changed", json_boolean(c->formula_changed));
-        json_t *in = json_array();
+        json_out_bool(w, "formula_changed", c->formula_changed);
+        json_out_begin_array(w, "inputs");
         for (size_t k = 0; k < c->ninputs; k++)
-            json_array_append_new(in, json_string(d->inputs[c->inputs[k]].name));
-        json_object_set_new(o, "inputs", in);
+            json_out_string(w, NULL, d->inputs[c->inputs[k]].name);
+        json_out_end_array(w);
     }
-    return o;
+    json_out_end_object(w);
 }
 
 static const char *stmt_kind(const Stmt *s)
@@ -117,195 +124,215 @@ static const char *stmt_title(const Stmt *s)
     return s->kind == STMT_CHECK ? s->label : s->name;
 }
 
-static json_t *cites_json(const Stmt *s)
+static void cites_write(JsonOut *w, const char *key, const Stmt *s)
 {
-    json_t *a = json_array();
+    json_out_begin_array(w, key);
     for (size_t k = 0; k < s->ncites; k++)
-        json_array_append_new(a, json_string(s->cites[k].key));
-    return a;
+        json_out_string(w, NULL, s->cites[k].key);
+    json_out_end_array(w);
 }
 
-static json_t *citation_json(const Diff *d, const CiteChange *c)
+static void citation_write(JsonOut *w, const Diff *d, const CiteChange *c)
 {
     const Document *od = d->old_ev->doc, *nd = d->new_ev->doc;
     const Source *os = c->old_source >= 0 ? &od->sources[c->old_source] : NULL;
     const Source *ns = c->new_source >= 0 ? &nd->sources[c->new_source] : NULL;
-    json_t *o = json_object();
     static const char *const names[] = {"source_changed", "source_added", "source_removed", "cites_changed"};
-    json_object_set_new(o, "change", json_string(names[c->kind]));
+    json_out_begin_object(w, NULL);
+    json_out_string(w, "change", names[c->kind]);
     if (c->kind == CITE_STMT_CITES) {
         const Stmt *a = od->stmts[c->old_slot], *b = nd->stmts[c->new_slot];
-        json_object_set_new(o, "name", json_string(stmt_title(b)));
-        json_object_set_new(o, "kind", json_string(stmt_kind(b)));
-        json_object_set_new(o, "old", cites_json(a));
-        json_object_set_new(o, "new", cites_json(b));
-        set_lines(o, d, c->new_slot, c->old_slot);
+        json_out_string(w, "name", stmt_title(b));
+        json_out_string(w, "kind", stmt_kind(b));
+        cites_write(w, "old", a);
+        cites_write(w, "new", b);
+        lines_write(w, d, c->new_slot, c->old_slot);
     } else {
-        json_object_set_new(o, "key", json_string(ns ? ns->key : os->key));
-        json_object_set_new(o, "old", text_or_null(os ? os->text : NULL));
-        json_object_set_new(o, "new", text_or_null(ns ? ns->text : NULL));
-        json_object_set_new(o, "line", ns ? json_integer(ns->pos.line) : json_null());
-        json_object_set_new(o, "old_line", os ? json_integer(os->pos.line) : json_null());
+        json_out_string(w, "key", ns ? ns->key : os->key);
+        text_or_null(w, "old", os ? os->text : NULL);
+        text_or_null(w, "new", ns ? ns->text : NULL);
+        if (ns)
+            json_out_int(w, "line", ns->pos.line);
+        else
+            json_out_null(w, "line");
+        if (os)
+            json_out_int(w, "old_line", os->pos.line);
+        else
+            json_out_null(w, "old_line");
     }
-    return o;
+    json_out_end_object(w);
 }
 
-static json_t *diff_json(const Diff *d)
+/* A title, or null without the statement (a title that is missing or not
+ * UTF-8 leaves the member out). */
+static void title_or_null(JsonOut *w, const char *key, const Stmt *s)
 {
-    json_t *root = json_object();
-    json_object_set_new(root, "old", side_json(d->old_ev->doc));
-    json_object_set_new(root, "new", side_json(d->new_ev->doc));
-    json_object_set_new(root, "rel_tol", json_real(d->opt.rel_tol));
-    json_object_set_new(root, "changed", json_boolean(d->changed));
+    if (s)
+        json_out_string(w, key, stmt_title(s));
+    else
+        json_out_null(w, key);
+}
 
-    json_t *meta = json_array();
+static void diff_write(JsonOut *w, const char *key, const Diff *d)
+{
+    json_out_begin_object(w, key);
+    side_write(w, "old", d->old_ev->doc);
+    side_write(w, "new", d->new_ev->doc);
+    json_out_real(w, "rel_tol", d->opt.rel_tol);
+    json_out_bool(w, "changed", d->changed);
+
+    json_out_begin_array(w, "front_matter");
     for (size_t i = 0; i < d->nmeta; i++) {
-        json_t *m = json_object();
-        json_object_set_new(m, "key", json_string(d->meta[i].key));
-        json_object_set_new(m, "old", json_string(d->meta[i].old_text));
-        json_object_set_new(m, "new", json_string(d->meta[i].new_text));
-        json_object_set_new(m, "display_only", json_boolean(d->meta[i].display_only));
-        json_array_append_new(meta, m);
+        json_out_begin_object(w, NULL);
+        json_out_string(w, "key", d->meta[i].key);
+        json_out_string(w, "old", d->meta[i].old_text);
+        json_out_string(w, "new", d->meta[i].new_text);
+        json_out_bool(w, "display_only", d->meta[i].display_only);
+        json_out_end_object(w);
     }
-    json_object_set_new(root, "front_matter", meta);
+    json_out_end_array(w);
 
-    json_t *inputs = json_array(), *results = json_array();
+    json_out_begin_array(w, "inputs");
     for (size_t i = 0; i < d->ninputs; i++)
-        json_array_append_new(inputs, value_change_json(d, &d->inputs[i], false));
+        value_change_write(w, d, &d->inputs[i], false);
+    json_out_end_array(w);
+    json_out_begin_array(w, "results");
     for (size_t i = 0; i < d->nresults; i++)
-        json_array_append_new(results, value_change_json(d, &d->results[i], true));
-    json_object_set_new(root, "inputs", inputs);
-    json_object_set_new(root, "results", results);
+        value_change_write(w, d, &d->results[i], true);
+    json_out_end_array(w);
 
-    json_t *checks = json_array();
     static const char *const kinds[] = {"now_fails", "now_holds", "utilization", "condition"};
+    json_out_begin_array(w, "checks");
     for (size_t i = 0; i < d->nchecks; i++) {
         const CheckChange *c = &d->checks[i];
-        json_t *o = json_object();
-        json_object_set_new(o, "label", json_string(d->new_ev->doc->stmts[c->new_slot]->label));
-        set_lines(o, d, c->new_slot, c->old_slot);
-        json_object_set_new(o, "change", json_string(kinds[c->kind]));
-        json_object_set_new(o, "old_holds", json_boolean(d->old_ev->results[c->old_slot].holds));
-        json_object_set_new(o, "new_holds", json_boolean(d->new_ev->results[c->new_slot].holds));
-        json_object_set_new(o, "old_utilization", real_or_null(c->old_util));
-        json_object_set_new(o, "new_utilization", real_or_null(c->new_util));
-        json_object_set_new(o, "condition_changed", json_boolean(c->condition_changed));
-        json_array_append_new(checks, o);
+        json_out_begin_object(w, NULL);
+        json_out_string(w, "label", d->new_ev->doc->stmts[c->new_slot]->label);
+        lines_write(w, d, c->new_slot, c->old_slot);
+        json_out_string(w, "change", kinds[c->kind]);
+        json_out_bool(w, "old_holds", d->old_ev->results[c->old_slot].holds);
+        json_out_bool(w, "new_holds", d->new_ev->results[c->new_slot].holds);
+        json_out_real(w, "old_utilization", c->old_util);
+        json_out_real(w, "new_utilization", c->new_util);
+        json_out_bool(w, "condition_changed", c->condition_changed);
+        json_out_end_object(w);
     }
-    json_object_set_new(root, "checks", checks);
+    json_out_end_array(w);
     if (d->nfindings) {
-        json_t *findings = json_array();
         static const char *const fkinds[] = {"now_no", "now_yes", "", "condition"};
+        json_out_begin_array(w, "findings");
         for (size_t i = 0; i < d->nfindings; i++) {
             const CheckChange *c = &d->findings[i];
-            json_t *o = json_object();
-            json_object_set_new(o, "label", json_string(d->new_ev->doc->stmts[c->new_slot]->label));
-            set_lines(o, d, c->new_slot, c->old_slot);
-            json_object_set_new(o, "change", json_string(fkinds[c->kind]));
-            json_object_set_new(o, "old_answer", json_boolean(d->old_ev->results[c->old_slot].holds));
-            json_object_set_new(o, "new_answer", json_boolean(d->new_ev->results[c->new_slot].holds));
-            json_object_set_new(o, "condition_changed", json_boolean(c->condition_changed));
-            json_array_append_new(findings, o);
+            json_out_begin_object(w, NULL);
+            json_out_string(w, "label", d->new_ev->doc->stmts[c->new_slot]->label);
+            lines_write(w, d, c->new_slot, c->old_slot);
+            json_out_string(w, "change", fkinds[c->kind]);
+            json_out_bool(w, "old_answer", d->old_ev->results[c->old_slot].holds);
+            json_out_bool(w, "new_answer", d->new_ev->results[c->new_slot].holds);
+            json_out_bool(w, "condition_changed", c->condition_changed);
+            json_out_end_object(w);
         }
-        json_object_set_new(root, "findings", findings);
+        json_out_end_array(w);
     }
 
-    json_t *stmts = json_array();
     static const char *const changes[] = {"added", "removed", "renamed"};
+    json_out_begin_array(w, "statements");
     for (size_t i = 0; i < d->nstmts; i++) {
         const StmtChange *c = &d->stmts[i];
         const Stmt *os = c->old_slot >= 0 ? d->old_ev->doc->stmts[c->old_slot] : NULL;
         const Stmt *ns = c->new_slot >= 0 ? d->new_ev->doc->stmts[c->new_slot] : NULL;
-        json_t *o = json_object();
-        json_object_set_new(o, "change", json_string(changes[c->kind]));
-        json_object_set_new(o, "kind", json_string(stmt_kind(ns ? ns : os)));
-        json_object_set_new(o, "name", ns ? json_string(stmt_title(ns)) : json_null());
-        json_object_set_new(o, "old_name", os ? json_string(stmt_title(os)) : json_null());
-        set_lines(o, d, c->new_slot, c->old_slot);
-        json_array_append_new(stmts, o);
+        json_out_begin_object(w, NULL);
+        json_out_string(w, "change", changes[c->kind]);
+        json_out_string(w, "kind", stmt_kind(ns ? ns : os));
+        title_or_null(w, "name", ns);
+        title_or_null(w, "old_name", os);
+        lines_write(w, d, c->new_slot, c->old_slot);
+        json_out_end_object(w);
     }
-    json_object_set_new(root, "statements", stmts);
+    json_out_end_array(w);
 
-    json_t *cites = json_array();
+    json_out_begin_array(w, "citations");
     for (size_t i = 0; i < d->ncites; i++)
-        json_array_append_new(cites, citation_json(d, &d->cites[i]));
-    json_object_set_new(root, "citations", cites);
+        citation_write(w, d, &d->cites[i]);
+    json_out_end_array(w);
 
-    json_t *prose = json_array();
     static const char *const pk[] = {"changed", "added", "removed"};
+    json_out_begin_array(w, "prose");
     for (size_t i = 0; i < d->nprose; i++) {
         const ProseChange *c = &d->prose[i];
-        json_t *o = json_object();
-        json_object_set_new(o, "section", text_or_null(c->heading));
-        json_object_set_new(o, "number", json_string(c->number));
-        json_object_set_new(o, "change", json_string(pk[c->kind]));
+        json_out_begin_object(w, NULL);
+        text_or_null(w, "section", c->heading);
+        json_out_string(w, "number", c->number);
+        json_out_string(w, "change", pk[c->kind]);
         if (c->old_heading)
-            json_object_set_new(o, "old_section", json_string(c->old_heading));
-        json_object_set_new(o, c->kind == PROSE_REMOVED ? "old_line" : "line", json_integer(c->line));
-        json_object_set_new(o, "paragraphs_changed", json_integer((json_int_t)c->changed));
-        json_object_set_new(o, "paragraphs_added", json_integer((json_int_t)c->added));
-        json_object_set_new(o, "paragraphs_removed", json_integer((json_int_t)c->removed));
-        json_array_append_new(prose, o);
+            json_out_string(w, "old_section", c->old_heading);
+        json_out_int(w, c->kind == PROSE_REMOVED ? "old_line" : "line", c->line);
+        json_out_int(w, "paragraphs_changed", (long long)c->changed);
+        json_out_int(w, "paragraphs_added", (long long)c->added);
+        json_out_int(w, "paragraphs_removed", (long long)c->removed);
+        json_out_end_object(w);
     }
-    json_object_set_new(root, "prose", prose);
+    json_out_end_array(w);
 
     if (d->nuses) {
         static const char *const uk[] = {"changed", "added", "removed"};
-        json_t *uses = json_array();
+        json_out_begin_array(w, "uses");
         for (size_t i = 0; i < d->nuses; i++) {
             const UseChange *c = &d->uses[i];
-            json_t *o = json_object();
-            json_object_set_new(o, "file", json_string(c->name));
-            json_object_set_new(o, "change", json_string(uk[c->kind]));
-            json_object_set_new(o, "old_digest", text_or_null(c->old_digest));
-            json_object_set_new(o, "new_digest", text_or_null(c->new_digest));
-            json_t *moved = json_array();
-            for (size_t k = 0; k < c->nmoved; k++) {
-                const ValueChange *v = &d->results[c->moved[k]];
-                json_array_append_new(moved, json_string(v->name));
-            }
-            json_object_set_new(o, "moved", moved);
-            json_array_append_new(uses, o);
+            json_out_begin_object(w, NULL);
+            json_out_string(w, "file", c->name);
+            json_out_string(w, "change", uk[c->kind]);
+            text_or_null(w, "old_digest", c->old_digest);
+            text_or_null(w, "new_digest", c->new_digest);
+            json_out_begin_array(w, "moved");
+            for (size_t k = 0; k < c->nmoved; k++)
+                json_out_string(w, NULL, d->results[c->moved[k]].name);
+            json_out_end_array(w);
+            json_out_end_object(w);
         }
-        json_object_set_new(root, "uses", uses);
+        json_out_end_array(w);
     }
-
-    return root;
-}
-
-static bool dump(json_t *root, FILE *out)
-{
-    int rc = json_dumpf(root, out, JSON_INDENT(2) | JSON_PRESERVE_ORDER | JSON_REAL_PRECISION(17));
-    fputc('\n', out);
-    json_decref(root);
-    return rc == 0;
+    json_out_end_object(w);
 }
 
 bool render_diff_json(const Diff *d, FILE *out)
 {
-    return dump(diff_json(d), out);
+    JsonOut w;
+    json_out_init(&w, out);
+    diff_write(&w, NULL, d);
+    fputc('\n', out);
+    return !ferror(out);
 }
 
 bool render_package_diff_json(const Diff *index, const PartDiff *parts, size_t n, FILE *out)
 {
-    json_t *root = json_object();
-    json_object_set_new(root, "old", side_json(index->old_ev->doc));
-    json_object_set_new(root, "new", side_json(index->new_ev->doc));
-    bool changed = index->changed;
-    json_t *arr = json_array();
     static const char *const kind[] = {"same", "changed", "added", "removed"};
+    bool changed = index->changed;
+    for (size_t i = 0; i < n; i++) {
+        const PartDiff *p = &parts[i];
+        changed |= p->added || p->removed || (p->diff && p->diff->changed);
+    }
+    JsonOut w;
+    json_out_init(&w, out);
+    json_out_begin_object(&w, NULL);
+    side_write(&w, "old", index->old_ev->doc);
+    side_write(&w, "new", index->new_ev->doc);
+    json_out_bool(&w, "changed", changed);
+    diff_write(&w, "index", index);
+    json_out_begin_array(&w, "parts");
     for (size_t i = 0; i < n; i++) {
         const PartDiff *p = &parts[i];
         int k = p->added ? 2 : p->removed ? 3 : p->diff && p->diff->changed ? 1 : 0;
-        changed |= k != 0;
-        json_t *o = json_object();
-        json_object_set_new(o, "file", json_string(p->file));
-        json_object_set_new(o, "change", json_string(kind[k]));
-        json_object_set_new(o, "diff", p->diff ? diff_json(p->diff) : json_null());
-        json_array_append_new(arr, o);
+        json_out_begin_object(&w, NULL);
+        json_out_string(&w, "file", p->file);
+        json_out_string(&w, "change", kind[k]);
+        if (p->diff)
+            diff_write(&w, "diff", p->diff);
+        else
+            json_out_null(&w, "diff");
+        json_out_end_object(&w);
     }
-    json_object_set_new(root, "changed", json_boolean(changed));
-    json_object_set_new(root, "index", diff_json(index));
-    json_object_set_new(root, "parts", arr);
-    return dump(root, out);
+    json_out_end_array(&w);
+    json_out_end_object(&w);
+    fputc('\n', out);
+    return !ferror(out);
 }
