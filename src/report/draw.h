@@ -1,7 +1,8 @@
 /* draw.h — the drawing layer: the one door to libharu.
  *
  * The PDF report draws through these functions only; draw.c and
- * draw_archive.c are the only files that include <hpdf.h>. A document
+ * draw_archive.c are the only files that call libharu (through
+ * hpdf_load.h, which loads it at the first build). A document
  * (Draw) owns its fonts, its pages and the first library error; a page
  * (DrawPage) takes text runs, paths, links. Every drawing call is a no-op
  * on a NULL page, so a renderer's measuring pass (no page) and its drawing
