@@ -31,14 +31,15 @@ ALL_CFLAGS = $(WARN) $(CFLAGS) -D_POSIX_C_SOURCE=200809L -DHEADROOM_VERSION='"$(
 # them at the first PDF build or network solve, by the shared-object names
 # (SONAME) of the libraries the compiler would link, so a `check` starts
 # without them. The small libraries every run needs (cmark-gfm, libyaml,
-# jansson) are linked statically, which saves their relocation at start-up.
+# jansson, nettle) are linked statically, which saves mapping and relocating
+# them at start-up.
 soname   = $(shell f=$$($(CC) -print-file-name=$(1)); readelf -d "$$f" 2>/dev/null | sed -n 's/.*SONAME.*\[\(.*\)\]/\1/p')
 HPDF_SONAME    := $(call soname,libhpdf.so)
 CHOLMOD_SONAME := $(call soname,libcholmod.so)
 ALL_CFLAGS += $(if $(HPDF_SONAME),-DHPDF_SONAME='"$(HPDF_SONAME)"') \
               $(if $(CHOLMOD_SONAME),-DCHOLMOD_SONAME='"$(CHOLMOD_SONAME)"')
-LIBS    = -Wl,-Bstatic -lcmark-gfm-extensions -lcmark-gfm -lyaml -ljansson -Wl,-Bdynamic \
-          -lnettle -lm -ldl -lpthread
+LIBS    = -Wl,-Bstatic -lcmark-gfm-extensions -lcmark-gfm -lyaml -ljansson -lnettle -Wl,-Bdynamic \
+          -lm -ldl -lpthread
 
 SAN     := -fsanitize=address,undefined -fno-omit-frame-pointer -fno-sanitize-recover=undefined
 
