@@ -15,6 +15,7 @@ import os
 import statistics
 import subprocess
 import sys
+import tempfile
 import time
 
 BUILD = sys.argv[1] if len(sys.argv) > 1 else "build"
@@ -35,13 +36,16 @@ HEADER = ("job", "figure", "peak memory", "floor", "ratio", "target")
 
 
 def run_once(argv):
-    """Wall time (s), peak RSS (MiB) and exit code of one fresh process."""
-    start = time.perf_counter()
-    proc = subprocess.Popen(argv, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE)
-    _, status, usage = os.wait4(proc.pid, 0)
-    wall = time.perf_counter() - start
-    err = proc.stderr.read().decode(errors="replace")
-    proc.stderr.close()
+    """Wall time (s) and peak RSS (MiB) of one fresh process. Its stderr goes
+    to a temporary file, not a pipe: a run that warns a lot would otherwise
+    block on a full pipe while we wait for it."""
+    with tempfile.TemporaryFile() as errf:
+        start = time.perf_counter()
+        proc = subprocess.Popen(argv, stdout=subprocess.DEVNULL, stderr=errf)
+        _, status, usage = os.wait4(proc.pid, 0)
+        wall = time.perf_counter() - start
+        errf.seek(0)
+        err = errf.read().decode(errors="replace")
     code = os.waitstatus_to_exitcode(status)
     if code not in (0, 1):
         sys.exit(f"bench: {' '.join(argv)} exited {code}\n{err[:2000]}")
