@@ -20,6 +20,8 @@ enum { JSON_OUT_DEPTH = 32 };
 
 typedef struct JsonOut {
     FILE *f;
+    char buf[16384];              /* written to f when full and at the end */
+    size_t len;
     int depth;                    /* open containers */
     int skip;                     /* > 0: inside a member being left out */
     bool has_items[JSON_OUT_DEPTH + 1];
@@ -27,6 +29,8 @@ typedef struct JsonOut {
 } JsonOut;
 
 void json_out_init(JsonOut *w, FILE *f);
+/* Write out what is buffered; false on a write error. */
+bool json_out_finish(JsonOut *w);
 void json_out_begin_object(JsonOut *w, const char *key);
 void json_out_end_object(JsonOut *w);
 void json_out_begin_array(JsonOut *w, const char *key);

@@ -299,8 +299,9 @@ bool render_diff_json(const Diff *d, FILE *out)
     JsonOut w;
     json_out_init(&w, out);
     diff_write(&w, NULL, d);
+    bool ok = json_out_finish(&w);
     fputc('\n', out);
-    return !ferror(out);
+    return ok && !ferror(out);
 }
 
 bool render_package_diff_json(const Diff *index, const PartDiff *parts, size_t n, FILE *out)
@@ -333,6 +334,7 @@ bool render_package_diff_json(const Diff *index, const PartDiff *parts, size_t n
     }
     json_out_end_array(&w);
     json_out_end_object(&w);
+    bool ok = json_out_finish(&w);
     fputc('\n', out);
-    return !ferror(out);
+    return ok && !ferror(out);
 }

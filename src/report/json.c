@@ -535,8 +535,9 @@ bool render_json(const Evaluated *const *evs, const DiagList *diags, size_t nfil
         document_write(&w, evs[i], diags);
     if (nfiles != 1)
         json_out_end_array(&w);
+    bool ok = json_out_finish(&w);
     fputc('\n', out);
-    return !ferror(out);
+    return ok && !ferror(out);
 }
 
 json_t *json_text(const char *s)

@@ -12,6 +12,35 @@ void json_out_init(JsonOut *w, FILE *f)
     w->f = f;
 }
 
+static void flush(JsonOut *w)
+{
+    if (w->len)
+        fwrite(w->buf, 1, w->len, w->f);
+    w->len = 0;
+}
+
+static void put(JsonOut *w, const char *s, size_t n)
+{
+    if (w->len + n > sizeof w->buf) {
+        flush(w);
+        if (n > sizeof w->buf) {
+            fwrite(s, 1, n, w->f);
+            return;
+        }
+    }
+    memcpy(w->buf + w->len, s, n);
+    w->len += n;
+}
+
+static void put_str(JsonOut *w, const char *s) { put(w, s, strlen(s)); }
+static void put_char(JsonOut *w, char c) { put(w, &c, 1); }
+
+bool json_out_finish(JsonOut *w)
+{
+    flush(w);
+    return !ferror(w->f);
+}
+
 /* The length of the well-formed UTF-8 sequence at s, or 0. */
 static size_t utf8_sequence(const unsigned char *s)
 {
@@ -46,6 +75,10 @@ bool json_out_utf8_ok(const char *s)
 {
     const unsigned char *p = (const unsigned char *)s;
     while (*p) {
+        if (*p < 0x80) {
+            p++;
+            continue;
+        }
         size_t n = utf8_sequence(p);
         if (n == 0)
             return false;
@@ -54,30 +87,35 @@ bool json_out_utf8_ok(const char *s)
     return true;
 }
 
-static void put_quoted(FILE *f, const char *s)
+static void put_quoted(JsonOut *w, const char *s)
 {
-    putc('"', f);
+    put_char(w, '"');
     const char *run = s;
     for (const char *p = s;; p++) {
         unsigned char c = (unsigned char)*p;
         if (c >= 0x20 && c != '"' && c != '\\')
             continue;
-        fwrite(run, 1, (size_t)(p - run), f);
+        put(w, run, (size_t)(p - run));
         if (c == '\0')
             break;
         switch (c) {
-        case '"': fputs("\\\"", f); break;
-        case '\\': fputs("\\\\", f); break;
-        case '\b': fputs("\\b", f); break;
-        case '\f': fputs("\\f", f); break;
-        case '\n': fputs("\\n", f); break;
-        case '\r': fputs("\\r", f); break;
-        case '\t': fputs("\\t", f); break;
-        default: fprintf(f, "\\u%04X", (unsigned)c); break;
+        case '"': put_str(w, "\\\""); break;
+        case '\\': put_str(w, "\\\\"); break;
+        case '\b': put_str(w, "\\b"); break;
+        case '\f': put_str(w, "\\f"); break;
+        case '\n': put_str(w, "\\n"); break;
+        case '\r': put_str(w, "\\r"); break;
+        case '\t': put_str(w, "\\t"); break;
+        default: {
+            char esc[8];
+            snprintf(esc, sizeof esc, "\\u%04X", (unsigned)c);
+            put_str(w, esc);
+            break;
+        }
         }
         run = p + 1;
     }
-    putc('"', f);
+    put_char(w, '"');
 }
 
 /* Start a member: false (write nothing) when it is left out. */
@@ -88,13 +126,13 @@ static bool member(JsonOut *w, const char *key)
     if (w->depth > 0 && w->is_object[w->depth] && (!key || !json_out_utf8_ok(key)))
         return false;
     if (w->depth > 0) {
-        fputs(w->has_items[w->depth] ? ",\n" : "\n", w->f);
+        put_str(w, w->has_items[w->depth] ? ",\n" : "\n");
         w->has_items[w->depth] = true;
         for (int i = 0; i < w->depth; i++)
-            fputs("  ", w->f);
+            put_str(w, "  ");
         if (w->is_object[w->depth]) {
-            put_quoted(w->f, key);
-            fputs(": ", w->f);
+            put_quoted(w, key);
+            put_str(w, ": ");
         }
     }
     return true;
@@ -106,7 +144,7 @@ static void begin(JsonOut *w, const char *key, bool object)
         w->skip++;
         return;
     }
-    putc(object ? '{' : '[', w->f);
+    put_char(w, object ? '{' : '[');
     w->depth++;
     w->has_items[w->depth] = false;
     w->is_object[w->depth] = object;
@@ -123,11 +161,11 @@ static void end(JsonOut *w, bool object)
     bool items = w->has_items[w->depth];
     w->depth--;
     if (items) {
-        putc('\n', w->f);
+        put_char(w, '\n');
         for (int i = 0; i < w->depth; i++)
-            fputs("  ", w->f);
+            put_str(w, "  ");
     }
-    putc(object ? '}' : ']', w->f);
+    put_char(w, object ? '}' : ']');
 }
 
 void json_out_begin_object(JsonOut *w, const char *key) { begin(w, key, true); }
@@ -138,7 +176,7 @@ void json_out_end_array(JsonOut *w) { end(w, false); }
 void json_out_string(JsonOut *w, const char *key, const char *s)
 {
     if (s && json_out_utf8_ok(s) && member(w, key))
-        put_quoted(w->f, s);
+        put_quoted(w, s);
 }
 
 void json_out_text(JsonOut *w, const char *key, const char *s)
@@ -158,7 +196,7 @@ void json_out_text(JsonOut *w, const char *key, const char *s)
         return;
     for (size_t i = 0; i <= n; i++)
         copy[i] = (unsigned char)s[i] >= 0x80 ? '?' : s[i];
-    put_quoted(w->f, copy);
+    put_quoted(w, copy);
     if (copy != buf)
         free(copy);
 }
@@ -168,7 +206,7 @@ void json_out_real(JsonOut *w, const char *key, double x)
     if (!member(w, key))
         return;
     if (!isfinite(x)) {
-        fputs("null", w->f);
+        put_str(w, "null");
         return;
     }
     char buf[40];
@@ -190,23 +228,26 @@ void json_out_real(JsonOut *w, const char *key, double x)
             from++;
         memmove(to, from, strlen(from) + 1);
     }
-    fputs(buf, w->f);
+    put_str(w, buf);
 }
 
 void json_out_int(JsonOut *w, const char *key, long long v)
 {
-    if (member(w, key))
-        fprintf(w->f, "%lld", v);
+    if (member(w, key)) {
+        char buf[32];
+        snprintf(buf, sizeof buf, "%lld", v);
+        put_str(w, buf);
+    }
 }
 
 void json_out_bool(JsonOut *w, const char *key, bool b)
 {
     if (member(w, key))
-        fputs(b ? "true" : "false", w->f);
+        put_str(w, b ? "true" : "false");
 }
 
 void json_out_null(JsonOut *w, const char *key)
 {
     if (member(w, key))
-        fputs("null", w->f);
+        put_str(w, "null");
 }

@@ -34,6 +34,7 @@ static char *stream_text(void (*write)(JsonOut *), size_t *len)
     JsonOut w;
     json_out_init(&w, f);
     write(&w);
+    assert_true(json_out_finish(&w));
     fclose(f);
     return buf;
 }
