@@ -94,7 +94,7 @@ typedef struct Series {
     const char *name;
     double *x, *y;
     size_t n;
-    int style;               /* 0 solid, 1 dashed, 2 dotted, 3 thin */
+    int style;               /* 0 solid, 1 dashed, 2 dotted, 3 thin, 4 dashed in blue */
 } Series;
 
 typedef struct Marker {

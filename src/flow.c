@@ -346,7 +346,7 @@ static bool figure_hgl(CallCtx *cx, const Stmt *s, const Value *args, FigureData
     size_t n = 2 * pr->nsegs + pr->ndevices;
     Series *pipe = add_series(cx, fd, 3, "pipe elevation", n, 3);
     Series *hgl = add_series(cx, fd, 3, "hydraulic grade line", n, 0);
-    Series *egl = add_series(cx, fd, 3, "energy grade line", n, 1);
+    Series *egl = add_series(cx, fd, 3, "energy grade line, HGL + V²/2g", n, 4);
     double rg = pr->rho * G;
     /* markers: the lowest pressure first, then each device */
     fd->markers = arena_alloc(cx->arena, (pr->ndevices + 1) * sizeof *fd->markers);
@@ -529,14 +529,26 @@ static bool figure_pump(CallCtx *cx, const Stmt *s, const Value *args, FigureDat
     fd->y_title = "Head";
     fd->x_unit = unit_default(DIM_FLOW, TEMP_NONE, cx->units);
     fd->y_unit = unit_default(DIM_L, TEMP_NONE, cx->units);
-    fd->series = arena_alloc(cx->arena, 2 * sizeof *fd->series);
-    Series *pump = add_series(cx, fd, 2, "pump curve", NPTS, 0);
-    Series *sys = add_series(cx, fd, 2, "system curve", NPTS, 1);
+    /* the pump curve to its last catalogue point, then dotted and named as
+     * an extrapolation out to the end of the axis */
+    double q_last = cd ? cd->curve.x[cd->curve.n - 1] : pc->q_max;
+    enum { NEXT = 8 };
+    fd->series = arena_alloc(cx->arena, 3 * sizeof *fd->series);
+    Series *pump = add_series(cx, fd, 3, "pump curve", NPTS, 0);
+    Series *sys = add_series(cx, fd, 3, "system curve", NPTS, 1);
+    Series *beyond = add_series(cx, fd, 3, "pump curve extrapolated beyond the last catalogue point", NEXT, 2);
     for (size_t i = 0; i < NPTS; i++) {
         double q = q_end * (double)i / (NPTS - 1);
-        pump->x[i] = sys->x[i] = q;
-        pump->y[i] = cd ? curve_eval(&cd->curve, q, NULL) : pump_head(pc, q);
+        double qp = q_last * (double)i / (NPTS - 1);
+        pump->x[i] = qp;
+        pump->y[i] = cd ? curve_eval(&cd->curve, qp, NULL) : pump_head(pc, qp);
+        sys->x[i] = q;
         sys->y[i] = hs + k * q * q;
+    }
+    for (size_t i = 0; i < NEXT; i++) {
+        double q = q_last + (q_end - q_last) * (double)i / (NEXT - 1);
+        beyond->x[i] = q;
+        beyond->y[i] = cd ? curve_eval(&cd->curve, q, NULL) : pump_head(pc, q);
     }
     double Q = NAN, H;
     int count = 0;

@@ -17,6 +17,7 @@
 #include <string.h>
 
 #include "numfmt.h"
+#include "report/figlayout.h"
 #include "ticks.h"
 
 /* ---- geometry ---------------------------------------------------------- */
@@ -24,6 +25,10 @@
 typedef struct Axis {
     TickSet ts;
     double p0, p1;           /* page coordinates of the axis ends */
+    /* a grade-line figure's head axis without the pipe elevation, which
+     * lies from below_lo to below_hi (display units) */
+    bool pipe_off;
+    double below_lo, below_hi;
 } Axis;
 
 static double axis_map(const Axis *a, double v)
@@ -66,10 +71,38 @@ static bool figure_axes(const FigureData *fd, Axis *ax, Axis *ay)
     }
     if (!(x0 <= x1) || !(y0 <= y1))
         return false;
-    /* linear axes start at zero when the data come within half their top of it */
+    ay->pipe_off = false;
+    bool grade = strcmp(fd->kind, "hgl") == 0;
+    if (grade) {
+        /* the head axis from the grade lines and markers, the pipe (the
+         * thin series) only when the head loss stays readable beside it */
+        double g0 = INFINITY, g1 = -INFINITY, z0 = INFINITY, z1 = -INFINITY;
+        for (size_t s = 0; s < fd->nseries; s++)
+            for (size_t i = 0; i < fd->series[s].n; i++) {
+                double y = shown(fd->series[s].y[i], &fd->y_unit, false);
+                if (isnan(y))
+                    continue;
+                if (fd->series[s].style == 3)
+                    z0 = fmin(z0, y), z1 = fmax(z1, y);
+                else
+                    g0 = fmin(g0, y), g1 = fmax(g1, y);
+            }
+        for (size_t m = 0; m < fd->nmarkers; m++) {
+            double y = shown(fd->markers[m].y, &fd->y_unit, false);
+            if (!isnan(y))
+                g0 = fmin(g0, y), g1 = fmax(g1, y);
+        }
+        if (g0 <= g1) {
+            bool with_pipe = figlayout_grade_range(g0, g1, z0 <= z1 ? z0 : NAN, z0 <= z1 ? z1 : NAN, &y0, &y1);
+            ay->pipe_off = !with_pipe && z0 <= z1;
+            ay->below_lo = z0, ay->below_hi = z1;
+        }
+    }
+    /* linear axes start at zero when the data come within half their top
+     * of it (not the head axis of grade lines: its range is the data's) */
     if (!fd->log_x && x0 > 0 && x0 < 0.5 * x1)
         x0 = 0;
-    if (!fd->log_y && y0 > 0 && y0 < 0.5 * y1)
+    if (!grade && !fd->log_y && y0 > 0 && y0 < 0.5 * y1)
         y0 = 0;
     bool okx = fd->log_x ? ticks_log(x0, x1, &ax->ts) : ticks_linear(x0, x1, &ax->ts);
     bool oky = fd->log_y ? ticks_log(y0, y1, &ay->ts) : ticks_linear(y0, y1, &ay->ts);
@@ -95,8 +128,10 @@ static const Rgb GRID_MINOR = {0.90, 0.90, 0.90};
 static const Rgb BAND = {0.92, 0.92, 0.88};
 static const Rgb THIN = {0.45, 0.45, 0.48};
 static const Rgb MARK = {0.62, 0.10, 0.08};
+static const Rgb ENERGY = {0.10, 0.34, 0.72};
 
-/* A series style: 0 solid, 1 dashed, 2 dotted, 3 thin. */
+/* A series style: 0 solid, 1 dashed, 2 dotted, 3 thin, 4 dashed in blue
+ * (an energy grade line, drawn over its hydraulic grade line). */
 static void set_style(Pdf *P, int style, double heavy)
 {
     if (!P->page)
@@ -116,6 +151,12 @@ static void set_style(Pdf *P, int style, double heavy)
         draw_line_cap(pg, DRAW_CAP_ROUND);
         draw_line_width(pg, (heavy * 0.9));
         stroke_rgb(P, INK);
+        break;
+    case 4:
+        draw_dash(pg, DASH, 2, 0);
+        draw_line_cap(pg, DRAW_CAP_BUTT);
+        draw_line_width(pg, (heavy * 0.95));
+        stroke_rgb(P, ENERGY);
         break;
     case 3:
         draw_dash(pg, NULL, 0, 0);
@@ -226,7 +267,8 @@ static bool end_labelled(const FigureData *fd, size_t s, const Axis *ax)
     return !isnan(xe) && fabs(axis_map(ax, xe) - ax->p1) < 1;
 }
 
-static size_t legend_entries(Pdf *P, const FigureData *fd, const Axis *ax, LegendEntry *out, size_t cap)
+static size_t legend_entries(Pdf *P, const FigureData *fd, const Axis *ax, const Axis *ay,
+                             LegendEntry *out, size_t cap)
 {
     size_t n = 0;
     bool group = false;
@@ -237,7 +279,19 @@ static size_t legend_entries(Pdf *P, const FigureData *fd, const Axis *ax, Legen
             group_style = fd->series[s].style;
             continue;
         }
-        out[n++] = (LegendEntry){0, fd->series[s].style, fd->series[s].name};
+        const char *name = fd->series[s].name;
+        if (ay->pipe_off && fd->series[s].style == 3) {
+            char lo[40], hi[40], u[48];
+            num_typeset(ay->below_lo, P->env.digits, lo, sizeof lo);
+            num_typeset(ay->below_hi, P->env.digits, hi, sizeof hi);
+            mbox_unit_text(fd->y_unit.text, u, sizeof u);
+            const char *where = ay->below_hi < ay->ts.lo ? "below the axis" : "off the axis";
+            name = strcmp(lo, hi) == 0
+                       ? arena_printf(&P->arena, "%s %s %s, %s (not drawn)", name, lo, u, where)
+                       : arena_printf(&P->arena, "%s %s to %s %s, %s (not drawn)", name, lo, hi, u,
+                                      where);
+        }
+        out[n++] = (LegendEntry){0, fd->series[s].style, name};
     }
     if (group && n < cap)
         out[n++] = (LegendEntry){0, group_style,
@@ -308,7 +362,7 @@ static bool overlaps(const Box *a, const Box *b)
     return a->x0 < b->x1 && b->x0 < a->x1 && a->y0 < b->y1 && b->y0 < a->y1;
 }
 
-/* Whether any drawn segment of a series crosses box b (sampled). */
+/* Whether any drawn segment of a series meets box b. */
 static bool hits_series(const FigureData *fd, const Axis *ax, const Axis *ay, const Box *b)
 {
     for (size_t s = 0; s < fd->nseries; s++) {
@@ -321,12 +375,8 @@ static bool hits_series(const FigureData *fd, const Axis *ax, const Axis *ay, co
                 continue;
             }
             double px = axis_map(ax, x), py = axis_map(ay, y);
-            if (!isnan(qx))
-                for (int k = 0; k <= 16; k++) {
-                    double t = k / 16.0, sx = qx + t * (px - qx), sy = qy + t * (py - qy);
-                    if (sx > b->x0 && sx < b->x1 && sy > b->y0 && sy < b->y1)
-                        return true;
-                }
+            if (!isnan(qx) && figlayout_segment_hits(qx, qy, px, py, b->x0, b->y0, b->x1, b->y1))
+                return true;
             qx = px, qy = py;
         }
     }
@@ -342,8 +392,10 @@ static void draw_markers(Pdf *P, const FigureData *fd, const Axis *ax, const Axi
     size_t n = fd->nmarkers;
     if (!n)
         return;
-    Box *placed = arena_alloc(&P->arena, (2 * n + 1) * sizeof *placed);
+    Box *placed = arena_alloc(&P->arena, (2 * n + 2) * sizeof *placed);
     size_t np = 0;
+    if (strcmp(fd->kind, "hgl") == 0)   /* the strip of segment names along the bottom */
+        placed[np++] = (Box){ax->p0, ay->p0, ax->p1, ay->p0 + 14};
     bool *done = arena_alloc(&P->arena, (n + 1) * sizeof *done);
     double size = 7.2;
     for (size_t m = 0; m < n; m++) {
@@ -386,16 +438,25 @@ static void draw_markers(Pdf *P, const FigureData *fd, const Axis *ax, const Axi
         sb_free(&sb);
         double w = pdf_width(P, FONT_SANS, size, label);
         dot(P, px, py, 2.3);
-        /* candidate positions of the label's lower-left corner */
-        double cand[10][2] = {{px + 5, py + 3},          {px - 5 - w, py + 3},
-                              {px + 5, py - 3 - size},   {px - 5 - w, py - 3 - size},
-                              {px + 5, py + 12},         {px - 5 - w, py + 12},
-                              {px + 5, py - 12 - size},  {px - 5 - w, py - 12 - size},
-                              {px - w / 2, py + 20},     {px - w / 2, py - 20 - size}};
+        /* candidate positions of the label's lower-left corner: beside the
+         * point at the four corners, then rings further out (right, left
+         * and centred, above and below) */
+        enum { NCAND = 4 + 6 * 5 };
+        double cand[NCAND][2] = {{px + 5, py + 3}, {px - 5 - w, py + 3}, {px + 5, py - 3 - size},
+                                 {px - 5 - w, py - 3 - size}};
+        static const double RING[5] = {12, 20, 30, 42, 56};
+        for (int r = 0, c = 4; r < 5; r++) {
+            double d = RING[r];
+            double xs[3] = {px + 5, px - 5 - w, px - w / 2};
+            for (int k = 0; k < 3; k++) {
+                cand[c][0] = xs[k], cand[c++][1] = py + d;
+                cand[c][0] = xs[k], cand[c++][1] = py - d - size;
+            }
+        }
         Box best = {cand[0][0] - 1, cand[0][1] - 2, cand[0][0] + w + 1, cand[0][1] + size};
-        bool found = false;
+        bool found = false, far = false;
         for (int pass = 0; pass < 2 && !found; pass++)
-        for (size_t c = 0; c < 10; c++) {
+        for (size_t c = 0; c < NCAND; c++) {
             Box b = {cand[c][0] - 1, cand[c][1] - 2, cand[c][0] + w + 1, cand[c][1] + size};
             if (b.x0 < ax->p0 + 2 || b.x1 > ax->p1 - 2 || b.y0 < ay->p0 + 2 || b.y1 > ay->p1 - 2)
                 continue;
@@ -406,10 +467,18 @@ static void draw_markers(Pdf *P, const FigureData *fd, const Axis *ax, const Axi
             if (!clash) {
                 best = b;
                 found = true;
+                far = c >= 4;
                 break;
             }
         }
         placed[np++] = best;
+        if (P->page && far) {
+            /* a label set away from its point is tied to it by a leader */
+            double lx = fmin(fmax(px, best.x0), best.x1), ly = py < best.y0 ? best.y0 : best.y1;
+            stroke_rgb(P, MARK);
+            pdf_line(P, px, py, lx, ly, 0.4);
+            stroke_rgb(P, INK);
+        }
         if (P->page) {
             /* a white backing keeps the label legible over gridlines and curves */
             pdf_fill(P, best.x0, best.y0 + 0.5, best.x1 - best.x0, best.y1 - best.y0, (Rgb){1, 1, 1});
@@ -651,7 +720,7 @@ double pdf_fn_figure(Pdf *P, const Item *it, double top)
     /* legend and caption */
     double y = plot_b - 30;
     LegendEntry le[24];
-    size_t nle = legend_entries(P, fd, &ax, le, 24);
+    size_t nle = legend_entries(P, fd, &ax, &ay, le, 24);
     y -= draw_legend(P, le, nle, plot_l, y, plot_r - plot_l) + 4;
     char *num = arena_printf(&P->arena, "Figure %d", it->aux);
     const char *cap = st->description && *st->description ? st->description : default_caption(P, st);
