@@ -4,11 +4,11 @@ Not a test: nothing here fails a build. Every row is a figure measured
 beside its floor in the same run: the two commands run alternately (paired
 runs), each in a fresh process, and the table shows the median of each and
 the median of the paired ratios, with the target beside it. Peak resident
-memory comes from wait4's rusage of the measured process. Inputs are
-generated here into BUILD/bench/.
+memory is measured by GNU time in a run of its own (see peak_mib). Inputs
+are generated here into BUILD/bench/.
 
 To add a row, write one function `row_NAME()` that returns a Row (or a list
-of them) and add it to ROWS at the bottom; `paired()` measures a command
+of them) and add it to ROWS at the bottom; `Paired` measures a command
 against its floor, `solo()` a command alone.
 """
 import os
@@ -35,8 +35,22 @@ class Row:
 HEADER = ("job", "figure", "peak memory", "floor", "ratio", "target")
 
 
-def run_once(argv):
-    """Wall time (s) and peak RSS (MiB) of one fresh process. Its stderr goes
+def peak_mib(argv):
+    """Peak resident memory (MiB) of one run, measured by GNU time: the
+    rusage a Python parent gets for its child starts from the parent's own
+    size at fork, so small runs would all read as Python's size."""
+    with tempfile.NamedTemporaryFile(mode="r") as out:
+        subprocess.run(["/usr/bin/time", "-f", "%M", "-o", out.name] + argv,
+                       stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+        try:
+            return int(out.read().split()[-1]) / 1024.0
+        except (ValueError, IndexError):
+            return float("nan")
+
+
+def run_once(argv, cpu=False):
+    """Wall time (s) (or, with cpu, user + system CPU time) and peak RSS
+    (MiB, see peak_mib) of one fresh process. Its stderr goes
     to a temporary file, not a pipe: a run that warns a lot would otherwise
     block on a full pipe while we wait for it."""
     with tempfile.TemporaryFile() as errf:
@@ -44,26 +58,28 @@ def run_once(argv):
         proc = subprocess.Popen(argv, stdout=subprocess.DEVNULL, stderr=errf)
         _, status, usage = os.wait4(proc.pid, 0)
         wall = time.perf_counter() - start
+        if cpu:
+            wall = usage.ru_utime + usage.ru_stime
         errf.seek(0)
         err = errf.read().decode(errors="replace")
     code = os.waitstatus_to_exitcode(status)
     if code not in (0, 1):
         sys.exit(f"bench: {' '.join(argv)} exited {code}\n{err[:2000]}")
-    return wall, usage.ru_maxrss / 1024.0
+    return wall, 0.0
 
 
 class Paired:
     """A figure command and its floor, run alternately `repeat` times."""
 
     def __init__(self, figure, floor, repeat=5):
-        figs, floors, ratios, self.peak, self.floor_peak = [], [], [], 0.0, 0.0
+        figs, floors, ratios = [], [], []
         for _ in range(repeat):
-            t, m = run_once(figure)
-            tf, mf = run_once(floor)
+            t, _ = run_once(figure)
+            tf, _ = run_once(floor)
             figs.append(t)
             floors.append(tf)
             ratios.append(t / tf)
-            self.peak, self.floor_peak = max(self.peak, m), max(self.floor_peak, mf)
+        self.peak, self.floor_peak = peak_mib(figure), peak_mib(floor)
         self.figure = statistics.median(figs)
         self.floor = statistics.median(floors)
         self.ratio = statistics.median(ratios)
@@ -71,8 +87,8 @@ class Paired:
 
 def solo(argv, repeat=5):
     """Median wall time and peak memory of a command alone."""
-    runs = [run_once(argv) for _ in range(repeat)]
-    return statistics.median(r[0] for r in runs), max(r[1] for r in runs)
+    runs = [run_once(argv)[0] for _ in range(repeat)]
+    return statistics.median(runs), peak_mib(argv)
 
 
 def ms(t):
@@ -329,16 +345,26 @@ def row_diff():
 
 
 def row_cases():
-    """The cases table against 1,000 times one evaluation of the same calc;
-    one evaluation is a check of the calc without the cases block less the
-    start-up (a check of a tiny calc), both medians of paired runs."""
-    path = calc_cases(CASE_ROWS)
-    one = Paired([HEADROOM, "check", calc_cases(0)], [HEADROOM, "check", tiny_calc()], repeat=15)
-    evaluation = max(one.figure - one.floor, 1e-6)
-    t, m = solo([HEADROOM, "check", path], repeat=3)
-    floor = CASE_ROWS * evaluation
-    return [Row(f"cases, {CASE_ROWS} rows, 50-segment path, a solve", ms(t),
-                f"{CASE_ROWS} x one evaluation {ms(floor)}", f"{t / floor:.2f}x", "<= 1.5x", mb(m)),
+    """The cases table against 1,000 times one evaluation of the same calc,
+    in CPU time (user + system; a 1,000-row run is long enough for the
+    machine's other load to swing its wall time): one evaluation is a check
+    of the calc without the cases block less the start-up (a check of a
+    tiny calc). Each pair is the table's run and the median of five such
+    differences taken beside it."""
+    path, base, tiny = calc_cases(CASE_ROWS), calc_cases(0), tiny_calc()
+    figs, floors, ratios = [], [], []
+    for _ in range(3):
+        t, _ = run_once([HEADROOM, "check", path], cpu=True)
+        one = statistics.median(run_once([HEADROOM, "check", base], cpu=True)[0] -
+                                run_once([HEADROOM, "check", tiny], cpu=True)[0] for _ in range(5))
+        floor = CASE_ROWS * max(one, 1e-6)
+        figs.append(t)
+        floors.append(floor)
+        ratios.append(t / floor)
+    m = peak_mib([HEADROOM, "check", path])
+    return [Row(f"cases, {CASE_ROWS} rows, 50-segment path, a solve (CPU)", ms(statistics.median(figs)),
+                f"{CASE_ROWS} x one evaluation {ms(statistics.median(floors))}",
+                f"{statistics.median(ratios):.2f}x", "<= 1.5x", mb(m)),
             Row("  peak memory of the cases run", mb(m), "", "", "<= 64 MB")]
 
 
