@@ -17,6 +17,8 @@
 #include "doc.h"
 #include "eval.h"
 
+struct ModelRow;   /* report_model.h */
+
 /* The faces of the report (fonts/README.md says which file serves each). */
 typedef enum FontRole {
     FONT_SERIF,          /* prose, upright math: numbers, units, operators */
@@ -132,8 +134,10 @@ typedef struct MathRow {
 /* DEF: symbol = formula = substituted = result (an input: symbol = value as
  * written; a record: its fields); SOLVE: the equation, the equation with the
  * solution substituted, symbol = root; CHECK: both sides as formulas,
- * substituted and as values. NOTE rows are empty. */
-void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row);
+ * substituted and as values. NOTE rows are empty. Which lines a row has
+ * (the substituted form, the result) is the report model's decision `mr`. */
+void mbox_stmt_row(const MathEnv *env, const Stmt *st, const struct ModelRow *mr, double size,
+                   MathRow *row);
 
 /* Pieces of widths w[0..n) are set on lines of `avail` points: the first
  * line starts at 0, continuation lines at `indent`. Greedy: a piece goes on

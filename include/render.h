@@ -67,6 +67,10 @@ void render_atmosphere(const Evaluated *ev, char *buf, size_t n);
 /* An expression in one line of plain text, as written (substitute = false)
  * or with every name replaced by its value and unit (substitute = true). */
 void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBuf *out);
+/* The same as row `row` substitutes it (a solve row: at its root; NULL: the
+ * statements' own values). pi stays the letter, as the PDF sets it. */
+void render_expr_text_at(const Evaluated *ev, const StmtResult *row, const Expr *e, bool substitute,
+                         StrBuf *out);
 
 /* A value as plain text in the unit it is shown in ("4.160 ft/s", a string
  * in quotes, a record as "(pipe record)"). */

@@ -18,15 +18,9 @@
 #include "numfmt.h"
 #include "strmap.h"
 #include "render.h"
+#include "report_model.h"
 #include "uses.h"
 
-static double rounded(double x, int digits)
-{
-    char buf[64];
-    NumParts p = num_parts(x, digits);
-    snprintf(buf, sizeof buf, "%se%d", p.mantissa, p.exp10);
-    return strtod(buf, NULL);
-}
 
 /* An object keeps one member per key, as the tree writer this replaced
  * did: where a key repeats, the first one's place and the last one's value.
@@ -48,17 +42,30 @@ static long *unique_keys(const char *const *keys, size_t n)
     return pick;
 }
 
+/* The row whose value is being written, for the text the report prints
+ * for it (an input as written); NULL elsewhere. Set by document_write. */
+static const ModelRow *json_row;
+
+/* `shown` at full precision in the display unit and `text` exactly as the
+ * report prints it, both from the report model (DESIGN 2.5). */
 static void number_members(JsonOut *w, const Evaluated *ev, const Value *v, const Unit *shown, bool with_kind)
 {
     char si_unit[64];
     dim_format_si(v->q.dim, si_unit, sizeof si_unit);
-    Unit u = shown && shown->text[0] ? *shown : eval_display_unit(ev, v, NULL);
+    Arena a;
+    arena_init(&a);
+    ModelValue mv = report_model_value(ev, v, shown, &a);
+    if (json_row && json_row->result.number && &json_row->res->value == v)
+        mv.text = json_row->result.text;
+    Unit u = mv.unit;
     if (with_kind)
         json_out_string(w, "kind", "number");
     json_out_real(w, "si", v->q.si);
     json_out_string(w, "si_unit", si_unit);
-    json_out_real(w, "shown", rounded(unit_from_si(v->q.si, &u, v->q.temp == TEMP_NONE), ev->digits));
+    json_out_real(w, "shown", mv.shown);
     json_out_string(w, "unit", strcmp(u.text, "1") == 0 ? "" : u.text);
+    json_out_text(w, "text", mv.text);
+    arena_free(&a);
     if (v->q.temp != TEMP_NONE)
         json_out_string(w, "temperature", "absolute");
     if (v->q.pref != PRES_PLAIN)
@@ -407,6 +414,9 @@ static void sides_write(JsonOut *w, const Evaluated *ev, const StmtResult *r)
 static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diags)
 {
     const Document *doc = ev->doc;
+    Arena arena;
+    arena_init(&arena);
+    const ReportModel *model = report_model_build(ev, &arena);
     json_out_begin_object(w, NULL);
     json_out_string(w, "file", doc->file);
     json_out_string(w, "digest", doc->digest);
@@ -434,8 +444,11 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
     long *pick = unique_keys(names, n);
     json_out_begin_object(w, "values");
     for (size_t i = 0; i < n; i++)
-        if (pick[i] >= 0)
+        if (pick[i] >= 0) {
+            json_row = &model->rows[pick[i]];
             named_value_write(w, ev, doc->stmts[pick[i]], &ev->results[pick[i]]);
+            json_row = NULL;
+        }
     json_out_end_object(w);
     free(pick);
     free(names);
@@ -454,6 +467,7 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
             json_out_bool(w, "holds", r->holds);
             sides_write(w, ev, r);
             json_out_real(w, "utilization", r->utilization);
+            json_out_bool(w, "governing", model->rows[i].check.governs);
         } else {
             json_out_null(w, "holds");
         }
@@ -523,6 +537,7 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
     json_out_end_array(w);
     diagnostics_write(w, diags, doc->file);
     json_out_end_object(w);
+    arena_free(&arena);
 }
 
 bool render_json(const Evaluated *const *evs, const DiagList *diags, size_t nfiles, FILE *out)

@@ -9,6 +9,7 @@
  * the PDF library; text is measured through MathMetrics and drawn through
  * MathPainter. */
 #include "mathbox.h"
+#include "report_model.h"
 #include "uses.h"
 
 #include <math.h>
@@ -683,14 +684,6 @@ MathBox *mbox_expr(const MathEnv *env, const Expr *e, double size, bool substitu
 
 /* ---- rows ----------------------------------------------------------------- */
 
-static bool is_literal(const Expr *e)
-{
-    e = strip(e);
-    if (e && e->kind == EXPR_NEG)
-        e = strip(e->lhs);
-    return e && (e->kind == EXPR_NUMBER || e->kind == EXPR_STRING);
-}
-
 static void row_add(MathRow *row, MathBox *b, bool start)
 {
     if (row->n >= MATHROW_MAX)
@@ -720,7 +713,7 @@ static void record_fields(const MathEnv *env, const Value *v, double size, MathR
     }
 }
 
-void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row)
+void mbox_stmt_row(const MathEnv *env, const Stmt *st, const ModelRow *mr, double size, MathRow *row)
 {
     row->n = 0;
     if (st->parse_failed || st->kind == STMT_NOTE)
@@ -746,18 +739,17 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row
             return;
         }
         if (r->value.kind == VAL_RECORD) {
-            if (expr_reads_names(st->expr))
+            if (mr->show_substituted)
                 row_add(row, rel(env, "=", mbox_expr(env, st->expr, size, true), size), false);
             record_fields(env, &r->value, size, row);
             return;
         }
-        bool literal = is_literal(st->expr);
-        if (!literal && expr_reads_names(st->expr) && strip(st->expr)->kind != EXPR_NAME &&
-            strip(st->expr)->kind != EXPR_FIELD)
+        /* the model says which lines the row has: the substituted form
+         * unless it only repeats the formula, the result unless an input
+         * shown as written is its own result */
+        if (mr->show_substituted)
             row_add(row, rel(env, "=", mbox_expr(env, st->expr, size, true), size), false);
-        /* an input shown as written is its own result, unless `as` converts it */
-        bool input = literal && !st->has_as;
-        if (!input)
+        if (mr->show_result)
             row_add(row, rel(env, "=", mbox_quantity(env, &r->value, &r->shown, size, true), size),
                     false);
         break;
@@ -771,7 +763,7 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row
          * literal, which the line of values shows), then both sides' values */
         MathEnv at = *env;
         at.row = r;
-        if (!(expr_is_simple(st->lhs) && expr_is_simple(st->rhs))) {
+        if (mr->show_substituted) {
             row_add(row, mbox_expr(&at, st->lhs, size, true), true);
             row_add(row, rel(env, "=", mbox_expr(&at, st->rhs, size, true), size), false);
         }
@@ -789,12 +781,10 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, double size, MathRow *row
         row_add(row, rel(env, op, mbox_expr(env, st->rhs, size, false), size), false);
         if (!ok)
             return;
-        if (expr_reads_names(st->lhs) || expr_reads_names(st->rhs)) {
-            /* a name or a literal substitutes to its value: no middle line needed */
-            if (!(expr_is_simple(st->lhs) && expr_is_simple(st->rhs))) {
-                row_add(row, mbox_expr(env, st->lhs, size, true), true);
-                row_add(row, rel(env, op, mbox_expr(env, st->rhs, size, true), size), false);
-            }
+        /* a name or a literal substitutes to its value: no middle line needed */
+        if (mr->show_substituted) {
+            row_add(row, mbox_expr(env, st->lhs, size, true), true);
+            row_add(row, rel(env, op, mbox_expr(env, st->rhs, size, true), size), false);
         }
         row_add(row, mbox_quantity(env, &r->lhs, &r->lhs_shown, size, true), true);
         row_add(row, rel(env, op, mbox_quantity(env, &r->rhs, &r->rhs_shown, size, true), size),

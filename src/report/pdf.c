@@ -248,6 +248,7 @@ static bool pdf_render(const Evaluated *ev, const struct Package *pkg, const Dif
     P->governing = -1;
     arena_init(&P->arena);
     arena_init(&P->scratch);
+    P->model = report_model_build(ev, &P->arena);
     size_t errors_before = diags->errors;
     P->draw = draw_new(diags);
     bool ok = false;

@@ -18,7 +18,6 @@
 #include <string.h>
 
 #include "numfmt.h"
-#include "parse.h"
 
 static double text_width_of(const Pdf *P)
 {
@@ -524,7 +523,7 @@ static double fn_stmt(Pdf *P, const Item *it, double top)
     MathRow row;
     double size = 10.5;
     for (int attempt = 0; attempt < 4; attempt++) {
-        mbox_stmt_row(&P->env, st, size, &row);
+        mbox_stmt_row(&P->env, st, &P->model->rows[st->index], size, &row);
         bool fits = true;
         for (size_t i = 0; i < row.n; i++)
             if (row.piece[i]->w > avail - (row.chain_start[i] ? 0 : indent))

@@ -17,6 +17,7 @@
 #include "pagelayout.h"
 #include "render.h"
 #include "report/draw.h"
+#include "report_model.h"
 
 typedef struct Pdf Pdf;
 typedef struct Item Item;
@@ -48,6 +49,7 @@ struct Item {
 typedef struct PdfScope {
     const Evaluated *ev;
     const Document *d;
+    const ReportModel *model;
     MathEnv env;
     int governing;
     bool preliminary;
@@ -77,6 +79,7 @@ struct Pdf {
     int npages;
     const Evaluated *ev;
     const Document *d;
+    const ReportModel *model; /* the rows every sheet shows (report_model.h) */
     DiagList *diags;
     Arena arena;
     /* the math boxes and texts one item builds while it is measured or

@@ -132,6 +132,7 @@ void pdf_package_items(Pdf *P, Vec *items)
         const PackagePart *pp = &pkg->parts[k - 1];
         P->ev = pp->ev;
         P->d = pp->doc;
+        P->model = report_model_build(pp->ev, &P->arena);
         P->env = (MathEnv){&P->scratch, &P->metrics, pp->ev, pp->ev->digits > 0 ? pp->ev->digits : 4, NULL};
         P->governing = -1;
         P->preliminary = !pdf_status_issued(pp->doc->meta.status);
@@ -151,15 +152,11 @@ void pdf_package_items(Pdf *P, Vec *items)
     int gk = -1, gi = -1;
     P->pkg_failed = pkg->nfailed + pkg->case_rows_failing;
     for (int k = 1; k < n; k++) {
-        const Evaluated *ev = P->scopes[k].ev;
-        for (size_t i = 0; i < ev->doc->nstmts; i++) {
-            const StmtResult *r = &ev->results[i];
-            if (ev->doc->stmts[i]->kind == STMT_CHECK && r->state == RES_OK &&
-                isfinite(r->utilization) && r->utilization > best) {
-                best = r->utilization;
-                gk = k;
-                gi = (int)i;
-            }
+        const ReportModel *m = P->scopes[k].model;
+        if (m->governing >= 0 && m->rows[m->governing].check.utilization > best) {
+            best = m->rows[m->governing].check.utilization;
+            gk = k;
+            gi = m->governing;
         }
     }
     if (gk > 0)

@@ -7,7 +7,6 @@
 #include <math.h>
 #include <stdio.h>
 
-#include "parse.h"
 
 /* The right-margin column of a row: keys, line, verdict. */
 double pdf_row_margin(Pdf *P, const Stmt *st, double top)
@@ -81,20 +80,17 @@ double pdf_method_line(Pdf *P, const Method *m, int ref, double x, double top, d
     double size = 8.2;
     double hw = pdf_width(P, FONT_SERIF_ITALIC, size, head);
     MathBox *f = NULL;
-    if (m->formula) {
-        DiagList quiet = {0};
-        Expr *lhs = NULL, *rhs = NULL;
-        if (parse_equation_text(&P->arena, m->formula, &quiet, &lhs, &rhs) && lhs) {
-            MathBox *l = mbox_expr(&P->env, lhs, size + 0.6, false);
-            if (rhs) {
-                MathBox *k[3] = {l, mbox_text(&P->env, FONT_SERIF, size + 0.6, "  =  "),
-                                 mbox_expr(&P->env, rhs, size + 0.6, false)};
-                f = mbox_hlist(&P->env, k, 3);
-            } else {
-                f = l;
-            }
+    /* the formula as the report model parsed it, once */
+    const ModelMethod *mm = m->formula ? report_model_method(P->model, m) : NULL;
+    if (mm && mm->lhs) {
+        MathBox *l = mbox_expr(&P->env, mm->lhs, size + 0.6, false);
+        if (mm->rhs) {
+            MathBox *k[3] = {l, mbox_text(&P->env, FONT_SERIF, size + 0.6, "  =  "),
+                             mbox_expr(&P->env, mm->rhs, size + 0.6, false)};
+            f = mbox_hlist(&P->env, k, 3);
+        } else {
+            f = l;
         }
-        diag_free(&quiet);
     }
     double y = top;
     if (!f) {

@@ -18,7 +18,6 @@
 #include <stdio.h>
 #include <string.h>
 
-#include "parse.h"
 
 #ifndef HEADROOM_VERSION
 #define HEADROOM_VERSION "0.0.0"
@@ -598,18 +597,8 @@ static double fn_caution_pointer(Pdf *P, const Item *it, double top)
 void pdf_cover_items(Pdf *P, Vec *items)
 {
     const Document *d = P->d;
-    const Evaluated *ev = P->ev;
     P->preliminary = !pdf_status_issued(d->meta.status);
-    double best = -1;
-    for (size_t i = 0; i < d->nstmts; i++) {
-        const Stmt *st = d->stmts[i];
-        const StmtResult *r = &ev->results[i];
-        if (st->kind == STMT_CHECK && !st->finding && r->state == RES_OK && isfinite(r->utilization) &&
-            r->utilization > best) {
-            best = r->utilization;
-            P->governing = (int)i;
-        }
-    }
+    P->governing = P->model->governing;
     item_add(items, P, fn_cover, NULL, 0, 0);
     Item *cov = items->items[items->len - 1];
     cov->outline = "Cover";
@@ -776,20 +765,18 @@ static double fn_ref_method(Pdf *P, const Item *it, double top)
     if (m->reference)
         y -= pdf_wrap(P, FONT_SERIF, 9, 11.5, x, y, w, m->reference) + 1;
     if (m->formula) {
-        DiagList quiet = {0};
-        Expr *lhs = NULL, *rhs = NULL;
+        const ModelMethod *mm = report_model_method(P->model, m);
         MathBox *b = NULL;
-        if (parse_equation_text(&P->arena, m->formula, &quiet, &lhs, &rhs) && lhs) {
-            MathBox *l = mbox_expr(&P->env, lhs, 9, false);
-            if (rhs) {
+        if (mm && mm->lhs) {
+            MathBox *l = mbox_expr(&P->env, mm->lhs, 9, false);
+            if (mm->rhs) {
                 MathBox *k[3] = {l, mbox_text(&P->env, FONT_SERIF, 9, "  =  "),
-                                 mbox_expr(&P->env, rhs, 9, false)};
+                                 mbox_expr(&P->env, mm->rhs, 9, false)};
                 b = mbox_hlist(&P->env, k, 3);
             } else {
                 b = l;
             }
         }
-        diag_free(&quiet);
         if (b) {
             y -= 3;
             mbox_draw(b, &P->painter, x + 10, y - b->h);

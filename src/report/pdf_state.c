@@ -11,6 +11,7 @@ void pdf_scope_save(const Pdf *P, PdfScope *s)
 {
     s->ev = P->ev;
     s->d = P->d;
+    s->model = P->model;
     s->env = P->env;
     s->governing = P->governing;
     s->preliminary = P->preliminary;
@@ -33,6 +34,7 @@ void pdf_scope_load(Pdf *P, int k)
     const PdfScope *s = &P->scopes[k];
     P->ev = s->ev;
     P->d = s->d;
+    P->model = s->model;
     P->env = s->env;
     P->governing = s->governing;
     P->preliminary = s->preliminary;

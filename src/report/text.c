@@ -11,6 +11,7 @@
 
 #include "numfmt.h"
 #include "render.h"
+#include "report_model.h"
 #include "package.h"
 #include "uses.h"
 
@@ -128,7 +129,7 @@ static void put_expr(const Evaluated *ev, const StmtResult *row, const Expr *e, 
         const Value *v = sub ? eval_read(ev, row, e->slot, &shown) : NULL;
         if (v && v->kind == VAL_NUMBER) {
             put_value(ev, v, &shown, parent_prec, out);
-        } else if (sub && eval_constant(e->slot, &cv)) {
+        } else if (sub && e->slot != SLOT_PI && eval_constant(e->slot, &cv)) {
             Unit u = eval_display_unit(ev, &cv, NULL);
             put_value(ev, &cv, &u, parent_prec, out);
         } else {
@@ -200,6 +201,12 @@ static void put_expr(const Evaluated *ev, const StmtResult *row, const Expr *e, 
 void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBuf *out)
 {
     put_expr(ev, NULL, e, substitute, out, PREC_TOP);
+}
+
+void render_expr_text_at(const Evaluated *ev, const StmtResult *row, const Expr *e, bool substitute,
+                         StrBuf *out)
+{
+    put_expr(ev, row, e, substitute, out, PREC_TOP);
 }
 
 static void put_comment(const Stmt *s, StrBuf *out)
@@ -527,7 +534,7 @@ static void put_cases(const Evaluated *ev, size_t which, StrBuf *out)
     }
 }
 
-static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
+static void put_statement(const Evaluated *ev, const ReportModel *model, const Stmt *s, StrBuf *out)
 {
     const StmtResult *r = &ev->results[s->index];
     switch (s->kind) {
@@ -547,34 +554,16 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
         sb_printf(out, "  note: %s\n", s->description ? s->description : "");
         return;
     case STMT_DEF: {
-        sb_printf(out, "%s = ", s->name);
-        StrBuf f = {0}, v = {0};
-        render_expr_text(ev, s->expr, false, &f);
-        sb_puts(out, sb_str(&f));
-        const Expr *bare = s->expr;
-        while (bare->kind == EXPR_PAREN)
-            bare = bare->lhs;
-        bool reference = bare->kind == EXPR_NAME || bare->kind == EXPR_FIELD;
-        if (r->state == RES_OK) {
-            if (!reference && expr_reads_names(s->expr)) {
-                render_expr_text(ev, s->expr, true, &v);
-                if (strcmp(sb_str(&v), sb_str(&f)) != 0)
-                    sb_printf(out, " = %s", sb_str(&v));
-            }
-            StrBuf res = {0};
-            render_value_text(ev, &r->value, &r->shown, &res);
-            /* An input shown in the unit it was written in needs no result. */
-            bool unitless = r->shown.text[0] == '\0' || strcmp(r->shown.text, "1") == 0;
-            bool literal = bare->kind == EXPR_STRING ||
-                           (bare->kind == EXPR_NUMBER && (bare->has_unit ? strcmp(bare->unit->text, r->shown.text) == 0 : unitless));
-            if (!literal && r->value.kind != VAL_RECORD)
-                sb_printf(out, " = %s", sb_str(&res));
-            sb_free(&res);
+        const ModelRow *mr = &model->rows[s->index];
+        sb_printf(out, "%s = %s", mr->symbol, mr->formula);
+        if (mr->evaluated) {
+            if (mr->show_substituted)
+                sb_printf(out, " = %s", mr->substituted);
+            if (mr->show_result)
+                sb_printf(out, " = %s", mr->result.text);
         } else {
             sb_puts(out, " = (not evaluated)");
         }
-        sb_free(&f);
-        sb_free(&v);
         put_comment(s, out);
         const UsedFile *used = r->state == RES_OK && r->value.kind == VAL_RECORD
                                    ? use_of_record(r->value.rec)
@@ -601,77 +590,41 @@ static void put_statement(const Evaluated *ev, const Stmt *s, StrBuf *out)
         return;
     }
     case STMT_SOLVE: {
-        StrBuf l = {0}, rr = {0};
-        render_expr_text(ev, s->lhs, false, &l);
-        render_expr_text(ev, s->rhs, false, &rr);
-        sb_printf(out, "%s = solve %s where %s = %s", s->name, s->var, sb_str(&l), sb_str(&rr));
-        if (s->lo && s->hi) {
-            StrBuf lo = {0}, hi = {0};
-            render_expr_text(ev, s->lo, false, &lo);
-            render_expr_text(ev, s->hi, false, &hi);
-            sb_printf(out, " between %s and %s", sb_str(&lo), sb_str(&hi));
-            sb_free(&lo);
-            sb_free(&hi);
-        }
-        if (r->state == RES_OK) {
-            sb_puts(out, " = ");
-            render_value_text(ev, &r->value, &r->shown, out);
+        const ModelRow *mr = &model->rows[s->index];
+        sb_printf(out, "%s = solve %s where %s", mr->symbol, s->var, mr->formula);
+        if (mr->lo_text)
+            sb_printf(out, " between %s and %s", mr->lo_text, mr->hi_text);
+        if (mr->evaluated) {
+            sb_printf(out, " = %s", mr->result.text);
             put_comment(s, out);
-            sb_printf(out, "\n      at %s = ", s->var);
-            render_value_text(ev, &r->value, &r->shown, out);
-            sb_puts(out, ": ");
-            if (!(expr_is_simple(s->lhs) && expr_is_simple(s->rhs))) {
-                put_expr(ev, r, s->lhs, true, out, PREC_TOP);
-                sb_puts(out, " = ");
-                put_expr(ev, r, s->rhs, true, out, PREC_TOP);
-                sb_puts(out, " = ");
-            }
-            render_value_text(ev, &r->lhs, &r->lhs_shown, out);
-            sb_puts(out, " = ");
-            render_value_text(ev, &r->rhs, &r->lhs_shown, out);
-            char res[64];
-            Value resid = value_number(qty(r->solve.residual, r->lhs.q.dim));
-            render_quantity(ev, &resid, &r->lhs_shown, res, sizeof res);
-            sb_printf(out, "; residual %s after %d iterations", res, r->solve.iterations);
+            sb_printf(out, "\n      at %s = %s: ", s->var, mr->result.text);
+            if (mr->show_substituted)
+                sb_printf(out, "%s = ", mr->substituted);
+            sb_printf(out, "%s = %s; residual %s after %d iterations", mr->lhs_at_root.text,
+                      mr->rhs_at_root.text, mr->residual.text, mr->iterations);
         } else {
             sb_puts(out, " = (not evaluated)");
             put_comment(s, out);
         }
         sb_putc(out, '\n');
-        sb_free(&l);
-        sb_free(&rr);
         return;
     }
     case STMT_CHECK: {
-        StrBuf l = {0}, rr = {0};
-        render_expr_text(ev, s->lhs, false, &l);
-        render_expr_text(ev, s->rhs, false, &rr);
-        sb_printf(out, "%s %s: %s %s %s", s->finding ? "finding" : "check", s->label, sb_str(&l),
-                  cmp_op_text(s->cmp, false), sb_str(&rr));
-        if (r->state == RES_OK && s->finding) {
-            sb_puts(out, " : ");
-            render_value_text(ev, &r->lhs, &r->lhs_shown, out);
-            sb_printf(out, " %s ", cmp_op_text(s->cmp, false));
-            render_value_text(ev, &r->rhs, &r->rhs_shown, out);
-            sb_printf(out, " : %s", r->holds ? "yes" : "no");
-        } else if (r->state == RES_OK) {
-            sb_puts(out, " : ");
-            render_value_text(ev, &r->lhs, &r->lhs_shown, out);
-            sb_printf(out, " %s ", cmp_op_text(s->cmp, false));
-            render_value_text(ev, &r->rhs, &r->rhs_shown, out);
-            char u[32];
-            if (isfinite(r->utilization))
-                num_sig(r->utilization, 3, u, sizeof u);
+        const ModelRow *mr = &model->rows[s->index];
+        const ModelCheck *c = &mr->check;
+        sb_printf(out, "%s %s: %s", s->finding ? "finding" : "check", s->label, mr->formula);
+        if (c->evaluated) {
+            const char *op = cmp_op_text(s->cmp, false);
+            sb_printf(out, " : %s %s %s : ", c->lhs.text, op, c->rhs.text);
+            if (c->finding)
+                sb_puts(out, c->verdict);
             else
-                snprintf(u, sizeof u, "n/a");
-            sb_printf(out, " : %s (utilisation %s)", r->holds ? "HOLDS" : "FAILS", u);
+                sb_printf(out, "%s (utilisation %s)", c->verdict, c->utilization_text);
         } else {
             sb_puts(out, " : (not evaluated)");
         }
         put_comment(s, out);
         sb_putc(out, '\n');
-        sb_free(&l);
-        sb_free(&rr);
         return;
     }
     }
@@ -716,7 +669,7 @@ static void put_warnings(const StmtResult *r, StrBuf *out)
         sb_printf(out, "      warning: %s\n", r->warnings[i]);
 }
 
-static void put_blocks(const Evaluated *ev, const Block *b, StrBuf *out)
+static void put_blocks(const Evaluated *ev, const ReportModel *model, const Block *b, StrBuf *out)
 {
     for (; b; b = b->next) {
         switch (b->kind) {
@@ -731,7 +684,7 @@ static void put_blocks(const Evaluated *ev, const Block *b, StrBuf *out)
         case BLK_CURVE:
             for (size_t i = 0; i < b->nstmts; i++) {
                 const Stmt *st = ev->doc->stmts[b->first_stmt + i];
-                put_statement(ev, st, out);
+                put_statement(ev, model, st, out);
                 put_warnings(&ev->results[st->index], out);
             }
             break;
@@ -741,7 +694,7 @@ static void put_blocks(const Evaluated *ev, const Block *b, StrBuf *out)
         case BLK_LIST:
         case BLK_ITEM:
         case BLK_QUOTE:
-            put_blocks(ev, b->children, out);
+            put_blocks(ev, model, b->children, out);
             break;
         default:
             break;
@@ -767,7 +720,10 @@ bool render_text(const Evaluated *ev, FILE *out)
         render_atmosphere(ev, atm, sizeof atm);
         sb_printf(&sb, "atmosphere: %s\n", atm);
     }
-    put_blocks(ev, doc->blocks, &sb);
+    Arena arena;
+    arena_init(&arena);
+    const ReportModel *model = report_model_build(ev, &arena);
+    put_blocks(ev, model, doc->blocks, &sb);
     ReportCaution c[32];
     size_t nc = report_cautions(ev, c, sizeof c / sizeof c[0]);
     sb_puts(&sb, "\nCautions\n\n");
@@ -791,6 +747,7 @@ bool render_text(const Evaluated *ev, FILE *out)
         sb_printf(&sb, "warnings: %zu, each beside its line\n", ev->nwarnings);
     bool ok = fwrite(sb.data ? sb.data : "", 1, sb.len, out) == sb.len;
     sb_free(&sb);
+    arena_free(&arena);
     return ok;
 }
 

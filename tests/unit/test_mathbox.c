@@ -18,6 +18,7 @@
 
 #include "eval.h"
 #include "mathbox.h"
+#include "report_model.h"
 
 #define TOL 1e-9
 
@@ -253,8 +254,9 @@ static void test_statement_row_breaks_at_equals(void **state)
     Evaluated *ev = eval_document(doc, &dl);
     assert_int_equal(dl.errors, 0);
     MathEnv e = {&doc->arena, &FAKE, ev, 4, NULL};
+    const ReportModel *model = report_model_build(ev, &doc->arena);
     MathRow row;
-    mbox_stmt_row(&e, doc->stmts[2], 10, &row);
+    mbox_stmt_row(&e, doc->stmts[2], &model->rows[2], 10, &row);
     assert_int_equal(row.n, 4);
     assert_true(row.chain_start[0]);
     for (size_t i = 1; i < row.n; i++) {
@@ -299,7 +301,7 @@ static void test_statement_row_breaks_at_equals(void **state)
     }
 
     /* a check: formulas, then values (no middle line for names and literals) */
-    mbox_stmt_row(&e, doc->stmts[3], 10, &row);
+    mbox_stmt_row(&e, doc->stmts[3], &model->rows[3], 10, &row);
     assert_int_equal(row.n, 4);
     assert_true(row.chain_start[0]);
     assert_true(row.chain_start[2]);

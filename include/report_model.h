@@ -1,0 +1,105 @@
+/* report_model.h — the rows every report shows, built once.
+ *
+ * The text listing, the JSON results and the PDF report are renderings of
+ * one model (DESIGN 2.15): for every statement its description, symbol,
+ * formula, substituted formula and result as text, with the value in the
+ * unit it is shown in, its warnings, citations and the published methods it
+ * used; for every check both sides, the verdict, the utilisation and
+ * whether it governs. Every decision a renderer would otherwise take on its
+ * own — is the substituted form worth a line, is an input its own result,
+ * which check governs, how a published method's formula reads — is taken
+ * here, so the renderers lay the model out and never parse a formula,
+ * compute a value, re-derive a verdict or pick a unit.
+ *
+ * The model borrows the Evaluated and allocates in the caller's Arena. */
+#ifndef HEADROOM_REPORT_MODEL_H
+#define HEADROOM_REPORT_MODEL_H
+
+#include <stdbool.h>
+#include <stddef.h>
+
+#include "arena.h"
+#include "eval.h"
+
+/* A value as every renderer shows it. */
+typedef struct ModelValue {
+    bool number;             /* a number (else a string, a record or nothing) */
+    double si;               /* coherent SI (temperatures in K) */
+    double shown;            /* in `unit`, at full precision */
+    Unit unit;               /* the unit it is shown in ("1" or "" for a pure number) */
+    const char *text;        /* exactly what the report prints: "4.050 ft/s" */
+} ModelValue;
+
+/* A check (or a finding) as the cover and the sheets show it. */
+typedef struct ModelCheck {
+    bool evaluated;
+    bool finding;            /* a yes/no answer, never a verdict */
+    bool holds;              /* a finding: the answer */
+    ModelValue lhs, rhs;     /* both sides, each in its own display unit */
+    double utilization;      /* lhs/rhs for <, <=; rhs/lhs for >, >=; NAN when none */
+    const char *utilization_text; /* three figures, "n/a" when not finite */
+    const char *verdict;     /* "HOLDS", "FAILS"; a finding: "yes", "no" */
+    bool governs;            /* the check with the highest utilisation */
+} ModelCheck;
+
+/* A published method as the report sets it out: its formula parsed once. */
+typedef struct ModelMethod {
+    const Method *method;
+    Expr *lhs, *rhs;         /* the formula as an equation (rhs NULL: an expression); both
+                                NULL when the method has no formula or it does not parse */
+    int first_use;           /* the statement that shows the formula (first use), -1 */
+} ModelMethod;
+
+/* One statement, in document order. */
+typedef struct ModelRow {
+    const Stmt *stmt;
+    const StmtResult *res;
+    bool evaluated;
+    const char *description; /* the trailing comment, NULL when none */
+    const char *symbol;      /* DEF, SOLVE: the name */
+    const char *formula;     /* DEF: as written; SOLVE: "lhs = rhs"; CHECK: "lhs OP rhs" */
+    /* DEF and SOLVE and CHECK: the formula with every name replaced by its
+     * value in its display unit (a solve: at its root), NULL when it would
+     * only repeat the formula or a value the row shows anyway */
+    const char *substituted;
+    bool show_substituted;
+    ModelValue result;       /* DEF, SOLVE: the bound value */
+    bool show_result;        /* false: an input shown as written is its own result */
+    /* SOLVE */
+    const char *lhs_formula, *rhs_formula;   /* the equation's sides as written */
+    const char *lhs_substituted, *rhs_substituted; /* at the root, NULL when simple */
+    ModelValue lhs_at_root, rhs_at_root;     /* both in the left side's unit */
+    ModelValue residual;
+    int iterations;
+    const char *lo_text, *hi_text;           /* the bracket, NULL when none */
+    /* CHECK */
+    ModelCheck check;
+    const char *const *warnings;
+    size_t nwarnings;
+    const Cite *cites;
+    size_t ncites;
+    const size_t *methods;   /* indices into ReportModel.methods */
+    size_t nmethods;
+} ModelRow;
+
+typedef struct ReportModel {
+    const Evaluated *ev;
+    ModelRow *rows;          /* one per statement (doc->nstmts) */
+    size_t nrows;
+    ModelMethod *methods;    /* ev->methods, in order of first use */
+    size_t nmethods;
+    int governing;           /* statement index of the governing check, -1 */
+    size_t nchecks, nfailed; /* the evaluator's counts: checks evaluated, checks that fail */
+    size_t nwarnings;        /* warnings over every row */
+} ReportModel;
+
+/* Build the model of `ev` in `a`. Never fails (an unevaluated row says so). */
+const ReportModel *report_model_build(const Evaluated *ev, Arena *a);
+
+/* The model's entry for method `m` (NULL when the calc did not use it). */
+const ModelMethod *report_model_method(const ReportModel *model, const Method *m);
+
+/* A number as the model shows it: value `v` in `unit` (NULL: its display unit). */
+ModelValue report_model_value(const Evaluated *ev, const Value *v, const Unit *unit, Arena *a);
+
+#endif

@@ -1,0 +1,245 @@
+/* model.c — the report model (report_model.h): every row's texts and
+ * decisions, taken once from the evaluated document.
+ *
+ * The plain texts (formula, substituted formula, values) come from the one
+ * linear expression printer (render_expr_text_at, text.c); the PDF sets the
+ * same expressions as boxes, showing exactly the lines this model says a row
+ * has. */
+#include <math.h>
+#include <string.h>
+
+#include "numfmt.h"
+#include "parse.h"
+#include "render.h"
+#include "report_model.h"
+
+static const char *expr_text(const Evaluated *ev, const StmtResult *row, const Expr *e, bool sub,
+                             Arena *a)
+{
+    StrBuf sb = {0};
+    render_expr_text_at(ev, row, e, sub, &sb);
+    char *s = arena_strdup(a, sb_str(&sb));
+    sb_free(&sb);
+    return s;
+}
+
+ModelValue report_model_value(const Evaluated *ev, const Value *v, const Unit *unit, Arena *a)
+{
+    ModelValue m = {0};
+    StrBuf sb = {0};
+    if (v->kind == VAL_NUMBER) {
+        m.number = true;
+        m.si = v->q.si;
+        m.unit = unit && unit->text[0] ? *unit : eval_display_unit(ev, v, NULL);
+        m.shown = unit_from_si(v->q.si, &m.unit, v->q.temp == TEMP_NONE);
+        render_value_text(ev, v, &m.unit, &sb);
+    } else {
+        m.si = NAN;
+        m.shown = NAN;
+        render_value_text(ev, v, NULL, &sb);
+    }
+    m.text = arena_strdup(a, sb_str(&sb));
+    sb_free(&sb);
+    return m;
+}
+
+static const Expr *bare(const Expr *e)
+{
+    while (e && e->kind == EXPR_PAREN)
+        e = e->lhs;
+    return e;
+}
+
+/* An input: a literal (a number, a string, a negated number) whose value is
+ * shown in the unit it is written in needs no separate result. */
+static bool is_input(const Stmt *s, const StmtResult *r)
+{
+    const Expr *e = bare(s->expr);
+    if (e && e->kind == EXPR_NEG)
+        e = bare(e->lhs);
+    if (!e)
+        return false;
+    if (e->kind == EXPR_STRING)
+        return true;
+    if (e->kind != EXPR_NUMBER || s->has_as)
+        return false;
+    bool unitless = r->shown.text[0] == '\0' || strcmp(r->shown.text, "1") == 0;
+    return e->has_unit ? strcmp(e->unit->text, r->shown.text) == 0 : unitless;
+}
+
+static void row_def(const Evaluated *ev, const Stmt *s, const StmtResult *r, ModelRow *row, Arena *a)
+{
+    row->symbol = s->name;
+    row->formula = expr_text(ev, NULL, s->expr, false, a);
+    if (!row->evaluated)
+        return;
+    const Expr *e = bare(s->expr);
+    bool reference = e->kind == EXPR_NAME || e->kind == EXPR_FIELD;
+    if (!reference && expr_reads_names(s->expr)) {
+        const char *sub = expr_text(ev, NULL, s->expr, true, a);
+        /* a substitution that changes nothing (pump(0 gal/min)) is not repeated */
+        if (strcmp(sub, row->formula) != 0) {
+            row->substituted = sub;
+            row->show_substituted = true;
+        }
+    }
+    row->result = report_model_value(ev, &r->value, &r->shown, a);
+    row->show_result = r->value.kind != VAL_RECORD && !is_input(s, r);
+}
+
+static void row_solve(const Evaluated *ev, const Stmt *s, const StmtResult *r, ModelRow *row, Arena *a)
+{
+    row->symbol = s->name;
+    row->lhs_formula = expr_text(ev, NULL, s->lhs, false, a);
+    row->rhs_formula = expr_text(ev, NULL, s->rhs, false, a);
+    row->formula = arena_printf(a, "%s = %s", row->lhs_formula, row->rhs_formula);
+    if (s->lo && s->hi) {
+        row->lo_text = expr_text(ev, NULL, s->lo, false, a);
+        row->hi_text = expr_text(ev, NULL, s->hi, false, a);
+    }
+    if (!row->evaluated)
+        return;
+    row->result = report_model_value(ev, &r->value, &r->shown, a);
+    row->show_result = true;
+    if (!(expr_is_simple(s->lhs) && expr_is_simple(s->rhs))) {
+        row->lhs_substituted = expr_text(ev, r, s->lhs, true, a);
+        row->rhs_substituted = expr_text(ev, r, s->rhs, true, a);
+        row->substituted = arena_printf(a, "%s = %s", row->lhs_substituted, row->rhs_substituted);
+        row->show_substituted = true;
+    }
+    row->lhs_at_root = report_model_value(ev, &r->lhs, &r->lhs_shown, a);
+    row->rhs_at_root = report_model_value(ev, &r->rhs, &r->lhs_shown, a);
+    /* the residual as a number in the left side's unit; render_quantity's
+     * form, so a pure number carries no unit word */
+    Value resid = value_number(qty(r->solve.residual, r->lhs.q.dim));
+    char res[96];
+    render_quantity(ev, &resid, &r->lhs_shown, res, sizeof res);
+    row->residual = report_model_value(ev, &resid, &r->lhs_shown, a);
+    row->residual.text = arena_strdup(a, res);
+    row->iterations = r->solve.iterations;
+}
+
+static void row_check(const Evaluated *ev, const Stmt *s, const StmtResult *r, ModelRow *row, Arena *a)
+{
+    ModelCheck *c = &row->check;
+    row->lhs_formula = expr_text(ev, NULL, s->lhs, false, a);
+    row->rhs_formula = expr_text(ev, NULL, s->rhs, false, a);
+    row->formula = arena_printf(a, "%s %s %s", row->lhs_formula, cmp_op_text(s->cmp, false),
+                                row->rhs_formula);
+    c->finding = s->finding;
+    c->evaluated = row->evaluated;
+    c->utilization = NAN;
+    if (!row->evaluated)
+        return;
+    if ((expr_reads_names(s->lhs) || expr_reads_names(s->rhs)) &&
+        !(expr_is_simple(s->lhs) && expr_is_simple(s->rhs))) {
+        row->lhs_substituted = expr_text(ev, NULL, s->lhs, true, a);
+        row->rhs_substituted = expr_text(ev, NULL, s->rhs, true, a);
+        row->substituted = arena_printf(a, "%s %s %s", row->lhs_substituted,
+                                        cmp_op_text(s->cmp, false), row->rhs_substituted);
+        row->show_substituted = true;
+    }
+    c->holds = r->holds;
+    c->lhs = report_model_value(ev, &r->lhs, &r->lhs_shown, a);
+    c->rhs = report_model_value(ev, &r->rhs, &r->rhs_shown, a);
+    if (s->finding) {
+        c->verdict = r->holds ? "yes" : "no";
+        return;
+    }
+    c->utilization = r->utilization;
+    char u[32];
+    if (isfinite(r->utilization))
+        num_sig(r->utilization, 3, u, sizeof u);
+    else
+        snprintf(u, sizeof u, "n/a");
+    c->utilization_text = arena_strdup(a, u);
+    c->verdict = r->holds ? "HOLDS" : "FAILS";
+}
+
+const ReportModel *report_model_build(const Evaluated *ev, Arena *a)
+{
+    const Document *d = ev->doc;
+    ReportModel *m = arena_alloc(a, sizeof *m);
+    m->ev = ev;
+    m->governing = -1;
+    m->nrows = d->nstmts;
+    m->rows = arena_alloc(a, (d->nstmts + 1) * sizeof *m->rows);
+    m->nmethods = ev->nmethods;
+    m->methods = arena_alloc(a, (ev->nmethods + 1) * sizeof *m->methods);
+    for (size_t k = 0; k < ev->nmethods; k++) {
+        ModelMethod *mm = &m->methods[k];
+        mm->method = ev->methods[k];
+        mm->first_use = -1;
+        if (mm->method->formula) {
+            DiagList quiet = {0};
+            Expr *lhs = NULL, *rhs = NULL;
+            if (parse_equation_text(a, mm->method->formula, &quiet, &lhs, &rhs) && lhs) {
+                mm->lhs = lhs;
+                mm->rhs = rhs;
+            }
+            diag_free(&quiet);
+        }
+    }
+    double best = -1;
+    for (size_t i = 0; i < d->nstmts; i++) {
+        const Stmt *s = d->stmts[i];
+        const StmtResult *r = &ev->results[i];
+        ModelRow *row = &m->rows[i];
+        row->stmt = s;
+        row->res = r;
+        row->evaluated = r->state == RES_OK;
+        row->description = s->description;
+        row->cites = s->cites;
+        row->ncites = s->ncites;
+        row->warnings = r->warnings;
+        row->nwarnings = r->nwarnings;
+        m->nwarnings += r->nwarnings;
+        size_t *idx = arena_alloc(a, (r->nmethods + 1) * sizeof *idx);
+        for (size_t j = 0; j < r->nmethods; j++)
+            for (size_t k = 0; k < ev->nmethods; k++)
+                if (method_same(r->methods[j], ev->methods[k])) {
+                    idx[row->nmethods++] = k;
+                    if (m->methods[k].first_use < 0)
+                        m->methods[k].first_use = (int)i;
+                    break;
+                }
+        row->methods = idx;
+        if (s->parse_failed)
+            continue;
+        switch (s->kind) {
+        case STMT_DEF:
+            row_def(ev, s, r, row, a);
+            break;
+        case STMT_SOLVE:
+            row_solve(ev, s, r, row, a);
+            break;
+        case STMT_CHECK:
+            row_check(ev, s, r, row, a);
+            if (!s->finding && row->evaluated) {
+                if (isfinite(r->utilization) && r->utilization > best) {
+                    best = r->utilization;
+                    m->governing = (int)i;
+                }
+            }
+            break;
+        default:
+            if (s->name && row->evaluated)
+                row->result = report_model_value(ev, &r->value, &r->shown, a);
+            row->symbol = s->name;
+            break;
+        }
+    }
+    if (m->governing >= 0)
+        m->rows[m->governing].check.governs = true;
+    m->nchecks = ev->nchecks;
+    m->nfailed = ev->nfailed;
+    return m;
+}
+
+const ModelMethod *report_model_method(const ReportModel *model, const Method *m)
+{
+    for (size_t k = 0; k < model->nmethods; k++)
+        if (method_same(model->methods[k].method, m))
+            return &model->methods[k];
+    return NULL;
+}
