@@ -24,8 +24,8 @@ static const Method METHOD_PRV = {
     "prv",
     "Pressure-reducing valve: outlet held at the set pressure less its fall-off",
     "p_out = min(p_set - p_falloff, p_in - Delta_p_min)",
-    "while p_in - Delta_p_min >= p_set - p_falloff (regulating); fall-off and least drop at the "
-    "flow from the manufacturer's data",
+    "an inlet pressure, less the least drop, at or above the set pressure less the fall-off "
+    "(regulating); fall-off and least drop at the flow from the manufacturer's data",
     "Direct-acting water pressure-reducing valve as rated under ASSE 1003/CSA B356, Water "
     "Pressure Reducing Valves for Potable Water Distribution Systems (reduced-pressure deviation "
     "under flow); the manufacturer's flow chart governs the fall-off.",
@@ -35,20 +35,20 @@ static const Method METHOD_CV = {
     "valve_cv",
     "Valve or meter by its flow coefficient Cv (non-choked turbulent liquid flow)",
     "Delta_p = SG*(Q/C_v)^2",
-    "turbulent, non-choked flow of a liquid (no cavitation or flashing); Q in gal/min, Delta_p "
-    "in psi, SG = rho/rho_0 with rho_0 of water at 60 degF",
+    "turbulent, non-choked flow of a liquid (no cavitation or flashing); Q in gal/min, Δp "
+    "in psi, SG = ρ/ρ₀ with ρ₀ of water at 60 °F",
     "ANSI/ISA-75.01.01-2007 (IEC 60534-2-1 Mod), Flow Equations for Sizing Control Valves, "
-    "eq. 1, Q = N1*C*sqrt(Delta_p/(rho_1/rho_0)) with N1 = 1 for gal/min and psi.",
+    "eq. 1, Q = N₁·C·√(Δp/(ρ₁/ρ₀)) with N₁ = 1 for gal/min and psi.",
 };
 
 static const Method METHOD_KV = {
     "valve_kv",
     "Valve or meter by its flow coefficient Kv (non-choked turbulent liquid flow)",
     "Delta_p = SG*(Q/K_v)^2",
-    "turbulent, non-choked flow of a liquid (no cavitation or flashing); Q in m^3/h, Delta_p in "
-    "bar, SG = rho/rho_0 with rho_0 of water at 15 degC",
+    "turbulent, non-choked flow of a liquid (no cavitation or flashing); Q in m³/h, Δp in "
+    "bar, SG = ρ/ρ₀ with ρ₀ of water at 15 °C",
     "IEC 60534-2-1:2011 and ANSI/ISA-75.01.01-2007, Flow Equations for Sizing Control Valves, "
-    "eq. 1, Q = N1*C*sqrt(Delta_p/(rho_1/rho_0)) with N1 = 1 for m^3/h and bar.",
+    "eq. 1, Q = N₁·C·√(Δp/(ρ₁/ρ₀)) with N₁ = 1 for m³/h and bar.",
 };
 
 static const Method METHOD_CHECK = {
@@ -512,8 +512,8 @@ static const Method METHOD_OPERATING_CURVE = {
     "pump_operating_point_table",
     "Pump operating point on a tabulated pump curve",
     "H_pump = H_static + k*Q^2",
-    "Q >= 0; within the curve's table (beyond it: the end interval extrapolated)",
-    "Intersection of the tabulated pump curve with the system curve H = H_static + k*Q^2, found by "
+    "Q ≥ 0; within the curve's table (beyond it: the end interval extrapolated)",
+    "Intersection of the tabulated pump curve with the system curve H = H_static + k·Q², found by "
     "Brent's method (Brent 1973, ch. 4) in each table interval where the two cross.",
 };
 

@@ -33,7 +33,7 @@
 static const PipeStandard STANDARDS[PIPE_STANDARD_COUNT] = {
     {PIPE_ASME_B36_10M, "ASME B36.10M", "Welded and Seamless Wrought Steel Pipe", "steel",
      "nominal wall", "commercial steel", 29.5e6 * PSI,
-     "carbon steel (C ≤ 0.30 %) at 70 °F: 29.5e6 psi (203 GPa), ASME B31.1 Power Piping, "
+     "carbon steel (C ≤ 0.30 %) at 70 °F: 29.5×10⁶ psi (203 GPa), ASME B31.1 Power Piping, "
      "Appendix C, Table C-1"},
     {PIPE_ASTM_D1785, "ASTM D1785", "Poly(Vinyl Chloride) (PVC) Plastic Pipe, Schedules 40, 80, and 120",
      "PVC", "minimum wall", "plastic", 420000.0 * PSI,
@@ -47,7 +47,7 @@ static const PipeStandard STANDARDS[PIPE_STANDARD_COUNT] = {
      "PVC 1120: 420,000 psi (2.90 GPa), " B31_9 "; GF Harvel PVC pipe physical properties "
      "give the same tensile modulus at 73 °F (ASTM D638)"},
     {PIPE_ASTM_B88, "ASTM B88", "Seamless Copper Water Tube", "copper", "nominal wall", "copper",
-     17.0e6 * PSI, "copper C12200 (99.9 % Cu): 17.0e6 psi (117 GPa), " B31_9},
+     17.0e6 * PSI, "copper C12200 (99.9 % Cu): 17.0×10⁶ psi (117 GPa), " B31_9},
     {PIPE_ASTM_F876, "ASTM F876", "Crosslinked Polyethylene (PEX) Tubing", "PEX", "minimum wall",
      "plastic", 0.0, NULL},
 };

@@ -77,12 +77,12 @@ static const Method METHOD_CRANE_K = {
     "Crane Co. (2009). Flow of Fluids Through Valves, Fittings, and Pipe. Technical Paper "
     "No. 410, Stamford, CT, table \"Representative resistance coefficients (K) for valves and "
     "fittings\" (L/D). Each L/D checked against python3-fluids 1.0.22 (fluids.fittings, the "
-    "K_*_Crane functions)."};
+    "Crane K functions)."};
 
 static const Method METHOD_CRANE_FT = {
     "crane_ft", "Fully turbulent friction factor of clean commercial steel (fully rough Colebrook)",
     "f_T = 1/(2*log10(3.7*D/epsilon))^2",
-    "zone of complete turbulence; epsilon = 0.0018 in (clean commercial steel)",
+    "zone of complete turbulence; ε = 0.0018 in (clean commercial steel)",
     "Crane Co. (2009). Flow of Fluids Through Valves, Fittings, and Pipe, TP-410, friction "
     "factors for clean commercial steel pipe in the zone of complete turbulence, here from "
     "the fully rough Colebrook limit (checked against python3-fluids 1.0.22 ft_Crane); "
