@@ -143,6 +143,8 @@ typedef struct StmtResult {
     const FigureData *figure;/* FIGURE */
     const Method *const *methods; /* published methods the line used (nmethods; in the arena) */
     size_t nmethods;
+    const MethodUse *uses;   /* how its calls applied them, with the values used */
+    size_t nuses;
 } StmtResult;
 
 /* A parametric case table, evaluated: per row, the shown values and every

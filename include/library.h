@@ -52,6 +52,27 @@ typedef struct ResultTable {
     Value *cells;            /* nrows * ncols */
 } ResultTable;
 
+/* How one call applied a published method, for the report: the value of
+ * each symbol of the method's formula that the call used (named as the
+ * formula names it), the value the formula gave (its left side), and the
+ * variant taken in words ("anchored throughout: c₁ = 1 − ν²"). The sheets
+ * set the formula out with these values substituted, so a reviewer can
+ * re-do the method's step from the numbers printed. */
+#define METHOD_MAX_INPUTS 10
+#define CALL_MAX_USES 6
+typedef struct MethodInput {
+    const char *name;       /* a name of the method's formula: "rho", "c_1" */
+    Value value;
+} MethodInput;
+
+typedef struct MethodUse {
+    const Method *method;
+    MethodInput inputs[METHOD_MAX_INPUTS];
+    size_t ninputs;
+    Value result;           /* the formula's left side as computed; kind VAL_NONE: none */
+    const char *branch;     /* the variant taken, or NULL */
+} MethodUse;
+
 typedef struct CallCtx {
     Arena *arena;
     DiagList *diags;
@@ -62,6 +83,8 @@ typedef struct CallCtx {
     const ResultTable *table;                  /* a table for the report, or NULL */
     double atmosphere;      /* Pa absolute (DESIGN 2.9); 0: the standard one */
     bool atmosphere_used;   /* a function read it: the report states it */
+    MethodUse uses[CALL_MAX_USES];             /* how the calls applied their methods */
+    size_t nuses;
 } CallCtx;
 
 /* The calc's atmosphere in Pa (the standard one when the context has none),
@@ -84,6 +107,17 @@ void builtin_each(void (*fn)(const Builtin *b, void *ctx), void *ctx);
 
 /* Record that the current call used a method (deduplicated). */
 void call_use_method(CallCtx *cx, const Method *m);
+
+/* Start the record of how this call applies `m` (also call_use_method):
+ * NULL when the statement already holds CALL_MAX_USES of them; the use_*
+ * helpers accept NULL. */
+MethodUse *call_begin_use(CallCtx *cx, const Method *m);
+/* A formula symbol's value: a number in SI with its dimension. */
+void use_input(MethodUse *u, const char *name, double si, Dim dim);
+void use_input_value(MethodUse *u, const char *name, Value v);
+void use_result(MethodUse *u, double si, Dim dim);
+/* The variant taken, in words (copied into the call's arena). */
+void use_branch(CallCtx *cx, MethodUse *u, const char *fmt, ...) __attribute__((format(printf, 3, 4)));
 
 /* One method, as the report cites it: the same object, or the same key,
  * title and reference (pipe() builds a material's roughness and modulus

@@ -524,7 +524,7 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
     for (size_t k = 0; k < s->ndeps; k++)
         if (ev->results[s->deps[k]].state != RES_OK)
             return; /* not evaluated: an input failed */
-    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL, ev->atmosphere, false};
+    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL, ev->atmosphere, false, .nuses = 0};
     EvalCtx c = {ev, ev->doc, diags, &cc, 0};
     switch (s->kind) {
     case STMT_DEF: {
@@ -584,6 +584,14 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
         res->methods = m;
     }
     res->nmethods = cc.nmethods;
+    res->uses = NULL;
+    res->nuses = 0;
+    if (cc.nuses && res->state == RES_OK) {
+        MethodUse *u = arena_alloc(&ev->doc->arena, cc.nuses * sizeof *u);
+        memcpy(u, cc.uses, cc.nuses * sizeof *u);
+        res->uses = u;
+        res->nuses = cc.nuses;
+    }
     if (!res->table)
         res->table = res->state == RES_OK ? cc.table : NULL;
     if (cc.atmosphere_used)

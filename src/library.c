@@ -10,6 +10,7 @@
 
 #include <math.h>
 #include <stdio.h>
+#include <stdarg.h>
 #include <string.h>
 
 #include "builtin_fns.h"
@@ -54,6 +55,47 @@ void call_use_method(CallCtx *cx, const Method *m)
             return;
     if (cx->nmethods < CALL_MAX_METHODS)
         cx->methods[cx->nmethods++] = m;
+}
+
+MethodUse *call_begin_use(CallCtx *cx, const Method *m)
+{
+    call_use_method(cx, m);
+    if (cx->nuses >= CALL_MAX_USES)
+        return NULL;
+    MethodUse *u = &cx->uses[cx->nuses++];
+    memset(u, 0, sizeof *u);
+    u->method = m;
+    return u;
+}
+
+void use_input_value(MethodUse *u, const char *name, Value v)
+{
+    if (!u || u->ninputs >= METHOD_MAX_INPUTS)
+        return;
+    u->inputs[u->ninputs].name = name;
+    u->inputs[u->ninputs].value = v;
+    u->ninputs++;
+}
+
+void use_input(MethodUse *u, const char *name, double si, Dim dim)
+{
+    use_input_value(u, name, value_number(qty(si, dim)));
+}
+
+void use_result(MethodUse *u, double si, Dim dim)
+{
+    if (u)
+        u->result = value_number(qty(si, dim));
+}
+
+void use_branch(CallCtx *cx, MethodUse *u, const char *fmt, ...)
+{
+    if (!u)
+        return;
+    va_list ap;
+    va_start(ap, fmt);
+    u->branch = arena_vprintf(cx->arena, fmt, ap);
+    va_end(ap);
 }
 
 double call_atmosphere(CallCtx *cx)
