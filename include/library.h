@@ -59,7 +59,7 @@ typedef struct ResultTable {
  * set the formula out with these values substituted, so a reviewer can
  * re-do the method's step from the numbers printed. */
 #define METHOD_MAX_INPUTS 10
-#define CALL_MAX_USES 6
+#define CALL_MAX_USES 12
 typedef struct MethodInput {
     const char *name;       /* a name of the method's formula: "rho", "c_1" */
     Value value;

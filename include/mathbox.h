@@ -88,6 +88,7 @@ typedef struct MathEnv {
     const Evaluated *ev;
     int digits;
     const StmtResult *row;   /* the row being set: a solve substitutes its root values (eval_read) */
+    const MethodUse *use;    /* a method's formula set with one call's values (library.h) */
 } MathEnv;
 
 /* ---- primitives: each measures itself and places its children ---------- */

@@ -72,6 +72,10 @@ void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBu
 void render_expr_text_at(const Evaluated *ev, const StmtResult *row, const Expr *e, bool substitute,
                          StrBuf *out);
 
+/* A published method's formula `e` with the names it uses replaced by the
+ * values one call used (MethodUse, library.h); g is its value, pi the letter. */
+void render_method_text(const Evaluated *ev, const MethodUse *use, const Expr *e, StrBuf *out);
+
 /* A value as plain text in the unit it is shown in ("4.160 ft/s", a string
  * in quotes, a record as "(pipe record)"). */
 void render_value_text(const Evaluated *ev, const Value *v, const Unit *shown, StrBuf *out);

@@ -50,6 +50,21 @@ typedef struct ModelMethod {
     int first_use;           /* the statement that shows the formula (first use), -1 */
 } ModelMethod;
 
+/* How one call applied a published method (MethodUse, library.h), as the
+ * sheets set it out: the formula's left side, then its right side with the
+ * call's values substituted, then the value it gave. */
+typedef struct ModelUse {
+    const MethodUse *use;
+    size_t method;           /* index into ReportModel.methods */
+    const char *lhs;         /* the formula's left side as written ("Delta_p") */
+    const char *formula;     /* its right side as written */
+    /* the right side with every symbol replaced by the call's value; NULL
+     * unless every symbol has one (a formula never half substituted) */
+    const char *substituted;
+    ModelValue result;       /* the left side's value (number false: none) */
+    const char *branch;      /* the variant taken, in words, or NULL */
+} ModelUse;
+
 /* One statement, in document order. */
 typedef struct ModelRow {
     const Stmt *stmt;
@@ -80,6 +95,8 @@ typedef struct ModelRow {
     size_t ncites;
     const size_t *methods;   /* indices into ReportModel.methods */
     size_t nmethods;
+    const ModelUse *uses;    /* how the row's calls applied their methods */
+    size_t nuses;
 } ModelRow;
 
 typedef struct ReportModel {

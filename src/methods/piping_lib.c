@@ -452,9 +452,20 @@ bool fn_k_fitting(CallCtx *cx, const CallArgs *a, Value *out)
             break;
         case FIT_EXPANSION: call_use_method(cx, &METHOD_EXPANSION); break;
         case FIT_CONTRACTION: call_use_method(cx, &METHOD_CONTRACTION); break;
-        default:
-            call_use_method(cx, &METHOD_CRANE_K);
-            call_use_method(cx, &METHOD_CRANE_FT);
+        default: {
+            double ft = fitting_crane_ft(D), ld = fitting_crane_LD_nps(in.kind, D, nps);
+            MethodUse *u = call_begin_use(cx, &METHOD_CRANE_K);
+            use_input(u, "f_T", ft, DIM_NONE);
+            use_input_value(u, "L_e", value_hinted(qty(ld * D, DIM_L), "ft", "m"));
+            use_input_value(u, "D", value_hinted(qty(D, DIM_L), "in", "mm"));
+            use_result(u, K, DIM_NONE);
+            char b1[48];
+            snprintf(b1, sizeof b1, "%.4g", ld);
+            use_branch(cx, u, "%s: L/D = %s (Crane), so Lₑ = %s·D.", fitting_kind_name(in.kind), b1, b1);
+            MethodUse *t = call_begin_use(cx, &METHOD_CRANE_FT);
+            use_input_value(t, "D", value_hinted(qty(D, DIM_L), "in", "mm"));
+            use_input_value(t, "epsilon", value_hinted(qty(FIT_CRANE_EPS, DIM_L), "in", "mm"));
+            use_result(t, ft, DIM_NONE);
             if (D < 0.5 * INCH || D > 24.0 * INCH)
                 diag_warning(cx->diags, arg_at(a, 1),
                              "k_fitting: Crane's equivalent lengths and f_T cover bores of 1/2 to 24 in; "
@@ -462,14 +473,34 @@ bool fn_k_fitting(CallCtx *cx, const CallArgs *a, Value *out)
                              D / INCH);
             break;
         }
+        }
         if (Re < 4000)
             diag_warning(cx->diags, arg_at(a, 2),
                          "k_fitting: Crane's K is for fully turbulent flow; at Re = %.4g the loss is "
                          "larger (method=\"darby\" or \"hooper\" follows Re)",
                          Re);
         break;
-    case FIT_HOOPER: call_use_method(cx, &METHOD_HOOPER); break;
-    case FIT_DARBY: call_use_method(cx, &METHOD_DARBY); break;
+    case FIT_HOOPER: {
+        double K1, Kinf;
+        MethodUse *u = call_begin_use(cx, &METHOD_HOOPER);
+        if (fitting_hooper_constants(in.kind, &K1, &Kinf)) {
+            use_input(u, "K_1", K1, DIM_NONE);
+            use_input(u, "Re", Re, DIM_NONE);
+            use_input(u, "K_inf", Kinf, DIM_NONE);
+            use_input_value(u, "D", value_hinted(qty(D, DIM_L), "in", "mm"));
+            use_result(u, K, DIM_NONE);
+            use_branch(cx, u, "%s: Hooper's constants K₁ = %.4g, K∞ = %.4g.", fitting_kind_name(in.kind), K1, Kinf);
+        }
+        break;
+    }
+    case FIT_DARBY: {
+        double K1, Ki, Kd;
+        MethodUse *u = call_begin_use(cx, &METHOD_DARBY);
+        if (fitting_darby_constants(in.kind, &K1, &Ki, &Kd))
+            use_branch(cx, u, "%s: Darby's constants K₁ = %.4g, Kᵢ = %.4g, Kd = %.4g in⁰˙³.",
+                       fitting_kind_name(in.kind), K1, Ki, Kd);
+        break;
+    }
     default: break;
     }
     if (!isfinite(K)) {

@@ -42,6 +42,35 @@ static long *unique_keys(const char *const *keys, size_t n)
     return pick;
 }
 
+/* A row as the sheets show it: the formula, the substituted formula and
+ * how its calls applied their methods (the report model's texts). */
+static void row_texts_write(JsonOut *w, const ModelRow *mr)
+{
+    if (mr->formula)
+        json_out_text(w, "formula", mr->formula);
+    if (mr->show_substituted && mr->substituted)
+        json_out_text(w, "substituted", mr->substituted);
+    if (!mr->nuses)
+        return;
+    json_out_begin_array(w, "method_uses");
+    for (size_t k = 0; k < mr->nuses; k++) {
+        const ModelUse *u = &mr->uses[k];
+        json_out_begin_object(w, NULL);
+        json_out_text(w, "method", u->use->method->key);
+        if (u->substituted) {
+            json_out_text(w, "lhs", u->lhs);
+            json_out_text(w, "formula", u->formula);
+            json_out_text(w, "substituted", u->substituted);
+        }
+        if (u->result.number)
+            json_out_text(w, "text", u->result.text);
+        if (u->branch)
+            json_out_text(w, "branch", u->branch);
+        json_out_end_object(w);
+    }
+    json_out_end_array(w);
+}
+
 /* The row whose value is being written, for the text the report prints
  * for it (an input as written); NULL elsewhere. Set by document_write. */
 static const ModelRow *json_row;
@@ -395,6 +424,8 @@ static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, co
         json_out_real(w, "residual", r->solve.residual);
         json_out_int(w, "iterations", r->solve.iterations);
     }
+    if (json_row && (s->kind == STMT_DEF || s->kind == STMT_SOLVE))
+        row_texts_write(w, json_row);
     if (r->nwarnings)
         warnings_write(w, r);
     json_out_end_object(w);
@@ -468,6 +499,7 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
             sides_write(w, ev, r);
             json_out_real(w, "utilization", r->utilization);
             json_out_bool(w, "governing", model->rows[i].check.governs);
+            row_texts_write(w, &model->rows[i]);
         } else {
             json_out_null(w, "holds");
         }

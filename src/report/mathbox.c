@@ -508,6 +508,15 @@ static const Value *subst_value(const MathEnv *env, const Expr *e, Unit *unit)
 {
     if (!env->ev || (e->kind != EXPR_NAME && e->kind != EXPR_FIELD))
         return NULL;
+    if (env->use && e->kind == EXPR_NAME && e->slot == SLOT_UNRESOLVED) {
+        /* a method's formula: its symbols are the values the call used */
+        for (size_t i = 0; i < env->use->ninputs; i++)
+            if (strcmp(env->use->inputs[i].name, e->text) == 0) {
+                *unit = eval_display_unit(env->ev, &env->use->inputs[i].value, NULL);
+                return &env->use->inputs[i].value;
+            }
+        return NULL;
+    }
     return eval_named_value_at(env->ev, env->row, e, unit); /* x, basis.p_city, basis.w.rho */
 }
 
@@ -604,7 +613,8 @@ static MathBox *expr_box(const MathEnv *env, const Expr *e, double size, bool su
     case EXPR_NAME:
         if (e->slot == SLOT_PI)
             return mbox_text(env, FONT_SERIF, size, "π");
-        if (sub && e->slot == SLOT_G && env->ev) {
+        if (sub && env->ev && (e->slot == SLOT_G || (env->use && e->slot == SLOT_UNRESOLVED &&
+                                                   strcmp(e->text, "g") == 0))) {
             Value g;
             eval_constant(SLOT_G, &g);
             Unit u = eval_display_unit(env->ev, &g, NULL);

@@ -85,6 +85,9 @@ static void row_def(const Evaluated *ev, const Stmt *s, const StmtResult *r, Mod
     }
     row->result = report_model_value(ev, &r->value, &r->shown, a);
     row->show_result = r->value.kind != VAL_RECORD && !is_input(s, r);
+    /* an input is printed as written: that is its text */
+    if (!row->show_result && row->result.number)
+        row->result.text = row->formula;
 }
 
 static void row_solve(const Evaluated *ev, const Stmt *s, const StmtResult *r, ModelRow *row, Arena *a)
@@ -156,6 +159,74 @@ static void row_check(const Evaluated *ev, const Stmt *s, const StmtResult *r, M
     c->verdict = r->holds ? "HOLDS" : "FAILS";
 }
 
+/* Does every name of `e` have a value in `u` (or is it g, pi or a
+ * function's name)? */
+static bool use_covers(const MethodUse *u, const Expr *e)
+{
+    if (!e)
+        return true;
+    switch (e->kind) {
+    case EXPR_NAME:
+        if (strcmp(e->text, "g") == 0 || strcmp(e->text, "pi") == 0)
+            return true;
+        for (size_t i = 0; i < u->ninputs; i++)
+            if (strcmp(u->inputs[i].name, e->text) == 0)
+                return true;
+        return false;
+    case EXPR_CALL:
+        for (size_t i = 0; i < e->nargs; i++)
+            if (!use_covers(u, e->args[i]))
+                return false;
+        for (size_t i = 0; i < e->nkw; i++)
+            if (!use_covers(u, e->kw[i]))
+                return false;
+        return true;
+    case EXPR_FIELD:
+        return false;
+    default:
+        return use_covers(u, e->lhs) && use_covers(u, e->rhs);
+    }
+}
+
+static void row_uses(const ReportModel *m, const StmtResult *r, ModelRow *row, Arena *a)
+{
+    ModelUse *uses = arena_alloc(a, (r->nuses + 1) * sizeof *uses);
+    for (size_t j = 0; j < r->nuses; j++) {
+        const MethodUse *u = &r->uses[j];
+        ModelUse *mu = &uses[row->nuses];
+        size_t k = 0;
+        while (k < m->nmethods && !method_same(m->methods[k].method, u->method))
+            k++;
+        if (k == m->nmethods)
+            continue;
+        const ModelMethod *mm = &m->methods[k];
+        mu->use = u;
+        mu->method = k;
+        mu->branch = u->branch;
+        if (mm->lhs && mm->rhs) {
+            mu->lhs = expr_text(m->ev, NULL, mm->lhs, false, a);
+            mu->formula = expr_text(m->ev, NULL, mm->rhs, false, a);
+            if (u->ninputs && use_covers(u, mm->rhs)) {
+                StrBuf sb = {0};
+                render_method_text(m->ev, u, mm->rhs, &sb);
+                mu->substituted = arena_strdup(a, sb_str(&sb));
+                sb_free(&sb);
+            }
+        }
+        if (u->result.kind == VAL_NUMBER)
+            mu->result = report_model_value(m->ev, &u->result, NULL, a);
+        bool repeat = false;
+        for (size_t i = 0; i < row->nuses && !repeat; i++)
+            repeat = uses[i].method == mu->method &&
+                     (uses[i].substituted ? mu->substituted && strcmp(uses[i].substituted, mu->substituted) == 0
+                                          : !mu->substituted) &&
+                     (uses[i].branch ? mu->branch && strcmp(uses[i].branch, mu->branch) == 0 : !mu->branch);
+        if ((mu->substituted || mu->branch) && !repeat)
+            row->nuses++;
+    }
+    row->uses = uses;
+}
+
 const ReportModel *report_model_build(const Evaluated *ev, Arena *a)
 {
     const Document *d = ev->doc;
@@ -204,6 +275,7 @@ const ReportModel *report_model_build(const Evaluated *ev, Arena *a)
                     break;
                 }
         row->methods = idx;
+        row_uses(m, r, row, a);
         if (s->parse_failed)
             continue;
         switch (s->kind) {

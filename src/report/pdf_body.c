@@ -501,6 +501,65 @@ static double fn_note(Pdf *P, const Item *it, double top)
     return h;
 }
 
+/* How a row's calls applied their methods (the report model's uses): the
+ * variant taken in words, then "lhs = formula = the formula with the call's
+ * values = result", broken before a relation where a line is full. */
+static double pdf_method_uses(Pdf *P, const ModelRow *mr, double x, double top, double width)
+{
+    double y = top;
+    double size = 9.4;
+    for (size_t k = 0; k < mr->nuses; k++) {
+        const ModelUse *u = &mr->uses[k];
+        const ModelMethod *mm = &P->model->methods[u->method];
+        if (u->branch)
+            y -= pdf_wrap_color(P, FONT_SERIF_ITALIC, 8.2, 10.2, x, y, width, u->branch, GREY) + 1;
+        if (!u->substituted)
+            continue;
+        MathEnv env = P->env;
+        env.use = u->use;
+        MathBox *piece[3];
+        size_t n = 0;
+        MathBox *head[3] = {mbox_expr(&env, mm->lhs, size, false),
+                            mbox_text(&env, FONT_SERIF, size, "  =  "),
+                            mbox_expr(&env, mm->rhs, size, false)};
+        piece[n++] = mbox_hlist(&env, head, 3);
+        MathBox *subst[2] = {mbox_text(&env, FONT_SERIF, size, "  =  "), mbox_expr(&env, mm->rhs, size, true)};
+        piece[n++] = mbox_hlist(&env, subst, 2);
+        if (u->result.number) {
+            MathBox *res[2] = {mbox_text(&env, FONT_SERIF, size, "  =  "),
+                               mbox_quantity(&env, &u->use->result, &u->result.unit, size, true)};
+            piece[n++] = mbox_hlist(&env, res, 2);
+        }
+        /* pieces on lines: a piece that does not fit starts a new line, indented */
+        double indent = 14, cx = 0, asc = 0, desc = 0;
+        size_t first = 0;
+        for (size_t i = 0; i <= n; i++) {
+            bool flush = i == n || (i > first && cx + piece[i]->w > width);
+            if (flush) {
+                double base = y - asc - 1;
+                double px = x + (first ? indent : 0);
+                for (size_t j = first; j < i; j++) {
+                    if (P->page)
+                        mbox_draw(piece[j], &P->painter, px, base);
+                    px += piece[j]->w;
+                }
+                y = base - desc - 2;
+                if (i == n)
+                    break;
+                first = i;
+                cx = indent;
+                asc = desc = 0;
+            }
+            cx += piece[i]->w;
+            if (piece[i]->h > asc)
+                asc = piece[i]->h;
+            if (piece[i]->d > desc)
+                desc = piece[i]->d;
+        }
+    }
+    return top - y;
+}
+
 static double fn_stmt(Pdf *P, const Item *it, double top)
 {
     const Stmt *st = it->p;
@@ -588,6 +647,7 @@ static double fn_stmt(Pdf *P, const Item *it, double top)
             if (method_same(P->ev->methods[j], r->methods[m]) && P->method_first[j] == st->index)
                 y -= pdf_method_line(P, r->methods[m], P->method_ref[j], x + indent0, y,
                                  w - indent0);
+    y -= pdf_method_uses(P, &P->model->rows[st->index], x + indent0, y, w - indent0);
 
     double mh = pdf_row_margin(P, st, top - 1);
     double h = top - y;

@@ -133,7 +133,7 @@ void pdf_package_items(Pdf *P, Vec *items)
         P->ev = pp->ev;
         P->d = pp->doc;
         P->model = report_model_build(pp->ev, &P->arena);
-        P->env = (MathEnv){&P->scratch, &P->metrics, pp->ev, pp->ev->digits > 0 ? pp->ev->digits : 4, NULL};
+        P->env = (MathEnv){&P->scratch, &P->metrics, pp->ev, pp->ev->digits > 0 ? pp->ev->digits : 4, NULL, NULL};
         P->governing = -1;
         P->preliminary = !pdf_status_issued(pp->doc->meta.status);
         P->since = P->pkg_since ? P->pkg_since[k - 1] : NULL;

@@ -186,7 +186,7 @@ void item_add(Vec *items, Pdf *P, ItemFn fn, const void *p, int aux, double spac
 void pdf_math_setup(Pdf *P)
 {
     P->metrics = (MathMetrics){metric_width, P, 0.72, 0.22, 0.26};
-    P->env = (MathEnv){&P->scratch, &P->metrics, P->ev, P->ev->digits > 0 ? P->ev->digits : 4, NULL};
+    P->env = (MathEnv){&P->scratch, &P->metrics, P->ev, P->ev->digits > 0 ? P->ev->digits : 4, NULL, NULL};
     P->painter = (MathPainter){paint_text, paint_line, paint_curve, P};
 }
 

@@ -109,6 +109,17 @@ static void put_value(const Evaluated *ev, const Value *v, const Unit *u, int pa
         sb_putc(out, ')');
 }
 
+/* While a method's formula is printed with one call's values (render_method_text). */
+static const MethodUse *method_values;
+
+static const Value *method_value(const char *name)
+{
+    for (size_t i = 0; method_values && i < method_values->ninputs; i++)
+        if (strcmp(method_values->inputs[i].name, name) == 0)
+            return &method_values->inputs[i].value;
+    return NULL;
+}
+
 /* `row` is the statement being listed (a solve substitutes its root values), or NULL. */
 static void put_expr(const Evaluated *ev, const StmtResult *row, const Expr *e, bool sub, StrBuf *out,
                      int parent_prec)
@@ -127,6 +138,16 @@ static void put_expr(const Evaluated *ev, const StmtResult *row, const Expr *e, 
         Unit shown;
         Value cv;
         const Value *v = sub ? eval_read(ev, row, e->slot, &shown) : NULL;
+        if (sub && method_values && e->slot == SLOT_UNRESOLVED) {
+            /* a method's formula: its symbols are the call's values */
+            v = method_value(e->text);
+            if (v && v->kind == VAL_NUMBER)
+                shown = eval_display_unit(ev, v, NULL);
+            if (!v && strcmp(e->text, "g") == 0 && eval_constant(SLOT_G, &cv)) {
+                v = &cv;
+                shown = eval_display_unit(ev, v, NULL);
+            }
+        }
         if (v && v->kind == VAL_NUMBER) {
             put_value(ev, v, &shown, parent_prec, out);
         } else if (sub && e->slot != SLOT_PI && eval_constant(e->slot, &cv)) {
@@ -203,6 +224,13 @@ void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBu
     put_expr(ev, NULL, e, substitute, out, PREC_TOP);
 }
 
+void render_method_text(const Evaluated *ev, const MethodUse *use, const Expr *e, StrBuf *out)
+{
+    method_values = use;
+    put_expr(ev, NULL, e, true, out, PREC_TOP);
+    method_values = NULL;
+}
+
 void render_expr_text_at(const Evaluated *ev, const StmtResult *row, const Expr *e, bool substitute,
                          StrBuf *out)
 {
@@ -225,6 +253,22 @@ static void put_methods(const StmtResult *r, StrBuf *out)
     for (size_t k = 0; k < r->nmethods; k++)
         sb_printf(out, "\n      method: %s%s%s", r->methods[k]->title,
                   r->methods[k]->formula ? ": " : "", r->methods[k]->formula ? r->methods[k]->formula : "");
+}
+
+/* How the row's calls applied their methods: the variant taken, and the
+ * formula with the values used, "lhs = formula = values = result". */
+static void put_uses(const ModelRow *mr, StrBuf *out)
+{
+    for (size_t k = 0; k < mr->nuses; k++) {
+        const ModelUse *u = &mr->uses[k];
+        if (u->branch)
+            sb_printf(out, "\n      branch: %s", u->branch);
+        if (u->substituted) {
+            sb_printf(out, "\n      with the values used: %s = %s = %s", u->lhs, u->formula, u->substituted);
+            if (u->result.number)
+                sb_printf(out, " = %s", u->result.text);
+        }
+    }
 }
 
 /* A number in a unit, for table cells: just the digits. */
@@ -582,8 +626,10 @@ static void put_statement(const Evaluated *ev, const ReportModel *model, const S
                 render_value_text(ev, fv, &u, out);
             }
         }
-        if (r->state == RES_OK)
+        if (r->state == RES_OK) {
             put_methods(r, out);
+            put_uses(mr, out);
+        }
         sb_putc(out, '\n');
         if (r->state == RES_OK && r->table)
             put_table(ev, r->table, out);
@@ -615,6 +661,9 @@ static void put_statement(const Evaluated *ev, const ReportModel *model, const S
         sb_printf(out, "%s %s: %s", s->finding ? "finding" : "check", s->label, mr->formula);
         if (c->evaluated) {
             const char *op = cmp_op_text(s->cmp, false);
+            /* the sides substituted, as the sheets show them */
+            if (mr->show_substituted)
+                sb_printf(out, " : %s", mr->substituted);
             sb_printf(out, " : %s %s %s : ", c->lhs.text, op, c->rhs.text);
             if (c->finding)
                 sb_puts(out, c->verdict);

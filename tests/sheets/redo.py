@@ -6,7 +6,9 @@ Usage: redo.py LISTING.txt SHEETS.txt NAME
 
 LISTING.txt is the text listing (`build --format text`), whose rows are the
 report model's rows in one line each: `name = formula = substituted =
-result`, and for a solve `at x = root: lhs = rhs = value = value`. SHEETS.txt
+result`, for a solve `at x = root: lhs = rhs = value = value`, and for a
+published method a call applied `with the values used: lhs = formula =
+substituted = result`. SHEETS.txt
 is pdftotext of the PDF of the same calc. For every row whose substituted
 middle is arithmetic on printed quantities (a method call cannot be re-done
 by hand and is counted apart), the middle is evaluated here from the printed
@@ -195,12 +197,26 @@ def main():
     for raw in open(listing, encoding="utf-8"):
         line = raw.rstrip("\n")
         code = split_top(line, "   #")[0].strip()
+        # a method's formula with the values one call used (the model's uses)
+        if code.startswith("with the values used: "):
+            code = code[len("with the values used: "):]
         rows = []
         m = re.match(r"^([A-Za-z_][A-Za-z0-9_]*) = (.*)$", code)
         if m and " solve " not in code[:len(m.group(1)) + 9]:
             parts = split_top(m.group(2), " = ")
             if len(parts) == 3:
                 rows.append((m.group(1), parts[1], parts[2]))
+        # a check or finding: "check LABEL: formula : substituted : lhs OP rhs : verdict"
+        m = re.match(r"^(?:check|finding) ([^:]*): (.*)$", code)
+        if m:
+            parts = split_top(m.group(2), " : ")
+            if len(parts) == 4:
+                rel = re.compile(r" (<=|>=|<|>|==|!=) ")
+                sub_sides = [p for p in rel.split(parts[1]) if not rel.fullmatch(" " + p + " ")]
+                val_sides = [p for p in rel.split(parts[2]) if not rel.fullmatch(" " + p + " ")]
+                if len(sub_sides) == 2 and len(val_sides) == 2:
+                    rows.append((m.group(1) + " (left side)", sub_sides[0], val_sides[0]))
+                    rows.append((m.group(1) + " (right side)", sub_sides[1], val_sides[1]))
         m = re.match(r"^at ([A-Za-z_][A-Za-z0-9_]*) = [^:]*: (.*); residual", code)
         if m:
             parts = split_top(m.group(2), " = ")

@@ -50,7 +50,7 @@ static int setup(void **state)
 {
     (void)state;
     arena_init(&arena);
-    env = (MathEnv){&arena, &FAKE, NULL, 4, NULL};
+    env = (MathEnv){&arena, &FAKE, NULL, 4, NULL, NULL};
     return 0;
 }
 
@@ -253,7 +253,7 @@ static void test_statement_row_breaks_at_equals(void **state)
     assert_non_null(doc);
     Evaluated *ev = eval_document(doc, &dl);
     assert_int_equal(dl.errors, 0);
-    MathEnv e = {&doc->arena, &FAKE, ev, 4, NULL};
+    MathEnv e = {&doc->arena, &FAKE, ev, 4, NULL, NULL};
     const ReportModel *model = report_model_build(ev, &doc->arena);
     MathRow row;
     mbox_stmt_row(&e, doc->stmts[2], &model->rows[2], 10, &row);

@@ -184,6 +184,47 @@ static void test_method_formula(void **state)
     assert_int_equal(r2->methods[0], r1->methods[0]);
 }
 
+/* A method call's inputs are substituted like any formula: Joukowsky's
+ * rise 1000 kg/m^3 * 1200 m/s * 1.5 m/s = 1.8 MPa (by hand), shown as the
+ * method's formula with the call's values. */
+static void test_method_use_substituted(void **state)
+{
+    (void)state;
+    load("units: SI\n", "rho = 1000 kg/m^3\na = 1200 m/s\ndp = surge(rho, a, 1.5 m/s)\n");
+    const ModelRow *r = row_of("dp");
+    assert_int_equal(r->nuses, 1);
+    const ModelUse *u = &r->uses[0];
+    assert_string_equal(u->lhs, "Delta_p");
+    assert_string_equal(u->formula, "rho*a*Delta_V");
+    assert_non_null(u->substituted);
+    assert_string_equal(u->substituted, "(1000 kg/m^3)*(1200 m/s)*(1.500 m/s)");
+    assert_true(u->result.number);
+    assert_close(u->result.si, 1.8e6, 1e-12);
+    assert_string_equal(u->result.text, r->result.text);
+}
+
+/* wave_speed names the support and the c1 it used, with Poisson's ratio:
+ * anchored throughout, c1 = 1 - nu^2 = 1 - 0.30^2 = 0.9100 for steel (nu
+ * 0.30, the value the library tabulates for steel); 12 in schedule 40 has
+ * D/e = 11.938/0.406 = 29.4, a thin wall. */
+static void test_wave_speed_branch(void **state)
+{
+    (void)state;
+    load("units: US\n", "w = water(60 degF)\np = pipe(\"ASME B36.10M\", \"12\", \"40\")\n"
+                         "a = wave_speed(p, w, support=\"anchored\")\n");
+    const ModelRow *r = row_of("a");
+    assert_true(r->nuses >= 1);
+    const ModelUse *u = &r->uses[0];
+    assert_non_null(u->branch);
+    assert_non_null(strstr(u->branch, "anchored throughout"));
+    assert_non_null(strstr(u->branch, "c₁ = 1 − ν²"));
+    assert_non_null(strstr(u->branch, "0.9100"));
+    assert_non_null(strstr(u->branch, "ν = 0.3000"));
+    assert_non_null(u->substituted);
+    assert_non_null(strstr(u->substituted, "0.9100"));
+    assert_close(u->result.si, r->res->value.q.si, 1e-15);
+}
+
 /* The text listing and the JSON results carry the model's rows. */
 static void test_renderers_carry_rows(void **state)
 {
@@ -223,6 +264,8 @@ int main(void)
         cmocka_unit_test(test_solve_at_root),
         cmocka_unit_test(test_checks_and_governing),
         cmocka_unit_test(test_method_formula),
+        cmocka_unit_test(test_method_use_substituted),
+        cmocka_unit_test(test_wave_speed_branch),
         cmocka_unit_test(test_renderers_carry_rows),
     };
     int rc = cmocka_run_group_tests(tests, NULL, NULL);
