@@ -236,11 +236,19 @@ void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, Diag
      * bracketing method finds where the residual changes sign; if the sides
      * do not agree there (a pole or a jump, not a root), it is no root. */
     bool sign_change_only = false;
+    /* the methods' values the row shows are those at the root, never at the
+     * trial value the dimension check above used */
+    cc->nuses = 0;
     if (rep.status == SOLVE_OK) {
         diags->muted++;
         set_var(ev, s, rep.root, diags);
         Value lr, rr;
         bool okr = equation_sides(ev, s, diags, &lr, &rr);
+        if (okr) {
+            Value lu, ru;   /* again through the row's own call context, for its method uses */
+            if (!(eval_expr(&c, s->lhs, &lu) && eval_expr(&c, s->rhs, &ru)))
+                cc->nuses = 0;
+        }
         diags->muted--;
         if (okr) {
             record_root_reads(ev, s, res);

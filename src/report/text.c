@@ -288,54 +288,31 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
         return;
     }
     const PathResult *pr = r->path;
-    UnitSystem us = ev->units;
-    Unit uQ = unit_default(DIM_FLOW, TEMP_NONE, us), uL = unit_default(DIM_L, TEMP_NONE, us);
-    Unit uV = unit_default(DIM_VELOCITY, TEMP_NONE, us), uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
-    Unit uD, one = unit_default(DIM_NONE, TEMP_NONE, us);
-    size_t bo, bl;
-    unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
+    Unit one = unit_default(DIM_NONE, TEMP_NONE, ev->units);
     sb_printf(out, ": %zu segments, %s loss\n", pr->nsegs,
               s->path->loss == LOSS_DARCY ? "Darcy-Weisbach" : "Hazen-Williams");
+    /* the columns are the report model's, as the PDF's segment table has them */
+    PathColumns c = report_path_columns(ev, pr);
     bool dev = pr->ndevices > 0;
     bool load = pr->nsegs && pr->segs[0].has_load;
-    sb_printf(out, "  %-10s", "segment");
-    if (load)
-        sb_printf(out, " %10s", "load");
-    sb_printf(out, " %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s", "Q", "D", "L",
-              "rise", "V", "Re", "f", "K", "h_f", "h_m", "p_in");
-    sb_printf(out, dev ? " %10s %10s  %s\n" : " %10s\n", dev ? "dp_device" : "p_out", "p_out", "device");
+    sb_printf(out, "  %-10s", c.key[0]);
+    for (int i = 1; i < c.n; i++)
+        sb_printf(out, " %10s", c.key[i]);
+    sb_puts(out, dev ? "  device\n" : "\n");
     sb_printf(out, "  %-10s", "");
-    if (load)
-        sb_printf(out, " %10s", "wsfu");
-    sb_printf(out, " %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s", uQ.text, uD.text,
-              uL.text, uL.text, uV.text, "", "", "", uL.text, uL.text, uP.text);
-    sb_printf(out, dev ? " %10s %10s\n" : " %10s\n", uP.text, uP.text);
-    for (size_t i = 0; i < pr->nsegs; i++) {
-        const SegmentResult *g = &pr->segs[i];
+    for (int i = 1; i < c.n; i++)
+        sb_printf(out, " %10s", c.map[i] == PCOL_LOAD ? "wsfu" : c.has_unit[i] ? c.unit[i].text : "");
+    sb_putc(out, '\n');
+    for (size_t k = 0; k < pr->nsegs; k++) {
+        const SegmentResult *g = &pr->segs[k];
         sb_printf(out, "  %-10s", g->id);
-        if (load)
-            put_cell(ev, g->load, &one, true, out);
-        put_cell(ev, g->Q, &uQ, true, out);
-        put_cell(ev, g->D, &uD, true, out);
-        put_cell(ev, g->L, &uL, true, out);
-        put_cell(ev, g->rise, &uL, true, out);
-        put_cell(ev, g->V, &uV, true, out);
-        put_cell(ev, g->Re, &one, true, out);
-        if (isnan(g->f))
-            sb_printf(out, " %10s", "-");
-        else
-            put_cell(ev, g->f, &one, true, out);
-        put_cell(ev, g->K, &one, true, out);
-        put_cell(ev, g->h_f, &uL, true, out);
-        put_cell(ev, g->h_m, &uL, true, out);
-        put_cell(ev, g->p_in, &uP, true, out);
-        if (dev) {
-            if (g->has_device)
-                put_cell(ev, g->dp_device, &uP, true, out);
+        for (int i = 1; i < c.n; i++) {
+            double x = report_path_cell(g, c.map[i]);
+            if (isfinite(x))
+                put_cell(ev, x, &c.unit[i], true, out);
             else
                 sb_printf(out, " %10s", "-");
         }
-        put_cell(ev, g->p_out, &uP, true, out);
         if (g->has_device)
             sb_printf(out, "  %s", g->device);
         sb_putc(out, '\n');
@@ -648,6 +625,7 @@ static void put_statement(const Evaluated *ev, const ReportModel *model, const S
                 sb_printf(out, "%s = ", mr->substituted);
             sb_printf(out, "%s = %s; residual %s after %d iterations", mr->lhs_at_root.text,
                       mr->rhs_at_root.text, mr->residual.text, mr->iterations);
+            put_uses(mr, out);
         } else {
             sb_puts(out, " = (not evaluated)");
             put_comment(s, out);

@@ -41,7 +41,7 @@ def si_factor(unit):
     u = unit
     # gauge and absolute pressure marks (DESIGN 2.9) are not units
     u = re.sub(r"\b(kPa|psi|Pa|MPa|bar)[ag]\b", r"\1", u)
-    u = u.replace("degC", "K").replace("degF", "degR").replace("gpm", "gal/min")
+    u = u.replace("degC", "K").replace("degF", "degR").replace("gpm", "(gal/min)")
     try:
         out = subprocess.run(["units", "-t", "-d", "15", u], capture_output=True, text=True,
                              timeout=10).stdout.strip()

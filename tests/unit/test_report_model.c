@@ -225,6 +225,25 @@ static void test_wave_speed_branch(void **state)
     assert_close(u->result.si, r->res->value.q.si, 1e-15);
 }
 
+/* A solve row's method uses are those at the root, never at the trial
+ * value: the curve through (0, 30 m), (2 L/s, 28 m), (4 L/s, 22 m) is
+ * H = 30 m - 0.5 m/(L/s)^2 * Q^2 (by hand), so pump(Q) = 20 m at
+ * Q = sqrt(20) L/s = 4.472 L/s; the trial value is 1 L/s. */
+static void test_solve_uses_at_root(void **state)
+{
+    (void)state;
+    load("units: SI\n", "pmp = pump_curve(0 L/s, 30 m, 2 L/s, 28 m, 4 L/s, 22 m)\nQ = 1 L/s\n"
+                         "Qr = solve Q where pmp(Q) = 20 m between 0.5 L/s and 10 L/s\n");
+    const ModelRow *r = row_of("Qr");
+    assert_close(r->result.si, sqrt(20.0) * 1e-3, 1e-9);
+    assert_int_equal(r->nuses, 1);
+    const ModelUse *u = &r->uses[0];
+    assert_non_null(u->substituted);
+    assert_non_null(strstr(u->substituted, "(4.472 L/s)"));
+    assert_null(strstr(u->substituted, "(1.000 L/s)"));
+    assert_string_equal(u->result.text, "20.00 m");
+}
+
 /* The text listing and the JSON results carry the model's rows. */
 static void test_renderers_carry_rows(void **state)
 {
@@ -266,6 +285,7 @@ int main(void)
         cmocka_unit_test(test_method_formula),
         cmocka_unit_test(test_method_use_substituted),
         cmocka_unit_test(test_wave_speed_branch),
+        cmocka_unit_test(test_solve_uses_at_root),
         cmocka_unit_test(test_renderers_carry_rows),
     };
     int rc = cmocka_run_group_tests(tests, NULL, NULL);
