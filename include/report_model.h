@@ -108,7 +108,33 @@ typedef struct ReportModel {
     int governing;           /* statement index of the governing check, -1 */
     size_t nchecks, nfailed; /* the evaluator's counts: checks evaluated, checks that fail */
     size_t nwarnings;        /* warnings over every row */
+    size_t case_rows_failing;/* the evaluator's count over every case table */
 } ReportModel;
+
+/* The columns of a path's segment table, defined once for the listing and
+ * the PDF: which columns the path has (a fixture load column with a
+ * fixtures column, a device column with devices), their heads and the unit
+ * each is shown in. */
+enum { PATH_COLUMNS_MAX = 15 };
+typedef enum PathColumnKind {
+    PCOL_SEGMENT, PCOL_LOAD, PCOL_Q, PCOL_D, PCOL_L, PCOL_RISE, PCOL_V, PCOL_RE, PCOL_F, PCOL_K,
+    PCOL_HF, PCOL_HM, PCOL_PIN, PCOL_DPDEV, PCOL_POUT
+} PathColumnKind;
+
+typedef struct PathColumns {
+    int n;
+    int map[PATH_COLUMNS_MAX];           /* the PathColumnKind of column i */
+    const char *key[PATH_COLUMNS_MAX];   /* the listing's head: "Q", "h_f", "dp_device" */
+    const char *word[PATH_COLUMNS_MAX];  /* "flow", "friction loss" */
+    const char *symbol[PATH_COLUMNS_MAX];/* as a symbol: "Q", "Delta_p_dev" */
+    Unit unit[PATH_COLUMNS_MAX];         /* shown in; a pure number's unit where none */
+    bool has_unit[PATH_COLUMNS_MAX];
+} PathColumns;
+
+PathColumns report_path_columns(const Evaluated *ev, const PathResult *pr);
+/* A segment's value in a column, in SI; NAN where there is none (no friction
+ * factor, no device). The segment column has no number. */
+double report_path_cell(const SegmentResult *g, int kind);
 
 /* Build the model of `ev` in `a`. Never fails (an unevaluated row says so). */
 const ReportModel *report_model_build(const Evaluated *ev, Arena *a);

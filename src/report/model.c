@@ -305,7 +305,56 @@ const ReportModel *report_model_build(const Evaluated *ev, Arena *a)
         m->rows[m->governing].check.governs = true;
     m->nchecks = ev->nchecks;
     m->nfailed = ev->nfailed;
+    m->case_rows_failing = ev->case_rows_failing;
     return m;
+}
+
+PathColumns report_path_columns(const Evaluated *ev, const PathResult *pr)
+{
+    static const char *const KEY[PATH_COLUMNS_MAX] = {
+        "segment", "load", "Q", "D", "L", "rise", "V", "Re", "f", "K", "h_f", "h_m", "p_in", "dp_device", "p_out"};
+    static const char *const WORD[PATH_COLUMNS_MAX] = {
+        "segment",         "fixture load", "flow",       "bore",          "length",       "rise",
+        "velocity",        "Reynolds number", "friction factor", "fittings K", "friction loss",
+        "fitting loss",    "inlet pressure",  "device loss",    "outlet pressure"};
+    static const char *const SYMBOL[PATH_COLUMNS_MAX] = {"",  "",  "Q",   "D",   "L",   "Delta_z", "V",    "Re",
+                                                         "f", "K",   "h_f", "h_m", "p_in",    "Delta_p_dev", "p_out"};
+    UnitSystem us = ev->units;
+    PathColumns c;
+    memset(&c, 0, sizeof c);
+    Unit uQ = unit_default(DIM_FLOW, TEMP_NONE, us), uL = unit_default(DIM_L, TEMP_NONE, us);
+    Unit uV = unit_default(DIM_VELOCITY, TEMP_NONE, us), uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
+    Unit one = unit_default(DIM_NONE, TEMP_NONE, us);
+    Unit uD = uL;
+    size_t bo, bl;
+    unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
+    bool load = pr && pr->nsegs && pr->segs[0].has_load;
+    for (int q = 0; q < PATH_COLUMNS_MAX; q++) {
+        if ((q == PCOL_DPDEV && (!pr || pr->ndevices == 0)) || (q == PCOL_LOAD && !load))
+            continue;
+        int i = c.n++;
+        c.map[i] = q;
+        c.key[i] = KEY[q];
+        c.word[i] = WORD[q];
+        c.symbol[i] = SYMBOL[q];
+        c.has_unit[i] = q != PCOL_SEGMENT && q != PCOL_LOAD && q != PCOL_RE && q != PCOL_F && q != PCOL_K;
+        switch (q) {
+        case PCOL_Q: c.unit[i] = uQ; break;
+        case PCOL_D: c.unit[i] = uD; break;
+        case PCOL_L: case PCOL_RISE: case PCOL_HF: case PCOL_HM: c.unit[i] = uL; break;
+        case PCOL_V: c.unit[i] = uV; break;
+        case PCOL_PIN: case PCOL_DPDEV: case PCOL_POUT: c.unit[i] = uP; break;
+        default: c.unit[i] = one; break;
+        }
+    }
+    return c;
+}
+
+double report_path_cell(const SegmentResult *g, int kind)
+{
+    double si[PATH_COLUMNS_MAX] = {NAN,    g->load, g->Q, g->D, g->L,   g->rise, g->V,    g->Re,
+                                   g->f,   g->K, g->h_f, g->h_m, g->p_in, g->has_device ? g->dp_device : NAN, g->p_out};
+    return kind >= 0 && kind < PATH_COLUMNS_MAX ? si[kind] : NAN;
 }
 
 const ModelMethod *report_model_method(const ReportModel *model, const Method *m)

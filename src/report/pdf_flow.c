@@ -44,69 +44,30 @@ enum { PATH_COLS = 15, PATH_CHUNK = 28 };
 /* The columns shown: every quantity of a segment, the fixture load only when
  * the path has a fixtures column, the device loss only when it has a device.
  * map[i] is the quantity column i shows. */
-typedef struct PathCols {
-    int n;
-    int map[PATH_COLS];
-    const char *word[PATH_COLS];
-    const char *symbol[PATH_COLS];
-    Unit unit[PATH_COLS];
-    bool has_unit[PATH_COLS];
-} PathCols;
+/* The segment table's columns are the report model's (report_model.h). */
+typedef PathColumns PathCols;
 
-enum { PC_SEGMENT, PC_LOAD, PC_Q, PC_D, PC_L, PC_RISE, PC_V, PC_RE, PC_F, PC_K, PC_HF, PC_HM, PC_PIN, PC_DPDEV, PC_POUT };
+enum { PC_SEGMENT = PCOL_SEGMENT, PC_LOAD = PCOL_LOAD, PC_V = PCOL_V, PC_PIN = PCOL_PIN, PC_DPDEV = PCOL_DPDEV, PC_POUT = PCOL_POUT };
 
 static PathCols path_cols(const Pdf *P, const PathResult *pr)
 {
-    static const char *const WORD[PATH_COLS] = {
-        "segment",         "fixture load", "flow",       "bore",          "length",       "rise",
-        "velocity",        "Reynolds number", "friction factor", "fittings K", "friction loss",
-        "fitting loss",    "inlet pressure",  "device loss",    "outlet pressure"};
-    static const char *const SYMBOL[PATH_COLS] = {"",  "",  "Q",   "D",   "L",   "Delta_z", "V",    "Re",
-                                                  "f", "K",   "h_f", "h_m", "p_in",    "Delta_p_dev", "p_out"};
-    UnitSystem us = P->ev->units;
-    PathCols c;
-    memset(&c, 0, sizeof c);
-    Unit uQ = unit_default(DIM_FLOW, TEMP_NONE, us), uL = unit_default(DIM_L, TEMP_NONE, us);
-    Unit uV = unit_default(DIM_VELOCITY, TEMP_NONE, us), uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
-    Unit uD = uL;
-    size_t bo, bl;
-    unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
-    bool load = pr && pr->nsegs && pr->segs[0].has_load;
-    for (int q = 0; q < PATH_COLS; q++) {
-        if ((q == PC_DPDEV && (!pr || pr->ndevices == 0)) || (q == PC_LOAD && !load))
-            continue;
-        int i = c.n++;
-        c.map[i] = q;
-        c.word[i] = WORD[q];
-        c.symbol[i] = SYMBOL[q];
-        c.has_unit[i] = q != PC_SEGMENT && q != PC_LOAD && q != PC_RE && q != PC_F && q != PC_K;
-        switch (q) {
-        case PC_Q: c.unit[i] = uQ; break;
-        case PC_D: c.unit[i] = uD; break;
-        case PC_L: case PC_RISE: case PC_HF: case PC_HM: c.unit[i] = uL; break;
-        case PC_V: c.unit[i] = uV; break;
-        case PC_PIN: case PC_DPDEV: case PC_POUT: c.unit[i] = uP; break;
-        default: break;
-        }
-    }
-    return c;
+    return report_path_columns(P->ev, pr);
 }
 
 /* The cell text of segment g, column i. */
 static void path_cell(const Pdf *P, const PathCols *c, const SegmentResult *g, int i, char *buf, size_t n)
 {
-    double si[PATH_COLS] = {0,      g->load, g->Q, g->D, g->L,   g->rise, g->V,    g->Re,
-                            g->f,   g->K, g->h_f, g->h_m, g->p_in, g->has_device ? g->dp_device : NAN, g->p_out};
     int q = c->map[i];
     if (q == PC_SEGMENT) {
         snprintf(buf, n, "%s", g->id ? g->id : "");
         return;
     }
-    if (!isfinite(si[q])) {
+    double x = report_path_cell(g, q);
+    if (!isfinite(x)) {
         snprintf(buf, n, "—");
         return;
     }
-    double v = c->has_unit[i] ? unit_from_si(si[q], &c->unit[i], true) : si[q];
+    double v = c->has_unit[i] ? unit_from_si(x, &c->unit[i], true) : x;
     num_typeset(v, P->env.digits, buf, n);
 }
 
@@ -669,11 +630,7 @@ void pdf_cases_items(Pdf *P, Vec *items, size_t which)
 
 size_t pdf_case_rows_failing(const Pdf *P)
 {
-    size_t n = 0;
-    for (size_t i = 0; i < P->ev->ncases; i++)
-        if (P->ev->cases[i].table)
-            n += P->ev->cases[i].rows_failing;
-    return n;
+    return P->model->case_rows_failing;   /* counted once, by the evaluator */
 }
 
 /* One case table's outcome: "Cases at line 39: checks fail in case 3 of 3
