@@ -708,6 +708,33 @@ static MathBox *rel(const MathEnv *env, const char *r, MathBox *b, double size)
     return hl2(env, op_box(env, r, size, 0.28), b);
 }
 
+/* "= a + b − c" as pieces "= a", "+ b", "− c", so a long sum breaks
+ * before a term rather than running past the line (or being set small):
+ * the top level of a sum only, in its own left-to-right order. */
+static void sum_pieces(const MathEnv *env, MathRow *row, const char *relation, const Expr *e,
+                       double size, bool sub)
+{
+    const Expr *terms[MATHROW_MAX];
+    const char *ops[MATHROW_MAX];
+    size_t n = 0;
+    const Expr *x = e;
+    /* a + b - c is ((a + b) - c): walk down the left spine */
+    while (x && x->kind == EXPR_BINARY && (x->op == OP_ADD || x->op == OP_SUB) && n + 2 < MATHROW_MAX / 2) {
+        terms[n] = x->rhs;
+        ops[n] = x->op == OP_ADD ? "+" : "−";
+        n++;
+        x = x->lhs;
+    }
+    if (n == 0 || row->n + n + 1 > MATHROW_MAX) {
+        row_add(row, rel(env, relation, mbox_expr(env, e, size, sub), size), false);
+        return;
+    }
+    row_add(row, rel(env, relation, expr_box(env, x, size, sub, CTX_TOP), size), false);
+    for (size_t i = n; i-- > 0;)
+        row_add(row, hl2(env, op_box(env, ops[i], size, 0.2), expr_box(env, terms[i], size, sub, CTX_ADD_RIGHT)),
+                false);
+}
+
 static void record_fields(const MathEnv *env, const Value *v, double size, MathRow *row)
 {
     const Record *r = v->rec;
@@ -734,7 +761,7 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, const ModelRow *mr, doubl
     case STMT_DEF: {
         MathBox *sym = mbox_symbol(env, st->name, size);
         row_add(row, sym, true);
-        row_add(row, rel(env, "=", mbox_expr(env, st->expr, size, false), size), false);
+        sum_pieces(env, row, "=", st->expr, size, false);
         if (!ok) {
             row_add(row, rel(env, "=", mbox_text(env, FONT_SERIF_BOLD, size, "not evaluated"), size),
                     false);
@@ -758,7 +785,7 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, const ModelRow *mr, doubl
          * unless it only repeats the formula, the result unless an input
          * shown as written is its own result */
         if (mr->show_substituted)
-            row_add(row, rel(env, "=", mbox_expr(env, st->expr, size, true), size), false);
+            sum_pieces(env, row, "=", st->expr, size, true);
         if (mr->show_result)
             row_add(row, rel(env, "=", mbox_quantity(env, &r->value, &r->shown, size, true), size),
                     false);
