@@ -53,8 +53,8 @@ static const Method METHOD_CHURCHILL = {
     "f = 8*((8/Re)^12 + 1/(A + B)^1.5)^(1/12)",
     "all Re; ε/D ≤ 0.05 (common practice, no source); 2000 < Re < 4000 is uncertain",
     "Churchill, S. W. (1977). Friction-factor equation spans all fluid-flow regimes. "
-    "Chem. Eng. 84(24), 91-92. A = (2.457·ln(1/((7/Re)^0.9 + 0.27·ε/D)))^16, "
-    "B = (37530/Re)^16.",
+    "Chem. Eng. 84(24), 91-92. A = [2.457·ln(1/((7/Re)⁰˙⁹ + 0.27·ε/D))]¹⁶, "
+    "B = (37530/Re)¹⁶.",
 };
 
 static const Method METHOD_LAMINAR = {
@@ -73,7 +73,7 @@ static const Method METHOD_HAZEN_WILLIAMS = {
     "water at ordinary temperatures in turbulent flow; 0.3 m/s ≤ V ≤ 3 m/s "
     "(common practice, no source)",
     "Williams, G. S. and Hazen, A. (1920). Hydraulic Tables, 3rd ed. Wiley. SI form from "
-    "V = 0.849·C·R^0.63·S^0.54 with R = D/4; 10.67 is the rounded constant of SI texts.",
+    "V = 0.849·C·R⁰˙⁶³·S⁰˙⁵⁴ with R = D/4; 10.67 is the rounded constant of SI texts.",
 };
 
 /* ---- friction ------------------------------------------------------------ */
@@ -117,7 +117,7 @@ static bool friction_call(CallCtx *cx, const CallArgs *a, FrictionMethod m, bool
     double f;
     FrictionStatus st = regime ? friction_factor(m, Re, rr, &f, &used) : friction_eval(m, Re, rr, &f);
     if (st != FRICTION_OK) {
-        diag_error(cx->diags, a->pos, "%s: the %s iteration did not converge at Re = %s, rr = %s",
+        diag_error(cx->diags, a->pos, "%s: the %s iteration did not converge at Re = %s, ε/D = %s",
                    a->name, friction_method_name(used), glue_show_num(Re, b1, sizeof b1),
                    glue_show_num(rr, b2, sizeof b2));
         return false;
@@ -136,7 +136,7 @@ static bool friction_call(CallCtx *cx, const CallArgs *a, FrictionMethod m, bool
     if (re_out || rr_out)
         diag_warning(cx->diags, a->pos,
                      "%s: %s = %s is outside the validity range of the %s (%s)", a->name,
-                     re_out ? "Re" : "rr",
+                     re_out ? "Re" : "ε/D",
                      re_out ? glue_show_num(Re, b1, sizeof b1) : glue_show_num(rr, b1, sizeof b1),
                      meth->title, meth->validity);
     *out = value_number(qty_number(f));

@@ -85,9 +85,15 @@ static bool pump_record_call(CallCtx *cx, const Record *self, const CallArgs *a,
         diag_error(cx->diags, a->pos, "%s: this record has no pump curve", a->name);
         return false;
     }
-    call_use_method(cx, &METHOD_PUMP);
+    MethodUse *u = call_begin_use(cx, &METHOD_PUMP);
+    Dim db = dim_div(DIM_L, DIM_FLOW), dc = dim_div(DIM_L, dim_flow2());
+    use_input_value(u, "a", head_value(pc->a));
+    use_input_value(u, "b", value_hinted(qty(pc->b, db), "ft/gpm", "m/(L/s)"));
+    use_input_value(u, "c", value_hinted(qty(pc->c, dc), "ft/gpm^2", "m/(L/s)^2"));
+    use_input_value(u, "Q", flow_value(Q));
     warn_extrapolated(cx, a, pc, Q);
     *out = head_value(pump_head(pc, Q));
+    use_result(u, out->q.si, DIM_L);
     return true;
 }
 
@@ -187,7 +193,7 @@ bool fn_operating_point(CallCtx *cx, const CallArgs *a, Value *out)
     call_use_method(cx, &METHOD_OPERATING);
     if (count > 1)
         diag_warning(cx->diags, a->pos,
-                     "%s: the curves meet twice at Q >= 0; the larger flow %s is taken",
+                     "%s: the curves meet twice at Q ≥ 0; the larger flow %s is taken",
                      a->name, glue_show(cx, Q, DIM_FLOW, TEMP_NONE, b1, sizeof b1));
     warn_extrapolated(cx, a, pc, Q);
     Record *r = record_new(cx->arena, "operating_point", 2);

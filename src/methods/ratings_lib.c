@@ -22,7 +22,7 @@ static const Method METHOD_RATING_PVC = {
     "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM D1785 and D2241; "
     "HDS 2000 psi for PVC 1120 at 73.4 °F (HDB 4000 psi, service factor 0.5, ASTM D2241 "
     "appendix, as given in Moser, Buried Pipe Design, ch. 4); ASTM D2241 pressure classes "
-    "from the Hydraulic Institute Engineering Data Book, Table 4.E.2; derating factors F_T "
+    "from the Hydraulic Institute Engineering Data Book, Table 4.E.2; derating factors "
     "from GF Harvel, Temperature Derating, Schedule 40 & 80 PVC pipe, linear between rows. "
     "Verify against the manufacturer's current data.",
 };
@@ -31,10 +31,10 @@ static const Method METHOD_RATING_CPVC = {
     "rating_cpvc",
     "Thermoplastic pressure rating, CPVC 4120, with temperature derating",
     "p = 2*HDS/(SDR - 1)*F_T",
-    "73.4 °F ≤ T ≤ 200 °F (F_T = 1.00 at and below 80 °F); water",
+    "73.4 °F ≤ T ≤ 200 °F (derating factor 1.00 at and below 80 °F); water",
     "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM F441; HDS 2000 psi for "
     "CPVC 4120 at 73.4 °F (U.S. Plastic Corp., CPVC pipe physical properties); derating "
-    "factors F_T from GF Harvel, CPVC Industrial Pipe Temperature Derating, linear between "
+    "factors from GF Harvel, CPVC Industrial Pipe Temperature Derating, linear between "
     "rows. Verify against the manufacturer's current data.",
 };
 
@@ -42,7 +42,7 @@ static const Method METHOD_RATING_PEX = {
     "rating_pex",
     "Thermoplastic pressure rating, PEX, with temperature derating",
     "p = 2*HDS/(SDR - 1)*F_T",
-    "73.4 °F ≤ T ≤ 180 °F (F_T = 1.00 at and below 73.4 °F); water",
+    "73.4 °F ≤ T ≤ 180 °F (derating factor 1.00 at and below 73.4 °F); water",
     "ISO 161-1 / ASTM D2837 pressure rating relation as used by ASTM F876/F877; HDS 630 psi "
     "at 73.4 °F and 400 psi at 180 °F, from the published SDR 9 ratings 160 psi at "
     "73.4 °F and 100 psi at 180 °F (EngineerFix, How Much Pressure Can PEX Pipe Hold?; "
@@ -125,12 +125,28 @@ static bool rating_thermoplastic(CallCtx *cx, const CallArgs *a, const Record *p
                    glue_show_num(sdr, b1, sizeof b1));
         return false;
     }
-    if (strcmp(m->material, "PVC") == 0)
-        call_use_method(cx, &METHOD_RATING_PVC);
-    else if (strcmp(m->material, "CPVC") == 0)
-        call_use_method(cx, &METHOD_RATING_CPVC);
-    else
-        call_use_method(cx, &METHOD_RATING_PEX);
+    const Method *rm = strcmp(m->material, "PVC") == 0    ? &METHOD_RATING_PVC
+                       : strcmp(m->material, "CPVC") == 0 ? &METHOD_RATING_CPVC
+                                                          : &METHOD_RATING_PEX;
+    MethodUse *u = call_begin_use(cx, rm);
+    use_input_value(u, "HDS", value_hinted(qty(hds > 0.0 ? hds : m->hds, DIM_PRESSURE), "psi", "MPa"));
+    use_input(u, "SDR", res.sdr, DIM_NONE);
+    use_input(u, "F_T", res.derate, DIM_NONE);
+    use_result(u, res.p, DIM_PRESSURE);
+    {
+        /* the temperature as printed: 35.00 °C, not the calc's spelling degC */
+        char ft[48], tt[64];
+        glue_show_temp(cx, T, tt, sizeof tt);
+        char *deg = strstr(tt, " deg");
+        if (deg && (deg[4] == 'C' || deg[4] == 'F') && deg[5] == '\0')
+            snprintf(deg, sizeof tt - (size_t)(deg - tt), " °%c", deg[4] == 'C' ? 'C' : 'F');
+        use_branch(cx, u,
+                   "Derating factor %s read at %s from the %s derating table (linear between "
+                   "rows); HDS %s; SDR = %s from the pipe's %s.",
+                   glue_show_num(res.derate, ft, sizeof ft), tt, m->material,
+                   hds > 0.0 ? "as given" : "of the material at 73.4 °F",
+                   glue_show_num(res.sdr, b1, sizeof b1), sv && sv->kind == VAL_NUMBER ? "dimension ratio" : "od and wall");
+    }
     const char *standard = glue_field_string(pipe, "standard");
     double p_class = 0.0;
     if (!(hds > 0.0) && standard && strcmp(standard, "ASTM D2241") == 0)
@@ -224,15 +240,28 @@ static bool rating_metal(CallCtx *cx, const CallArgs *a, const Record *pipe,
                    a->name);
         return false;
     }
-    call_use_method(cx, &METHOD_RATING_B31);
+    MethodUse *u = call_begin_use(cx, &METHOD_RATING_B31);
+    use_input_value(u, "S", value_hinted(qty(S, DIM_PRESSURE), "psi", "MPa"));
+    use_input(u, "E", E, DIM_NONE);
+    use_input(u, "W", W, DIM_NONE);
+    use_input_value(u, "t", value_hinted(qty(wall * (1.0 - mill), DIM_L), "in", "mm"));
+    use_input_value(u, "c", value_hinted(qty(c, DIM_L), "in", "mm"));
+    use_input_value(u, "D", value_hinted(qty(od, DIM_L), "in", "mm"));
+    use_input(u, "Y", Y, DIM_NONE);
+    use_result(u, res.p, DIM_PRESSURE);
+    if (mill > 0.0) {
+        char m1[48];
+        use_branch(cx, u, "t is the nominal wall less the mill under-tolerance of %s%%; D is the outside diameter.",
+                   glue_show_num(mill * 100.0, m1, sizeof m1));
+    }
     if (res.thick_wall)
         diag_warning(cx->diags, a->pos,
-                     "%s: wall t >= D/6, outside the validity of ASME B31.3 304.1.2(a) "
+                     "%s: wall t ≥ D/6, outside the validity of ASME B31.3 304.1.2(a) "
                      "(t < D/6); thick-wall design per 304.1.2(b) is required",
                      a->name);
     if (!hasY && T > (900.0 - 32.0) * 5.0 / 9.0 + 273.15)
         diag_warning(cx->diags, a->pos,
-                     "%s: Y = 0.4 holds below 900 degF (ASME B31.3 Table 304.1.1); give Y= "
+                     "%s: Y = 0.4 holds below 900 °F (ASME B31.3 Table 304.1.1); give Y= "
                      "for %s",
                      a->name, glue_show_temp(cx, T, b1, sizeof b1));
     return rating_record(cx, &res, 0.0, out);

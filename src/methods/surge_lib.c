@@ -134,10 +134,55 @@ bool fn_wave_speed(CallCtx *cx, const CallArgs *a, Value *out)
                    a->name);
         return false;
     }
-    call_use_method(cx, &METHOD_KORTEWEG);
+    MethodUse *u = call_begin_use(cx, &METHOD_KORTEWEG);
+    use_input_value(u, "K", value_hinted(qty(K, DIM_PRESSURE), "psi", "MPa"));
+    use_input(u, "rho", rho, DIM_DENSITY);
+    use_input(u, "c_1", c1, DIM_NONE);
+    use_input_value(u, "D", value_hinted(qty(D, DIM_L), "in", "mm"));
+    use_input_value(u, "E", value_hinted(qty(E, DIM_PRESSURE), "psi", "MPa"));
+    use_input_value(u, "e", value_hinted(qty(e, DIM_L), "in", "mm"));
+    use_result(u, speed, DIM_VELOCITY);
+    /* the support condition and the c1 it gives, with Poisson's ratio where used */
+    static const char *const support_words[] = {
+        [SURGE_SUPPORT_JOINTS] = "with expansion joints throughout",
+        [SURGE_SUPPORT_UPSTREAM] = "anchored at its upstream end only",
+        [SURGE_SUPPORT_ANCHORED] = "anchored throughout against axial movement",
+    };
+    static const char *const c1_thin[] = {
+        [SURGE_SUPPORT_JOINTS] = "c₁ = 1",
+        [SURGE_SUPPORT_UPSTREAM] = "c₁ = 1 − ν/2",
+        [SURGE_SUPPORT_ANCHORED] = "c₁ = 1 − ν²",
+    };
+    char nu_text[128] = "", c1_text[64];
+    glue_show_num(c1, c1_text, sizeof c1_text);
+    if (thick || support != SURGE_SUPPORT_JOINTS) {
+        char b[48];
+        snprintf(nu_text, sizeof nu_text, " with Poisson's ratio ν = %s%s", glue_show_num(nu, b, sizeof b),
+                 has_nu ? " (as given)" : "");
+    }
     if (thick)
-        call_use_method(cx, &METHOD_KORTEWEG_THICK);
-    else if (D / e < SURGE_THIN_WALL_RATIO)
+        use_branch(cx, u,
+                   "Pipe %s, thick wall (D/e = %.1f, below 25): c₁ = 2·e/D·(1 + ν) + %s/(D + e) = %s%s.",
+                   support_words[support], D / e,
+                   support == SURGE_SUPPORT_JOINTS    ? "D"
+                   : support == SURGE_SUPPORT_UPSTREAM ? "D·(1 − ν/2)"
+                                                      : "D·(1 − ν²)",
+                   c1_text, nu_text);
+    else
+        use_branch(cx, u, "Pipe %s: %s%s%s%s.", support_words[support], c1_thin[support],
+                   support == SURGE_SUPPORT_JOINTS ? "" : " = ", support == SURGE_SUPPORT_JOINTS ? "" : c1_text,
+                   nu_text);
+    if (thick) {
+        /* the thick-walled formula as the method sets it out is the
+         * upstream-anchored one; for another support the branch says which */
+        MethodUse *t = call_begin_use(cx, &METHOD_KORTEWEG_THICK);
+        if (support == SURGE_SUPPORT_UPSTREAM) {
+            use_input_value(t, "e", value_hinted(qty(e, DIM_L), "in", "mm"));
+            use_input_value(t, "D", value_hinted(qty(D, DIM_L), "in", "mm"));
+            use_input(t, "nu", nu, DIM_NONE);
+            use_result(t, c1, DIM_NONE);
+        }
+    } else if (D / e < SURGE_THIN_WALL_RATIO)
         diag_warning(cx->diags, a->pos,
                      "%s: D/e = %s is below 25 and no verified Poisson's ratio is tabulated "
                      "for this material, so the thin-wall factor was used; give poisson=... "
@@ -169,8 +214,12 @@ bool fn_surge(CallCtx *cx, const CallArgs *a, Value *out)
         diag_error(cx->diags, arg_at(a, 2), "%s: velocity change must be finite", a->name);
         return false;
     }
-    call_use_method(cx, &METHOD_JOUKOWSKY);
+    MethodUse *u = call_begin_use(cx, &METHOD_JOUKOWSKY);
+    use_input(u, "rho", rho, DIM_DENSITY);
+    use_input_value(u, "a", value_hinted(qty(c, DIM_VELOCITY), "ft/s", "m/s"));
+    use_input_value(u, "Delta_V", value_hinted(qty(dV, DIM_VELOCITY), "ft/s", "m/s"));
     *out = glue_pressure_value(surge_joukowsky(rho, c, dV));
+    use_result(u, out->q.si, DIM_PRESSURE);
     return true;
 }
 
@@ -191,7 +240,10 @@ bool fn_closure_time(CallCtx *cx, const CallArgs *a, Value *out)
                    a->name, glue_show(cx, c, DIM_VELOCITY, TEMP_NONE, b1, sizeof b1));
         return false;
     }
-    call_use_method(cx, &METHOD_CLOSURE);
+    MethodUse *u = call_begin_use(cx, &METHOD_CLOSURE);
+    use_input_value(u, "L", value_hinted(qty(L, DIM_L), "ft", "m"));
+    use_input_value(u, "a", value_hinted(qty(c, DIM_VELOCITY), "ft/s", "m/s"));
     *out = value_hinted(qty(surge_closure_time(L, c), DIM_T), "s", "s");
+    use_result(u, out->q.si, DIM_T);
     return true;
 }

@@ -177,8 +177,17 @@ bool fn_npsh_available(CallCtx *cx, const CallArgs *a, Value *out)
         diag_error(cx->diags, arg_at(a, 3), "%s: the suction head loss must not be negative", a->name);
         return false;
     }
-    call_use_method(cx, &METHOD_NPSHA);
+    MethodUse *u = call_begin_use(cx, &METHOD_NPSHA);
+    Value pa = value_hinted(qty(p_abs, DIM_PRESSURE), "psi", "kPa");
+    Value pv = value_hinted(qty(p_vap, DIM_PRESSURE), "psi", "kPa");
+    pa.q.pref = pv.q.pref = PRES_ABSOLUTE;
+    use_input_value(u, "p_abs", pa);
+    use_input_value(u, "p_vap", pv);
+    use_input(u, "rho", rho, DIM_DENSITY);
+    use_input_value(u, "z_s", value_hinted(qty(z, DIM_L), "ft", "m"));
+    use_input_value(u, "h_f", value_hinted(qty(h_f, DIM_L), "ft", "m"));
     double npsha = (p_abs - p_vap) / (rho * WATER_G) + z - h_f;
+    use_result(u, npsha, DIM_L);
     if (npsha <= 0) {
         char b1[64];
         diag_warning(cx->diags, a->pos,
