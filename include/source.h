@@ -22,6 +22,12 @@ char *source_read(const char *path, const char *display, size_t *len, DiagList *
 
 /* Report the first byte that is not valid UTF-8, or a forbidden control
  * character, with its line and column. */
+/* Length of the UTF-8 sequence at s (1..4, reading at most left bytes), or 0
+ * if it is not well formed (overlong forms, surrogates and code points above
+ * U+10FFFF are rejected). The one UTF-8 decoder: the source check and the JSON
+ * writer use it. */
+size_t source_utf8_len(const unsigned char *s, size_t left);
+
 bool source_check_text(const char *text, size_t len, const char *display, DiagList *diags);
 
 /* SHA-256 as 64 lower-case hex digits and a NUL. */

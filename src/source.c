@@ -69,9 +69,7 @@ char *source_read(const char *path, const char *display, size_t *len, DiagList *
     return buf;
 }
 
-/* Length of the UTF-8 sequence at s (1..4), or 0 if it is not well formed
- * (overlong forms, surrogates and code points above U+10FFFF are rejected). */
-static size_t utf8_len(const unsigned char *s, size_t left)
+size_t source_utf8_len(const unsigned char *s, size_t left)
 {
     unsigned char c = s[0];
     if (c < 0x80)
@@ -137,7 +135,7 @@ bool source_check_text(const char *text, size_t len, const char *display, DiagLi
             diag_error(diags, p, "line is %zu bytes long; the limit is %d bytes a line", n, SOURCE_MAX_LINE);
             return false;
         }
-        size_t n = utf8_len(s + i, len - i);
+        size_t n = source_utf8_len(s + i, len - i);
         if (n == 0) {
             Pos p = {display, line, col};
             diag_error(diags, p, "invalid UTF-8 (byte 0x%02X); save the file as UTF-8", c);

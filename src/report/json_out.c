@@ -1,5 +1,6 @@
 /* json_out.c — the streaming JSON writer (json_out.h). */
 #include "json_out.h"
+#include "source.h"
 
 #include <math.h>
 #include <stdint.h>
@@ -41,45 +42,16 @@ bool json_out_finish(JsonOut *w)
     return !ferror(w->f);
 }
 
-/* The length of the well-formed UTF-8 sequence at s, or 0. */
-static size_t utf8_sequence(const unsigned char *s)
-{
-    unsigned char c = s[0];
-    if (c < 0x80)
-        return 1;
-    size_t n;
-    uint32_t cp;
-    if (c >= 0xC2 && c <= 0xDF) {
-        n = 2;
-        cp = c & 0x1Fu;
-    } else if (c >= 0xE0 && c <= 0xEF) {
-        n = 3;
-        cp = c & 0x0Fu;
-    } else if (c >= 0xF0 && c <= 0xF4) {
-        n = 4;
-        cp = c & 0x07u;
-    } else {
-        return 0;   /* a continuation byte, C0/C1 or above F4 */
-    }
-    for (size_t k = 1; k < n; k++) {
-        if ((s[k] & 0xC0u) != 0x80u)
-            return 0;
-        cp = (cp << 6) | (s[k] & 0x3Fu);
-    }
-    if ((n == 3 && cp < 0x800) || (n == 4 && cp < 0x10000) || cp > 0x10FFFF || (cp >= 0xD800 && cp <= 0xDFFF))
-        return 0;
-    return n;
-}
-
 bool json_out_utf8_ok(const char *s)
 {
     const unsigned char *p = (const unsigned char *)s;
+    const unsigned char *end = p + strlen(s);
     while (*p) {
         if (*p < 0x80) {
             p++;
             continue;
         }
-        size_t n = utf8_sequence(p);
+        size_t n = source_utf8_len(p, (size_t)(end - p));
         if (n == 0)
             return false;
         p += n;
