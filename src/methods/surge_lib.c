@@ -23,14 +23,25 @@ static const Method METHOD_KORTEWEG = {
     "Streeter, V. L. (1993), Fluid Transients in Systems, Prentice Hall, section 2.6.",
 };
 
-static const Method METHOD_KORTEWEG_THICK = {
-    "korteweg_thick",
-    "Pressure-wave speed in a thick-walled elastic pipe",
-    "c_1 = 2*e/D*(1 + nu) + D*(1 - nu/2)/(D + e)",
-    "D/e below 25; linear-elastic pipe; shown for a pipe anchored upstream: with expansion "
-    "joints the last term is D/(D + e), anchored throughout D·(1 − ν²)/(D + e)",
-    "Wylie, E. B. and Streeter, V. L. (1993), Fluid Transients in Systems, Prentice Hall, "
-    "section 2.6, thick-walled elastic conduits.",
+/* The thick-walled c1 of Wylie and Streeter, one descriptor per support
+ * condition, so the formula a sheet shows is the one the calc used. */
+#define THICK_TITLE "Pressure-wave speed in a thick-walled elastic pipe"
+#define THICK_REFERENCE                                                                       \
+    "Wylie, E. B. and Streeter, V. L. (1993), Fluid Transients in Systems, Prentice Hall, " \
+    "section 2.6, thick-walled elastic conduits."
+static const Method METHOD_KORTEWEG_THICK[] = {
+    [SURGE_SUPPORT_JOINTS] = {"korteweg_thick", THICK_TITLE, "c_1 = 2*e/D*(1 + nu) + D/(D + e)",
+                              "D/e below 25; linear-elastic pipe with expansion joints throughout",
+                              THICK_REFERENCE},
+    [SURGE_SUPPORT_UPSTREAM] = {"korteweg_thick", THICK_TITLE,
+                                "c_1 = 2*e/D*(1 + nu) + D*(1 - nu/2)/(D + e)",
+                                "D/e below 25; linear-elastic pipe anchored at its upstream end only",
+                                THICK_REFERENCE},
+    [SURGE_SUPPORT_ANCHORED] = {"korteweg_thick", THICK_TITLE,
+                                "c_1 = 2*e/D*(1 + nu) + D*(1 - nu^2)/(D + e)",
+                                "D/e below 25; linear-elastic pipe anchored throughout against "
+                                "axial movement",
+                                THICK_REFERENCE},
 };
 
 static const Method METHOD_JOUKOWSKY = {
@@ -173,15 +184,12 @@ bool fn_wave_speed(CallCtx *cx, const CallArgs *a, Value *out)
                    support == SURGE_SUPPORT_JOINTS ? "" : " = ", support == SURGE_SUPPORT_JOINTS ? "" : c1_text,
                    nu_text);
     if (thick) {
-        /* the thick-walled formula as the method sets it out is the
-         * upstream-anchored one; for another support the branch says which */
-        MethodUse *t = call_begin_use(cx, &METHOD_KORTEWEG_THICK);
-        if (support == SURGE_SUPPORT_UPSTREAM) {
-            use_input_value(t, "e", value_hinted(qty(e, DIM_L), "in", "mm"));
-            use_input_value(t, "D", value_hinted(qty(D, DIM_L), "in", "mm"));
-            use_input(t, "nu", nu, DIM_NONE);
-            use_result(t, c1, DIM_NONE);
-        }
+        /* the thick-walled formula of the support used, its values substituted */
+        MethodUse *t = call_begin_use(cx, &METHOD_KORTEWEG_THICK[support]);
+        use_input_value(t, "e", value_hinted(qty(e, DIM_L), "in", "mm"));
+        use_input_value(t, "D", value_hinted(qty(D, DIM_L), "in", "mm"));
+        use_input(t, "nu", nu, DIM_NONE);
+        use_result(t, c1, DIM_NONE);
     } else if (D / e < SURGE_THIN_WALL_RATIO)
         diag_warning(cx->diags, a->pos,
                      "%s: D/e = %s is below 25 and no verified Poisson's ratio is tabulated "
