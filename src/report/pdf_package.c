@@ -94,7 +94,7 @@ static double fn_contents_row(Pdf *P, const Item *it, double top)
         pdf_text_color(P, FONT_MONO, 7, cx[3] + 3, top - 10.5 - lead, dig, GREY);
         pdf_text(P, FONT_SERIF, size, cx[4] + 3, top - 10.5, sheets);
         if (first >= 0 && first < P->npages) {
-            draw_link(P->page, x, top - h, x + W, top, P->pages[first], NAN, DRAW_LINK_PLAIN);
+            draw_link(P->page, x, top - h, x + W, top, P->pages[first], NAN, DRAW_LINK_PRINTED);
         }
         pdf_line(P, x, top - h, x + W, top - h, 0.3);
     }
