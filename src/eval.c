@@ -611,24 +611,29 @@ void eval_recompute(Evaluated *ev, const int *changed, size_t nchanged, size_t u
             first = changed[k];
     if (first < 0 || (size_t)first >= upto)
         return;
-    /* dirty marks live for this call only */
+    /* Dirty marks for statements first..upto-1 only (nothing before the
+     * first change can be dirty), so a solver iteration costs what it scans,
+     * not the length of the calc. */
+    size_t m = upto - (size_t)first;
     unsigned char stack_marks[256];
-    unsigned char *dirty = n <= sizeof stack_marks ? stack_marks : xcalloc(n, 1);
-    memset(dirty, 0, n <= sizeof stack_marks ? n : 0);
+    unsigned char *dirty = m <= sizeof stack_marks ? stack_marks : xcalloc(m, 1);
+    if (dirty == stack_marks)
+        memset(dirty, 0, m);
     for (size_t k = 0; k < nchanged; k++)
-        if (changed[k] >= 0 && (size_t)changed[k] < n)
-            dirty[changed[k]] = 1;
+        if (changed[k] >= first && (size_t)changed[k] < upto)
+            dirty[(size_t)changed[k] - (size_t)first] = 1;
     for (size_t i = (size_t)first + 1; i < upto; i++) {
         const Stmt *s = ev->doc->stmts[i];
         bool hit = false;
         for (size_t k = 0; k < s->ndeps && !hit; k++)
-            hit = dirty[s->deps[k]] != 0;
-        if (s->kind == STMT_SOLVE && s->var_slot >= 0 && dirty[s->var_slot])
+            hit = s->deps[k] >= first && (size_t)s->deps[k] < upto && dirty[(size_t)s->deps[k] - (size_t)first] != 0;
+        if (s->kind == STMT_SOLVE && s->var_slot >= first && (size_t)s->var_slot < upto &&
+            dirty[(size_t)s->var_slot - (size_t)first])
             hit = true;
         if (!hit)
             continue;
         eval_statement(ev, i, diags);
-        dirty[i] = 1;
+        dirty[i - (size_t)first] = 1;
     }
     if (dirty != stack_marks)
         free(dirty);
