@@ -378,15 +378,47 @@ static const char *field_name(Arena *a, const char *id)
     return f;
 }
 
-Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags)
+/* A fenced block's statement: its kind, name and the line a listing shows
+ * ("path NAME", "curve NAME", "network NAME"). */
+static Stmt *fence_stmt_new(Arena *a, StmtKind kind, const char *word, const char *name, Pos at)
 {
     Stmt *st = arena_alloc(a, sizeof *st);
-    st->kind = STMT_PATH;
+    st->kind = kind;
     st->pos = at;
     st->name = name;
     st->name_pos = at;
     st->var_slot = SLOT_UNRESOLVED;
-    st->line = arena_printf(a, "path %s", name);
+    st->line = arena_printf(a, "%s %s", word, name);
+    return st;
+}
+
+/* One option line above a block's table. Returns false for a blank or
+ * comment line (nothing to read) and for a line that is not 'key: value'
+ * (reported with `expected` at its first character, *ok cleared); true with
+ * the key and value otherwise. */
+static bool fence_option_read(const FenceLine *l, Cell *key, Cell *value, const char *expected, bool *ok,
+                              DiagList *diags)
+{
+    if (is_blank(l))
+        return false;
+    size_t lead = 0;
+    while (lead < l->len && (l->text[lead] == ' ' || l->text[lead] == '\t'))
+        lead++;
+    if (lead < l->len && l->text[lead] == '#')
+        return false;
+    if (!split_option(l, key, value)) {
+        Pos p = l->pos;
+        p.col += (int)lead;
+        diag_error(diags, p, "%s", expected);
+        *ok = false;
+        return false;
+    }
+    return true;
+}
+
+Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags)
+{
+    Stmt *st = fence_stmt_new(a, STMT_PATH, "path", name, at);
     PathSpec *ps = arena_alloc(a, sizeof *ps);
     st->path = ps;
     bool ok = true;
@@ -394,22 +426,11 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
 
     /* Options, up to the table. */
     for (; i < n && !is_table_line(&lines[i]); i++) {
-        const FenceLine *l = &lines[i];
-        if (is_blank(l))
-            continue;
-        size_t lead = 0;
-        while (lead < l->len && (l->text[lead] == ' ' || l->text[lead] == '\t'))
-            lead++;
-        if (lead < l->len && l->text[lead] == '#')
-            continue;
         Cell key, value;
-        if (!split_option(l, &key, &value)) {
-            Pos p = l->pos;
-            p.col += (int)lead;
-            diag_error(diags, p, "expected an option 'key: value' (fluid, start, loss, friction, fittings) or the segment table");
-            ok = false;
+        if (!fence_option_read(&lines[i], &key, &value,
+                               "expected an option 'key: value' (fluid, start, loss, friction, fittings) or the segment table",
+                               &ok, diags))
             continue;
-        }
         if (value.len == 0) {
             diag_error(diags, value.pos, "option '%.*s' needs a value", (int)key.len, key.text);
             ok = false;
@@ -765,33 +786,18 @@ CaseTable *tables_parse_cases(Arena *a, Pos at, const FenceLine *lines, size_t n
  * where the values are known. */
 Stmt *tables_parse_curve(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags)
 {
-    Stmt *st = arena_alloc(a, sizeof *st);
-    st->kind = STMT_CURVE;
-    st->pos = at;
-    st->name = name;
-    st->name_pos = at;
-    st->var_slot = SLOT_UNRESOLVED;
-    st->line = arena_printf(a, "curve %s", name);
+    Stmt *st = fence_stmt_new(a, STMT_CURVE, "curve", name, at);
     CurveSpec *cs = arena_alloc(a, sizeof *cs);
     st->curve = cs;
     bool ok = true;
     size_t i = 0;
     for (; i < n && !is_table_line(&lines[i]); i++) {
-        const FenceLine *l = &lines[i];
-        if (is_blank(l))
-            continue;
-        size_t lead = 0;
-        while (lead < l->len && (l->text[lead] == ' ' || l->text[lead] == '\t'))
-            lead++;
-        if (lead < l->len && l->text[lead] == '#')
-            continue;
         Cell key, value;
-        if (!split_option(l, &key, &value)) {
-            Pos p = l->pos;
-            p.col += (int)lead;
-            diag_error(diags, p, "expected 'interpolate: linear' or 'interpolate: loglog', or the curve's table");
-            ok = false;
-        } else if (!cell_is(&key, "interpolate")) {
+        if (!fence_option_read(&lines[i], &key, &value,
+                               "expected 'interpolate: linear' or 'interpolate: loglog', or the curve's table", &ok,
+                               diags))
+            continue;
+        if (!cell_is(&key, "interpolate")) {
             diag_error(diags, key.pos, "unknown curve option '%.*s' (interpolate)", (int)key.len, key.text);
             ok = false;
         } else if (cell_is(&value, "loglog")) {
@@ -1013,16 +1019,10 @@ static const char *net_id(Arena *a, const Cell *c, const char *what, bool *ok, D
 static void parse_network_options(Arena *a, NetworkSpec *ns, const FenceLine *l, bool *ok, DiagList *diags)
 {
     Cell key, value;
-    size_t lead = 0;
-    while (lead < l->len && (l->text[lead] == ' ' || l->text[lead] == '\t'))
-        lead++;
-    if (!split_option(l, &key, &value)) {
-        Pos p = l->pos;
-        p.col += (int)lead;
-        diag_error(diags, p, "expected an option 'key: value' (fluid, loss, friction, fittings, tolerance) or the node table");
-        *ok = false;
+    if (!fence_option_read(l, &key, &value,
+                           "expected an option 'key: value' (fluid, loss, friction, fittings, tolerance) or the node table",
+                           ok, diags))
         return;
-    }
     if (value.len == 0) {
         diag_error(diags, value.pos, "option '%.*s' needs a value", (int)key.len, key.text);
         *ok = false;
@@ -1288,26 +1288,13 @@ static bool check_network_reach(Arena *a, const NetworkSpec *ns, DiagList *diags
 
 Stmt *tables_parse_network(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags)
 {
-    Stmt *st = arena_alloc(a, sizeof *st);
-    st->kind = STMT_NETWORK;
-    st->pos = at;
-    st->name = name;
-    st->name_pos = at;
-    st->var_slot = SLOT_UNRESOLVED;
-    st->line = arena_printf(a, "network %s", name);
+    Stmt *st = fence_stmt_new(a, STMT_NETWORK, "network", name, at);
     NetworkSpec *ns = arena_alloc(a, sizeof *ns);
     st->network = ns;
     bool ok = true;
     size_t i = 0;
-    for (; i < n && !is_table_line(&lines[i]); i++) {
-        const FenceLine *l = &lines[i];
-        size_t lead = 0;
-        while (lead < l->len && (l->text[lead] == ' ' || l->text[lead] == '\t'))
-            lead++;
-        if (is_blank(l) || (lead < l->len && l->text[lead] == '#'))
-            continue;
-        parse_network_options(a, ns, l, &ok, diags);
-    }
+    for (; i < n && !is_table_line(&lines[i]); i++)
+        parse_network_options(a, ns, &lines[i], &ok, diags);
     if (!ns->fluid && ok) {
         diag_error(diags, at, "network '%s' needs 'fluid: ...' (a water record, e.g. water(60 degF))", name);
         ok = false;
