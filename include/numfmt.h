@@ -1,7 +1,7 @@
 /* numfmt.h — reading and writing numbers, independent of the locale.
  *
  * One module parses number literals and prints numbers everywhere: JSON uses
- * round-trip precision (17 significant digits, shortest that round-trips),
+ * round-trip precision (17 significant digits, %.17g),
  * the text listing and the report use significant figures, and `convert`
  * prints 10 significant digits. The C locale is never changed, and these
  * functions do not depend on it. */
@@ -10,6 +10,7 @@
 
 #include <stdbool.h>
 #include <stddef.h>
+#include <stdint.h>
 
 /* Parse a decimal literal (digits, optional fraction, optional exponent) at
  * s[0..]; returns the number of bytes used (0: not a number). */
@@ -26,6 +27,14 @@ typedef struct NumParts {
 } NumParts;
 
 NumParts num_parts(double x, int digits);
+/* |x| rounded to p significant digits (1..17) exactly as printf's %.*e
+ * rounds (to nearest, a tie to even, on the exact binary value): *digits
+ * holds them as an integer in [10^(p-1), 10^p) and *exp10 the power of ten
+ * of the first. False, with nothing written, for 0, subnormal and non-finite
+ * x and magnitudes outside about 1e-15..1e38, where callers use printf. */
+bool num_round(double x, int p, uint64_t *digits, int *exp10);
+/* The p digits of num_round's integer as text (p + 1 bytes with the NUL). */
+void num_digit_text(uint64_t digits, int p, char *out);
 /* num_parts joined as plain text: "4.050", "1.234e-05" -> "1.234e-5". */
 void num_sig(double x, int digits, char *buf, size_t n);
 /* The same as print sets it, in UTF-8: a typographic minus and ×10 with a

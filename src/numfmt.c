@@ -7,6 +7,7 @@
 #include "numfmt.h"
 
 #include <math.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -51,6 +52,144 @@ size_t num_parse(const char *s, size_t len, double *out)
     return i;
 }
 
+/* ---- exact rounding to significant digits --------------------------------
+ *
+ * |x| = m * 2^e exactly (m the 53-bit significand), so |x| * 10^k is the
+ * fraction m * 5^k * 2^(e+k) (k >= 0) or m * 2^(e+k) / 5^-k (k < 0): held in
+ * 128-bit integers, its quotient and remainder give the digits and the exact
+ * rounding, where printf needs arbitrary precision and costs ten times as much. */
+
+typedef unsigned __int128 U128;
+
+static const uint64_t POW10[18] = {1ULL, 10ULL, 100ULL, 1000ULL, 10000ULL, 100000ULL, 1000000ULL, 10000000ULL,
+                                   100000000ULL, 1000000000ULL, 10000000000ULL, 100000000000ULL,
+                                   1000000000000ULL, 10000000000000ULL, 100000000000000ULL,
+                                   1000000000000000ULL, 10000000000000000ULL, 100000000000000000ULL};
+
+/* 5^k for 0 <= k <= 27, the largest below 2^63 */
+static const uint64_t POW5[28] = {1ULL, 5ULL, 25ULL, 125ULL, 625ULL, 3125ULL, 15625ULL, 78125ULL, 390625ULL,
+                                  1953125ULL, 9765625ULL, 48828125ULL, 244140625ULL, 1220703125ULL,
+                                  6103515625ULL, 30517578125ULL, 152587890625ULL, 762939453125ULL,
+                                  3814697265625ULL, 19073486328125ULL, 95367431640625ULL, 476837158203125ULL,
+                                  2384185791015625ULL, 11920928955078125ULL, 59604644775390625ULL,
+                                  298023223876953125ULL, 1490116119384765625ULL, 7450580596923828125ULL};
+
+static U128 pow5(int k) /* 0 <= k <= 54 */
+{
+    return k <= 27 ? (U128)POW5[k] : (U128)POW5[27] * POW5[k - 27];
+}
+
+static int bit_length(U128 v)
+{
+    uint64_t hi = (uint64_t)(v >> 64), lo = (uint64_t)v;
+    return hi ? 128 - __builtin_clzll(hi) : lo ? 64 - __builtin_clzll(lo) : 0;
+}
+
+bool num_round(double x, int p, uint64_t *digits, int *exp10)
+{
+    if (p < 1 || p > 17 || !isfinite(x) || x == 0)
+        return false;
+    uint64_t bits;
+    memcpy(&bits, &x, sizeof bits);
+    int biased = (int)((bits >> 52) & 0x7ff);
+    if (biased == 0)
+        return false; /* subnormal */
+    uint64_t m = (bits & ((1ULL << 52) - 1)) | (1ULL << 52);
+    int e = biased - 1075;
+    int ex = (int)floor(log10(fabs(x))); /* a guess, corrected below */
+    for (int tries = 0; tries < 4; tries++) {
+        int k = p - 1 - ex; /* |x| * 10^k should lie in [10^(p-1), 10^p) */
+        if (k > 54 || k < -54)
+            return false;
+        U128 num = m, den = 1;
+        if (k >= 0) {
+            U128 f = pow5(k);
+            if (bit_length(num) + bit_length(f) > 127)
+                return false;
+            num *= f;
+        } else {
+            den = pow5(-k);
+        }
+        int t = e + k;
+        if (t >= 0) {
+            if (bit_length(num) + t > 126)
+                return false;
+            num <<= t;
+        } else {
+            if (bit_length(den) - t > 126)
+                return false;
+            den <<= -t;
+        }
+        U128 q = num / den, r = num % den;
+        if (q >= POW10[p]) {
+            ex++;
+            continue;
+        }
+        if (q < POW10[p - 1]) {
+            ex--;
+            continue;
+        }
+        uint64_t d = (uint64_t)q;
+        if (2 * r > den || (2 * r == den && (d & 1))) /* to nearest, a tie to even */
+            d++;
+        if (d == POW10[p]) {
+            d = POW10[p - 1];
+            ex++;
+        }
+        *digits = d;
+        *exp10 = ex;
+        return true;
+    }
+    return false;
+}
+
+void num_digit_text(uint64_t digits, int p, char *out)
+{
+    for (int i = p - 1; i >= 0; i--) {
+        out[i] = (char)('0' + digits % 10);
+        digits /= 10;
+    }
+    out[p] = '\0';
+}
+
+/* num_parts from the exact digits: as the snprintf path below prints. */
+static void parts_of_digits(double x, int digits, uint64_t d, int ex, NumParts *p)
+{
+    char dig[20];
+    num_digit_text(d, digits, dig);
+    char *o = p->mantissa;
+    if (x < 0)
+        *o++ = '-';
+    if (ex < -3 || ex >= 6) {
+        *o++ = dig[0];
+        if (digits > 1) {
+            *o++ = '.';
+            memcpy(o, dig + 1, (size_t)digits - 1);
+            o += digits - 1;
+        }
+        p->exp10 = ex;
+    } else if (ex < 0) {
+        *o++ = '0';
+        *o++ = '.';
+        for (int i = 0; i < -ex - 1; i++)
+            *o++ = '0';
+        memcpy(o, dig, (size_t)digits);
+        o += digits;
+    } else if (ex >= digits - 1) {
+        memcpy(o, dig, (size_t)digits);
+        o += digits;
+        for (int i = 0; i < ex - digits + 1; i++)
+            *o++ = '0';
+    } else {
+        memcpy(o, dig, (size_t)ex + 1);
+        o += ex + 1;
+        *o++ = '.';
+        memcpy(o, dig + ex + 1, (size_t)(digits - 1 - ex));
+        o += digits - 1 - ex;
+    }
+    *o = '\0';
+}
+
 /* Strip a redundant leading zero and '+' from a C exponent: "e-05" -> -5. */
 static int exponent_of(const char *e)
 {
@@ -70,6 +209,15 @@ NumParts num_parts(double x, int digits)
     }
     if (x == 0) {
         snprintf(p.mantissa, sizeof p.mantissa, "0");
+        return p;
+    }
+    /* Up to 15 figures, the plain form of the rounded value printed by %f
+     * (below) is its digits: the double nearest it is within half a unit of
+     * its last figure. Beyond that, and outside num_round's range, printf. */
+    uint64_t d;
+    int dex;
+    if (digits <= 15 && num_round(x, digits, &d, &dex)) {
+        parts_of_digits(x, digits, d, dex, &p);
         return p;
     }
     char sci[40];
@@ -95,10 +243,30 @@ NumParts num_parts(double x, int digits)
 void num_sig(double x, int digits, char *buf, size_t n)
 {
     NumParts p = num_parts(x, digits);
-    if (p.exp10)
-        snprintf(buf, n, "%se%d", p.mantissa, p.exp10);
-    else
-        snprintf(buf, n, "%s", p.mantissa);
+    if (!n)
+        return;
+    char text[64];
+    size_t len = strlen(p.mantissa);
+    memcpy(text, p.mantissa, len);
+    if (p.exp10) {
+        /* "e" and the power, written by hand: this runs for every number shown */
+        char pow[16];
+        char *o = pow + sizeof pow;
+        unsigned u = p.exp10 < 0 ? 0u - (unsigned)p.exp10 : (unsigned)p.exp10;
+        do {
+            *--o = (char)('0' + u % 10);
+            u /= 10;
+        } while (u);
+        if (p.exp10 < 0)
+            *--o = '-';
+        *--o = 'e';
+        memcpy(text + len, o, (size_t)(pow + sizeof pow - o));
+        len += (size_t)(pow + sizeof pow - o);
+    }
+    if (len >= n) /* cut as snprintf would */
+        len = n - 1;
+    memcpy(buf, text, len);
+    buf[len] = '\0';
 }
 
 static const char *const SUPERSCRIPT[] = {"⁰", "¹", "²", "³", "⁴", "⁵", "⁶", "⁷", "⁸", "⁹"};

@@ -1,5 +1,6 @@
 /* json_out.c — the streaming JSON writer (json_out.h). */
 #include "json_out.h"
+#include "numfmt.h"
 #include "source.h"
 
 #include <math.h>
@@ -20,7 +21,7 @@ static void flush(JsonOut *w)
     w->len = 0;
 }
 
-static void put(JsonOut *w, const char *s, size_t n)
+static inline void put(JsonOut *w, const char *s, size_t n)
 {
     if (w->len + n > sizeof w->buf) {
         flush(w);
@@ -33,8 +34,28 @@ static void put(JsonOut *w, const char *s, size_t n)
     w->len += n;
 }
 
-static void put_str(JsonOut *w, const char *s) { put(w, s, strlen(s)); }
-static void put_char(JsonOut *w, char c) { put(w, &c, 1); }
+static inline void put_str(JsonOut *w, const char *s) { put(w, s, strlen(s)); }
+
+static inline void put_char(JsonOut *w, char c)
+{
+    if (w->len == sizeof w->buf)
+        flush(w);
+    w->buf[w->len++] = c;
+}
+
+/* A new line and two spaces a level of nesting. */
+static void put_indent(JsonOut *w, int depth)
+{
+    static const char spaces[] = "\n                                                                ";
+    size_t n = 1 + 2 * (size_t)depth;
+    if (n <= sizeof spaces - 1) {
+        put(w, spaces, n);
+        return;
+    }
+    put_char(w, '\n');
+    for (int i = 0; i < depth; i++)
+        put(w, "  ", 2);
+}
 
 bool json_out_finish(JsonOut *w)
 {
@@ -45,12 +66,14 @@ bool json_out_finish(JsonOut *w)
 bool json_out_utf8_ok(const char *s)
 {
     const unsigned char *p = (const unsigned char *)s;
-    const unsigned char *end = p + strlen(s);
+    const unsigned char *end = NULL; /* found at the first byte past ASCII */
     while (*p) {
         if (*p < 0x80) {
             p++;
             continue;
         }
+        if (!end)
+            end = p + strlen((const char *)p);
         size_t n = source_utf8_len(p, (size_t)(end - p));
         if (n == 0)
             return false;
@@ -98,13 +121,13 @@ static bool member(JsonOut *w, const char *key)
     if (w->depth > 0 && w->is_object[w->depth] && (!key || !json_out_utf8_ok(key)))
         return false;
     if (w->depth > 0) {
-        put_str(w, w->has_items[w->depth] ? ",\n" : "\n");
+        if (w->has_items[w->depth])
+            put_char(w, ',');
         w->has_items[w->depth] = true;
-        for (int i = 0; i < w->depth; i++)
-            put_str(w, "  ");
+        put_indent(w, w->depth);
         if (w->is_object[w->depth]) {
             put_quoted(w, key);
-            put_str(w, ": ");
+            put(w, ": ", 2);
         }
     }
     return true;
@@ -132,11 +155,8 @@ static void end(JsonOut *w, bool object)
         return;
     bool items = w->has_items[w->depth];
     w->depth--;
-    if (items) {
-        put_char(w, '\n');
-        for (int i = 0; i < w->depth; i++)
-            put_str(w, "  ");
-    }
+    if (items)
+        put_indent(w, w->depth);
     put_char(w, object ? '}' : ']');
 }
 
@@ -173,6 +193,49 @@ void json_out_text(JsonOut *w, const char *key, const char *s)
         free(copy);
 }
 
+/* What %.17g prints for x (with num_round's digits d and power ex), in the
+ * JSON form below: exponent without '+' or leading zeros, ".0" on a whole
+ * number. buf holds at least 32 bytes. */
+static const char *real_text(double x, uint64_t d, int ex, char *buf)
+{
+    char dig[20];
+    num_digit_text(d, 17, dig);
+    int n = 17; /* %g drops trailing zeros */
+    while (n > 1 && dig[n - 1] == '0')
+        n--;
+    char *o = buf;
+    if (x < 0)
+        *o++ = '-';
+    if (ex < -4 || ex >= 17) {
+        *o++ = dig[0];
+        if (n > 1) {
+            *o++ = '.';
+            memcpy(o, dig + 1, (size_t)n - 1);
+            o += n - 1;
+        }
+        o += sprintf(o, "e%d", ex);
+    } else if (ex < 0) {
+        *o++ = '0';
+        *o++ = '.';
+        for (int i = 0; i < -ex - 1; i++)
+            *o++ = '0';
+        memcpy(o, dig, (size_t)n);
+        o += n;
+    } else {
+        memcpy(o, dig, (size_t)ex + 1);
+        o += ex + 1;
+        *o++ = '.';
+        if (n > ex + 1) {
+            memcpy(o, dig + ex + 1, (size_t)(n - ex - 1));
+            o += n - ex - 1;
+        } else {
+            *o++ = '0';
+        }
+    }
+    *o = '\0';
+    return buf;
+}
+
 void json_out_real(JsonOut *w, const char *key, double x)
 {
     if (!member(w, key))
@@ -182,6 +245,12 @@ void json_out_real(JsonOut *w, const char *key, double x)
         return;
     }
     char buf[40];
+    uint64_t d;
+    int ex;
+    if (num_round(x, 17, &d, &ex)) {
+        put_str(w, real_text(x, d, ex, buf));
+        return;
+    }
     int n = snprintf(buf, sizeof buf, "%.17g", x);
     if (n < 0 || (size_t)n >= sizeof buf - 3)
         n = 0;
@@ -206,9 +275,16 @@ void json_out_real(JsonOut *w, const char *key, double x)
 void json_out_int(JsonOut *w, const char *key, long long v)
 {
     if (member(w, key)) {
-        char buf[32];
-        snprintf(buf, sizeof buf, "%lld", v);
-        put_str(w, buf);
+        char buf[24];
+        char *o = buf + sizeof buf;
+        unsigned long long u = v < 0 ? 0ULL - (unsigned long long)v : (unsigned long long)v;
+        do {
+            *--o = (char)('0' + u % 10);
+            u /= 10;
+        } while (u);
+        if (v < 0)
+            *--o = '-';
+        put(w, o, (size_t)(buf + sizeof buf - o));
     }
 }
 

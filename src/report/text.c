@@ -21,10 +21,22 @@ void render_quantity(const Evaluated *ev, const Value *v, const Unit *unit, char
     bool diff = v->q.temp == TEMP_NONE;
     double x = unit_from_si(v->q.si, unit, diff);
     num_sig(x, ev->digits, num, sizeof num);
-    if (strcmp(unit->text, "1") == 0 || unit->text[0] == '\0')
-        snprintf(buf, n, "%s", num);
-    else
-        snprintf(buf, n, "%s %s", num, unit->text);
+    if (!n)
+        return;
+    /* "number unit", or the number alone; cut to fit as snprintf would */
+    size_t at = strlen(num);
+    if (at >= n)
+        at = n - 1;
+    memcpy(buf, num, at);
+    if (strcmp(unit->text, "1") != 0 && unit->text[0] != '\0' && at + 1 < n) {
+        buf[at++] = ' ';
+        size_t u = strlen(unit->text);
+        if (u > n - 1 - at)
+            u = n - 1 - at;
+        memcpy(buf + at, unit->text, u);
+        at += u;
+    }
+    buf[at] = '\0';
 }
 
 void render_atmosphere(const Evaluated *ev, char *buf, size_t n)

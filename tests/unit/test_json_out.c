@@ -14,6 +14,7 @@
 
 #include <jansson.h>
 #include <math.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -164,11 +165,61 @@ static void test_strings_and_containers(void **state)
     free(want);
 }
 
+/* Random bit patterns over the whole range of doubles and exact decimal
+ * ties: the same bytes as jansson's %.17g, and each reads back (strtod) as
+ * the very double written. */
+enum { NBITS = 50000 };
+
+static double bits_real(int i)
+{
+    uint64_t r = 0x9e3779b97f4a7c15ULL * (uint64_t)(i + 1);
+    r ^= r >> 31;
+    r *= 0x94d049bb133111ebULL;
+    r ^= r >> 29;
+    double x;
+    if (i % 3 == 2)
+        return ldexp((double)((r >> 12) | 1), -(int)(r % 70));
+    memcpy(&x, &r, sizeof x);
+    return isfinite(x) ? x : 2.0;
+}
+
+static void write_bits(JsonOut *w)
+{
+    json_out_begin_array(w, NULL);
+    for (int i = 0; i < NBITS; i++)
+        json_out_real(w, NULL, bits_real(i));
+    json_out_end_array(w);
+}
+
+static void test_reals_round_trip(void **state)
+{
+    (void)state;
+    json_t *a = json_array();
+    for (int i = 0; i < NBITS; i++)
+        json_array_append_new(a, json_real(bits_real(i)));
+    char *want = jansson_text(a);
+    size_t len;
+    char *got = stream_text(write_bits, &len);
+    assert_string_equal(got, want);
+    char *p = got + 1; /* past '[' */
+    for (int i = 0; i < NBITS; i++) {
+        char *end;
+        double x = strtod(p, &end), y = bits_real(i);
+        assert_true(end > p);
+        if (memcmp(&x, &y, sizeof x) != 0)
+            fail_msg("%.17g read back as %.17g", y, x);
+        p = end + 1; /* past ',' */
+    }
+    free(got);
+    free(want);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_reals_and_scalars),
         cmocka_unit_test(test_strings_and_containers),
+        cmocka_unit_test(test_reals_round_trip),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }

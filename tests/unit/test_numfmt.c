@@ -3,11 +3,16 @@
  * text of the sheets (num_typeset: a typographic minus, ×10 with a
  * superscript power), on a table of values worked by hand from the rule in
  * numfmt.h (plain for 1e-3 <= |x| < 1e6, scientific otherwise, trailing
- * zeros kept to the stated significance). */
+ * zeros kept to the stated significance), and the exact rounding
+ * (num_round) against glibc's printf, which rounds the exact binary value
+ * with arbitrary precision, over many thousands of doubles. */
 #include <setjmp.h>
 #include <stdarg.h>
 #include <stddef.h>
+#include <math.h>
 #include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
 #include <cmocka.h>
@@ -60,11 +65,110 @@ static void test_superscript(void **state)
     assert_string_equal(small, "¹");
 }
 
+/* The values the printf comparisons run over: random bit patterns over the
+ * whole range of doubles, random significands over the decades engineering
+ * values live in, short decimals (k / 10^j) and exact ties (an odd multiple
+ * of a power of two, whose decimal expansion ends in 5 at every length). */
+static double sample(unsigned i)
+{
+    uint64_t r = 6364136223846793005ULL * (i + 1) + 1442695040888963407ULL;
+    r ^= r >> 29;
+    r *= 0xbf58476d1ce4e5b9ULL;
+    r ^= r >> 32;
+    double x;
+    switch (i % 4) {
+    case 0:
+        memcpy(&x, &r, sizeof x);
+        return isfinite(x) ? x : 1.0;
+    case 1:
+        return ((double)(r >> 11) / 9007199254740992.0 + 0.1) * pow(10.0, (double)(int)(r % 61) - 30);
+    case 2:
+        return (double)(int64_t)(r % 2000001 - 1000000) / pow(10.0, (double)(r % 9));
+    default:
+        return ldexp((double)((r >> 12) | 1), -(int)(r % 60));
+    }
+}
+
+enum { NSAMPLES = 40000 };
+
+/* The old num_parts, all snprintf: the reference for the fast one. */
+static NumParts parts_printf(double x, int digits)
+{
+    NumParts p = {{0}, 0};
+    char sci[40];
+    snprintf(sci, sizeof sci, "%.*e", digits - 1, x);
+    char *e = strchr(sci, 'e');
+    int ex = atoi(e + 1);
+    if (ex >= -3 && ex < 6) {
+        int decimals = digits - 1 - ex;
+        snprintf(p.mantissa, sizeof p.mantissa, "%.*f", decimals < 0 ? 0 : decimals, strtod(sci, NULL));
+        return p;
+    }
+    *e = '\0';
+    snprintf(p.mantissa, sizeof p.mantissa, "%s", sci);
+    p.exp10 = ex;
+    return p;
+}
+
+static void test_round_matches_printf(void **state)
+{
+    (void)state;
+    size_t exact = 0, inside = 0;
+    for (unsigned i = 0; i < NSAMPLES; i++) {
+        double x = sample(i);
+        if (x == 0)
+            continue;
+        for (int p = 1; p <= 17; p++) {
+            uint64_t d;
+            int ex;
+            char want[48], got[48];
+            snprintf(want, sizeof want, "%.*e", p - 1, x);
+            bool in_range = fabs(x) >= 1e-14 && fabs(x) <= 1e37;
+            inside += in_range;
+            if (!num_round(x, p, &d, &ex)) {
+                if (in_range)
+                    fail_msg("num_round(%.17g, %d) refused a value in its range", x, p);
+                continue;
+            }
+            exact += in_range;
+            char dig[20];
+            num_digit_text(d, p, dig);
+            snprintf(got, sizeof got, "%s%c%s%se%c%02d", x < 0 ? "-" : "", dig[0], p > 1 ? "." : "", dig + 1,
+                     ex < 0 ? '-' : '+', ex < 0 ? -ex : ex);
+            if (strcmp(got, want) != 0)
+                fail_msg("num_round(%a, %d): '%s', printf '%s'", x, p, got, want);
+            NumParts a = num_parts(x, p), b = parts_printf(x, p);
+            if (strcmp(a.mantissa, b.mantissa) != 0 || a.exp10 != b.exp10)
+                fail_msg("num_parts(%a, %d): '%s' e%d, printf '%s' e%d", x, p, a.mantissa, a.exp10, b.mantissa,
+                         b.exp10);
+        }
+    }
+    assert_int_equal(exact, inside);
+    assert_true(inside > (size_t)NSAMPLES * 17 / 2); /* the comparison ran mostly on the fast path */
+    /* ties to even, worked by hand: 0.125 -> 0.12, 0.375 -> 0.38, 2.5 -> 2 */
+    uint64_t d;
+    int ex;
+    assert_true(num_round(0.125, 2, &d, &ex));
+    assert_int_equal(d, 12);
+    assert_int_equal(ex, -1);
+    assert_true(num_round(0.375, 2, &d, &ex));
+    assert_int_equal(d, 38);
+    assert_true(num_round(2.5, 1, &d, &ex));
+    assert_int_equal(d, 2);
+    /* rounding up into the next decade: 9.9996 to four figures is 10.00 */
+    assert_true(num_round(9.9996, 4, &d, &ex));
+    assert_int_equal(d, 1000);
+    assert_int_equal(ex, 1);
+    assert_false(num_round(5e-324, 17, &d, &ex)); /* subnormal: printf's */
+    assert_false(num_round(0.0, 3, &d, &ex));
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_formats),
         cmocka_unit_test(test_superscript),
+        cmocka_unit_test(test_round_matches_printf),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
