@@ -71,30 +71,19 @@ static void row_texts_write(JsonOut *w, const ModelRow *mr)
     json_out_end_array(w);
 }
 
-/* The row whose value is being written, for the text the report prints
- * for it (an input as written); NULL elsewhere. Set by document_write. */
-static const ModelRow *json_row;
-
 /* `shown` at full precision in the display unit and `text` exactly as the
- * report prints it, both from the report model (DESIGN 2.5). */
-static void number_members(JsonOut *w, const Evaluated *ev, const Value *v, const Unit *shown, bool with_kind)
+ * report prints it, from the report model's value (DESIGN 2.5). */
+static void number_members(JsonOut *w, const Value *v, const ModelValue *mv, bool with_kind)
 {
     char si_unit[64];
     dim_format_si(v->q.dim, si_unit, sizeof si_unit);
-    Arena a;
-    arena_init(&a);
-    ModelValue mv = report_model_value(ev, v, shown, &a);
-    if (json_row && json_row->result.number && &json_row->res->value == v)
-        mv.text = json_row->result.text;
-    Unit u = mv.unit;
     if (with_kind)
         json_out_string(w, "kind", "number");
     json_out_real(w, "si", v->q.si);
     json_out_string(w, "si_unit", si_unit);
-    json_out_real(w, "shown", mv.shown);
-    json_out_string(w, "unit", strcmp(u.text, "1") == 0 ? "" : u.text);
-    json_out_text(w, "text", mv.text);
-    arena_free(&a);
+    json_out_real(w, "shown", mv->shown);
+    json_out_string(w, "unit", strcmp(mv->unit.text, "1") == 0 ? "" : mv->unit.text);
+    json_out_text(w, "text", mv->text);
     if (v->q.temp != TEMP_NONE)
         json_out_string(w, "temperature", "absolute");
     if (v->q.pref != PRES_PLAIN)
@@ -104,14 +93,25 @@ static void number_members(JsonOut *w, const Evaluated *ev, const Value *v, cons
 static void value_write(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *shown);
 
 /* A value as an object left open for the caller's members (true), or null
- * (false: nothing to close). */
-static bool value_open(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *shown)
+ * (false: nothing to close). A number's display comes from the report
+ * model: the row's own (mv) where the model has it, else made here. */
+static bool value_open(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *shown,
+                       const ModelValue *mv)
 {
     switch (v->kind) {
-    case VAL_NUMBER:
+    case VAL_NUMBER: {
         json_out_begin_object(w, key);
-        number_members(w, ev, v, shown, true);
+        if (mv) {
+            number_members(w, v, mv, true);
+            return true;
+        }
+        Arena a;
+        arena_init(&a);
+        ModelValue made = report_model_value(ev, v, shown, &a);
+        number_members(w, v, &made, true);
+        arena_free(&a);
         return true;
+    }
     case VAL_STRING:
         json_out_begin_object(w, key);
         json_out_string(w, "kind", "string");
@@ -148,7 +148,7 @@ static bool value_open(JsonOut *w, const char *key, const Evaluated *ev, const V
 
 static void value_write(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *shown)
 {
-    if (value_open(w, key, ev, v, shown))
+    if (value_open(w, key, ev, v, shown, NULL))
         json_out_end_object(w);
 }
 
@@ -372,12 +372,13 @@ static bool is_value_stmt(const Stmt *s)
            s->name;
 }
 
-/* One named result under "values". */
-static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, const StmtResult *r)
+/* One named result under "values", with its row of the report model. */
+static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, const StmtResult *r,
+                              const ModelRow *row)
 {
     bool open;
     if (r->state == RES_OK) {
-        open = value_open(w, s->name, ev, &r->value, &r->shown);
+        open = value_open(w, s->name, ev, &r->value, &r->shown, row->result.number ? &row->result : NULL);
     } else {
         json_out_begin_object(w, s->name);
         json_out_string(w, "kind", "not evaluated");
@@ -424,21 +425,22 @@ static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, co
         json_out_real(w, "residual", r->solve.residual);
         json_out_int(w, "iterations", r->solve.iterations);
     }
-    if (json_row && (s->kind == STMT_DEF || s->kind == STMT_SOLVE))
-        row_texts_write(w, json_row);
+    if (s->kind == STMT_DEF || s->kind == STMT_SOLVE)
+        row_texts_write(w, row);
     if (r->nwarnings)
         warnings_write(w, r);
     json_out_end_object(w);
 }
 
-/* Both sides of a check or finding, without their "kind". */
-static void sides_write(JsonOut *w, const Evaluated *ev, const StmtResult *r)
+/* Both sides of a check or finding, without their "kind", as the report
+ * model shows them. */
+static void sides_write(JsonOut *w, const StmtResult *r, const ModelCheck *c)
 {
     json_out_begin_object(w, "lhs");
-    number_members(w, ev, &r->lhs, &r->lhs_shown, false);
+    number_members(w, &r->lhs, &c->lhs, false);
     json_out_end_object(w);
     json_out_begin_object(w, "rhs");
-    number_members(w, ev, &r->rhs, &r->rhs_shown, false);
+    number_members(w, &r->rhs, &c->rhs, false);
     json_out_end_object(w);
 }
 
@@ -475,11 +477,8 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
     long *pick = unique_keys(names, n);
     json_out_begin_object(w, "values");
     for (size_t i = 0; i < n; i++)
-        if (pick[i] >= 0) {
-            json_row = &model->rows[pick[i]];
-            named_value_write(w, ev, doc->stmts[pick[i]], &ev->results[pick[i]]);
-            json_row = NULL;
-        }
+        if (pick[i] >= 0)
+            named_value_write(w, ev, doc->stmts[pick[i]], &ev->results[pick[i]], &model->rows[pick[i]]);
     json_out_end_object(w);
     free(pick);
     free(names);
@@ -496,7 +495,7 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
         json_out_string(w, "op", cmp_op_text(s->cmp, false));
         if (r->state == RES_OK) {
             json_out_bool(w, "holds", r->holds);
-            sides_write(w, ev, r);
+            sides_write(w, r, &model->rows[i].check);
             json_out_real(w, "utilization", r->utilization);
             json_out_bool(w, "governing", model->rows[i].check.governs);
             row_texts_write(w, &model->rows[i]);
@@ -523,7 +522,7 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
             json_out_string(w, "op", cmp_op_text(s->cmp, false));
             if (r->state == RES_OK) {
                 json_out_bool(w, "answer", r->holds);
-                sides_write(w, ev, r);
+                sides_write(w, r, &model->rows[i].check);
             } else {
                 json_out_null(w, "answer");
             }
