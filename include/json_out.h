@@ -1,8 +1,11 @@
-/* json_out.h — a streaming JSON writer for the build and diff JSON.
+/* json_out.h — the one JSON writer: build and diff JSON, SARIF and the
+ * language server's messages.
  *
- * Members are written as they are produced, straight to the FILE, with no
- * tree in memory: the output is the indented form other tools and the tests
- * read (two spaces a level, `"key": value`, `{}` and `[]` when empty), and
+ * Members are written as they are produced, straight to a FILE or into a
+ * StrBuf, with no tree in memory: the output is the indented form other
+ * tools and the tests read (two spaces a level, `"key": value`, `{}` and
+ * `[]` when empty), or with json_out_init_compact() the compact form of a
+ * JSON-RPC body (no space or line break anywhere), and
  * reals print with 17 significant digits (`%.17g`, always with a '.' or an
  * exponent, the exponent without '+' or leading zeros), which round-trips.
  *
@@ -16,10 +19,14 @@
 #include <stdbool.h>
 #include <stdio.h>
 
+#include "arena.h"
+
 enum { JSON_OUT_DEPTH = 32 };
 
 typedef struct JsonOut {
-    FILE *f;
+    FILE *f;                      /* NULL: into sb */
+    StrBuf *sb;
+    bool compact;
     char buf[16384];              /* written to f when full and at the end */
     size_t len;
     int depth;                    /* open containers */
@@ -29,6 +36,8 @@ typedef struct JsonOut {
 } JsonOut;
 
 void json_out_init(JsonOut *w, FILE *f);
+/* The compact form, appended to sb (the caller's, which it frees). */
+void json_out_init_compact(JsonOut *w, StrBuf *sb);
 /* Write out what is buffered; false on a write error. */
 bool json_out_finish(JsonOut *w);
 void json_out_begin_object(JsonOut *w, const char *key);

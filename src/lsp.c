@@ -1,7 +1,9 @@
 /* lsp.c — `headroom lsp`: the Language Server Protocol over standard I/O.
  *
- * Messages are JSON-RPC 2.0 bodies behind a `Content-Length` header, parsed
- * and written with jansson (this file is the protocol's JSON adapter). The
+ * Messages are JSON-RPC 2.0 bodies behind a `Content-Length` header. They
+ * are parsed with jansson, which this file alone uses, for the tree a request
+ * is read from; every answer and notification is written by the one JSON
+ * writer (json_out.h) in its compact form, as it is produced. The
  * server is a loop: read one framed message, answer it, repeat. Every open
  * calc keeps the text the client sent; each change re-reads and
  * re-evaluates it whole (a calc evaluates in milliseconds), publishes its
@@ -17,7 +19,7 @@
 #include <errno.h>
 #include <jansson.h>
 
-#include "json_text.h"
+#include "json_out.h"
 #include <math.h>
 #include <stdarg.h>
 #include <stdlib.h>
@@ -155,47 +157,70 @@ static bool rd_bytes(Reader *r, char *dst, size_t n)
 
 /* ---- writing ------------------------------------------------------------ */
 
-static void send_message(Server *S, json_t *msg)
+/* One outgoing message: its members are written between msg_begin and
+ * msg_send, which adds "jsonrpc" last and frames the compact body with its
+ * exact length in bytes. */
+typedef struct Msg {
+    JsonOut w;
+    StrBuf body;
+} Msg;
+
+static JsonOut *msg_begin(Msg *m)
 {
-    json_object_set_new(msg, "jsonrpc", json_string("2.0"));
-    char *body = json_dumps(msg, JSON_COMPACT | JSON_PRESERVE_ORDER);
-    json_decref(msg);
-    if (!body)
-        return;
-    fprintf(S->out, "Content-Length: %zu\r\n\r\n%s", strlen(body), body);
-    fflush(S->out);
-    free(body);
+    m->body = (StrBuf){0};
+    json_out_init_compact(&m->w, &m->body);
+    json_out_begin_object(&m->w, NULL);
+    return &m->w;
 }
 
-static void reply(Server *S, json_t *id, json_t *result)
+static void msg_send(Server *S, Msg *m)
 {
-    json_t *m = json_object();
-    json_object_set(m, "id", id ? id : json_null());
-    json_object_set_new(m, "result", result ? result : json_null());
-    send_message(S, m);
+    json_out_string(&m->w, "jsonrpc", "2.0");
+    json_out_end_object(&m->w);
+    json_out_finish(&m->w);
+    fprintf(S->out, "Content-Length: %zu\r\n\r\n", m->body.len);
+    fwrite(sb_str(&m->body), 1, m->body.len, S->out);
+    fflush(S->out);
+    sb_free(&m->body);
+}
+
+/* A request's id as it came: a string, an integer, or null (absent too). */
+static void id_write(JsonOut *w, json_t *id)
+{
+    if (json_is_integer(id))
+        json_out_int(w, "id", json_integer_value(id));
+    else if (json_is_string(id))
+        json_out_string(w, "id", json_string_value(id));
+    else
+        json_out_null(w, "id");
+}
+
+static void reply_null(Server *S, json_t *id)
+{
+    Msg m;
+    JsonOut *w = msg_begin(&m);
+    id_write(w, id);
+    json_out_null(w, "result");
+    msg_send(S, &m);
 }
 
 static void reply_error(Server *S, json_t *id, int code, const char *fmt, ...)
     __attribute__((format(printf, 4, 5)));
 static void reply_error(Server *S, json_t *id, int code, const char *fmt, ...)
 {
-    char msg[512];
+    char text[512];
     va_list ap;
     va_start(ap, fmt);
-    vsnprintf(msg, sizeof msg, fmt, ap);
+    vsnprintf(text, sizeof text, fmt, ap);
     va_end(ap);
-    json_t *m = json_object();
-    json_object_set(m, "id", id ? id : json_null());
-    json_object_set_new(m, "error", json_pack("{s:i,s:o}", "code", code, "message", json_text(msg)));
-    send_message(S, m);
-}
-
-static void notify(Server *S, const char *method, json_t *params)
-{
-    json_t *m = json_object();
-    json_object_set_new(m, "method", json_string(method));
-    json_object_set_new(m, "params", params);
-    send_message(S, m);
+    Msg m;
+    JsonOut *w = msg_begin(&m);
+    id_write(w, id);
+    json_out_begin_object(w, "error");
+    json_out_int(w, "code", code);
+    json_out_text(w, "message", text);
+    json_out_end_object(w);
+    msg_send(S, &m);
 }
 
 /* ---- documents ---------------------------------------------------------- */
@@ -267,61 +292,77 @@ static size_t token_len(const char *p, size_t n)
 }
 
 /* An LSP position for a 1-based line and a byte offset in it. */
-static json_t *position_json(const Server *S, const OpenDoc *od, int line, size_t byte)
+static void position_write(JsonOut *w, const char *key, const Server *S, const OpenDoc *od, int line, size_t byte)
 {
     size_t len = 0;
     const char *p = od->doc ? doc_source_line(od->doc, line, &len) : NULL;
     size_t ch = p ? textpos_units(p, len, byte, S->enc) : 0;
-    return json_pack("{s:i,s:I}", "line", line > 0 ? line - 1 : 0, "character", (json_int_t)ch);
+    json_out_begin_object(w, key);
+    json_out_int(w, "line", line > 0 ? line - 1 : 0);
+    json_out_int(w, "character", (long long)ch);
+    json_out_end_object(w);
 }
 
-static json_t *range_json(const Server *S, const OpenDoc *od, int line, size_t from, size_t to)
+static void range_write(JsonOut *w, const char *key, const Server *S, const OpenDoc *od, int line, size_t from,
+                        size_t to)
 {
-    return json_pack("{s:o,s:o}", "start", position_json(S, od, line, from), "end", position_json(S, od, line, to));
+    json_out_begin_object(w, key);
+    position_write(w, "start", S, od, line, from);
+    position_write(w, "end", S, od, line, to);
+    json_out_end_object(w);
 }
 
 /* The range of the token a diagnostic points at (one character at least). */
-static json_t *diag_range(const Server *S, const OpenDoc *od, const Diag *d)
+static void diag_range_write(JsonOut *w, const Server *S, const OpenDoc *od, const Diag *d)
 {
     size_t len = 0;
     const char *p = od->doc ? doc_source_line(od->doc, d->pos.line, &len) : NULL;
-    if (!p)
-        return range_json(S, od, 1, 0, 0);
+    if (!p) {
+        range_write(w, "range", S, od, 1, 0, 0);
+        return;
+    }
     size_t at = d->pos.col > 1 ? (size_t)d->pos.col - 1 : 0;
     if (at > len)
         at = len;
     size_t n = token_len(p + at, len - at);
     if (n == 0 && at < len)
         n = textpos_bytes(p + at, len - at, 1, COL_CODEPOINT);
-    return range_json(S, od, d->pos.line, at, at + n);
+    range_write(w, "range", S, od, d->pos.line, at, at + n);
 }
 
 static void publish(Server *S, const OpenDoc *od, bool empty)
 {
-    json_t *list = json_array();
+    Msg m;
+    JsonOut *w = msg_begin(&m);
+    json_out_string(w, "method", "textDocument/publishDiagnostics");
+    json_out_begin_object(w, "params");
+    json_out_string(w, "uri", od->uri);
+    json_out_begin_array(w, "diagnostics");
     for (size_t i = 0; !empty && i < od->dl.len; i++) {
         const Diag *d = &od->dl.items[i];
-        json_t *o = json_object();
+        json_out_begin_object(w, NULL);
         bool here = !d->pos.file || strcmp(d->pos.file, od->name) == 0;
         if (here) {
-            json_object_set_new(o, "range", diag_range(S, od, d));
-            json_object_set_new(o, "message", json_text(d->message));
+            diag_range_write(w, S, od, d);
+            json_out_text(w, "message", d->message);
         } else {
             /* A used file's diagnostic: shown at the top, naming its place. */
-            char *m = xmalloc(strlen(d->message) + strlen(d->pos.file) + 48);
-            sprintf(m, "%s:%d:%d: %s", d->pos.file, d->pos.line, d->pos.col, d->message);
-            json_object_set_new(o, "range", range_json(S, od, 1, 0, 0));
-            json_object_set_new(o, "message", json_text(m));
-            free(m);
+            char *text = xmalloc(strlen(d->message) + strlen(d->pos.file) + 48);
+            sprintf(text, "%s:%d:%d: %s", d->pos.file, d->pos.line, d->pos.col, d->message);
+            range_write(w, "range", S, od, 1, 0, 0);
+            json_out_text(w, "message", text);
+            free(text);
         }
-        json_object_set_new(o, "severity", json_integer(d->severity == SEV_ERROR     ? SEVERITY_ERROR
-                                                        : d->severity == SEV_WARNING ? SEVERITY_WARNING
-                                                                                     : SEVERITY_INFORMATION));
-        json_object_set_new(o, "source", json_string("headroom"));
-        json_object_set_new(o, "code", json_string(finding_rules[finding_of_diag(d)].id));
-        json_array_append_new(list, o);
+        json_out_int(w, "severity", d->severity == SEV_ERROR     ? SEVERITY_ERROR
+                                    : d->severity == SEV_WARNING ? SEVERITY_WARNING
+                                                                 : SEVERITY_INFORMATION);
+        json_out_string(w, "source", "headroom");
+        json_out_string(w, "code", finding_rules[finding_of_diag(d)].id);
+        json_out_end_object(w);
     }
-    notify(S, "textDocument/publishDiagnostics", json_pack("{s:s,s:o}", "uri", od->uri, "diagnostics", list));
+    json_out_end_array(w);
+    json_out_end_object(w);
+    msg_send(S, &m);
 }
 
 /* ---- request helpers ---------------------------------------------------- */
@@ -557,13 +598,31 @@ static void constant_detail(const NamedConstant *k, char *buf, size_t n)
              k->what ? k->what : "");
 }
 
-static json_t *do_hover(Server *S, OpenDoc *od, json_t *params)
+/* Each request writes its answer as the message's "result" member. */
+static const char RESULT[] = "result";
+
+static void hover_write(JsonOut *w, const char *text, const Server *S, const OpenDoc *od, int line, size_t a,
+                        size_t b, bool range)
+{
+    json_out_begin_object(w, RESULT);
+    json_out_begin_object(w, "contents");
+    json_out_string(w, "kind", "markdown");
+    json_out_text(w, "value", text);
+    json_out_end_object(w);
+    if (range)
+        range_write(w, "range", S, od, line, a, b);
+    json_out_end_object(w);
+}
+
+static void do_hover(Server *S, OpenDoc *od, json_t *params, JsonOut *w)
 {
     int line;
     size_t at, len, a, b;
     const char *p;
-    if (!param_position(S, od, json_object_get(params, "position"), &line, &at, &p, &len))
-        return json_null();
+    if (!param_position(S, od, json_object_get(params, "position"), &line, &at, &p, &len)) {
+        json_out_null(w, RESULT);
+        return;
+    }
     const Evaluated *ev = od->ev;
     StrBuf out = {0};
     const Stmt *here = stmt_on_line(od->doc, line);
@@ -574,23 +633,23 @@ static json_t *do_hover(Server *S, OpenDoc *od, json_t *params)
             hover_check(ev, here, &out);
     }
     if (!out.len && word_at(p, len, at, &a, &b)) {
-        char *w = xstrndup(p + a, b - a);
-        int slot = doc_lookup(od->doc, w);
+        char *word = xstrndup(p + a, b - a);
+        int slot = doc_lookup(od->doc, word);
         size_t c, d;
         if (a > 1 && p[a - 1] == '.' && word_at(p, len, a - 2, &c, &d)) {
             char *base = xstrndup(p + c, d - c);
             int bs = doc_lookup(od->doc, base);
             if (bs >= 0)
-                hover_field(ev, bs, w, &out);
+                hover_field(ev, bs, word, &out);
             free(base);
         } else if (slot >= 0) {
             hover_name(ev, od->doc->stmts[slot], &out);
-        } else if (builtin_lookup(w)) {
-            const Builtin *fn = builtin_lookup(w);
+        } else if (builtin_lookup(word)) {
+            const Builtin *fn = builtin_lookup(word);
             put_signature(fn, &out);
             sb_printf(&out, "\n\n%s", fn->summary);
-        } else if (lexicon_constant(w, strlen(w))) {
-            const NamedConstant *k = lexicon_constant(w, strlen(w));
+        } else if (lexicon_constant(word, strlen(word))) {
+            const NamedConstant *k = lexicon_constant(word, strlen(word));
             char detail[96];
             constant_detail(k, detail, sizeof detail);
             sb_printf(&out, "%s = %s", k->name, detail);
@@ -599,31 +658,31 @@ static json_t *do_hover(Server *S, OpenDoc *od, json_t *params)
         } else if (here && here->kind == STMT_CHECK) {
             hover_check(ev, here, &out);
         }
-        free(w);
+        free(word);
         if (out.len) {
-            json_t *h = json_pack("{s:{s:s,s:o},s:o}", "contents", "kind", "markdown", "value", json_text(sb_str(&out)), "range",
-                                  range_json(S, od, line, a, b));
+            hover_write(w, sb_str(&out), S, od, line, a, b, true);
             sb_free(&out);
-            return h;
+            return;
         }
     }
-    if (!out.len)
-        return json_null();
-    json_t *h = json_pack("{s:{s:s,s:o}}", "contents", "kind", "markdown", "value", json_text(sb_str(&out)));
+    if (!out.len) {
+        json_out_null(w, RESULT);
+        return;
+    }
+    hover_write(w, sb_str(&out), S, od, line, 0, 0, false);
     sb_free(&out);
-    return h;
 }
 
 /* ---- inlay hints -------------------------------------------------------- */
 
-static json_t *do_inlay_hints(Server *S, OpenDoc *od, json_t *params)
+static void do_inlay_hints(Server *S, OpenDoc *od, json_t *params, JsonOut *w)
 {
     json_t *range = json_object_get(params, "range");
     json_t *st = json_object_get(json_object_get(range, "start"), "line");
     json_t *en = json_object_get(json_object_get(range, "end"), "line");
     json_int_t from = json_is_integer(st) ? json_integer_value(st) + 1 : 1;
     json_int_t to = json_is_integer(en) ? json_integer_value(en) + 1 : (json_int_t)od->doc->nlines;
-    json_t *hints = json_array();
+    json_out_begin_array(w, RESULT);
     const Evaluated *ev = od->ev;
     for (size_t i = 0; i < od->doc->nstmts; i++) {
         const Stmt *s = od->doc->stmts[i];
@@ -665,20 +724,20 @@ static json_t *do_inlay_hints(Server *S, OpenDoc *od, json_t *params)
         size_t len = 0;
         const char *p = doc_source_line(od->doc, s->pos.line, &len);
         if (p) {
-            json_t *h = json_object();
-            json_object_set_new(h, "position", position_json(S, od, s->pos.line, len));
-            json_object_set_new(h, "label", json_text(sb_str(&label)));
-            json_object_set_new(h, "paddingLeft", json_true());
-            json_array_append_new(hints, h);
+            json_out_begin_object(w, NULL);
+            position_write(w, "position", S, od, s->pos.line, len);
+            json_out_text(w, "label", sb_str(&label));
+            json_out_bool(w, "paddingLeft", true);
+            json_out_end_object(w);
         }
         sb_free(&label);
     }
-    return hints;
+    json_out_end_array(w);
 }
 
 /* ---- definition --------------------------------------------------------- */
 
-static json_t *location_json(Server *S, OpenDoc *od, Pos pos, size_t n)
+static void location_write(JsonOut *w, Server *S, OpenDoc *od, Pos pos, size_t n)
 {
     size_t len = 0;
     const char *p = doc_source_line(od->doc, pos.line, &len);
@@ -687,37 +746,42 @@ static json_t *location_json(Server *S, OpenDoc *od, Pos pos, size_t n)
         at = 0;
     if (p && at + n > len)
         n = len - at;
-    return json_pack("{s:s,s:o}", "uri", od->uri, "range", range_json(S, od, pos.line, at, at + n));
+    json_out_begin_object(w, RESULT);
+    json_out_string(w, "uri", od->uri);
+    range_write(w, "range", S, od, pos.line, at, at + n);
+    json_out_end_object(w);
 }
 
-static json_t *do_definition(Server *S, OpenDoc *od, json_t *params)
+static void do_definition(Server *S, OpenDoc *od, json_t *params, JsonOut *w)
 {
     int line;
     size_t at, len, a, b;
     const char *p;
     if (!param_position(S, od, json_object_get(params, "position"), &line, &at, &p, &len) ||
-        !word_at(p, len, at, &a, &b))
-        return json_null();
-    char *w = xstrndup(p + a, b - a);
-    json_t *loc = json_null();
+        !word_at(p, len, at, &a, &b)) {
+        json_out_null(w, RESULT);
+        return;
+    }
+    char *word = xstrndup(p + a, b - a);
     bool cite = a > 0 && p[a - 1] == '[' && b < len && p[b] == ']';
-    const Source *src = cite ? source_of(od->doc, w) : NULL;
-    int slot = doc_lookup(od->doc, w);
+    const Source *src = cite ? source_of(od->doc, word) : NULL;
+    int slot = doc_lookup(od->doc, word);
     if (src) {
-        loc = location_json(S, od, src->pos, strlen(src->key));
+        location_write(w, S, od, src->pos, strlen(src->key));
     } else if (slot >= 0 && !(a > 0 && p[a - 1] == '.')) {
         const Stmt *s = od->doc->stmts[slot];
         Pos at_name = s->name_pos.line > 0 ? s->name_pos : s->pos;
-        loc = location_json(S, od, at_name, strlen(s->name));
+        location_write(w, S, od, at_name, strlen(s->name));
+    } else {
+        json_out_null(w, RESULT);
     }
-    free(w);
-    return loc;
+    free(word);
 }
 
 /* ---- completion --------------------------------------------------------- */
 
 typedef struct Items {
-    json_t *list;
+    JsonOut *w;              /* the open "result" array */
     const char *prefix;      /* what is typed of the word so far */
     size_t nprefix;
     bool fold;               /* compare the prefix ignoring case */
@@ -735,14 +799,14 @@ static void item_add(Items *it, const char *label, int kind, const char *detail,
 {
     if (!prefix_ok(it, label))
         return;
-    json_t *o = json_object();
-    json_object_set_new(o, "label", json_text(label));
-    json_object_set_new(o, "kind", json_integer(kind));
+    json_out_begin_object(it->w, NULL);
+    json_out_text(it->w, "label", label);
+    json_out_int(it->w, "kind", kind);
     if (detail)
-        json_object_set_new(o, "detail", json_text(detail));
+        json_out_text(it->w, "detail", detail);
     if (doc)
-        json_object_set_new(o, "documentation", json_text(doc));
-    json_array_append_new(it->list, o);
+        json_out_text(it->w, "documentation", doc);
+    json_out_end_object(it->w);
 }
 
 static void add_builtin(const Builtin *b, void *ctx)
@@ -882,14 +946,14 @@ static bool string_context(const char *p, size_t quote, char *fn, size_t nfn, in
     return false;
 }
 
-static json_t *do_completion(Server *S, OpenDoc *od, json_t *params)
+/* The items, written into the open array as they are found. */
+static void completion_items(Server *S, OpenDoc *od, json_t *params, Items *it)
 {
     int line;
     size_t at, len;
     const char *p;
-    Items it = {json_array(), "", 0, false, {0}};
     if (!param_position(S, od, json_object_get(params, "position"), &line, &at, &p, &len))
-        return it.list;
+        return;
     /* An open string before the cursor? */
     size_t quote = len;
     bool open = false;
@@ -899,24 +963,24 @@ static json_t *do_completion(Server *S, OpenDoc *od, json_t *params)
             quote = i;
         }
     if (open) {
-        it.prefix = p + quote + 1;
-        it.nprefix = at - quote - 1;
-        it.fold = true;
+        it->prefix = p + quote + 1;
+        it->nprefix = at - quote - 1;
+        it->fold = true;
         char fn[64], first[64];
         int arg = 0;
         if (string_context(p, quote, fn, sizeof fn, &arg, first, sizeof first) && strcmp(fn, "pipe") == 0) {
             const PipeStandard *std = pipe_standard_find(first);
             if (arg == 0) {
                 for (int k = 0; k < PIPE_STANDARD_COUNT; k++)
-                    item_add(&it, pipe_standard((PipeStandardId)k)->name, ITEM_VALUE, pipe_standard((PipeStandardId)k)->material,
+                    item_add(it, pipe_standard((PipeStandardId)k)->name, ITEM_VALUE, pipe_standard((PipeStandardId)k)->material,
                              pipe_standard((PipeStandardId)k)->title);
             } else if (std && (arg == 1 || arg == 2)) {
-                add_pipe_column(&it, std, arg);
+                add_pipe_column(it, std, arg);
             }
         } else {
-            add_fitting_kinds(&it);
+            add_fitting_kinds(it);
         }
-        return it.list;
+        return;
     }
     /* The word being typed (a unit may hold / ^ * and digits). */
     size_t a = at;
@@ -933,20 +997,20 @@ static json_t *do_completion(Server *S, OpenDoc *od, json_t *params)
             int slot = doc_lookup(od->doc, base);
             free(base);
             const StmtResult *r = slot >= 0 ? &od->ev->results[slot] : NULL;
-            it.prefix = p + a;
-            it.nprefix = at - a;
+            it->prefix = p + a;
+            it->nprefix = at - a;
             if (r && r->state == RES_OK && r->value.kind == VAL_RECORD) {
                 for (size_t i = 0; i < r->value.rec->nfields; i++) {
                     const Value *fv = &r->value.rec->fields[i].value;
                     Unit u = fv->kind == VAL_NUMBER ? eval_display_unit(od->ev, fv, NULL) : (Unit){0};
                     StrBuf v = {0};
                     render_value_text(od->ev, fv, &u, &v);
-                    item_add(&it, r->value.rec->fields[i].name, ITEM_FIELD, sb_str(&v), NULL);
+                    item_add(it, r->value.rec->fields[i].name, ITEM_FIELD, sb_str(&v), NULL);
                     sb_free(&v);
                 }
             }
         }
-        return it.list;
+        return;
     }
     /* A unit: the word follows a number and a space, or "as ". */
     size_t k = a;
@@ -955,36 +1019,43 @@ static json_t *do_completion(Server *S, OpenDoc *od, json_t *params)
     bool after_number = k < a && k > 0 && ((p[k - 1] >= '0' && p[k - 1] <= '9') || p[k - 1] == '.');
     bool after_as = k < a && k >= 2 && strncmp(p + k - 2, "as", 2) == 0 && (k == 2 || !word_byte(p[k - 3]));
     if (after_number || after_as) {
-        it.prefix = p + a;
-        it.nprefix = at - a;
-        unit_each(add_unit, &it);
-        arena_init(&it.arena);
-        add_default_units(&it);
-        arena_free(&it.arena);
-        return it.list;
+        it->prefix = p + a;
+        it->nprefix = at - a;
+        unit_each(add_unit, it);
+        arena_init(&it->arena);
+        add_default_units(it);
+        arena_free(&it->arena);
+        return;
     }
     size_t w = at;
     while (w > 0 && word_byte(p[w - 1]))
         w--;
-    it.prefix = p + w;
-    it.nprefix = at - w;
+    it->prefix = p + w;
+    it->nprefix = at - w;
     /* In a table row: fitting kinds as well. */
     size_t lead = 0;
     while (lead < len && p[lead] == ' ')
         lead++;
     if (lead < len && p[lead] == '|')
-        add_fitting_kinds(&it);
-    add_names(&it, od);
-    builtin_each(add_builtin, &it);
+        add_fitting_kinds(it);
+    add_names(it, od);
+    builtin_each(add_builtin, it);
     for (const Keyword *kw = lexicon_keywords; kw->word; kw++)
         if (kw->roles & KW_OFFERED)
-            item_add(&it, kw->word, ITEM_KEYWORD, NULL, NULL);
-    return it.list;
+            item_add(it, kw->word, ITEM_KEYWORD, NULL, NULL);
+}
+
+static void do_completion(Server *S, OpenDoc *od, json_t *params, JsonOut *w)
+{
+    Items it = {w, "", 0, false, {0}};
+    json_out_begin_array(w, RESULT);
+    completion_items(S, od, params, &it);
+    json_out_end_array(w);
 }
 
 /* ---- lifecycle and text sync ------------------------------------------- */
 
-static json_t *do_initialize(Server *S, json_t *params)
+static void do_initialize(Server *S, json_t *params, JsonOut *w)
 {
     json_t *caps = json_object_get(params, "capabilities");
     json_t *encs = json_object_get(json_object_get(caps, "general"), "positionEncodings");
@@ -999,19 +1070,32 @@ static json_t *do_initialize(Server *S, json_t *params)
                 S->enc = COL_UTF8;
     }
     const char *enc = S->enc == COL_UTF8 ? "utf-8" : "utf-16";
-    json_t *c = json_object();
-    json_object_set_new(c, "positionEncoding", json_string(enc));
-    json_object_set_new(c, "textDocumentSync", json_pack("{s:b,s:i}", "openClose", 1, "change", 1));
-    json_object_set_new(c, "hoverProvider", json_true());
-    json_object_set_new(c, "definitionProvider", json_true());
-    json_object_set_new(c, "inlayHintProvider", json_true());
-    json_object_set_new(c, "completionProvider", json_pack("{s:[s,s,s,s]}", "triggerCharacters", ".", " ", "\"", "("));
-    json_t *result = json_pack("{s:o,s:{s:s,s:s}}", "capabilities", c, "serverInfo", "name", "headroom", "version",
-                               HEADROOM_VERSION);
+    json_out_begin_object(w, RESULT);
+    json_out_begin_object(w, "capabilities");
+    json_out_string(w, "positionEncoding", enc);
+    json_out_begin_object(w, "textDocumentSync");
+    json_out_bool(w, "openClose", true);
+    json_out_int(w, "change", 1);
+    json_out_end_object(w);
+    json_out_bool(w, "hoverProvider", true);
+    json_out_bool(w, "definitionProvider", true);
+    json_out_bool(w, "inlayHintProvider", true);
+    json_out_begin_object(w, "completionProvider");
+    json_out_begin_array(w, "triggerCharacters");
+    static const char *const triggers[] = {".", " ", "\"", "("};
+    for (size_t i = 0; i < sizeof triggers / sizeof triggers[0]; i++)
+        json_out_string(w, NULL, triggers[i]);
+    json_out_end_array(w);
+    json_out_end_object(w);
+    json_out_end_object(w);
+    json_out_begin_object(w, "serverInfo");
+    json_out_string(w, "name", "headroom");
+    json_out_string(w, "version", HEADROOM_VERSION);
+    json_out_end_object(w);
     if (json_is_array(old))
-        json_object_set_new(result, "offsetEncoding", json_string(enc));
+        json_out_string(w, "offsetEncoding", enc);
+    json_out_end_object(w);
     S->initialized = true;
-    return result;
 }
 
 static void set_text(Server *S, OpenDoc *od, const char *text, size_t len)
@@ -1035,10 +1119,17 @@ static void did_open(Server *S, json_t *params)
     OpenDoc *od = doc_find(S, uri);
     if (!od) {
         if (S->ndocs >= LSP_MAX_DOCUMENTS || S->open_bytes + len > LSP_MAX_OPEN_BYTES) {
-            char msg[160];
-            snprintf(msg, sizeof msg, "headroom lsp: not opened: the server keeps at most %d calcs and %d bytes open",
+            char text[160];
+            snprintf(text, sizeof text, "headroom lsp: not opened: the server keeps at most %d calcs and %d bytes open",
                      LSP_MAX_DOCUMENTS, LSP_MAX_OPEN_BYTES);
-            notify(S, "window/showMessage", json_pack("{s:i,s:s}", "type", 1, "message", msg));
+            Msg m;
+            JsonOut *w = msg_begin(&m);
+            json_out_string(w, "method", "window/showMessage");
+            json_out_begin_object(w, "params");
+            json_out_int(w, "type", 1);
+            json_out_string(w, "message", text);
+            json_out_end_object(w);
+            msg_send(S, &m);
             return;
         }
         S->docs = xrealloc(S->docs, (S->ndocs + 1) * sizeof *S->docs);
@@ -1133,7 +1224,8 @@ static void did_close(Server *S, json_t *params)
 
 /* ---- dispatch ------------------------------------------------------------ */
 
-typedef json_t *(*DocRequest)(Server *S, OpenDoc *od, json_t *params);
+/* A request on an open document: writes its RESULT member. */
+typedef void (*DocRequest)(Server *S, OpenDoc *od, json_t *params, JsonOut *w);
 
 static const struct {
     const char *method;
@@ -1188,15 +1280,20 @@ static bool handle(Server *S, const char *body, size_t n, int *status)
             ;
         else if (S->initialized)
             reply_error(S, id, RPC_INVALID_REQUEST, "initialize was already received");
-        else
-            reply(S, id, do_initialize(S, params));
+        else {
+            Msg r;
+            JsonOut *w = msg_begin(&r);
+            id_write(w, id);
+            do_initialize(S, params, w);
+            msg_send(S, &r);
+        }
     } else if (!S->initialized) {
         if (is_request)
             reply_error(S, id, RPC_SERVER_NOT_INITIALIZED, "the server is not initialized");
     } else if (strcmp(m, "shutdown") == 0) {
         S->shutdown = true;
         if (is_request)
-            reply(S, id, json_null());
+            reply_null(S, id);
     } else if (S->shutdown) {
         if (is_request)
             reply_error(S, id, RPC_INVALID_REQUEST, "the server is shutting down");
@@ -1219,12 +1316,20 @@ static bool handle(Server *S, const char *body, size_t n, int *status)
                 reply_error(S, id, RPC_INVALID_PARAMS, "%s needs params.textDocument.uri", m);
             else if (!od)
                 reply_error(S, id, RPC_INVALID_PARAMS, "the document is not open: %.200s", uri);
-            else if (!od->doc)
-                reply(S, id, strcmp(m, "textDocument/hover") == 0 || strcmp(m, "textDocument/definition") == 0
-                                 ? json_null()
-                                 : json_array());
-            else
-                reply(S, id, doc_requests[k].fn(S, od, params));
+            else if (!od->doc && (strcmp(m, "textDocument/hover") == 0 || strcmp(m, "textDocument/definition") == 0))
+                reply_null(S, id);
+            else {
+                Msg r;
+                JsonOut *w = msg_begin(&r);
+                id_write(w, id);
+                if (od->doc)
+                    doc_requests[k].fn(S, od, params, w);
+                else { /* no document to list from */
+                    json_out_begin_array(w, RESULT);
+                    json_out_end_array(w);
+                }
+                msg_send(S, &r);
+            }
         }
     }
     /* Other notifications (initialized, $/cancelRequest, ...) need nothing. */

@@ -6,15 +6,12 @@
  * the value in coherent SI base units at full precision (17 significant
  * digits, which round-trips); `shown` is the value
  * in its display unit rounded to the document's significant digits, as the
- * report prints it. json_text() (json_text.h), the one encoder of a C string
- * that every jansson user shares, lives here too. */
-#include <jansson.h>
+ * report prints it. */
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
 
 #include "json_out.h"
-#include "json_text.h"
 #include "numfmt.h"
 #include "strmap.h"
 #include "render.h"
@@ -584,18 +581,4 @@ bool render_json(const Evaluated *const *evs, const DiagList *diags, size_t nfil
     bool ok = json_out_finish(&w);
     fputc('\n', out);
     return ok && !ferror(out);
-}
-
-json_t *json_text(const char *s)
-{
-    json_t *j = json_string(s ? s : "");
-    if (j)
-        return j;
-    char *copy = xstrdup(s);
-    for (char *p = copy; *p; p++)
-        if ((unsigned char)*p >= 0x80)
-            *p = '?';
-    j = json_string(copy);
-    free(copy);
-    return j;
 }

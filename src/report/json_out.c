@@ -14,10 +14,25 @@ void json_out_init(JsonOut *w, FILE *f)
     w->f = f;
 }
 
+void json_out_init_compact(JsonOut *w, StrBuf *sb)
+{
+    memset(w, 0, sizeof *w);
+    w->sb = sb;
+    w->compact = true;
+}
+
+static void write_out(JsonOut *w, const char *s, size_t n)
+{
+    if (w->f)
+        fwrite(s, 1, n, w->f);
+    else
+        sb_putn(w->sb, s, n);
+}
+
 static void flush(JsonOut *w)
 {
     if (w->len)
-        fwrite(w->buf, 1, w->len, w->f);
+        write_out(w, w->buf, w->len);
     w->len = 0;
 }
 
@@ -26,7 +41,7 @@ static inline void put(JsonOut *w, const char *s, size_t n)
     if (w->len + n > sizeof w->buf) {
         flush(w);
         if (n > sizeof w->buf) {
-            fwrite(s, 1, n, w->f);
+            write_out(w, s, n);
             return;
         }
     }
@@ -60,7 +75,7 @@ static void put_indent(JsonOut *w, int depth)
 bool json_out_finish(JsonOut *w)
 {
     flush(w);
-    return !ferror(w->f);
+    return !w->f || !ferror(w->f);
 }
 
 bool json_out_utf8_ok(const char *s)
@@ -124,10 +139,11 @@ static bool member(JsonOut *w, const char *key)
         if (w->has_items[w->depth])
             put_char(w, ',');
         w->has_items[w->depth] = true;
-        put_indent(w, w->depth);
+        if (!w->compact)
+            put_indent(w, w->depth);
         if (w->is_object[w->depth]) {
             put_quoted(w, key);
-            put(w, ": ", 2);
+            put(w, ": ", w->compact ? 1 : 2);
         }
     }
     return true;
@@ -155,7 +171,7 @@ static void end(JsonOut *w, bool object)
         return;
     bool items = w->has_items[w->depth];
     w->depth--;
-    if (items)
+    if (items && !w->compact)
         put_indent(w, w->depth);
     put_char(w, object ? '}' : ']');
 }

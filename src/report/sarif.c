@@ -1,4 +1,5 @@
-/* sarif.c — `check --format sarif`: SARIF 2.1.0 (OASIS), written with jansson.
+/* sarif.c — `check --format sarif`: SARIF 2.1.0 (OASIS), written by the one
+ * JSON writer (json_out.h) in its indented form.
  *
  * One run for the whole command: the tool's driver lists one rule per kind
  * of finding (finding_rules), every diagnostic and every failing check is a
@@ -6,13 +7,11 @@
  * code units, the SARIF default, stated in the run's columnKind. A file name
  * becomes a URI reference: relative paths stay relative, absolute ones get
  * the file scheme, and every byte outside the unreserved set and '/' is
- * percent-encoded. The JSON adapter for this format; json.c has the other. */
-#include <jansson.h>
-
-#include "json_text.h"
+ * percent-encoded. */
 #include <stdlib.h>
 #include <string.h>
 
+#include "json_out.h"
 #include "render.h"
 
 #ifndef HEADROOM_VERSION
@@ -40,57 +39,68 @@ static char *file_uri(const char *path)
     return s;
 }
 
-static json_t *text_object(const char *s)
+static void text_object(JsonOut *w, const char *key, const char *s)
 {
-    return json_pack("{s:o}", "text", json_text(s));
+    json_out_begin_object(w, key);
+    json_out_text(w, "text", s);
+    json_out_end_object(w);
 }
 
-static json_t *location(const char *file, size_t artifact, int line, int col)
+/* artifact < 0: a used file, not one of the run's artifacts (no index). */
+static void location_write(JsonOut *w, const char *file, long long artifact, int line, int col)
 {
     char *uri = file_uri(file);
-    json_t *phys = json_object();
-    json_object_set_new(phys, "artifactLocation", json_pack("{s:s,s:I}", "uri", uri, "index", (json_int_t)artifact));
-    if (line > 0)
-        json_object_set_new(phys, "region", json_pack("{s:i,s:i}", "startLine", line, "startColumn", col > 0 ? col : 1));
+    json_out_begin_array(w, "locations");
+    json_out_begin_object(w, NULL);
+    json_out_begin_object(w, "physicalLocation");
+    json_out_begin_object(w, "artifactLocation");
+    json_out_string(w, "uri", uri);
+    if (artifact >= 0)
+        json_out_int(w, "index", artifact);
+    json_out_end_object(w);
+    if (line > 0) {
+        json_out_begin_object(w, "region");
+        json_out_int(w, "startLine", line);
+        json_out_int(w, "startColumn", col > 0 ? col : 1);
+        json_out_end_object(w);
+    }
+    json_out_end_object(w);
+    json_out_end_object(w);
+    json_out_end_array(w);
     free(uri);
-    return json_pack("{s:o}", "physicalLocation", phys);
 }
 
-static json_t *result(FindingKind kind, const char *level, const char *message, json_t *loc)
+static void result_open(JsonOut *w, FindingKind kind, const char *level, const char *message)
 {
-    json_t *r = json_object();
-    json_object_set_new(r, "ruleId", json_string(finding_rules[kind].id));
-    json_object_set_new(r, "ruleIndex", json_integer(kind));
-    json_object_set_new(r, "level", json_string(level));
-    json_object_set_new(r, "message", text_object(message));
-    json_object_set_new(r, "locations", json_pack("[o]", loc));
-    return r;
+    json_out_begin_object(w, NULL);
+    json_out_string(w, "ruleId", finding_rules[kind].id);
+    json_out_int(w, "ruleIndex", kind);
+    json_out_string(w, "level", level);
+    text_object(w, "message", message);
 }
 
-static json_t *rules_json(void)
+static void rules_write(JsonOut *w)
 {
-    json_t *rules = json_array();
+    json_out_begin_array(w, "rules");
     for (int k = 0; k < FIND_KINDS; k++) {
         const char *level = k == FIND_WARNING ? "warning" : k == FIND_NOTE ? "note" : "error";
-        json_array_append_new(rules, json_pack("{s:s,s:o,s:{s:s}}", "id", finding_rules[k].id, "shortDescription",
-                                               text_object(finding_rules[k].title), "defaultConfiguration",
-                                               "level", level));
+        json_out_begin_object(w, NULL);
+        json_out_string(w, "id", finding_rules[k].id);
+        text_object(w, "shortDescription", finding_rules[k].title);
+        json_out_begin_object(w, "defaultConfiguration");
+        json_out_string(w, "level", level);
+        json_out_end_object(w);
+        json_out_end_object(w);
     }
-    return rules;
+    json_out_end_array(w);
 }
 
-bool render_sarif(const CheckRun *runs, size_t n, FILE *out)
+static void results_write(JsonOut *w, const CheckRun *runs, size_t n)
 {
-    json_t *results = json_array(), *artifacts = json_array();
+    json_out_begin_array(w, "results");
     for (size_t f = 0; f < n; f++) {
         const CheckRun *run = &runs[f];
         const Evaluated *ev = run->ev;
-        char *uri = file_uri(run->file);
-        json_t *art = json_pack("{s:{s:s}}", "location", "uri", uri);
-        free(uri);
-        if (ev)
-            json_object_set_new(art, "hashes", json_pack("{s:s}", "sha-256", ev->doc->digest));
-        json_array_append_new(artifacts, art);
         for (size_t i = 0; run->diags && i < run->diags->len; i++) {
             const Diag *d = &run->diags->items[i];
             FindingKind k = finding_of_diag(d);
@@ -98,11 +108,10 @@ bool render_sarif(const CheckRun *runs, size_t n, FILE *out)
             bool here = !d->pos.file || (ev && strcmp(d->pos.file, ev->doc->file) == 0) ||
                         strcmp(d->pos.file, run->file) == 0;
             int col = render_utf16_col(here && ev ? ev->doc : NULL, d->pos.line, d->pos.col);
-            json_t *loc = location(here || !d->pos.file ? run->file : d->pos.file, f, d->pos.line, col);
-            if (!here) /* a used file: not one of the run's artifacts */
-                json_object_del(json_object_get(json_object_get(loc, "physicalLocation"), "artifactLocation"),
-                                "index");
-            json_array_append_new(results, result(k, level, d->message, loc));
+            result_open(w, k, level, d->message);
+            location_write(w, here || !d->pos.file ? run->file : d->pos.file, here ? (long long)f : -1, d->pos.line,
+                           col);
+            json_out_end_object(w);
         }
         for (size_t i = 0; ev && i < ev->doc->nstmts; i++) {
             const Stmt *s = ev->doc->stmts[i];
@@ -113,26 +122,56 @@ bool render_sarif(const CheckRun *runs, size_t n, FILE *out)
             render_check_verdict(ev, i, &v, &fails);
             if (fails) {
                 sb_printf(&msg, "check '%s' fails: %s", s->label ? s->label : "", sb_str(&v));
-                json_array_append_new(results, result(FIND_CHECK_FAILS, "error", sb_str(&msg),
-                                                      location(run->file, f, s->pos.line,
-                                                               render_utf16_col(ev->doc, s->pos.line, s->pos.col))));
+                result_open(w, FIND_CHECK_FAILS, "error", sb_str(&msg));
+                location_write(w, run->file, (long long)f, s->pos.line,
+                               render_utf16_col(ev->doc, s->pos.line, s->pos.col));
+                json_out_end_object(w);
             }
             sb_free(&v);
             sb_free(&msg);
         }
     }
-    json_t *driver = json_pack("{s:s,s:s,s:o}", "name", "headroom", "version", HEADROOM_VERSION, "rules", rules_json());
-    json_t *run = json_object();
-    json_object_set_new(run, "tool", json_pack("{s:o}", "driver", driver));
-    json_object_set_new(run, "columnKind", json_string("utf16CodeUnits"));
-    json_object_set_new(run, "artifacts", artifacts);
-    json_object_set_new(run, "results", results);
-    json_t *root = json_object();
-    json_object_set_new(root, "$schema", json_string(sarif_schema));
-    json_object_set_new(root, "version", json_string("2.1.0"));
-    json_object_set_new(root, "runs", json_pack("[o]", run));
-    int rc = json_dumpf(root, out, JSON_INDENT(2) | JSON_PRESERVE_ORDER);
+    json_out_end_array(w);
+}
+
+bool render_sarif(const CheckRun *runs, size_t n, FILE *out)
+{
+    JsonOut w;
+    json_out_init(&w, out);
+    json_out_begin_object(&w, NULL);
+    json_out_string(&w, "$schema", sarif_schema);
+    json_out_string(&w, "version", "2.1.0");
+    json_out_begin_array(&w, "runs");
+    json_out_begin_object(&w, NULL);
+    json_out_begin_object(&w, "tool");
+    json_out_begin_object(&w, "driver");
+    json_out_string(&w, "name", "headroom");
+    json_out_string(&w, "version", HEADROOM_VERSION);
+    rules_write(&w);
+    json_out_end_object(&w);
+    json_out_end_object(&w);
+    json_out_string(&w, "columnKind", "utf16CodeUnits");
+    json_out_begin_array(&w, "artifacts");
+    for (size_t f = 0; f < n; f++) {
+        char *uri = file_uri(runs[f].file);
+        json_out_begin_object(&w, NULL);
+        json_out_begin_object(&w, "location");
+        json_out_string(&w, "uri", uri);
+        json_out_end_object(&w);
+        if (runs[f].ev) {
+            json_out_begin_object(&w, "hashes");
+            json_out_string(&w, "sha-256", runs[f].ev->doc->digest);
+            json_out_end_object(&w);
+        }
+        json_out_end_object(&w);
+        free(uri);
+    }
+    json_out_end_array(&w);
+    results_write(&w, runs, n);
+    json_out_end_object(&w);
+    json_out_end_array(&w);
+    json_out_end_object(&w);
+    bool ok = json_out_finish(&w);
     fputc('\n', out);
-    json_decref(root);
-    return rc == 0 && !ferror(out);
+    return ok && !ferror(out);
 }

@@ -6,7 +6,8 @@
  * both ways and compares: reals over many decades (and the exponent and
  * ".0" rules), integers, booleans, null, every control character, quotes and
  * backslashes, UTF-8 text, empty and nested containers, and the members
- * jansson leaves out (a NULL or non-UTF-8 text, a non-UTF-8 key). */
+ * jansson leaves out (a NULL or non-UTF-8 text, a non-UTF-8 key); and the
+ * compact form the language server sends, against JSON_COMPACT. */
 #include <setjmp.h>
 #include <stdarg.h>
 #include <stddef.h>
@@ -98,9 +99,8 @@ static const char *const BAD_UTF8 = "bad \xff byte";
 static const char *const OVERLONG = "\xc0\xaf";
 static const char *const SURROGATE = "\xed\xa0\x80";
 
-static void write_strings(JsonOut *w)
+static void string_members(JsonOut *w)
 {
-    json_out_begin_object(w, NULL);
     json_out_string(w, "controls", controls);
     json_out_string(w, "quotes", "say \"hi\" \\ back/slash \x7f");
     json_out_string(w, "utf8", "\xc2\xb0" "C, \xce\xbc" "m, \xe2\x80\xa8, \xf0\x9f\x92\xa7");
@@ -125,12 +125,18 @@ static void write_strings(JsonOut *w)
     json_out_end_array(w);
     json_out_end_array(w);
     json_out_text(w, "text", BAD_UTF8);
+}
+
+static void write_strings(JsonOut *w)
+{
+    json_out_begin_object(w, NULL);
+    string_members(w);
     json_out_end_object(w);
 }
 
-static void test_strings_and_containers(void **state)
+/* The tree write_strings must match, as jansson builds it. */
+static json_t *strings_tree(void)
 {
-    (void)state;
     for (int c = 1; c < 0x40; c++)
         controls[c - 1] = (char)c;
     json_t *o = json_object();
@@ -154,7 +160,13 @@ static void test_strings_and_containers(void **state)
     json_array_append_new(nested, in);
     json_object_set_new(o, "nested", nested);
     json_object_set_new(o, "text", json_string("bad ? byte"));
-    char *want = jansson_text(o);
+    return o;
+}
+
+static void test_strings_and_containers(void **state)
+{
+    (void)state;
+    char *want = jansson_text(strings_tree());
     size_t len;
     char *got = stream_text(write_strings, &len);
     assert_string_equal(got, want);
@@ -162,6 +174,35 @@ static void test_strings_and_containers(void **state)
     assert_false(json_out_utf8_ok("\xf4\x90\x80\x80"));   /* above U+10FFFF */
     assert_false(json_out_utf8_ok("\xe0\x80\x80"));       /* overlong */
     free(got);
+    free(want);
+}
+
+/* The compact form of a language-server message, into a StrBuf: the same
+ * bytes as jansson's JSON_COMPACT. */
+static void test_compact(void **state)
+{
+    (void)state;
+    json_t *tree = strings_tree();
+    json_object_set_new(tree, "reals", json_pack("[f,f,f]", 0.1, -1e-7, 1e21));
+    json_object_set_new(tree, "int", json_integer(-42));
+    char *want = json_dumps(tree, JSON_COMPACT | JSON_PRESERVE_ORDER | JSON_REAL_PRECISION(17));
+    json_decref(tree);
+    StrBuf sb = {0};
+    JsonOut w;
+    json_out_init_compact(&w, &sb);
+    json_out_begin_object(&w, NULL);
+    string_members(&w);
+    json_out_begin_array(&w, "reals");
+    json_out_real(&w, NULL, 0.1);
+    json_out_real(&w, NULL, -1e-7);
+    json_out_real(&w, NULL, 1e21);
+    json_out_end_array(&w);
+    json_out_int(&w, "int", -42);
+    json_out_end_object(&w);
+    assert_true(json_out_finish(&w));
+    assert_string_equal(sb_str(&sb), want);
+    assert_int_equal(sb.len, strlen(want));
+    sb_free(&sb);
     free(want);
 }
 
@@ -220,6 +261,7 @@ int main(void)
         cmocka_unit_test(test_reals_and_scalars),
         cmocka_unit_test(test_strings_and_containers),
         cmocka_unit_test(test_reals_round_trip),
+        cmocka_unit_test(test_compact),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
