@@ -138,6 +138,12 @@ double report_path_cell(const SegmentResult *g, int kind);
 
 /* Build the model of `ev` in `a`. Never fails (an unevaluated row says so). */
 const ReportModel *report_model_build(const Evaluated *ev, Arena *a);
+/* The model without its rows (rows NULL, no method's first_use, no warning
+ * count): its methods and the governing check. report_model_row then makes
+ * any row on its own, as report_model_build does, into `row` and `a`: a
+ * writer that needs each row once can make it in a scratch arena. */
+ReportModel *report_model_begin(const Evaluated *ev, Arena *a);
+void report_model_row(const ReportModel *m, size_t i, ModelRow *row, Arena *a);
 
 /* The model's entry for method `m` (NULL when the calc did not use it). */
 const ModelMethod *report_model_method(const ReportModel *model, const Method *m);

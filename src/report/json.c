@@ -444,9 +444,12 @@ static void sides_write(JsonOut *w, const StmtResult *r, const ModelCheck *c)
 static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diags)
 {
     const Document *doc = ev->doc;
-    Arena arena;
+    /* The report model's rows, each made when it is written, in a scratch
+     * arena of its own: memory does not grow with the calc. */
+    Arena arena, scratch;
     arena_init(&arena);
-    const ReportModel *model = report_model_build(ev, &arena);
+    const ReportModel *model = report_model_begin(ev, &arena);
+    ModelRow row;
     json_out_begin_object(w, NULL);
     json_out_string(w, "file", doc->file);
     json_out_string(w, "digest", doc->digest);
@@ -474,8 +477,12 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
     long *pick = unique_keys(names, n);
     json_out_begin_object(w, "values");
     for (size_t i = 0; i < n; i++)
-        if (pick[i] >= 0)
-            named_value_write(w, ev, doc->stmts[pick[i]], &ev->results[pick[i]], &model->rows[pick[i]]);
+        if (pick[i] >= 0) {
+            arena_init(&scratch);
+            report_model_row(model, (size_t)pick[i], &row, &scratch);
+            named_value_write(w, ev, doc->stmts[pick[i]], &ev->results[pick[i]], &row);
+            arena_free(&scratch);
+        }
     json_out_end_object(w);
     free(pick);
     free(names);
@@ -491,11 +498,14 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
         json_out_int(w, "line", s->pos.line);
         json_out_string(w, "op", cmp_op_text(s->cmp, false));
         if (r->state == RES_OK) {
+            arena_init(&scratch);
+            report_model_row(model, i, &row, &scratch);
             json_out_bool(w, "holds", r->holds);
-            sides_write(w, r, &model->rows[i].check);
+            sides_write(w, r, &row.check);
             json_out_real(w, "utilization", r->utilization);
-            json_out_bool(w, "governing", model->rows[i].check.governs);
-            row_texts_write(w, &model->rows[i]);
+            json_out_bool(w, "governing", row.check.governs);
+            row_texts_write(w, &row);
+            arena_free(&scratch);
         } else {
             json_out_null(w, "holds");
         }
@@ -518,8 +528,11 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
             json_out_int(w, "line", s->pos.line);
             json_out_string(w, "op", cmp_op_text(s->cmp, false));
             if (r->state == RES_OK) {
+                arena_init(&scratch);
+                report_model_row(model, i, &row, &scratch);
                 json_out_bool(w, "answer", r->holds);
-                sides_write(w, r, &model->rows[i].check);
+                sides_write(w, r, &row.check);
+                arena_free(&scratch);
             } else {
                 json_out_null(w, "answer");
             }

@@ -128,21 +128,51 @@ static void put_quoted(JsonOut *w, const char *s)
     put_char(w, '"');
 }
 
+/* True, with its length, when s is printable ASCII without '"' or '\\': the
+ * common text, valid and written between quotes as it is. */
+static bool plain_text(const char *s, size_t *len)
+{
+    const unsigned char *p = (const unsigned char *)s;
+    for (; *p; p++)
+        if (*p < 0x20 || *p >= 0x7f || *p == '"' || *p == '\\')
+            return false;
+    *len = (size_t)(p - (const unsigned char *)s);
+    return true;
+}
+
+static void put_plain(JsonOut *w, const char *s, size_t n)
+{
+    put_char(w, '"');
+    put(w, s, n);
+    put_char(w, '"');
+}
+
 /* Start a member: false (write nothing) when it is left out. */
 static bool member(JsonOut *w, const char *key)
 {
     if (w->skip)
         return false;
-    if (w->depth > 0 && w->is_object[w->depth] && (!key || !json_out_utf8_ok(key)))
-        return false;
+    bool keyed = w->depth > 0 && w->is_object[w->depth];
+    size_t klen = 0;
+    bool kplain = false;
+    if (keyed) {
+        if (!key)
+            return false;
+        kplain = plain_text(key, &klen);
+        if (!kplain && !json_out_utf8_ok(key))
+            return false;
+    }
     if (w->depth > 0) {
         if (w->has_items[w->depth])
             put_char(w, ',');
         w->has_items[w->depth] = true;
         if (!w->compact)
             put_indent(w, w->depth);
-        if (w->is_object[w->depth]) {
-            put_quoted(w, key);
+        if (keyed) {
+            if (kplain)
+                put_plain(w, key, klen);
+            else
+                put_quoted(w, key);
             put(w, ": ", w->compact ? 1 : 2);
         }
     }
@@ -183,7 +213,15 @@ void json_out_end_array(JsonOut *w) { end(w, false); }
 
 void json_out_string(JsonOut *w, const char *key, const char *s)
 {
-    if (s && json_out_utf8_ok(s) && member(w, key))
+    size_t n;
+    if (!s)
+        return;
+    if (plain_text(s, &n)) {
+        if (member(w, key))
+            put_plain(w, s, n);
+        return;
+    }
+    if (json_out_utf8_ok(s) && member(w, key))
         put_quoted(w, s);
 }
 
@@ -191,13 +229,20 @@ void json_out_text(JsonOut *w, const char *key, const char *s)
 {
     if (!s)
         s = "";
+    size_t n;
+    if (plain_text(s, &n)) {
+        if (member(w, key))
+            put_plain(w, s, n);
+        return;
+    }
     if (json_out_utf8_ok(s)) {
-        json_out_string(w, key, s);
+        if (member(w, key))
+            put_quoted(w, s);
         return;
     }
     if (!member(w, key))
         return;
-    size_t n = strlen(s);
+    n = strlen(s);
     char buf[256];
     char *copy = n < sizeof buf ? buf : malloc(n + 1);
     if (!copy)

@@ -227,14 +227,12 @@ static void row_uses(const ReportModel *m, const StmtResult *r, ModelRow *row, A
     row->uses = uses;
 }
 
-const ReportModel *report_model_build(const Evaluated *ev, Arena *a)
+ReportModel *report_model_begin(const Evaluated *ev, Arena *a)
 {
     const Document *d = ev->doc;
     ReportModel *m = arena_alloc(a, sizeof *m);
     m->ev = ev;
     m->governing = -1;
-    m->nrows = d->nstmts;
-    m->rows = arena_alloc(a, (d->nstmts + 1) * sizeof *m->rows);
     m->nmethods = ev->nmethods;
     m->methods = arena_alloc(a, (ev->nmethods + 1) * sizeof *m->methods);
     for (size_t k = 0; k < ev->nmethods; k++) {
@@ -251,61 +249,80 @@ const ReportModel *report_model_build(const Evaluated *ev, Arena *a)
             diag_free(&quiet);
         }
     }
+    /* the governing check: the highest finite utilization, the first of equals */
     double best = -1;
     for (size_t i = 0; i < d->nstmts; i++) {
         const Stmt *s = d->stmts[i];
         const StmtResult *r = &ev->results[i];
-        ModelRow *row = &m->rows[i];
-        row->stmt = s;
-        row->res = r;
-        row->evaluated = r->state == RES_OK;
-        row->description = s->description;
-        row->cites = s->cites;
-        row->ncites = s->ncites;
-        row->warnings = r->warnings;
-        row->nwarnings = r->nwarnings;
-        m->nwarnings += r->nwarnings;
-        size_t *idx = arena_alloc(a, (r->nmethods + 1) * sizeof *idx);
-        for (size_t j = 0; j < r->nmethods; j++)
-            for (size_t k = 0; k < ev->nmethods; k++)
-                if (method_same(r->methods[j], ev->methods[k])) {
-                    idx[row->nmethods++] = k;
-                    if (m->methods[k].first_use < 0)
-                        m->methods[k].first_use = (int)i;
-                    break;
-                }
-        row->methods = idx;
-        row_uses(m, r, row, a);
-        if (s->parse_failed)
-            continue;
-        switch (s->kind) {
-        case STMT_DEF:
-            row_def(ev, s, r, row, a);
-            break;
-        case STMT_SOLVE:
-            row_solve(ev, s, r, row, a);
-            break;
-        case STMT_CHECK:
-            row_check(ev, s, r, row, a);
-            if (!s->finding && row->evaluated) {
-                if (isfinite(r->utilization) && r->utilization > best) {
-                    best = r->utilization;
-                    m->governing = (int)i;
-                }
-            }
-            break;
-        default:
-            if (s->name && row->evaluated)
-                row->result = report_model_value(ev, &r->value, &r->shown, a);
-            row->symbol = s->name;
-            break;
+        if (!s->parse_failed && s->kind == STMT_CHECK && !s->finding && r->state == RES_OK &&
+            isfinite(r->utilization) && r->utilization > best) {
+            best = r->utilization;
+            m->governing = (int)i;
         }
     }
-    if (m->governing >= 0)
-        m->rows[m->governing].check.governs = true;
     m->nchecks = ev->nchecks;
     m->nfailed = ev->nfailed;
     m->case_rows_failing = ev->case_rows_failing;
+    return m;
+}
+
+void report_model_row(const ReportModel *m, size_t i, ModelRow *row, Arena *a)
+{
+    const Evaluated *ev = m->ev;
+    const Stmt *s = ev->doc->stmts[i];
+    const StmtResult *r = &ev->results[i];
+    memset(row, 0, sizeof *row);
+    row->stmt = s;
+    row->res = r;
+    row->evaluated = r->state == RES_OK;
+    row->description = s->description;
+    row->cites = s->cites;
+    row->ncites = s->ncites;
+    row->warnings = r->warnings;
+    row->nwarnings = r->nwarnings;
+    size_t *idx = arena_alloc(a, (r->nmethods + 1) * sizeof *idx);
+    for (size_t j = 0; j < r->nmethods; j++)
+        for (size_t k = 0; k < ev->nmethods; k++)
+            if (method_same(r->methods[j], ev->methods[k])) {
+                idx[row->nmethods++] = k;
+                break;
+            }
+    row->methods = idx;
+    row_uses(m, r, row, a);
+    if (s->parse_failed)
+        return;
+    switch (s->kind) {
+    case STMT_DEF:
+        row_def(ev, s, r, row, a);
+        break;
+    case STMT_SOLVE:
+        row_solve(ev, s, r, row, a);
+        break;
+    case STMT_CHECK:
+        row_check(ev, s, r, row, a);
+        row->check.governs = (int)i == m->governing;
+        break;
+    default:
+        if (s->name && row->evaluated)
+            row->result = report_model_value(ev, &r->value, &r->shown, a);
+        row->symbol = s->name;
+        break;
+    }
+}
+
+const ReportModel *report_model_build(const Evaluated *ev, Arena *a)
+{
+    ReportModel *m = report_model_begin(ev, a);
+    m->nrows = ev->doc->nstmts;
+    m->rows = arena_alloc(a, (m->nrows + 1) * sizeof *m->rows);
+    for (size_t i = 0; i < m->nrows; i++) {
+        ModelRow *row = &m->rows[i];
+        report_model_row(m, i, row, a);
+        m->nwarnings += row->nwarnings;
+        for (size_t j = 0; j < row->nmethods; j++)
+            if (m->methods[row->methods[j]].first_use < 0)
+                m->methods[row->methods[j]].first_use = (int)i;
+    }
     return m;
 }
 
