@@ -96,8 +96,10 @@ bool num_round(double x, int p, uint64_t *digits, int *exp10)
         return false; /* subnormal */
     uint64_t m = (bits & ((1ULL << 52) - 1)) | (1ULL << 52);
     int e = biased - 1075;
-    int ex = (int)floor(log10(fabs(x))); /* a guess, corrected below */
-    for (int tries = 0; tries < 4; tries++) {
+    /* a guess at the power of ten from the binary one (log10(2) = 0.30103),
+     * corrected below */
+    int ex = (int)floor((double)(e + 52) * 0.30102999566398120);
+    for (int tries = 0; tries < 6; tries++) {
         int k = p - 1 - ex; /* |x| * 10^k should lie in [10^(p-1), 10^p) */
         if (k > 54 || k < -54)
             return false;
@@ -111,6 +113,7 @@ bool num_round(double x, int p, uint64_t *digits, int *exp10)
             den = pow5(-k);
         }
         int t = e + k;
+        U128 q, r;
         if (t >= 0) {
             if (bit_length(num) + t > 126)
                 return false;
@@ -120,7 +123,13 @@ bool num_round(double x, int p, uint64_t *digits, int *exp10)
                 return false;
             den <<= -t;
         }
-        U128 q = num / den, r = num % den;
+        if (k >= 0 && t < 0) { /* den is 2^-t: a shift, not a division */
+            q = num >> -t;
+            r = num & (den - 1);
+        } else {
+            q = num / den;
+            r = num % den;
+        }
         if (q >= POW10[p]) {
             ex++;
             continue;
