@@ -154,11 +154,19 @@ bool num_round(double x, int p, uint64_t *digits, int *exp10)
 
 void num_digit_text(uint64_t digits, int p, char *out)
 {
-    for (int i = p - 1; i >= 0; i--) {
-        out[i] = (char)('0' + digits % 10);
-        digits /= 10;
-    }
+    static const char PAIRS[] = "00010203040506070809101112131415161718192021222324252627282930313233343536373839"
+                                "40414243444546474849505152535455565758596061626364656667686970717273747576777879"
+                                "8081828384858687888990919293949596979899";
+    int i = p;
     out[p] = '\0';
+    for (; i >= 2; i -= 2) { /* two digits a step */
+        unsigned two = (unsigned)(digits % 100);
+        digits /= 100;
+        out[i - 2] = PAIRS[2 * two];
+        out[i - 1] = PAIRS[2 * two + 1];
+    }
+    if (i == 1)
+        out[0] = (char)('0' + digits % 10);
 }
 
 /* num_parts from the exact digits: as the snprintf path below prints. */

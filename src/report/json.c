@@ -26,16 +26,18 @@
 static long *unique_keys(const char *const *keys, size_t n)
 {
     long *pick = xmalloc((n + 1) * sizeof *pick);
-    StrMap last = {0}, seen = {0};
-    for (size_t i = n; i-- > 0;)
-        if (keys[i])
-            strmap_add(&last, keys[i], i, NULL);
+    StrMap first = {0};
     for (size_t i = 0; i < n; i++) {
         size_t at = 0;
-        pick[i] = keys[i] && strmap_add(&seen, keys[i], i, NULL) && strmap_get(&last, keys[i], &at) ? (long)at : -1;
+        pick[i] = -1;
+        if (!keys[i])
+            continue;
+        if (strmap_add(&first, keys[i], i, &at))
+            pick[i] = (long)i;
+        else
+            pick[at] = (long)i; /* a repeat: its value goes at the first place */
     }
-    strmap_free(&last);
-    strmap_free(&seen);
+    strmap_free(&first);
     return pick;
 }
 
