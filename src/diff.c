@@ -9,8 +9,9 @@
  * renamed statement; renames are decided in source order, so a rename of Q
  * lets `V = Q/A` and `V = Q_d/A` compare as equal. Which changed inputs a
  * result depends on is a bitset per statement, propagated once along
- * Stmt.deps in source order (every dependency precedes its reader), so the
- * whole diff is linear in the size of the documents. */
+ * Stmt.deps in source order (every dependency precedes its reader), and a
+ * rename's candidates are found by a key of the formula, so the whole diff
+ * is linear in the size of the documents (n log n with the sorts). */
 #include "diff.h"
 
 #include <math.h>
@@ -352,6 +353,105 @@ static int label_find(const LabelSlot *ix, size_t n, const char *label, const in
     return -1;
 }
 
+/* ---- rename candidates --------------------------------------------------
+ *
+ * A key of a statement's formula such that stmt_same(old, new) implies equal
+ * keys: the tree's shape, operators, strings, field and function names, and
+ * for a name the OLD statement it stands for (an OLD formula's own slot; in
+ * NEW, the OLD statement its slot was matched to, which every earlier NEW
+ * statement has by the time a later one is looked at). Literals and
+ * statement kinds the key leaves out (paths, networks, curves) only put more
+ * candidates under one key, each still tested with stmt_same. Orphans sorted
+ * by key make finding a rename's candidates a lookup, not a scan of every
+ * orphan (quadratic in a calc whose names all changed). */
+
+static uint64_t mix(uint64_t h, uint64_t v)
+{
+    h ^= v + 0x9e3779b97f4a7c15ULL + (h << 6) + (h >> 2);
+    return h * 0x100000001b3ULL;
+}
+
+static uint64_t mix_str(uint64_t h, const char *s)
+{
+    for (const unsigned char *p = (const unsigned char *)(s ? s : ""); *p; p++)
+        h = (h ^ *p) * 0x100000001b3ULL;
+    return mix(h, 0xff);
+}
+
+/* A slot as the OLD statement it stands for (new: through new_to_old). */
+static uint64_t slot_key(const Diff *d, int slot, bool new_side)
+{
+    if (slot < 0)
+        return slot == SLOT_UNRESOLVED ? 0x5eedULL : (uint64_t)(-(int64_t)slot);
+    if (!new_side)
+        return (uint64_t)slot + 1000;
+    int o = d->new_to_old[slot];
+    return o >= 0 ? (uint64_t)o + 1000 : 0xdeadULL; /* unmatched: equal to no OLD slot */
+}
+
+static uint64_t expr_key(const Diff *d, const Expr *e, bool new_side, uint64_t h)
+{
+    e = bare(e);
+    if (!e)
+        return mix(h, 1);
+    h = mix(h, (uint64_t)e->kind + 16);
+    switch (e->kind) {
+    case EXPR_NUMBER:
+        return h;
+    case EXPR_STRING:
+        return mix_str(h, e->text);
+    case EXPR_NAME:
+        return mix(h, slot_key(d, e->slot, new_side));
+    case EXPR_NEG:
+    case EXPR_PAREN:
+        return expr_key(d, e->lhs, new_side, h);
+    case EXPR_BINARY:
+        h = mix(h, (uint64_t)e->op);
+        return expr_key(d, e->rhs, new_side, expr_key(d, e->lhs, new_side, h));
+    case EXPR_FIELD:
+        return expr_key(d, e->lhs, new_side, mix_str(h, e->text));
+    case EXPR_CALL:
+        h = e->callee_slot >= 0 ? mix(h, slot_key(d, e->callee_slot, new_side)) : mix_str(h, e->text);
+        h = mix(mix(h, e->nargs), e->nkw);
+        for (size_t i = 0; i < e->nargs; i++)
+            h = expr_key(d, e->args[i], new_side, h);
+        for (size_t i = 0; i < e->nkw; i++)
+            h = expr_key(d, e->kw[i], new_side, mix_str(h, e->kw_names[i]));
+        return h;
+    }
+    return h;
+}
+
+static uint64_t stmt_key(const Diff *d, const Stmt *s, bool new_side)
+{
+    uint64_t h = mix(mix(0xcbf29ce484222325ULL, (uint64_t)s->kind), is_check(s));
+    switch (s->kind) {
+    case STMT_DEF:
+        return expr_key(d, s->expr, new_side, h);
+    case STMT_SOLVE:
+        h = mix(h, slot_key(d, s->var_slot, new_side));
+        return expr_key(d, s->rhs, new_side, expr_key(d, s->lhs, new_side, h));
+    case STMT_CHECK:
+        h = mix(h, (uint64_t)s->cmp);
+        return expr_key(d, s->rhs, new_side, expr_key(d, s->lhs, new_side, h));
+    default:
+        return h;
+    }
+}
+
+typedef struct Candidate {
+    uint64_t key;
+    size_t k; /* the orphan's place in source order */
+} Candidate;
+
+static int cmp_candidate(const void *a, const void *b)
+{
+    const Candidate *x = a, *y = b;
+    if (x->key != y->key)
+        return x->key < y->key ? -1 : 1;
+    return (x->k > y->k) - (x->k < y->k);
+}
+
 static void match_statements(Builder *b)
 {
     Diff *d = b->d;
@@ -382,21 +482,46 @@ static void match_statements(Builder *b)
     for (size_t i = 0; i < od->nstmts; i++)
         if (d->old_to_new[i] < 0 && (is_named(od->stmts[i]) || is_check(od->stmts[i])))
             orphans[norphans++] = (int)i;
+    Candidate *cand = xmalloc((norphans + 1) * sizeof *cand);
+    size_t *open = xmalloc((norphans + 1) * sizeof *open); /* per key: its first orphan not yet taken */
+    for (size_t k = 0; k < norphans; k++)
+        cand[k] = (Candidate){stmt_key(d, od->stmts[orphans[k]], false), k};
+    qsort(cand, norphans, sizeof *cand, cmp_candidate);
+    for (size_t j = 0; j < norphans; j++)
+        open[j] = j;
     for (size_t i = 0; i < nd->nstmts && norphans; i++) {
         const Stmt *s = nd->stmts[i];
         if (d->new_to_old[i] >= 0 || !(is_named(s) || is_check(s)))
             continue;
-        for (size_t k = 0; k < norphans; k++) {
-            const Stmt *os = od->stmts[orphans[k]];
-            if (d->old_to_new[orphans[k]] < 0 && is_check(os) == is_check(s) && stmt_same(d, os, s)) {
-                d->old_to_new[orphans[k]] = (int)i;
-                d->new_to_old[i] = orphans[k];
-                StmtChange c = {STMT_RENAMED, orphans[k], (int)i};
+        uint64_t key = stmt_key(d, s, true);
+        size_t lo = 0, hi = norphans;
+        while (lo < hi) {
+            size_t mid = (lo + hi) / 2;
+            if (cand[mid].key < key)
+                lo = mid + 1;
+            else
+                hi = mid;
+        }
+        if (lo == norphans || cand[lo].key != key)
+            continue;
+        size_t j = open[lo];
+        while (j < norphans && cand[j].key == key && d->old_to_new[orphans[cand[j].k]] >= 0)
+            j++;
+        open[lo] = j;
+        for (; j < norphans && cand[j].key == key; j++) {
+            int o = orphans[cand[j].k];
+            const Stmt *os = od->stmts[o];
+            if (d->old_to_new[o] < 0 && is_check(os) == is_check(s) && stmt_same(d, os, s)) {
+                d->old_to_new[o] = (int)i;
+                d->new_to_old[i] = o;
+                StmtChange c = {STMT_RENAMED, o, (int)i};
                 PUSH(d->stmts, d->nstmts, b->cap_stmts, c);
                 break;
             }
         }
     }
+    free(cand);
+    free(open);
     for (size_t i = 0; i < nd->nstmts; i++) {
         const Stmt *s = nd->stmts[i];
         if (d->new_to_old[i] < 0 && (is_named(s) || is_check(s))) {

@@ -157,12 +157,50 @@ static void renames_and_marks(void **state)
     unload(&b);
 }
 
+/* Renames among many statements of one shape (a name times a literal): each
+ * NEW statement takes the first OLD orphan whose formula is the same
+ * (literals equal in SI: 12 in is 1 ft), not the first of its shape; one
+ * whose literal differs from every orphan's is added, and the orphan left
+ * over is removed. A rename seen earlier (L to L2) counts in later formulas. */
+static void renames_of_one_shape(void **state)
+{
+    (void)state;
+    Side a, b;
+    load(&a, "```calc\nL = 10 ft\na1 = L*2\na2 = L*3\na3 = L*4\na4 = L*5\nm = 1 ft\n```\n");
+    load(&b, "```calc\nL2 = 10 ft\nb4 = L2*5\nb2 = L2*3\nb9 = L2*9\nb1 = L2*2\nn = 12 in\n```\n");
+    Diff *d = diff_compute(a.ev, b.ev, NULL);
+    static const char *const pairs[][2] = {{"L", "L2"}, {"a4", "b4"}, {"a2", "b2"}, {"a1", "b1"}, {"m", "n"}};
+    size_t renamed = 0, added = 0, removed = 0;
+    for (size_t k = 0; k < d->nstmts; k++) {
+        const StmtChange *c = &d->stmts[k];
+        if (c->kind == STMT_RENAMED) {
+            assert_true(renamed < sizeof pairs / sizeof pairs[0]);
+            assert_string_equal(a.doc->stmts[c->old_slot]->name, pairs[renamed][0]);
+            assert_string_equal(b.doc->stmts[c->new_slot]->name, pairs[renamed][1]);
+            renamed++;
+        } else if (c->kind == STMT_ADDED) {
+            assert_string_equal(b.doc->stmts[c->new_slot]->name, "b9");
+            added++;
+        } else {
+            assert_string_equal(a.doc->stmts[c->old_slot]->name, "a3");
+            removed++;
+        }
+    }
+    assert_int_equal(renamed, 5);
+    assert_int_equal(added, 1);
+    assert_int_equal(removed, 1);
+    diff_free(d);
+    unload(&a);
+    unload(&b);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(tolerance_rule),
         cmocka_unit_test(inputs_through_the_graph),
         cmocka_unit_test(renames_and_marks),
+        cmocka_unit_test(renames_of_one_shape),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
