@@ -25,7 +25,7 @@ typedef struct Arena {
 
 void arena_init(Arena *a);
 void arena_free(Arena *a);
-void *arena_alloc(Arena *a, size_t n);   /* zeroed, aligned for any type */
+void *arena_alloc(Arena *a, size_t n);   /* zeroed, aligned to 8 (any type but long double) */
 char *arena_strdup(Arena *a, const char *s);
 char *arena_strndup(Arena *a, const char *s, size_t n);
 char *arena_printf(Arena *a, const char *fmt, ...)

@@ -37,32 +37,43 @@ typedef enum BinOp { OP_ADD, OP_SUB, OP_MUL, OP_DIV, OP_POW } BinOp;
 enum { SLOT_UNRESOLVED = -1, SLOT_PI = -2, SLOT_G = -3 };
 
 typedef struct Expr Expr;
+typedef struct ExprCall ExprCall;
 struct Expr {
+    /* fields ordered so the node packs into 88 bytes: a calc holds a few
+     * of these per statement (issue 17) */
     ExprKind kind;
-    Pos pos;
     int height;              /* levels of the tree from here down (a leaf is 1);
                                 at most PARSE_MAX_DEPTH, so no walker recurses deeper */
+    Pos pos;
     /* EXPR_NUMBER */
     double number;           /* as written, in `unit` */
     const char *text;        /* the literal as written: number, string or name */
-    bool has_unit;
-    const Unit *unit;        /* resolved unit (in the arena), when has_unit */
+    const Unit *unit;        /* resolved unit when has_unit (shared, see unit_shared) */
     /* EXPR_NAME: text is the name */
     int slot;
     /* EXPR_NEG (operand in lhs), EXPR_BINARY, EXPR_PAREN (inner in lhs) */
     BinOp op;
+    int callee_slot;         /* EXPR_CALL: a record defined in the calc called as f(x), else -1 */
+    bool has_unit;
     bool middle_dot;         /* written with · */
     Expr *lhs, *rhs;
-    /* EXPR_CALL: text is the function name */
+    /* EXPR_CALL: text is the function name; its arguments */
+    const ExprCall *call;    /* &expr_no_call on every other node: no arguments */
+    /* EXPR_FIELD: base in lhs, text is the field name */
+};
+
+/* A call's arguments, kept apart from the node: calls are a few of the
+ * nodes of a calc, and every node would otherwise carry room for them. */
+struct ExprCall {
     Expr **args;
     size_t nargs;
-    const char **kw_names;
+    const char **kw_names;   /* keyword arguments: name, value, where */
     Expr **kw;
     Pos *kw_pos;
     size_t nkw;
-    int callee_slot;         /* a record defined in the calc called as f(x), else -1 */
-    /* EXPR_FIELD: base in lhs, text is the field name */
 };
+
+extern const ExprCall expr_no_call;
 
 /* ---- statements -------------------------------------------------------- */
 
@@ -182,7 +193,7 @@ typedef struct Stmt {
     Expr *expr;              /* DEF */
     bool has_as;             /* DEF, SOLVE */
     const char *as_text;
-    Unit as_unit;
+    const Unit *as_unit;     /* when has_as (shared, see unit_shared) */
     Pos as_pos;
     const char *var;         /* SOLVE: the varied name */
     Pos var_pos;
@@ -194,7 +205,7 @@ typedef struct Stmt {
                                 answer recorded, never counted as a check */
     CmpOp cmp;
     const char *description; /* trailing comment, citations removed; NOTE: its text */
-    Cite *cites;
+    Cite *cites;             /* ncites of them; NULL when none */
     size_t ncites;
     PathSpec *path;          /* PATH */
     NetworkSpec *network;    /* NETWORK */

@@ -123,18 +123,29 @@ typedef struct ReadValue {
     Unit shown;
 } ReadValue;
 
-typedef struct StmtResult {
-    ResultState state;
-    Value value;             /* DEF, SOLVE: the bound value */
-    Unit shown;              /* DEF, SOLVE: the unit the value is shown in (numbers) */
+/* What only a check or a solve has, kept out of line so the results of the
+ * many plain definitions stay small (issue 17): a check's two sides, a
+ * solve's equation at the root. */
+typedef struct StmtSides {
     /* CHECK: both sides; SOLVE: both sides of the equation at the root */
     Value lhs, rhs;
     Unit lhs_shown, rhs_shown;
-    bool holds;              /* CHECK */
-    double utilization;      /* CHECK: lhs/rhs for <, <=; rhs/lhs for >, >= */
     SolveReport solve;       /* SOLVE */
     const ReadValue *at_root;/* SOLVE: every name the equation reads, at the root */
     size_t nat_root;
+} StmtSides;
+
+/* The sides of a result that has none: all zero. */
+extern const StmtSides eval_no_sides;
+
+typedef struct StmtResult {
+    ResultState state;
+    Value value;             /* DEF, SOLVE: the bound value */
+    const Unit *shown;       /* DEF, SOLVE: the unit the value is shown in (numbers; shared,
+                                see unit_intern); never NULL (&unit_blank) */
+    const StmtSides *sides;  /* CHECK, SOLVE: in the arena; never NULL (&eval_no_sides) */
+    bool holds;              /* CHECK */
+    double utilization;      /* CHECK: lhs/rhs for <, <=; rhs/lhs for >, >= */
     const char *const *warnings; /* what evaluating the row warned of, in order */
     size_t nwarnings;
     const PathResult *path;  /* PATH */
@@ -221,6 +232,8 @@ const Value *eval_read(const Evaluated *ev, const StmtResult *row, int slot, Uni
 /* The unit a number is shown in: `as` wins, then the value's hint for the
  * document's unit system, then the system's default for the dimension. */
 Unit eval_display_unit(const Evaluated *ev, const Value *v, const Unit *as_unit);
+/* The same, shared (unit_intern): what a result keeps. */
+const Unit *eval_shown_unit(const Evaluated *ev, const Value *v);
 
 /* The rule of `as UNIT`, for statements, inline values and `convert`: a
  * number of the unit's dimension, a temperature point in a point unit and a

@@ -108,6 +108,17 @@ typedef enum UnitStatus {
  * On UNIT_UNKNOWN, *bad_off and *bad_len locate the unknown name in `s`. */
 UnitStatus unit_parse(const char *s, size_t len, Unit *out, size_t *bad_off, size_t *bad_len);
 
+/* The parsed unit for a spelling, shared for the life of the process (the
+ * same pointer for the same spelling), or NULL when unit_parse would fail;
+ * thread-safe. For the units a calc writes again and again. */
+const Unit *unit_shared(const char *s, size_t len);
+
+/* The same unit, shared for the life of the process (equal units give the
+ * same pointer); thread-safe. unit_blank (all zero: no unit, text "") is
+ * what a result that is not a number is shown in. */
+const Unit *unit_intern(const Unit *u);
+extern const Unit unit_blank;
+
 /* The registered name closest to `name` (for "did you mean ...?"), or NULL
  * when nothing is close. */
 const char *unit_suggest(const char *name, size_t len);

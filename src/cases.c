@@ -108,7 +108,7 @@ void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagList *di
                 row->shown[k] = v;
                 /* a plain name keeps its display unit */
                 if (e->kind == EXPR_NAME && e->slot >= 0)
-                    row->shown_unit[k] = ev->results[e->slot].shown;
+                    row->shown_unit[k] = *ev->results[e->slot].shown;
                 else if (v.kind == VAL_NUMBER)
                     row->shown_unit[k] = eval_display_unit(ev, &v, NULL);
                 row->shown_ok[k] = true;

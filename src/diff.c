@@ -183,13 +183,13 @@ static bool expr_same(const Diff *d, const Expr *a, const Expr *b)
         } else if (!str_same(a->text, b->text)) {
             return false;
         }
-        if (a->nargs != b->nargs || a->nkw != b->nkw)
+        if (a->call->nargs != b->call->nargs || a->call->nkw != b->call->nkw)
             return false;
-        for (size_t i = 0; i < a->nargs; i++)
-            if (!expr_same(d, a->args[i], b->args[i]))
+        for (size_t i = 0; i < a->call->nargs; i++)
+            if (!expr_same(d, a->call->args[i], b->call->args[i]))
                 return false;
-        for (size_t i = 0; i < a->nkw; i++)
-            if (!str_same(a->kw_names[i], b->kw_names[i]) || !expr_same(d, a->kw[i], b->kw[i]))
+        for (size_t i = 0; i < a->call->nkw; i++)
+            if (!str_same(a->call->kw_names[i], b->call->kw_names[i]) || !expr_same(d, a->call->kw[i], b->call->kw[i]))
                 return false;
         return true;
     }
@@ -705,11 +705,11 @@ static void compare_values(Builder *b)
         if (ov->kind == VAL_RECORD && nv->kind == VAL_RECORD) {
             found = compare_record(b, ns->name, o, (int)i, ov->rec, nv->rec, false);
         } else if (values_differ(ov, nv, &d->opt, &dim_changed)) {
-            add_value_change(b, input, ns->name, o, (int)i, ov, nv, &ro->shown, &rn->shown, dim_changed);
+            add_value_change(b, input, ns->name, o, (int)i, ov, nv, ro->shown, rn->shown, dim_changed);
             found = 1;
         }
         if (!found && b->formula_changed[i])
-            add_value_change(b, false, ns->name, o, (int)i, ov, nv, &ro->shown, &rn->shown, false);
+            add_value_change(b, false, ns->name, o, (int)i, ov, nv, ro->shown, rn->shown, false);
     }
 }
 

@@ -38,11 +38,11 @@ bool expr_reads_names(const Expr *e)
     case EXPR_STRING:
         return false;
     case EXPR_CALL:
-        for (size_t i = 0; i < e->nargs; i++)
-            if (expr_reads_names(e->args[i]))
+        for (size_t i = 0; i < e->call->nargs; i++)
+            if (expr_reads_names(e->call->args[i]))
                 return true;
-        for (size_t i = 0; i < e->nkw; i++)
-            if (expr_reads_names(e->kw[i]))
+        for (size_t i = 0; i < e->call->nkw; i++)
+            if (expr_reads_names(e->call->kw[i]))
                 return true;
         return e->callee_slot >= 0;
     default:
@@ -66,9 +66,9 @@ const char *doc_stmt_use(const Stmt *s)
 {
     const Expr *e = s && s->kind == STMT_DEF && !s->parse_failed ? s->expr : NULL;
     if (!e || e->kind != EXPR_CALL || strcmp(e->text, "use") != 0 || e->callee_slot >= 0 ||
-        e->nargs != 1 || e->nkw != 0 || e->args[0]->kind != EXPR_STRING)
+        e->call->nargs != 1 || e->call->nkw != 0 || e->call->args[0]->kind != EXPR_STRING)
         return NULL;
-    return e->args[0]->text;
+    return e->call->args[0]->text;
 }
 
 void doc_free(Document *doc)

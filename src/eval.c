@@ -40,7 +40,7 @@ void eval_describe_operand(EvalCtx *c, const Expr *e, const Value *v, char *buf,
     if (inner && inner->kind == EXPR_NUMBER && inner->has_unit) {
         unit = inner->unit->text;
     } else if (inner && inner->kind == EXPR_NAME && inner->slot >= 0) {
-        shown = c->ev->results[inner->slot].shown;
+        shown = *c->ev->results[inner->slot].shown;
         unit = shown.text[0] ? shown.text : NULL;
     }
     if (dim_is_none(v->q.dim)) {
@@ -308,7 +308,7 @@ static bool eval_binary(EvalCtx *c, const Expr *e, Value *out)
 static bool eval_use(EvalCtx *c, const Expr *e, Value *out)
 {
     Evaluated *ev = c->ev;
-    const UsedFile *u = use_set_resolve(ev->uses, c->doc, e->args[0]->text, e->args[0]->pos, c->diags);
+    const UsedFile *u = use_set_resolve(ev->uses, c->doc, e->call->args[0]->text, e->call->args[0]->pos, c->diags);
     if (!u)
         return false;
     size_t add = 1 + u->ev->nused;
@@ -332,23 +332,23 @@ static bool eval_use(EvalCtx *c, const Expr *e, Value *out)
 
 static bool eval_call(EvalCtx *c, const Expr *e, Value *out)
 {
-    if (e->callee_slot < 0 && strcmp(e->text, "use") == 0 && e->nargs == 1 &&
-        e->args[0]->kind == EXPR_STRING)
+    if (e->callee_slot < 0 && strcmp(e->text, "use") == 0 && e->call->nargs == 1 &&
+        e->call->args[0]->kind == EXPR_STRING)
         return eval_use(c, e, out);
-    size_t n = e->nargs, nk = e->nkw;
+    size_t n = e->call->nargs, nk = e->call->nkw;
     Value *args = arena_alloc(&c->doc->arena, (n + 1) * sizeof *args);
     Pos *apos = arena_alloc(&c->doc->arena, (n + 1) * sizeof *apos);
     Value *kw = arena_alloc(&c->doc->arena, (nk + 1) * sizeof *kw);
     bool ok = true;
     for (size_t i = 0; i < n; i++) {
-        ok = eval_expr(c, e->args[i], &args[i]) && ok;
-        apos[i] = e->args[i]->pos;
+        ok = eval_expr(c, e->call->args[i], &args[i]) && ok;
+        apos[i] = e->call->args[i]->pos;
     }
     for (size_t i = 0; i < nk; i++)
-        ok = eval_expr(c, e->kw[i], &kw[i]) && ok;
+        ok = eval_expr(c, e->call->kw[i], &kw[i]) && ok;
     if (!ok)
         return false;
-    CallArgs ca = {n, args, apos, nk, e->kw_names, kw, e->kw_pos, e->pos, e->text};
+    CallArgs ca = {n, args, apos, nk, e->call->kw_names, kw, e->call->kw_pos, e->pos, e->text};
 
     if (e->callee_slot >= 0) {
         const StmtResult *r = &c->ev->results[e->callee_slot];
@@ -492,19 +492,21 @@ const Value *eval_read(const Evaluated *ev, const StmtResult *row, int slot, Uni
     if (!ev || slot < 0 || (size_t)slot >= ev->doc->nstmts)
         return NULL;
     if (row)
-        for (size_t i = 0; i < row->nat_root; i++)
-            if (row->at_root[i].slot == slot) {
-                *shown = row->at_root[i].shown;
-                return &row->at_root[i].value;
+        for (size_t i = 0; i < row->sides->nat_root; i++)
+            if (row->sides->at_root[i].slot == slot) {
+                *shown = row->sides->at_root[i].shown;
+                return &row->sides->at_root[i].value;
             }
     const StmtResult *r = &ev->results[slot];
     if (r->state != RES_OK)
         return NULL;
-    *shown = r->shown;
+    *shown = *r->shown;
     return &r->value;
 }
 
 /* ---- statements --------------------------------------------------------- */
+
+const StmtSides eval_no_sides;
 
 static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
 {
@@ -517,6 +519,8 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
     const Method *const *methods = res->methods;
     size_t nmethods = res->nmethods;
     memset(res, 0, sizeof *res);
+    res->sides = &eval_no_sides;
+    res->shown = &unit_blank;
     res->warnings = warnings;
     res->nwarnings = nwarnings;
     if (s->parse_failed || s->kind == STMT_NOTE)
@@ -538,7 +542,7 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
             break;
         }
         if (s->has_as)
-            v = eval_as_restate(ev, v, &s->as_unit);
+            v = eval_as_restate(ev, v, s->as_unit);
         res->value = v;
         if (v.kind == VAL_NUMBER) {
             /* A plain reference to another name keeps that name's unit. */
@@ -548,7 +552,7 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
             if (!s->has_as && e->kind == EXPR_NAME && e->slot >= 0)
                 res->shown = ev->results[e->slot].shown;
             else
-                res->shown = eval_display_unit(ev, &v, s->has_as ? &s->as_unit : NULL);
+                res->shown = s->has_as ? s->as_unit : eval_shown_unit(ev, &v);
         }
         res->state = RES_OK;
         break;

@@ -15,8 +15,8 @@ const Unit *eval_written_unit(const Evaluated *ev, const Expr *e)
         return NULL;
     if (e->kind == EXPR_NUMBER && e->has_unit)
         return e->unit;
-    if (e->kind == EXPR_NAME && e->slot >= 0 && ev->results[e->slot].shown.text[0])
-        return &ev->results[e->slot].shown;
+    if (e->kind == EXPR_NAME && e->slot >= 0 && ev->results[e->slot].shown->text[0])
+        return ev->results[e->slot].shown;
     return NULL;
 }
 
@@ -70,14 +70,16 @@ void eval_check(Evaluated *ev, const Stmt *s, StmtResult *res, EvalCtx *c)
      * positive (a limit of zero or below, a gauge pressure below
      * atmospheric): otherwise there is no utilisation to report. */
     res->utilization = den > 0 && num >= 0 ? num / den : NAN;
-    res->lhs = l;
-    res->rhs = r;
+    StmtSides *sd = arena_alloc(&ev->doc->arena, sizeof *sd);
+    res->sides = sd;
+    sd->lhs = l;
+    sd->rhs = r;
     /* Both sides in one unit, so a reviewer compares like with like: the
      * unit the limit was written in (a literal's, or a name's display
      * unit), else the left side's, else the system's default. */
     const Unit *written = eval_written_unit(ev, s->rhs);
     if (!written)
         written = eval_written_unit(ev, s->lhs);
-    res->lhs_shown = res->rhs_shown = written ? *written : eval_display_unit(ev, &l, NULL);
+    sd->lhs_shown = sd->rhs_shown = written ? *written : eval_display_unit(ev, &l, NULL);
     res->state = RES_OK;
 }

@@ -39,6 +39,12 @@ Unit eval_display_unit(const Evaluated *ev, const Value *v, const Unit *as_unit)
     return display_default(v, ev->units);
 }
 
+const Unit *eval_shown_unit(const Evaluated *ev, const Value *v)
+{
+    Unit u = eval_display_unit(ev, v, NULL);
+    return unit_intern(&u);
+}
+
 /* `as UNIT` must fit the value: same dimension, and a point shown in a
  * point unit, a difference in a difference unit. Shared by statements and
  * inline {name as unit} values. */
@@ -99,7 +105,7 @@ bool eval_as_fits(EvalCtx *c, const Stmt *s, const Value *v)
 {
     if (!s->has_as)
         return true;
-    return eval_unit_fits(c->diags, c->ev->units, s->as_pos, s->as_text, &s->as_unit, v);
+    return eval_unit_fits(c->diags, c->ev->units, s->as_pos, s->as_text, s->as_unit, v);
 }
 
 /* Inline {name}, {name.field} and {name as unit} in prose: the field must

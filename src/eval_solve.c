@@ -75,10 +75,10 @@ static void expr_push_slots(const Expr *e, Vec *stack)
     if (e->kind == EXPR_CALL) {
         if (e->callee_slot >= 0)
             vec_push(stack, (void *)(intptr_t)(e->callee_slot + 1));
-        for (size_t i = 0; i < e->nargs; i++)
-            expr_push_slots(e->args[i], stack);
-        for (size_t i = 0; i < e->nkw; i++)
-            expr_push_slots(e->kw[i], stack);
+        for (size_t i = 0; i < e->call->nargs; i++)
+            expr_push_slots(e->call->args[i], stack);
+        for (size_t i = 0; i < e->call->nkw; i++)
+            expr_push_slots(e->call->kw[i], stack);
     }
     expr_push_slots(e->lhs, stack);
     expr_push_slots(e->rhs, stack);
@@ -135,14 +135,14 @@ static void collect_reads(const Expr *e, int **out, size_t *n, size_t *cap)
     }
     collect_reads(e->lhs, out, n, cap);
     collect_reads(e->rhs, out, n, cap);
-    for (size_t i = 0; i < e->nargs; i++)
-        collect_reads(e->args[i], out, n, cap);
-    for (size_t i = 0; i < e->nkw; i++)
-        collect_reads(e->kw[i], out, n, cap);
+    for (size_t i = 0; i < e->call->nargs; i++)
+        collect_reads(e->call->args[i], out, n, cap);
+    for (size_t i = 0; i < e->call->nkw; i++)
+        collect_reads(e->call->kw[i], out, n, cap);
 }
 
 /* Keep what the equation reads at the root (set there by the caller). */
-static void record_root_reads(Evaluated *ev, const Stmt *s, StmtResult *res)
+static void record_root_reads(Evaluated *ev, const Stmt *s, StmtSides *sd)
 {
     int *slots = NULL;
     size_t n = 0, cap = 0;
@@ -154,11 +154,11 @@ static void record_root_reads(Evaluated *ev, const Stmt *s, StmtResult *res)
         const StmtResult *r = &ev->results[slots[i]];
         if (r->state != RES_OK)
             continue;
-        rv[k++] = (ReadValue){slots[i], r->value, r->shown};
+        rv[k++] = (ReadValue){slots[i], r->value, *r->shown};
     }
     free(slots);
-    res->at_root = rv;
-    res->nat_root = k;
+    sd->at_root = rv;
+    sd->nat_root = k;
 }
 
 void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, DiagList *diags)
@@ -236,6 +236,8 @@ void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, Diag
      * bracketing method finds where the residual changes sign; if the sides
      * do not agree there (a pole or a jump, not a root), it is no root. */
     bool sign_change_only = false;
+    StmtSides *sd = arena_alloc(&ev->doc->arena, sizeof *sd);
+    res->sides = sd;
     /* the methods' values the row shows are those at the root, never at the
      * trial value the dimension check above used */
     cc->nuses = 0;
@@ -251,11 +253,11 @@ void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, Diag
         }
         diags->muted--;
         if (okr) {
-            record_root_reads(ev, s, res);
-            res->lhs = lr;
-            res->rhs = rr;
-            res->lhs_shown = eval_display_unit(ev, &lr, NULL);
-            res->rhs_shown = eval_display_unit(ev, &rr, NULL);
+            record_root_reads(ev, s, sd);
+            sd->lhs = lr;
+            sd->rhs = rr;
+            sd->lhs_shown = eval_display_unit(ev, &lr, NULL);
+            sd->rhs_shown = eval_display_unit(ev, &rr, NULL);
             double size = fmax(fabs(lr.q.si), fabs(rr.q.si));
             sign_change_only = fabs(lr.q.si - rr.q.si) > 1e-6 * size;
         }
@@ -264,14 +266,14 @@ void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, Diag
     var->value = trial;
     set_var(ev, s, trial.q.si, diags);
     diags->muted--;
-    res->solve = rep;
+    sd->solve = rep;
     if (rep.status == SOLVE_OK && sign_change_only) {
         char num[64], where[128], lv[96], rv[96];
-        num_sig(unit_from_si(rep.root, &var->shown, trial.q.temp == TEMP_NONE), 4, num, sizeof num);
-        bool plain = var->shown.text[0] == '\0' || strcmp(var->shown.text, "1") == 0;
-        snprintf(where, sizeof where, "%s%s%s", num, plain ? "" : " ", plain ? "" : var->shown.text);
-        format_si(ev, res->lhs.q.si, l.q.dim, lv, sizeof lv);
-        format_si(ev, res->rhs.q.si, l.q.dim, rv, sizeof rv);
+        num_sig(unit_from_si(rep.root, var->shown, trial.q.temp == TEMP_NONE), 4, num, sizeof num);
+        bool plain = var->shown->text[0] == '\0' || strcmp(var->shown->text, "1") == 0;
+        snprintf(where, sizeof where, "%s%s%s", num, plain ? "" : " ", plain ? "" : var->shown->text);
+        format_si(ev, sd->lhs.q.si, l.q.dim, lv, sizeof lv);
+        format_si(ev, sd->rhs.q.si, l.q.dim, rv, sizeof rv);
         diag_error(diags, s->lo ? s->lo->pos : s->var_pos,
                    "the equation changes sign near %s = %s but has no root there (left %s, right "
                    "%s): a pole or a jump in the bracket",
@@ -281,7 +283,7 @@ void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, Diag
     }
     if (rep.status != SOLVE_OK) {
         char a[128], b[128], fa[96], fb[96];
-        Unit vu = var->shown;
+        Unit vu = *var->shown;
         Value va = value_number(qty(rep.start_lo, trial.q.dim)), vb = value_number(qty(rep.start_hi, trial.q.dim));
         va.q.temp = vb.q.temp = trial.q.temp;
         va.q.pref = vb.q.pref = trial.q.pref;
@@ -325,7 +327,7 @@ void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, Diag
         return;
     }
     if (s->has_as)
-        v = eval_as_restate(ev, v, &s->as_unit);
+        v = eval_as_restate(ev, v, s->as_unit);
     res->value = v;
     res->shown = s->has_as ? s->as_unit : var->shown;
     res->state = RES_OK;

@@ -45,6 +45,10 @@ size_t lookalike_find_hidden(const char *s, size_t len, unsigned *cp)
 {
     const unsigned char *u = (const unsigned char *)s;
     for (size_t i = 0; i < len;) {
+        if (u[i] < 0x80) { /* no hidden character is ASCII */
+            i++;
+            continue;
+        }
         size_t k;
         unsigned c = decode(u + i, len - i, &k);
         if (hidden(c)) {

@@ -499,7 +499,7 @@ static void hover_name(const Evaluated *ev, const Stmt *s, StrBuf *out)
     const StmtResult *r = &ev->results[s->index];
     StrBuf f = {0}, v = {0}, val = {0};
     if (r->state == RES_OK)
-        render_value_text(ev, &r->value, &r->shown, &val);
+        render_value_text(ev, &r->value, r->shown, &val);
     sb_printf(out, "%s = %s", s->name, r->state == RES_OK ? sb_str(&val) : "(not evaluated)");
     if (s->description)
         sb_printf(out, "\n\n%s", s->description);
@@ -520,10 +520,10 @@ static void hover_name(const Evaluated *ev, const Stmt *s, StrBuf *out)
         sb_printf(out, "%s = solve %s where %s = %s\n", s->name, s->var, sb_str(&l), sb_str(&rr));
         if (r->state == RES_OK) {
             char res[64];
-            Value resid = value_number(qty(r->solve.residual, r->lhs.q.dim));
-            render_quantity(ev, &resid, &r->lhs_shown, res, sizeof res);
+            Value resid = value_number(qty(r->sides->solve.residual, r->sides->lhs.q.dim));
+            render_quantity(ev, &resid, &r->sides->lhs_shown, res, sizeof res);
             sb_printf(out, "  at %s = %s: residual %s after %d iterations\n", s->var, sb_str(&val), res,
-                      r->solve.iterations);
+                      r->sides->solve.iterations);
         }
         sb_free(&l);
         sb_free(&rr);
@@ -692,7 +692,7 @@ static void do_inlay_hints(Server *S, OpenDoc *od, json_t *params, JsonOut *w)
         StrBuf label = {0};
         if (s->kind == STMT_DEF || s->kind == STMT_SOLVE) {
             sb_puts(&label, "= ");
-            render_value_text(ev, &r->value, &r->shown, &label);
+            render_value_text(ev, &r->value, r->shown, &label);
         } else if (s->kind == STMT_CHECK && s->finding) {
             sb_puts(&label, r->holds ? "yes" : "no"); /* a finding's answer */
         } else if (s->kind == STMT_CHECK) {
@@ -890,7 +890,7 @@ static void add_names(Items *it, const OpenDoc *od)
         StrBuf v = {0};
         const StmtResult *r = &od->ev->results[i];
         if (r->state == RES_OK)
-            render_value_text(od->ev, &r->value, &r->shown, &v);
+            render_value_text(od->ev, &r->value, r->shown, &v);
         item_add(it, s->name, ITEM_VARIABLE, r->state == RES_OK ? sb_str(&v) : "not evaluated", s->description);
         sb_free(&v);
     }

@@ -51,6 +51,8 @@ static void expected(Parser *p, const char *what)
     fail(p, p->tok.pos, "%s", msg);
 }
 
+const ExprCall expr_no_call;
+
 static Expr *new_expr(Parser *p, ExprKind kind, Pos pos)
 {
     Expr *e = arena_alloc(p->arena, sizeof *e);
@@ -59,6 +61,7 @@ static Expr *new_expr(Parser *p, ExprKind kind, Pos pos)
     e->slot = SLOT_UNRESOLVED;
     e->callee_slot = -1;
     e->height = 1;
+    e->call = &expr_no_call;
     return e;
 }
 
@@ -74,12 +77,12 @@ static bool tree_grow(Parser *p, Expr *e)
         h = e->lhs->height;
     if (e->rhs && e->rhs->height > h)
         h = e->rhs->height;
-    for (size_t i = 0; i < e->nargs; i++)
-        if (e->args[i]->height > h)
-            h = e->args[i]->height;
-    for (size_t i = 0; i < e->nkw; i++)
-        if (e->kw[i]->height > h)
-            h = e->kw[i]->height;
+    for (size_t i = 0; i < e->call->nargs; i++)
+        if (e->call->args[i]->height > h)
+            h = e->call->args[i]->height;
+    for (size_t i = 0; i < e->call->nkw; i++)
+        if (e->call->kw[i]->height > h)
+            h = e->call->kw[i]->height;
     e->height = h + 1;
     if (e->height > PARSE_MAX_DEPTH) {
         char lim[16];
@@ -188,18 +191,20 @@ static void parse_args(Parser *p, Expr *call, Pos open)
     }
     if (!p->failed)
         advance(p);
-    call->nargs = args.len;
-    call->args = arena_alloc(p->arena, (args.len + 1) * sizeof *call->args);
+    ExprCall *c = arena_alloc(p->arena, sizeof *c);
+    call->call = c;
+    c->nargs = args.len;
+    c->args = arena_alloc(p->arena, (args.len + 1) * sizeof *c->args);
     for (size_t i = 0; i < args.len; i++)
-        call->args[i] = args.items[i];
-    call->nkw = kws.len;
-    call->kw = arena_alloc(p->arena, (kws.len + 1) * sizeof *call->kw);
-    call->kw_names = arena_alloc(p->arena, (kws.len + 1) * sizeof *call->kw_names);
-    call->kw_pos = arena_alloc(p->arena, (kws.len + 1) * sizeof *call->kw_pos);
+        c->args[i] = args.items[i];
+    c->nkw = kws.len;
+    c->kw = arena_alloc(p->arena, (kws.len + 1) * sizeof *c->kw);
+    c->kw_names = arena_alloc(p->arena, (kws.len + 1) * sizeof *c->kw_names);
+    c->kw_pos = arena_alloc(p->arena, (kws.len + 1) * sizeof *c->kw_pos);
     for (size_t i = 0; i < kws.len; i++) {
-        call->kw[i] = kws.items[i];
-        call->kw_names[i] = names.items[i];
-        call->kw_pos[i] = *(Pos *)kwpos.items[i];
+        c->kw[i] = kws.items[i];
+        c->kw_names[i] = names.items[i];
+        c->kw_pos[i] = *(Pos *)kwpos.items[i];
     }
     vec_free(&args);
     vec_free(&kws);
@@ -232,10 +237,13 @@ static Expr *parse_primary(Parser *p)
         if (t.unit) {
             e->text = arena_strndup(p->arena, t.text, (size_t)(t.unit + t.unit_len - t.text));
             e->has_unit = 1;
-            Unit *u = arena_alloc(p->arena, sizeof *u);
-            e->unit = u;
-            if (!resolve_unit(t.unit, t.unit_len, t.unit_pos, u, p->diags, t.text, t.len))
-                p->failed = 1;
+            e->unit = unit_shared(t.unit, t.unit_len);
+            if (!e->unit) { /* report why, into a unit of its own */
+                Unit *u = arena_alloc(p->arena, sizeof *u);
+                e->unit = u;
+                if (!resolve_unit(t.unit, t.unit_len, t.unit_pos, u, p->diags, t.text, t.len))
+                    p->failed = 1;
+            }
             p->unit_text = t.unit;
             p->unit_len = t.unit_len;
             p->unit_end = t.unit + t.unit_len;
@@ -461,7 +469,7 @@ static void parse_comment(Parser *p, Stmt *st, const char *c, size_t len, Pos po
     }
     st->description = n ? out : NULL;
     st->ncites = cites.len;
-    st->cites = arena_alloc(p->arena, (cites.len + 1) * sizeof *st->cites);
+    st->cites = cites.len ? arena_alloc(p->arena, cites.len * sizeof *st->cites) : NULL;
     for (size_t k = 0; k < cites.len; k++)
         st->cites[k] = *(Cite *)cites.items[k];
     vec_free(&cites);
@@ -496,7 +504,10 @@ static int parse_as(Parser *p, Stmt *st)
     st->has_as = 1;
     st->as_text = arena_strndup(p->arena, s + i, j - i);
     st->as_pos = upos;
-    if (!parse_unit(s + i, j - i, upos, &st->as_unit, p->diags)) {
+    st->as_unit = unit_shared(s + i, j - i);
+    if (!st->as_unit) { /* say why */
+        Unit bad;
+        parse_unit(s + i, j - i, upos, &bad, p->diags);
         p->failed = 1;
         return 0;
     }
@@ -645,14 +656,14 @@ Stmt *parse_statement(Arena *a, const char *line, size_t len, Pos start, DiagLis
         advance(&p);
         if (p.tok.kind == TOK_NAME) {
             st->kind = STMT_FIGURE;
-            Expr *call = parse_postfix(&p);
-            if (call && call->kind == EXPR_CALL) {
-                st->figure = call->text;
-                st->name_pos = call->pos;
-                st->args = call->args;
-                st->nargs = call->nargs;
-                if (call->nkw) {
-                    fail(&p, call->kw_pos[0], "%s", "a figure takes no keyword arguments");
+            Expr *fe = parse_postfix(&p);
+            if (fe && fe->kind == EXPR_CALL) {
+                st->figure = fe->text;
+                st->name_pos = fe->pos;
+                st->args = fe->call->args;
+                st->nargs = fe->call->nargs;
+                if (fe->call->nkw) {
+                    fail(&p, fe->call->kw_pos[0], "%s", "a figure takes no keyword arguments");
                 }
             } else if (!p.failed) {
                 fail(&p, fig.pos, "%s", "expected 'figure KIND(arguments)', e.g. figure hgl(riser)");

@@ -193,11 +193,11 @@ static int resolve_expr(Resolver *r, Expr *e)
             if (e != r->use_top)
                 diag_error(r->diags, e->pos, "use(...) binds another calc file and stands alone: "
                                              "NAME = use(\"file.calc.md\")");
-            else if (e->nargs != 1 || e->nkw != 0 || e->args[0]->kind != EXPR_STRING)
+            else if (e->call->nargs != 1 || e->call->nkw != 0 || e->call->args[0]->kind != EXPR_STRING)
                 diag_error(r->diags, e->pos, "use takes one file name in quotes: NAME = "
                                              "use(\"basis.calc.md\")");
-            else if (!e->args[0]->text[0])
-                diag_error(r->diags, e->args[0]->pos, "use: the file name is empty");
+            else if (!e->call->args[0]->text[0])
+                diag_error(r->diags, e->call->args[0]->pos, "use: the file name is empty");
             else
                 break;
             ok = 0;
@@ -218,10 +218,10 @@ static int resolve_expr(Resolver *r, Expr *e)
                 }
             }
         }
-        for (size_t i = 0; i < e->nargs; i++)
-            ok = resolve_expr(r, e->args[i]) && ok;
-        for (size_t i = 0; i < e->nkw; i++)
-            ok = resolve_expr(r, e->kw[i]) && ok;
+        for (size_t i = 0; i < e->call->nargs; i++)
+            ok = resolve_expr(r, e->call->args[i]) && ok;
+        for (size_t i = 0; i < e->call->nkw; i++)
+            ok = resolve_expr(r, e->call->kw[i]) && ok;
         break;
     }
     return ok;
@@ -241,8 +241,23 @@ static const char *script_name(unsigned cp)
 /* Names that print alike but are different names: one that mixes Latin and
  * Cyrillic letters, and two whose skeletons (look-alike letters replaced by
  * their Latin twins) are the same. Warnings at the later name. */
+static bool name_is_ascii(const char *s)
+{
+    for (; *s; s++)
+        if ((unsigned char)*s >= 0x80)
+            return false;
+    return true;
+}
+
 static void warn_lookalikes(Document *doc, DiagList *diags)
 {
+    /* Two different all-ASCII names never share a skeleton: only a calc
+     * with a name outside ASCII has anything to compare. */
+    bool any = false;
+    for (size_t i = 0; i < doc->nstmts && !any; i++)
+        any = doc->stmts[i]->name && !name_is_ascii(doc->stmts[i]->name);
+    if (!any)
+        return;
     StrMap skeletons = {0}; /* skeleton -> first statement with it */
     char **skel = xcalloc(doc->nstmts + 1, sizeof *skel);
     for (size_t i = 0; i < doc->nstmts; i++) {

@@ -19,10 +19,12 @@
 #include "units.h"
 
 #include <math.h>
+#include <stdint.h>
 #include <pthread.h>
 #include <stdio.h>
 #include <string.h>
 
+#include "arena.h"
 #include "strmap.h"
 #include "suggest.h"
 
@@ -770,6 +772,104 @@ UnitStatus unit_parse(const char *s, size_t len, Unit *out, size_t *bad_off, siz
     }
     *out = u;
     return UNIT_OK;
+}
+
+/* Units spelled in a calc are few and repeat on every line (`ft`, `psi`,
+ * `gal/min`), so a parsed spelling is kept for the life of the process and
+ * shared: a literal points at it instead of holding its own copy. The memo
+ * grows with the distinct spellings of the input, never with its length.
+ * A lock makes it safe for the two revisions `diff` evaluates at once. */
+static pthread_mutex_t memo_lock = PTHREAD_MUTEX_INITIALIZER;
+static StrMap memo_index;      /* spelling -> index into memo_units */
+static Unit **memo_units;
+static size_t memo_len, memo_cap;
+
+const Unit *unit_shared(const char *s, size_t len)
+{
+    const Unit *found = NULL;
+    pthread_mutex_lock(&memo_lock);
+    size_t k;
+    if (strmap_get_n(&memo_index, s, len, &k)) {
+        found = memo_units[k];
+    } else {
+        Unit u;
+        if (unit_parse(s, len, &u, NULL, NULL) == UNIT_OK) {
+            if (memo_len == memo_cap) {
+                memo_cap = memo_cap ? memo_cap * 2 : 64;
+                memo_units = xrealloc(memo_units, memo_cap * sizeof *memo_units);
+            }
+            /* the entry holds its key: one allocation, never freed */
+            Unit *e = xmalloc(sizeof *e + len + 1);
+            *e = u;
+            char *key = (char *)(e + 1);
+            memcpy(key, s, len);
+            key[len] = '\0';
+            memo_units[memo_len] = e;
+            strmap_add(&memo_index, key, memo_len, NULL);
+            memo_len++;
+            found = e;
+        }
+    }
+    pthread_mutex_unlock(&memo_lock);
+    return found;
+}
+
+/* The units results are shown in are fewer still (one per dimension and
+ * spelling), so a result points at one shared copy instead of holding its
+ * own 128 bytes. Interned by the whole unit, not only its spelling: the
+ * same text could in principle stand for two units. */
+static StrMap intern_index;    /* text -> first index into intern_units */
+static struct Interned {
+    Unit u;
+    size_t next;               /* next entry with the same text, or SIZE_MAX */
+} **intern_units;
+static size_t intern_len, intern_cap;
+
+static bool unit_same(const Unit *a, const Unit *b)
+{
+    if (a->factor != b->factor || a->offset != b->offset || a->temp != b->temp || a->pref != b->pref)
+        return false;
+    for (int i = 0; i < DIM_COUNT; i++)
+        if (a->dim.e[i] != b->dim.e[i])
+            return false;
+    return strcmp(a->text, b->text) == 0;
+}
+
+const Unit unit_blank = {0};
+
+const Unit *unit_intern(const Unit *u)
+{
+    if (unit_same(u, &unit_blank))
+        return &unit_blank;
+    const Unit *found = NULL;
+    pthread_mutex_lock(&memo_lock);
+    size_t k, last = SIZE_MAX;
+    if (strmap_get(&intern_index, u->text, &k))
+        for (; k != SIZE_MAX; last = k, k = intern_units[k]->next)
+            if (unit_same(&intern_units[k]->u, u)) {
+                found = &intern_units[k]->u;
+                break;
+            }
+    if (!found) {
+        if (intern_len == intern_cap) {
+            intern_cap = intern_cap ? intern_cap * 2 : 64;
+            intern_units = xrealloc(intern_units, intern_cap * sizeof *intern_units);
+        }
+        struct Interned *e = xmalloc(sizeof *e);
+        e->u = *u;
+        memset(e->u.text, 0, sizeof e->u.text);
+        memcpy(e->u.text, u->text, strnlen(u->text, sizeof u->text - 1));
+        e->next = SIZE_MAX;
+        intern_units[intern_len] = e;
+        if (last != SIZE_MAX)
+            intern_units[last]->next = intern_len;
+        else
+            strmap_add(&intern_index, e->u.text, intern_len, NULL);
+        intern_len++;
+        found = &e->u;
+    }
+    pthread_mutex_unlock(&memo_lock);
+    return found;
 }
 
 /* ---- converting -------------------------------------------------------- */

@@ -142,9 +142,9 @@ static void bind_record(UsedFile *u)
         if (!s->name || r->state != RES_OK)
             continue;
         Value v = r->value;
-        if (v.kind == VAL_NUMBER && r->shown.text[0]) {
-            v.hint[UNITS_US] = r->shown.text;
-            v.hint[UNITS_SI] = r->shown.text;
+        if (v.kind == VAL_NUMBER && r->shown->text[0]) {
+            v.hint[UNITS_US] = r->shown->text;
+            v.hint[UNITS_SI] = r->shown->text;
         }
         record_set(rec, k++, s->name, v);
     }

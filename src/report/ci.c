@@ -73,9 +73,9 @@ void render_check_verdict(const Evaluated *ev, size_t stmt, StrBuf *out, bool *f
         return;
     }
     sb_puts(out, ": ");
-    render_value_text(ev, &r->lhs, &r->lhs_shown, out);
+    render_value_text(ev, &r->sides->lhs, &r->sides->lhs_shown, out);
     sb_printf(out, " %s ", op);
-    render_value_text(ev, &r->rhs, &r->rhs_shown, out);
+    render_value_text(ev, &r->sides->rhs, &r->sides->rhs_shown, out);
     if (s->finding) { /* an answer, never a failure */
         sb_printf(out, ": %s (finding)", r->holds ? "yes" : "no");
         return;

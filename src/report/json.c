@@ -377,7 +377,7 @@ static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, co
 {
     bool open;
     if (r->state == RES_OK) {
-        open = value_open(w, s->name, ev, &r->value, &r->shown, row->result.number ? &row->result : NULL);
+        open = value_open(w, s->name, ev, &r->value, r->shown, row->result.number ? &row->result : NULL);
     } else {
         json_out_begin_object(w, s->name);
         json_out_string(w, "kind", "not evaluated");
@@ -421,8 +421,8 @@ static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, co
     if (r->state == RES_OK && r->table)
         table_write(w, ev, r->table);
     if (s->kind == STMT_SOLVE && r->state == RES_OK) {
-        json_out_real(w, "residual", r->solve.residual);
-        json_out_int(w, "iterations", r->solve.iterations);
+        json_out_real(w, "residual", r->sides->solve.residual);
+        json_out_int(w, "iterations", r->sides->solve.iterations);
     }
     if (s->kind == STMT_DEF || s->kind == STMT_SOLVE)
         row_texts_write(w, row);
@@ -436,10 +436,10 @@ static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, co
 static void sides_write(JsonOut *w, const StmtResult *r, const ModelCheck *c)
 {
     json_out_begin_object(w, "lhs");
-    number_members(w, &r->lhs, &c->lhs, false);
+    number_members(w, &r->sides->lhs, &c->lhs, false);
     json_out_end_object(w);
     json_out_begin_object(w, "rhs");
-    number_members(w, &r->rhs, &c->rhs, false);
+    number_members(w, &r->sides->rhs, &c->rhs, false);
     json_out_end_object(w);
 }
 

@@ -532,10 +532,10 @@ static const char *FUNC_PRINT[][2] = {
 static MathBox *call_box(const MathEnv *env, const Expr *e, double size, bool sub)
 {
     const char *name = e->text ? e->text : "?";
-    if (strcmp(name, "sqrt") == 0 && e->nargs == 1)
-        return mbox_root(env, expr_box(env, strip(e->args[0]), size, sub, CTX_TOP), size);
-    if (strcmp(name, "abs") == 0 && e->nargs == 1) {
-        MathBox *in = expr_box(env, strip(e->args[0]), size, sub, CTX_TOP);
+    if (strcmp(name, "sqrt") == 0 && e->call->nargs == 1)
+        return mbox_root(env, expr_box(env, strip(e->call->args[0]), size, sub, CTX_TOP), size);
+    if (strcmp(name, "abs") == 0 && e->call->nargs == 1) {
+        MathBox *in = expr_box(env, strip(e->call->args[0]), size, sub, CTX_TOP);
         return mbox_fence(env, in, size, "|", "|");
     }
     MathBox *head;
@@ -552,20 +552,20 @@ static MathBox *call_box(const MathEnv *env, const Expr *e, double size, bool su
         else
             head = mbox_text(env, FONT_SERIF, size, print ? print : name);
     }
-    size_t n = e->nargs + e->nkw;
+    size_t n = e->call->nargs + e->call->nkw;
     MathBox **k = arena_alloc(env->arena, (2 * n + 1) * sizeof *k);
     size_t m = 0;
-    for (size_t i = 0; i < e->nargs; i++) {
+    for (size_t i = 0; i < e->call->nargs; i++) {
         if (m)
             k[m++] = mbox_text(env, FONT_SERIF, size, ", ");
-        k[m++] = expr_box(env, e->args[i], size, sub, CTX_TOP);
+        k[m++] = expr_box(env, e->call->args[i], size, sub, CTX_TOP);
     }
-    for (size_t i = 0; i < e->nkw; i++) {
+    for (size_t i = 0; i < e->call->nkw; i++) {
         if (m)
             k[m++] = mbox_text(env, FONT_SERIF, size, ", ");
-        k[m++] = hl3(env, mbox_text(env, FONT_SERIF, size, e->kw_names[i]),
+        k[m++] = hl3(env, mbox_text(env, FONT_SERIF, size, e->call->kw_names[i]),
                      mbox_text(env, FONT_SERIF, size, " = "),
-                     expr_box(env, e->kw[i], size, sub, CTX_TOP));
+                     expr_box(env, e->call->kw[i], size, sub, CTX_TOP));
     }
     MathBox *args = m ? mbox_hlist(env, k, m) : mbox_space(env, 0.1 * size);
     return hl3(env, head, mbox_space(env, 0.05 * size), paren(env, args, size));
@@ -787,7 +787,7 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, const ModelRow *mr, doubl
         if (mr->show_substituted)
             sum_pieces(env, row, "=", st->expr, size, true);
         if (mr->show_result)
-            row_add(row, rel(env, "=", mbox_quantity(env, &r->value, &r->shown, size, true), size),
+            row_add(row, rel(env, "=", mbox_quantity(env, &r->value, r->shown, size, true), size),
                     false);
         break;
     }
@@ -804,11 +804,11 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, const ModelRow *mr, doubl
             row_add(row, mbox_expr(&at, st->lhs, size, true), true);
             row_add(row, rel(env, "=", mbox_expr(&at, st->rhs, size, true), size), false);
         }
-        row_add(row, mbox_quantity(env, &r->lhs, &r->lhs_shown, size, true), true);
-        row_add(row, rel(env, "=", mbox_quantity(env, &r->rhs, &r->lhs_shown, size, true), size),
+        row_add(row, mbox_quantity(env, &r->sides->lhs, &r->sides->lhs_shown, size, true), true);
+        row_add(row, rel(env, "=", mbox_quantity(env, &r->sides->rhs, &r->sides->lhs_shown, size, true), size),
                 false);
         row_add(row, mbox_symbol(env, st->name, size), true);
-        row_add(row, rel(env, "=", mbox_quantity(env, &r->value, &r->shown, size, true), size),
+        row_add(row, rel(env, "=", mbox_quantity(env, &r->value, r->shown, size, true), size),
                 false);
         break;
     }
@@ -823,8 +823,8 @@ void mbox_stmt_row(const MathEnv *env, const Stmt *st, const ModelRow *mr, doubl
             row_add(row, mbox_expr(env, st->lhs, size, true), true);
             row_add(row, rel(env, op, mbox_expr(env, st->rhs, size, true), size), false);
         }
-        row_add(row, mbox_quantity(env, &r->lhs, &r->lhs_shown, size, true), true);
-        row_add(row, rel(env, op, mbox_quantity(env, &r->rhs, &r->rhs_shown, size, true), size),
+        row_add(row, mbox_quantity(env, &r->sides->lhs, &r->sides->lhs_shown, size, true), true);
+        row_add(row, rel(env, op, mbox_quantity(env, &r->sides->rhs, &r->sides->rhs_shown, size, true), size),
                 false);
         break;
     }

@@ -63,8 +63,8 @@ static bool is_input(const Stmt *s, const StmtResult *r)
         return true;
     if (e->kind != EXPR_NUMBER || s->has_as)
         return false;
-    bool unitless = r->shown.text[0] == '\0' || strcmp(r->shown.text, "1") == 0;
-    return e->has_unit ? strcmp(e->unit->text, r->shown.text) == 0 : unitless;
+    bool unitless = r->shown->text[0] == '\0' || strcmp(r->shown->text, "1") == 0;
+    return e->has_unit ? strcmp(e->unit->text, r->shown->text) == 0 : unitless;
 }
 
 static void row_def(const Evaluated *ev, const Stmt *s, const StmtResult *r, ModelRow *row, Arena *a)
@@ -83,7 +83,7 @@ static void row_def(const Evaluated *ev, const Stmt *s, const StmtResult *r, Mod
             row->show_substituted = true;
         }
     }
-    row->result = report_model_value(ev, &r->value, &r->shown, a);
+    row->result = report_model_value(ev, &r->value, r->shown, a);
     row->show_result = r->value.kind != VAL_RECORD && !is_input(s, r);
     /* an input is printed as written: that is its text */
     if (!row->show_result && row->result.number)
@@ -102,7 +102,7 @@ static void row_solve(const Evaluated *ev, const Stmt *s, const StmtResult *r, M
     }
     if (!row->evaluated)
         return;
-    row->result = report_model_value(ev, &r->value, &r->shown, a);
+    row->result = report_model_value(ev, &r->value, r->shown, a);
     row->show_result = true;
     if (!(expr_is_simple(s->lhs) && expr_is_simple(s->rhs))) {
         row->lhs_substituted = expr_text(ev, r, s->lhs, true, a);
@@ -110,16 +110,16 @@ static void row_solve(const Evaluated *ev, const Stmt *s, const StmtResult *r, M
         row->substituted = arena_printf(a, "%s = %s", row->lhs_substituted, row->rhs_substituted);
         row->show_substituted = true;
     }
-    row->lhs_at_root = report_model_value(ev, &r->lhs, &r->lhs_shown, a);
-    row->rhs_at_root = report_model_value(ev, &r->rhs, &r->lhs_shown, a);
+    row->lhs_at_root = report_model_value(ev, &r->sides->lhs, &r->sides->lhs_shown, a);
+    row->rhs_at_root = report_model_value(ev, &r->sides->rhs, &r->sides->lhs_shown, a);
     /* the residual as a number in the left side's unit; render_quantity's
      * form, so a pure number carries no unit word */
-    Value resid = value_number(qty(r->solve.residual, r->lhs.q.dim));
+    Value resid = value_number(qty(r->sides->solve.residual, r->sides->lhs.q.dim));
     char res[96];
-    render_quantity(ev, &resid, &r->lhs_shown, res, sizeof res);
-    row->residual = report_model_value(ev, &resid, &r->lhs_shown, a);
+    render_quantity(ev, &resid, &r->sides->lhs_shown, res, sizeof res);
+    row->residual = report_model_value(ev, &resid, &r->sides->lhs_shown, a);
     row->residual.text = arena_strdup(a, res);
-    row->iterations = r->solve.iterations;
+    row->iterations = r->sides->solve.iterations;
 }
 
 static void row_check(const Evaluated *ev, const Stmt *s, const StmtResult *r, ModelRow *row, Arena *a)
@@ -143,8 +143,8 @@ static void row_check(const Evaluated *ev, const Stmt *s, const StmtResult *r, M
         row->show_substituted = true;
     }
     c->holds = r->holds;
-    c->lhs = report_model_value(ev, &r->lhs, &r->lhs_shown, a);
-    c->rhs = report_model_value(ev, &r->rhs, &r->rhs_shown, a);
+    c->lhs = report_model_value(ev, &r->sides->lhs, &r->sides->lhs_shown, a);
+    c->rhs = report_model_value(ev, &r->sides->rhs, &r->sides->rhs_shown, a);
     if (s->finding) {
         c->verdict = r->holds ? "yes" : "no";
         return;
@@ -174,11 +174,11 @@ static bool use_covers(const MethodUse *u, const Expr *e)
                 return true;
         return false;
     case EXPR_CALL:
-        for (size_t i = 0; i < e->nargs; i++)
-            if (!use_covers(u, e->args[i]))
+        for (size_t i = 0; i < e->call->nargs; i++)
+            if (!use_covers(u, e->call->args[i]))
                 return false;
-        for (size_t i = 0; i < e->nkw; i++)
-            if (!use_covers(u, e->kw[i]))
+        for (size_t i = 0; i < e->call->nkw; i++)
+            if (!use_covers(u, e->call->kw[i]))
                 return false;
         return true;
     case EXPR_FIELD:
@@ -304,7 +304,7 @@ void report_model_row(const ReportModel *m, size_t i, ModelRow *row, Arena *a)
         break;
     default:
         if (s->name && row->evaluated)
-            row->result = report_model_value(ev, &r->value, &r->shown, a);
+            row->result = report_model_value(ev, &r->value, r->shown, a);
         row->symbol = s->name;
         break;
     }

@@ -154,7 +154,7 @@ static void runs_inlines(Pdf *P, Runs *r, const Inline *in, Style st, double siz
                 if (v)
                     u = in->has_as ? in->as_unit
                         : in->field ? eval_display_unit(ev, v, NULL)
-                                    : res->shown;
+                                    : *res->shown;
             }
             Atom a = {0};
             a.box = v ? mbox_quantity(&P->env, v, &u, size, st.bold)
@@ -623,14 +623,14 @@ static double fn_stmt(Pdf *P, const Item *it, double top)
 
     /* how a solve converged */
     if (st->kind == STMT_SOLVE && r->state == RES_OK) {
-        const SolveReport *sr = &r->solve;
+        const SolveReport *sr = &r->sides->solve;
         char res[48], lo[48], hi[48];
-        Unit vu = r->shown;
-        num_typeset(unit_from_si(sr->residual, &r->lhs_shown, true), 3, res, sizeof res);
+        Unit vu = *r->shown;
+        num_typeset(unit_from_si(sr->residual, &r->sides->lhs_shown, true), 3, res, sizeof res);
         num_typeset(unit_from_si(sr->start_lo, &vu, false), 4, lo, sizeof lo);
         num_typeset(unit_from_si(sr->start_hi, &vu, false), 4, hi, sizeof hi);
         char ut[64];
-        mbox_unit_text(r->lhs_shown.text, ut, sizeof ut);
+        mbox_unit_text(r->sides->lhs_shown.text, ut, sizeof ut);
         char vt[64];
         mbox_unit_text(vu.text, vt, sizeof vt);
         char *t = arena_printf(&P->arena,

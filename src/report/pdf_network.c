@@ -546,8 +546,8 @@ static bool reads_p_min(const Expr *e, const char *name)
         return true;
     if (reads_p_min(e->lhs, name) || reads_p_min(e->rhs, name))
         return true;
-    for (size_t i = 0; i < e->nargs; i++)
-        if (reads_p_min(e->args[i], name))
+    for (size_t i = 0; i < e->call->nargs; i++)
+        if (reads_p_min(e->call->args[i], name))
             return true;
     return false;
 }

@@ -418,10 +418,10 @@ static double fn_summary_row(Pdf *P, const Item *it, double top)
     double size = 8.5;
     MathBox *sides;
     if (ok) {
-        MathBox *k[3] = {mbox_quantity(&P->env, &r->lhs, &r->lhs_shown, size, false),
+        MathBox *k[3] = {mbox_quantity(&P->env, &r->sides->lhs, &r->sides->lhs_shown, size, false),
                          mbox_text(&P->env, FONT_SERIF, size,
                                    arena_printf(&P->arena, "  %s  ", cmp_op_text(st->cmp, true))),
-                         mbox_quantity(&P->env, &r->rhs, &r->rhs_shown, size, false)};
+                         mbox_quantity(&P->env, &r->sides->rhs, &r->sides->rhs_shown, size, false)};
         sides = mbox_hlist(&P->env, k, 3);
     } else {
         sides = mbox_text(&P->env, FONT_SERIF_ITALIC, size, "not evaluated");
@@ -837,7 +837,7 @@ static double fn_crit_row(Pdf *P, const Item *it, double top)
     k[nk++] = mbox_expr(&P->env, st->rhs, size, false);
     if (r->state == RES_OK && !(st->rhs->kind == EXPR_NUMBER)) {
         MathBox *v[2] = {mbox_text(&P->env, FONT_SERIF, size, "  =  "),
-                         mbox_quantity(&P->env, &r->rhs, &r->rhs_shown, size, false)};
+                         mbox_quantity(&P->env, &r->sides->rhs, &r->sides->rhs_shown, size, false)};
         k[nk++] = mbox_hlist(&P->env, v, 2);
     }
     MathBox *lim = mbox_hlist(&P->env, k, nk);

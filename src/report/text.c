@@ -215,16 +215,16 @@ static void put_expr(const Evaluated *ev, const StmtResult *row, const Expr *e, 
     case EXPR_CALL:
         sb_puts(out, e->text);
         sb_putc(out, '(');
-        for (size_t i = 0; i < e->nargs; i++) {
+        for (size_t i = 0; i < e->call->nargs; i++) {
             if (i)
                 sb_puts(out, ", ");
-            put_expr(ev, row, e->args[i], sub, out, PREC_TOP);
+            put_expr(ev, row, e->call->args[i], sub, out, PREC_TOP);
         }
-        for (size_t i = 0; i < e->nkw; i++) {
-            if (i || e->nargs)
+        for (size_t i = 0; i < e->call->nkw; i++) {
+            if (i || e->call->nargs)
                 sb_puts(out, ", ");
-            sb_printf(out, "%s=", e->kw_names[i]);
-            put_expr(ev, row, e->kw[i], sub, out, PREC_TOP);
+            sb_printf(out, "%s=", e->call->kw_names[i]);
+            put_expr(ev, row, e->call->kw[i], sub, out, PREC_TOP);
         }
         sb_putc(out, ')');
         break;
@@ -687,7 +687,7 @@ static void put_inlines_plain(const Evaluated *ev, const Inline *in, StrBuf *out
                 if (in->field && v->kind == VAL_RECORD)
                     v = record_get(v->rec, in->field);
                 if (v) {
-                    Unit u = in->has_as ? in->as_unit : (in->field ? eval_display_unit(ev, v, NULL) : ev->results[in->slot].shown);
+                    Unit u = in->has_as ? in->as_unit : (in->field ? eval_display_unit(ev, v, NULL) : *ev->results[in->slot].shown);
                     render_value_text(ev, v, &u, out);
                     break;
                 }

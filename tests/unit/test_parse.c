@@ -55,15 +55,15 @@ static void shape(const Expr *e, char *buf, size_t n)
         break;
     case EXPR_CALL:
         snprintf(buf + len, n - len, "(%s", e->text);
-        for (size_t i = 0; i < e->nargs; i++) {
+        for (size_t i = 0; i < e->call->nargs; i++) {
             len = strlen(buf);
             snprintf(buf + len, n - len, " ");
-            shape(e->args[i], buf, n);
+            shape(e->call->args[i], buf, n);
         }
-        for (size_t i = 0; i < e->nkw; i++) {
+        for (size_t i = 0; i < e->call->nkw; i++) {
             len = strlen(buf);
-            snprintf(buf + len, n - len, " %s=", e->kw_names[i]);
-            shape(e->kw[i], buf, n);
+            snprintf(buf + len, n - len, " %s=", e->call->kw_names[i]);
+            shape(e->call->kw[i], buf, n);
         }
         break;
     }
