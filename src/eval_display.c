@@ -26,14 +26,13 @@ Unit eval_display_unit(const Evaluated *ev, const Value *v, const Unit *as_unit)
         return unit_default_ref(v->q.dim, v->q.temp, v->q.pref, ev->units);
     const char *hint = v->hint[ev->units];
     if (hint) {
-        Unit u;
-        size_t bo, bl;
-        if (unit_parse(hint, strlen(hint), &u, &bo, &bl) == UNIT_OK && dim_eq(u.dim, v->q.dim)) {
-            bool difference = v->q.temp == TEMP_NONE || u.temp == TEMP_NONE;
-            if (v->q.temp == TEMP_NONE && u.temp != TEMP_NONE)
+        const Unit *u = unit_shared(hint, strlen(hint)); /* parsed once, not per value shown */
+        if (u && dim_eq(u->dim, v->q.dim)) {
+            bool difference = v->q.temp == TEMP_NONE || u->temp == TEMP_NONE;
+            if (v->q.temp == TEMP_NONE && u->temp != TEMP_NONE)
                 return display_default(v, ev->units);
-            if (!isfinite(v->q.si) || isfinite(unit_from_si(v->q.si, &u, difference)))
-                return u;
+            if (!isfinite(v->q.si) || isfinite(unit_from_si(v->q.si, u, difference)))
+                return *u;
         }
     }
     return display_default(v, ev->units);

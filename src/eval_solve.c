@@ -86,20 +86,23 @@ static void expr_push_slots(const Expr *e, Vec *stack)
 
 /* Does the equation read `var` directly or through the statements it reads?
  * Iterative, over each statement once: a chain of 100,000 statements is no
- * deeper than one. */
+ * deeper than one. A statement reads only statements above it, so only the
+ * slots between `var` and the solve can lead to `var`: the marks cover
+ * those, not the whole calc (a calc of many solves was quadratic). */
 static bool equation_reads(const Document *doc, const Stmt *s, int var)
 {
     Vec stack = {0};
     expr_push_slots(s->lhs, &stack);
     expr_push_slots(s->rhs, &stack);
-    unsigned char *seen = xcalloc(doc->nstmts + 1, 1);
+    int hi = s->index < (int)doc->nstmts ? s->index : (int)doc->nstmts - 1;
+    unsigned char *seen = xcalloc(hi > var ? (size_t)(hi - var) + 1 : 1, 1);
     bool found = false;
     while (stack.len > 0 && !found) {
         int slot = (int)(intptr_t)stack.items[--stack.len] - 1;
         if (slot == var) {
             found = true;
-        } else if (slot >= 0 && (size_t)slot < doc->nstmts && !seen[slot]) {
-            seen[slot] = 1;
+        } else if (slot > var && slot <= hi && !seen[slot - var]) {
+            seen[slot - var] = 1;
             const Stmt *t = doc->stmts[slot];
             for (size_t k = 0; k < t->ndeps; k++)
                 vec_push(&stack, (void *)(intptr_t)(t->deps[k] + 1));

@@ -26,9 +26,11 @@ const NamedConstant lexicon_constants[] = {
     {NULL, 0, 0, NULL, NULL, NULL, NULL},
 };
 
+/* word is s[0..len): compared in place, stopping at the first difference
+ * (the lexer asks this of every name it reads) */
 static bool spelled(const char *word, const char *s, size_t len)
 {
-    return strlen(word) == len && memcmp(word, s, len) == 0;
+    return len > 0 && word[0] == s[0] && strncmp(word, s, len) == 0 && word[len] == '\0';
 }
 
 const Keyword *lexicon_keyword(const char *s, size_t len, unsigned roles)

@@ -109,6 +109,11 @@ bool source_check_text(const char *text, size_t len, const char *display, DiagLi
     /* A byte-order mark at the start is allowed and ignored by later stages. */
     while (i < len) {
         unsigned char c = s[i];
+        if (c >= 0x20 && c < 0x7F && col <= SOURCE_MAX_LINE) { /* printable ASCII: most of a calc */
+            i++;
+            col++;
+            continue;
+        }
         if (c == '\n') {
             line++;
             col = 1;
@@ -165,14 +170,13 @@ void source_digest(const char *text, size_t len, char out[65])
 size_t *source_line_index(Arena *a, const char *text, size_t len, size_t *nlines)
 {
     size_t n = 1;
-    for (size_t i = 0; i < len; i++)
-        n += text[i] == '\n';
+    for (const char *p = text, *end = text + len; len && (p = memchr(p, '\n', (size_t)(end - p))) != NULL; p++)
+        n++;
     size_t *start = arena_alloc(a, n * sizeof *start);
     size_t k = 0;
     start[k++] = 0;
-    for (size_t i = 0; i < len; i++)
-        if (text[i] == '\n')
-            start[k++] = i + 1;
+    for (const char *p = text, *end = text + len; len && (p = memchr(p, '\n', (size_t)(end - p))) != NULL; p++)
+        start[k++] = (size_t)(p - text) + 1;
     *nlines = k;
     return start;
 }

@@ -914,9 +914,10 @@ static const struct {
 
 static Unit unit_of(const char *text, Dim d)
 {
+    const Unit *parsed = unit_shared(text, strlen(text)); /* parsed once, not per value shown */
+    if (parsed && dim_eq(parsed->dim, d))
+        return *parsed;
     Unit u;
-    if (unit_parse(text, strlen(text), &u, NULL, NULL) == UNIT_OK && dim_eq(u.dim, d))
-        return u;
     /* Unreachable with the tables above (the tests parse every entry), but
      * never return garbage: fall back to coherent SI. */
     u = (Unit){1, 0, d, TEMP_NONE, PRES_PLAIN, ""};
