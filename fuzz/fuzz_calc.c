@@ -10,6 +10,7 @@
 #include <stdlib.h>
 
 #include "doc.h"
+#include "load.h"
 #include "source.h"
 
 int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size);

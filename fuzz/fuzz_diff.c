@@ -14,6 +14,7 @@
 #include "diff.h"
 #include "doc.h"
 #include "eval.h"
+#include "load.h"
 #include "source.h"
 
 int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size);

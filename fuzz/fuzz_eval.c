@@ -11,6 +11,7 @@
 
 #include "doc.h"
 #include "eval.h"
+#include "load.h"
 #include "render.h"
 #include "source.h"
 

@@ -3,7 +3,7 @@
  * source -> front matter -> markdown (blocks of prose, raw fences) ->
  * fences (lex, parse, tables: statements with expression trees, sources,
  * case tables) -> resolve (names to slots), chained by load.c (doc_load,
- * doc_from_text below); doc.c holds the tree's small accessors and
+ * doc_from_text in load.h); doc.c holds the tree's small accessors and
  * resolve.c doc_lookup's name table. Everything hangs off one
  * Document and lives in its Arena; doc_free() releases it all. The evaluator
  * adds results in a separate Evaluated (eval.h) so this tree stays what the
@@ -384,14 +384,8 @@ typedef struct Document {
     struct UseSet *own_uses; /* the used files of eval_document() without a shared set */
 } Document;
 
-/* Read a whole calc file (or standard input for "-") into a Document: front
- * matter, Markdown, calc statements, sources, name resolution. Problems go to
- * `diags`; the document is returned even when it has errors, so every error
- * of a run is found. NULL only when the file cannot be read (an I/O error,
- * reported in `diags` without a line). */
-Document *doc_load(const char *path, DiagList *diags);
-/* The same for text already in memory (the tests, the diff of git revisions). */
-Document *doc_from_text(const char *display_name, const char *text, size_t len, DiagList *diags);
+/* Release a document and everything in its arena (doc_load and
+ * doc_from_text in load.h make one). */
 void doc_free(Document *doc);
 
 /* A comparison as text: "<=" (or "≤" when typeset). */

@@ -6,7 +6,7 @@
  * cases tables: fences.c) -> resolution (resolve.c). Each stage reads what
  * the one before it left in the Document and writes its own part; none
  * calls back into another. */
-#include "doc.h"
+#include "load.h"
 
 #include <stdlib.h>
 #include <string.h>

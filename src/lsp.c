@@ -31,6 +31,7 @@
 #include "eval.h"
 #include "lexicon.h"
 #include "library.h"
+#include "load.h"
 #include "lsp.h"
 #include "methods/fittings.h"
 #include "methods/pipes.h"

@@ -21,6 +21,7 @@
 #include "diff.h"
 #include "doc.h"
 #include "eval.h"
+#include "load.h"
 #include "lsp.h"
 #include "numfmt.h"
 #include "outfile.h"

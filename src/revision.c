@@ -19,6 +19,7 @@
 #include <sys/wait.h>
 #include <unistd.h>
 
+#include "load.h"
 #include "source.h"
 
 enum { ERR_KEEP = 2048 };

@@ -17,6 +17,7 @@
 #include <string.h>
 #include <sys/stat.h>
 
+#include "load.h"
 #include "revision.h"
 
 UseSet *use_set_new(void)

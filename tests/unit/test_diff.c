@@ -15,6 +15,7 @@
 #include <string.h>
 
 #include "diff.h"
+#include "load.h"
 
 typedef struct Side {
     DiagList dl;

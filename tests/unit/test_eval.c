@@ -16,6 +16,7 @@
 #include <string.h>
 
 #include "eval.h"
+#include "load.h"
 
 static DiagList dl;
 static Document *doc;

@@ -17,6 +17,7 @@
 #include <cmocka.h>
 
 #include "eval.h"
+#include "load.h"
 #include "mathbox.h"
 #include "report_model.h"
 

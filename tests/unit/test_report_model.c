@@ -17,6 +17,7 @@
 #include <string.h>
 
 #include "eval.h"
+#include "load.h"
 #include "render.h"
 #include "report_model.h"
 
