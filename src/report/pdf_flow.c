@@ -114,44 +114,18 @@ static PathLayout path_layout(Pdf *P, const PathCols *c, const PathResult *pr)
 /* The three header rows; returns their height. */
 static double path_header(Pdf *P, const PathCols *c, const PathLayout *L, double top)
 {
-    double h_word = 15, h_sym = 13, h_unit = 10, h = h_word + h_sym + h_unit;
-    double x0 = L->x[0], x1 = L->x[c->n];
-    if (P->page)
-        pdf_fill(P, x0, top - h, x1 - x0, h, SHADE);
+    const char *unit[PATH_COLUMNS_MAX];
+    char ut[PATH_COLUMNS_MAX][48];
     for (int i = 0; i < c->n; i++) {
-        double a = L->x[i], w = L->x[i + 1] - a;
-        /* the word, one or two centred lines */
-        const char *word = c->word[i];
-        const char *sp = strchr(word, ' ');
-        char l1[40], l2[40] = "";
-        if (sp && pdf_width(P, FONT_SANS, PT_WORD, word) > w - 3) {
-            snprintf(l1, sizeof l1, "%.*s", (int)(sp - word), word);
-            snprintf(l2, sizeof l2, "%s", sp + 1);
-        } else {
-            snprintf(l1, sizeof l1, "%s", word);
+        unit[i] = NULL;
+        if (c->has_unit[i]) {
+            mbox_unit_text(c->unit[i].text, ut[i], sizeof ut[i]);
+            unit[i] = ut[i];
+        } else if (c->map[i] == PC_LOAD) {
+            unit[i] = "wsfu";
         }
-        double w1 = pdf_width(P, FONT_SANS, PT_WORD, l1), w2 = pdf_width(P, FONT_SANS, PT_WORD, l2);
-        pdf_text_color(P, FONT_SANS, PT_WORD, a + (w - w1) / 2, top - (l2[0] ? 6.2 : 9.5), l1, GREY);
-        if (l2[0])
-            pdf_text_color(P, FONT_SANS, PT_WORD, a + (w - w2) / 2, top - 12.6, l2, GREY);
-        if (c->symbol[i][0]) {
-            MathBox *b = mbox_symbol(&P->env, c->symbol[i], 8.6);
-            if (P->page)
-                mbox_draw(b, &P->painter, a + (w - b->w) / 2, top - h_word - 9.2);
-        }
-        if (c->has_unit[i] || c->map[i] == PC_LOAD) {
-            char ut[48] = "wsfu";
-            if (c->has_unit[i])
-                mbox_unit_text(c->unit[i].text, ut, sizeof ut);
-            double uw = pdf_width(P, FONT_SANS, 6.4, ut);
-            pdf_text_color(P, FONT_SANS, 6.4, a + (w - uw) / 2, top - h + 3, ut, GREY);
-        }
-        if (i > 0)
-            pdf_line(P, a, top, a, top - h, 0.3);
     }
-    pdf_line(P, x0, top, x1, top, 0.9);
-    pdf_line(P, x0, top - h, x1, top - h, 0.5);
-    return h;
+    return pdf_column_header(P, c->n, L->x, c->word, c->symbol, unit, PT_WORD, top);
 }
 
 /* A chunk of segment rows: it->aux is the first row, it->depth the count. */

@@ -185,42 +185,16 @@ static NetLayout net_layout(Pdf *P, const NetCols *c, const NetworkResult *nr, s
 
 static double net_header(Pdf *P, const NetCols *c, const NetLayout *L, double top)
 {
-    double h_word = 15, h_sym = 13, h_unit = 10, h = h_word + h_sym + h_unit;
-    double x0 = L->x[0], x1 = L->x[c->n];
-    if (P->page)
-        pdf_fill(P, x0, top - h, x1 - x0, h, SHADE);
+    const char *unit[MAX_NET_COLS];
+    char ut[MAX_NET_COLS][48];
     for (int i = 0; i < c->n; i++) {
-        double a = L->x[i], w = L->x[i + 1] - a;
-        const char *word = c->word[i];
-        const char *sp = strchr(word, ' ');
-        char l1[40], l2[40] = "";
-        if (sp && pdf_width(P, FONT_SANS, NT_WORD, word) > w - 3) {
-            snprintf(l1, sizeof l1, "%.*s", (int)(sp - word), word);
-            snprintf(l2, sizeof l2, "%s", sp + 1);
-        } else {
-            snprintf(l1, sizeof l1, "%s", word);
-        }
-        double w1 = pdf_width(P, FONT_SANS, NT_WORD, l1), w2 = pdf_width(P, FONT_SANS, NT_WORD, l2);
-        pdf_text_color(P, FONT_SANS, NT_WORD, a + (w - w1) / 2, top - (l2[0] ? 6.2 : 9.5), l1, GREY);
-        if (l2[0])
-            pdf_text_color(P, FONT_SANS, NT_WORD, a + (w - w2) / 2, top - 12.6, l2, GREY);
-        if (c->symbol[i][0]) {
-            MathBox *b = mbox_symbol(&P->env, c->symbol[i], 8.6);
-            if (P->page)
-                mbox_draw(b, &P->painter, a + (w - b->w) / 2, top - h_word - 9.2);
-        }
+        unit[i] = NULL;
         if (c->has_unit[i]) {
-            char ut[48];
-            mbox_unit_text(c->unit[i].text, ut, sizeof ut);
-            double uw = pdf_width(P, FONT_SANS, 6.4, ut);
-            pdf_text_color(P, FONT_SANS, 6.4, a + (w - uw) / 2, top - h + 3, ut, GREY);
+            mbox_unit_text(c->unit[i].text, ut[i], sizeof ut[i]);
+            unit[i] = ut[i];
         }
-        if (i > 0)
-            pdf_line(P, a, top, a, top - h, 0.3);
     }
-    pdf_line(P, x0, top, x1, top, 0.9);
-    pdf_line(P, x0, top - h, x1, top - h, 0.5);
-    return h;
+    return pdf_column_header(P, c->n, L->x, c->word, c->symbol, unit, NT_WORD, top);
 }
 
 /* A chunk of rows of the node table (it->depth > 0) or the link table
