@@ -84,7 +84,7 @@ static PathLayout path_layout(Pdf *P, const PathCols *c, const PathResult *pr)
     if (P->path_layout_key == pr)
         return *(const PathLayout *)P->path_layout;
     PathLayout L;
-    double nat[PATH_COLS], sum = 0, W = full_width(P);
+    double nat[PATH_COLS], W = full_width(P);
     for (int i = 0; i < c->n; i++) {
         char ut[48] = "";
         if (c->has_unit[i])
@@ -96,14 +96,8 @@ static PathLayout path_layout(Pdf *P, const PathCols *c, const PathResult *pr)
             w = fmax(w, pdf_width(P, i == 0 ? FONT_SANS_BOLD : FONT_SERIF, PT_SIZE, buf));
         }
         nat[i] = w + 8;
-        sum += nat[i];
     }
-    /* spread the spare width evenly, or shrink everything to fit */
-    double extra = (W - sum) / c->n;
-    L.size = sum > W ? PT_SIZE * W / sum : PT_SIZE;
-    L.x[0] = P->sheet.body_l;
-    for (int i = 0; i < c->n; i++)
-        L.x[i + 1] = L.x[i] + (sum > W ? nat[i] * W / sum : nat[i] + extra);
+    L.size = pdf_columns_spread(nat, c->n, P->sheet.body_l, W, PT_SIZE, L.x);
     if (!P->path_layout)
         P->path_layout = arena_alloc(&P->arena, sizeof L);
     *(PathLayout *)P->path_layout = L;

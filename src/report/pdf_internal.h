@@ -203,6 +203,10 @@ void pdf_cases_items(Pdf *P, Vec *items, size_t which);
  * x[0..n]; returns their height. */
 double pdf_column_header(Pdf *P, int n, const double *x, const char *const *word, const char *const *symbol,
                          const char *const *unit, double word_pt, double top);
+/* Column edges x[0..n] from the columns' natural widths: the spare width
+ * of `width` spread evenly, or every column shrunk to fit; returns the text
+ * size, pt or less in proportion. */
+double pdf_columns_spread(const double *nat, int n, double left, double width, double pt, double *x);
 /* pdf_table.c: a statement's laid-out table (ResultTable), a curve block */
 void pdf_table_items(Pdf *P, Vec *items, const Stmt *st);
 void pdf_curve_items(Pdf *P, Vec *items, const Stmt *st);

@@ -161,7 +161,7 @@ typedef void (*CellFn)(const Pdf *P, const NetworkResult *nr, const NetCols *c, 
 static NetLayout net_layout(Pdf *P, const NetCols *c, const NetworkResult *nr, size_t rows, CellFn cell, double W)
 {
     NetLayout L;
-    double nat[MAX_NET_COLS], sum = 0;
+    double nat[MAX_NET_COLS];
     for (int i = 0; i < c->n; i++) {
         char ut[48] = "";
         if (c->has_unit[i])
@@ -173,13 +173,8 @@ static NetLayout net_layout(Pdf *P, const NetCols *c, const NetworkResult *nr, s
             w = fmax(w, pdf_width(P, i == 0 ? FONT_SANS_BOLD : FONT_SERIF, NT_SIZE, buf));
         }
         nat[i] = w + 8;
-        sum += nat[i];
     }
-    double extra = (W - sum) / c->n;
-    L.size = sum > W ? NT_SIZE * W / sum : NT_SIZE;
-    L.x[0] = P->sheet.body_l;
-    for (int i = 0; i < c->n; i++)
-        L.x[i + 1] = L.x[i] + (sum > W ? nat[i] * W / sum : nat[i] + extra);
+    L.size = pdf_columns_spread(nat, c->n, P->sheet.body_l, W, NT_SIZE, L.x);
     return L;
 }
 

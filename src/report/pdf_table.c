@@ -214,3 +214,16 @@ double pdf_column_header(Pdf *P, int n, const double *x, const char *const *word
     pdf_line(P, x0, top - h, x1, top - h, 0.5);
     return h;
 }
+
+double pdf_columns_spread(const double *nat, int n, double left, double width, double pt, double *x)
+{
+    double sum = 0;
+    for (int i = 0; i < n; i++)
+        sum += nat[i];
+    /* spread the spare width evenly, or shrink everything to fit */
+    double extra = (width - sum) / n;
+    x[0] = left;
+    for (int i = 0; i < n; i++)
+        x[i + 1] = x[i] + (sum > width ? nat[i] * width / sum : nat[i] + extra);
+    return sum > width ? pt * width / sum : pt;
+}
