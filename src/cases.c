@@ -41,7 +41,8 @@ void eval_cases(Evaluated *ev, const CaseTable *ct, CaseResult *cr, DiagList *di
             return; /* reported already, or the input itself failed */
         base[k] = ev->results[slots[k]].value;
     }
-    CallCtx cc = {a, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL, ev->atmosphere, false, .nuses = 0};
+    CallCtx cc;
+    call_ctx_init(&cc, a, diags, ev->units, ev->doc->meta.code, ev->atmosphere);
     EvalCtx c = {ev, doc, diags, &cc, 0};
     /* The shown expressions are checked once, with the calc's own values and
      * errors reported, so a bad field or dimension is an error, not a

@@ -528,7 +528,8 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
     for (size_t k = 0; k < s->ndeps; k++)
         if (ev->results[s->deps[k]].state != RES_OK)
             return; /* not evaluated: an input failed */
-    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL, ev->atmosphere, false, .nuses = 0};
+    CallCtx cc;
+    call_ctx_init(&cc, &ev->doc->arena, diags, ev->units, ev->doc->meta.code, ev->atmosphere);
     EvalCtx c = {ev, ev->doc, diags, &cc, 0};
     switch (s->kind) {
     case STMT_DEF: {

@@ -33,7 +33,8 @@ static void set_var(Evaluated *ev, const Stmt *s, double x, DiagList *diags)
 /* Evaluate both sides of the equation as they stand. */
 static bool equation_sides(Evaluated *ev, const Stmt *s, DiagList *diags, Value *l, Value *r)
 {
-    CallCtx cc = {&ev->doc->arena, diags, ev->units, {0}, 0, ev->doc->meta.code, NULL, ev->atmosphere, false, .nuses = 0};
+    CallCtx cc;
+    call_ctx_init(&cc, &ev->doc->arena, diags, ev->units, ev->doc->meta.code, ev->atmosphere);
     EvalCtx c = {ev, ev->doc, diags, &cc, 0};
     bool ok = eval_expr(&c, s->lhs, l);
     ok = eval_expr(&c, s->rhs, r) && ok;

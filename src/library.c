@@ -48,6 +48,19 @@ bool method_same(const Method *a, const Method *b)
                       same_text(a->reference, b->reference));
 }
 
+void call_ctx_init(CallCtx *cx, Arena *arena, DiagList *diags, UnitSystem units, const char *code, double atmosphere)
+{
+    cx->arena = arena;
+    cx->diags = diags;
+    cx->units = units;
+    cx->nmethods = 0;
+    cx->code = code;
+    cx->table = NULL;
+    cx->atmosphere = atmosphere;
+    cx->atmosphere_used = false;
+    cx->nuses = 0;
+}
+
 void call_use_method(CallCtx *cx, const Method *m)
 {
     for (size_t i = 0; i < cx->nmethods; i++)
