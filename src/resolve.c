@@ -315,8 +315,12 @@ static void resolve_statements(Document *doc, DiagList *diags)
         doc->names->len++;
     }
     warn_lookalikes(doc, diags);
-    /* Check labels are unique: reviewers and diffs refer to them. */
-    NameTable *labels = names_new(&doc->arena, doc->nstmts);
+    /* Check labels are unique: reviewers and diffs refer to them. The
+     * table is sized for the labels, not for every statement. */
+    size_t nlabels = 0;
+    for (size_t i = 0; i < doc->nstmts; i++)
+        nlabels += doc->stmts[i]->kind == STMT_CHECK && doc->stmts[i]->label;
+    NameTable *labels = names_new(&doc->arena, nlabels);
     for (size_t i = 0; i < doc->nstmts; i++) {
         Stmt *s = doc->stmts[i];
         if (s->kind != STMT_CHECK || !s->label)
