@@ -412,11 +412,11 @@ static uint64_t expr_key(const Diff *d, const Expr *e, bool new_side, uint64_t h
         return expr_key(d, e->lhs, new_side, mix_str(h, e->text));
     case EXPR_CALL:
         h = e->callee_slot >= 0 ? mix(h, slot_key(d, e->callee_slot, new_side)) : mix_str(h, e->text);
-        h = mix(mix(h, e->nargs), e->nkw);
-        for (size_t i = 0; i < e->nargs; i++)
-            h = expr_key(d, e->args[i], new_side, h);
-        for (size_t i = 0; i < e->nkw; i++)
-            h = expr_key(d, e->kw[i], new_side, mix_str(h, e->kw_names[i]));
+        h = mix(mix(h, e->call->nargs), e->call->nkw);
+        for (size_t i = 0; i < e->call->nargs; i++)
+            h = expr_key(d, e->call->args[i], new_side, h);
+        for (size_t i = 0; i < e->call->nkw; i++)
+            h = expr_key(d, e->call->kw[i], new_side, mix_str(h, e->call->kw_names[i]));
         return h;
     }
     return h;
