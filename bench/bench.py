@@ -344,6 +344,21 @@ def row_diff():
                f"{p.ratio:.2f}x", "<= 1.2x", mb(p.peak))
 
 
+def row_diff_renamed():
+    """The same, where NEW renames every derived name and rewrites its
+    formula: every statement is a rename candidate (a matching that scanned
+    every orphan per statement was quadratic here)."""
+    path, n, _ = SHARED["check5000"]
+    with open(path) as f:
+        text = f.read()
+    new = os.path.join(OUT, "diff-renamed.calc.md")
+    with open(new, "w") as f:
+        f.write(text.replace("x_", "y_").replace(" ft  # derived", ".5 ft  # derived"))
+    p = Paired([HEADROOM, "diff", path, new], [HEADROOM, "check", new], repeat=5)
+    return Row(f"diff, every derived name of {n} renamed", ms(p.figure), f"check {ms(p.floor)}",
+               f"{p.ratio:.2f}x", "<= 1.2x", mb(p.peak))
+
+
 def row_cases():
     """The cases table against 1,000 times one evaluation of the same calc,
     in CPU time (user + system; a 1,000-row run is long enough for the
@@ -450,7 +465,7 @@ def row_script():
                f"{p.ratio:.0f}x", ">= 30x (the script is slower)", mb(p.peak))
 
 
-ROWS = [row_check_5000, row_check_100k, row_json, row_diff, row_cases, row_startup, row_colebrook,
+ROWS = [row_check_5000, row_check_100k, row_json, row_diff, row_diff_renamed, row_cases, row_startup, row_colebrook,
         row_script, row_build_sheets, row_build_floor, row_package, row_network]
 
 
