@@ -25,6 +25,10 @@ typedef struct Arena {
 
 void arena_init(Arena *a);
 void arena_free(Arena *a);
+/* Empty the arena for reuse: everything in it is released but its newest
+ * block, which is kept (cleared) for what comes next, so a scratch arena
+ * used over and over costs no allocation. */
+void arena_reset(Arena *a);
 void *arena_alloc(Arena *a, size_t n);   /* zeroed, aligned to 8 (any type but long double) */
 char *arena_strdup(Arena *a, const char *s);
 char *arena_strndup(Arena *a, const char *s, size_t n);

@@ -78,6 +78,21 @@ void arena_free(Arena *a)
     a->used_total = 0;
 }
 
+void arena_reset(Arena *a)
+{
+    ArenaBlock *keep = a->head;
+    if (!keep)
+        return;
+    for (ArenaBlock *b = keep->next, *next; b; b = next) {
+        next = b->next;
+        free(b);
+    }
+    memset(keep->data, 0, keep->used); /* handed out again: zeroed again */
+    keep->used = 0;
+    keep->next = NULL;
+    a->used_total = 0;
+}
+
 void *arena_alloc(Arena *a, size_t n)
 {
     /* Eight bytes: the alignment of a double, a pointer and a size_t, the

@@ -89,13 +89,14 @@ static void number_members(JsonOut *w, const Value *v, const ModelValue *mv, boo
         json_out_string(w, "pressure", pressure_ref_name(v->q.pref));
 }
 
-static void value_write(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *shown);
+static void value_write(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *shown,
+                        Arena *tmp);
 
 /* A value as an object left open for the caller's members (true), or null
  * (false: nothing to close). A number's display comes from the report
  * model: the row's own (mv) where the model has it, else made here. */
 static bool value_open(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *shown,
-                       const ModelValue *mv)
+                       const ModelValue *mv, Arena *tmp)
 {
     switch (v->kind) {
     case VAL_NUMBER: {
@@ -104,11 +105,9 @@ static bool value_open(JsonOut *w, const char *key, const Evaluated *ev, const V
             number_members(w, v, mv, true);
             return true;
         }
-        Arena a;
-        arena_init(&a);
-        ModelValue made = report_model_value(ev, v, shown, &a);
+        ModelValue made = report_model_value(ev, v, shown, tmp);
         number_members(w, v, &made, true);
-        arena_free(&a);
+        arena_reset(tmp);
         return true;
     }
     case VAL_STRING:
@@ -133,7 +132,7 @@ static bool value_open(JsonOut *w, const char *key, const Evaluated *ev, const V
         long *pick = unique_keys(names, n);
         for (size_t i = 0; i < n; i++)
             if (pick[i] >= 0)
-                value_write(w, names[i], ev, &v->rec->fields[pick[i]].value, NULL);
+                value_write(w, names[i], ev, &v->rec->fields[pick[i]].value, NULL, tmp);
         free(pick);
         free(names);
         json_out_end_object(w);
@@ -145,9 +144,10 @@ static bool value_open(JsonOut *w, const char *key, const Evaluated *ev, const V
     }
 }
 
-static void value_write(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *shown)
+static void value_write(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *shown,
+                        Arena *tmp)
 {
-    if (value_open(w, key, ev, v, shown, NULL))
+    if (value_open(w, key, ev, v, shown, NULL, tmp))
         json_out_end_object(w);
 }
 
@@ -272,7 +272,7 @@ static void figure_write(JsonOut *w, const Stmt *s, const FigureData *fd)
 }
 
 /* A table a statement laid out: title, heads, units and rows of values. */
-static void table_write(JsonOut *w, const Evaluated *ev, const ResultTable *t)
+static void table_write(JsonOut *w, const Evaluated *ev, const ResultTable *t, Arena *tmp)
 {
     json_out_begin_object(w, "table");
     json_out_string(w, "title", t->title);
@@ -288,7 +288,7 @@ static void table_write(JsonOut *w, const Evaluated *ev, const ResultTable *t)
     for (size_t r = 0; r < t->nrows; r++) {
         json_out_begin_array(w, NULL);
         for (size_t k = 0; k < t->ncols; k++)
-            value_write(w, NULL, ev, &t->cells[r * t->ncols + k], &t->units[k]);
+            value_write(w, NULL, ev, &t->cells[r * t->ncols + k], &t->units[k], tmp);
         json_out_end_array(w);
     }
     json_out_end_array(w);
@@ -296,7 +296,7 @@ static void table_write(JsonOut *w, const Evaluated *ev, const ResultTable *t)
 }
 
 /* A case table: per row, the inputs, the shown results and every check. */
-static void cases_write(JsonOut *w, const Evaluated *ev, size_t which)
+static void cases_write(JsonOut *w, const Evaluated *ev, size_t which, Arena *tmp)
 {
     const CaseTable *ct = ev->doc->cases[which];
     const CaseResult *cr = &ev->cases[which];
@@ -320,7 +320,7 @@ static void cases_write(JsonOut *w, const Evaluated *ev, size_t which)
         json_out_begin_object(w, "inputs");
         for (size_t k = 0; row->inputs && k < ct->ninputs; k++)
             if (in_pick[k] >= 0)
-                value_write(w, ct->inputs[k], ev, &row->inputs[in_pick[k]], NULL);
+                value_write(w, ct->inputs[k], ev, &row->inputs[in_pick[k]], NULL, tmp);
         json_out_end_object(w);
         json_out_begin_object(w, "shown");
         for (size_t k = 0; k < ct->nshow; k++) {
@@ -328,7 +328,7 @@ static void cases_write(JsonOut *w, const Evaluated *ev, size_t which)
             if (j < 0)
                 continue;
             if (row->shown && row->shown_ok[j])
-                value_write(w, ct->show[k], ev, &row->shown[j], &row->shown_unit[j]);
+                value_write(w, ct->show[k], ev, &row->shown[j], &row->shown_unit[j], tmp);
             else
                 json_out_null(w, ct->show[k]);
         }
@@ -373,11 +373,11 @@ static bool is_value_stmt(const Stmt *s)
 
 /* One named result under "values", with its row of the report model. */
 static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, const StmtResult *r,
-                              const ModelRow *row)
+                              const ModelRow *row, Arena *tmp)
 {
     bool open;
     if (r->state == RES_OK) {
-        open = value_open(w, s->name, ev, &r->value, r->shown, row->result.number ? &row->result : NULL);
+        open = value_open(w, s->name, ev, &r->value, r->shown, row->result.number ? &row->result : NULL, tmp);
     } else {
         json_out_begin_object(w, s->name);
         json_out_string(w, "kind", "not evaluated");
@@ -419,7 +419,7 @@ static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, co
         json_out_end_object(w);
     }
     if (r->state == RES_OK && r->table)
-        table_write(w, ev, r->table);
+        table_write(w, ev, r->table, tmp);
     if (s->kind == STMT_SOLVE && r->state == RES_OK) {
         json_out_real(w, "residual", r->sides->solve.residual);
         json_out_int(w, "iterations", r->sides->solve.iterations);
@@ -448,8 +448,10 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
     const Document *doc = ev->doc;
     /* The report model's rows, each made when it is written, in a scratch
      * arena of its own: memory does not grow with the calc. */
-    Arena arena, scratch;
+    Arena arena, scratch, values; /* values: a value's texts while it is written */
     arena_init(&arena);
+    arena_init(&scratch);
+    arena_init(&values);
     const ReportModel *model = report_model_begin(ev, &arena);
     ModelRow row;
     json_out_begin_object(w, NULL);
@@ -480,10 +482,9 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
     json_out_begin_object(w, "values");
     for (size_t i = 0; i < n; i++)
         if (pick[i] >= 0) {
-            arena_init(&scratch);
             report_model_row(model, (size_t)pick[i], &row, &scratch);
-            named_value_write(w, ev, doc->stmts[pick[i]], &ev->results[pick[i]], &row);
-            arena_free(&scratch);
+            named_value_write(w, ev, doc->stmts[pick[i]], &ev->results[pick[i]], &row, &values);
+            arena_reset(&scratch);
         }
     json_out_end_object(w);
     free(pick);
@@ -500,14 +501,13 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
         json_out_int(w, "line", s->pos.line);
         json_out_string(w, "op", cmp_op_text(s->cmp, false));
         if (r->state == RES_OK) {
-            arena_init(&scratch);
             report_model_row(model, i, &row, &scratch);
             json_out_bool(w, "holds", r->holds);
             sides_write(w, r, &row.check);
             json_out_real(w, "utilization", r->utilization);
             json_out_bool(w, "governing", row.check.governs);
             row_texts_write(w, &row);
-            arena_free(&scratch);
+            arena_reset(&scratch);
         } else {
             json_out_null(w, "holds");
         }
@@ -530,11 +530,10 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
             json_out_int(w, "line", s->pos.line);
             json_out_string(w, "op", cmp_op_text(s->cmp, false));
             if (r->state == RES_OK) {
-                arena_init(&scratch);
-                report_model_row(model, i, &row, &scratch);
+                    report_model_row(model, i, &row, &scratch);
                 json_out_bool(w, "answer", r->holds);
                 sides_write(w, r, &row.check);
-                arena_free(&scratch);
+                arena_reset(&scratch);
             } else {
                 json_out_null(w, "answer");
             }
@@ -576,10 +575,12 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
 
     json_out_begin_array(w, "cases");
     for (size_t k = 0; k < ev->ncases; k++)
-        cases_write(w, ev, k);
+        cases_write(w, ev, k, &values);
     json_out_end_array(w);
     diagnostics_write(w, diags, doc->file);
     json_out_end_object(w);
+    arena_free(&values);
+    arena_free(&scratch);
     arena_free(&arena);
 }
 
