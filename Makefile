@@ -57,6 +57,11 @@ FUZZ_SAN     := -fsanitize=address,undefined -fno-sanitize-recover=undefined -fn
 FUZZ_OBJ     := $(LIB_SRC:%.c=$(BUILD)/fuzz/obj/%.o)
 FUZZ_NAMES   := $(patsubst fuzz/fuzz_%.c,%,$(wildcard fuzz/fuzz_*.c))
 FUZZ_BINS    := $(FUZZ_NAMES:%=$(BUILD)/fuzz/fuzz_%)
+# The same targets linked with fuzz/replay.c and the sanitizer objects above
+# (gcc, no libFuzzer): `make check` replays the seeds and regression inputs
+# through these, so it does not compile the tree a third time.
+REPLAY_OBJ   := $(BUILD)/san/fuzz/replay.o
+REPLAY_BINS  := $(FUZZ_NAMES:%=$(BUILD)/san/replay-%)
 
 .PHONY: all deps demo check unit-tests bench install clean
 all: $(BUILD)/headroom
@@ -93,6 +98,9 @@ $(BUILD)/headroom: $(OBJ)
 $(BUILD)/san/headroom: $(SAN_OBJ)
 	$(CC) $(SAN) $^ -o $@ $(LIBS)
 
+$(BUILD)/san/replay-%: $(BUILD)/san/fuzz/fuzz_%.o $(REPLAY_OBJ) $(SAN_LIB_OBJ)
+	$(CC) $(SAN) $^ -o $@ $(LIBS)
+
 $(BUILD)/tests/%: tests/unit/%.c $(SAN_LIB_OBJ)
 	@mkdir -p $(dir $@)
 	$(CC) $(ALL_CFLAGS) -O1 $(SAN) $< $(SAN_LIB_OBJ) -o $@ $(LIBS) -lcmocka
@@ -123,7 +131,7 @@ demo: $(BUILD)/headroom
 	  echo "   $(BUILD)/demo/$$base.txt, $(BUILD)/demo/$$base.pdf ($$(ls $(BUILD)/demo/$$base-*.png | wc -l) page previews)"; \
 	done
 
-check: $(BUILD)/headroom $(BUILD)/san/headroom $(UNIT_TESTS) $(FUZZ_BINS)
+check: $(BUILD)/headroom $(BUILD)/san/headroom $(UNIT_TESTS) $(REPLAY_BINS)
 	@HEADROOM=$(BUILD)/san/headroom HEADROOM_FAST=$(BUILD)/headroom BUILD=$(BUILD) tests/run-all
 
 bench: $(BUILD)/headroom
@@ -164,7 +172,7 @@ $(BUILD)/fuzz/fuzz_%: fuzz/fuzz_%.c $(FUZZ_OBJ)
 	$(FUZZ_CC) $(ALL_CFLAGS) -O1 -g $(FUZZ_SAN) -fsanitize=fuzzer $< $(FUZZ_OBJ) -o $@ $(LIBS)
 
 .PHONY: fuzz fuzz-short fuzz-build
-.SECONDARY: $(FUZZ_OBJ)
+.SECONDARY: $(FUZZ_OBJ) $(FUZZ_NAMES:%=$(BUILD)/san/fuzz/fuzz_%.o) $(REPLAY_OBJ)
 fuzz-build: $(FUZZ_BINS)
 fuzz: $(FUZZ_BINS) $(BUILD)/san/headroom
 	@FUZZ_SECONDS=$(FUZZ_SECONDS) BUILD=$(BUILD) HEADROOM=$(BUILD)/san/headroom tests/fuzz/run
@@ -173,4 +181,4 @@ fuzz-short: $(FUZZ_BINS) $(BUILD)/san/headroom
 
 -include $(FUZZ_OBJ:.o=.d)
 
--include $(OBJ:.o=.d) $(SAN_OBJ:.o=.d)
+-include $(OBJ:.o=.d) $(SAN_OBJ:.o=.d) $(FUZZ_NAMES:%=$(BUILD)/san/fuzz/fuzz_%.d) $(REPLAY_OBJ:.o=.d)
