@@ -25,7 +25,8 @@
  *             pdf_row.c          a row's margin column, method lines
  *             pdf_revision.c     revision marks and appendix
  *             pdf_state.c        a package part's scope, figure numbers
- *               pdf_prim.c       text, wrapping, rules, links, sections, attachments
+ *               pdf_prim.c       text, wrapping, rules, links, sections, attachments,
+ *                                column headers and widths
  *                 draw.c         the drawing layer (libharu)
  *                 draw_archive.c PDF/A-3b objects, attachments (libharu)
  */

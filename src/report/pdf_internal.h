@@ -128,6 +128,17 @@ struct Pdf {
 };
 
 /* ---- primitives (pdf_prim.c) --------------------------------------------- */
+
+/* The three header rows of a table of columns (the path and
+ * network tables): each column's word (one or two centred lines at
+ * word_pt), its symbol and its unit (NULL: none), between the column edges
+ * x[0..n]; returns their height. */
+double pdf_column_header(Pdf *P, int n, const double *x, const char *const *word, const char *const *symbol,
+                         const char *const *unit, double word_pt, double top);
+/* Column edges x[0..n] from the columns' natural widths: the spare width
+ * of `width` spread evenly, or every column shrunk to fit; returns the text
+ * size, pt or less in proportion. */
+double pdf_columns_spread(const double *nat, int n, double left, double width, double pt, double *x);
 double pdf_width(Pdf *P, FontRole f, double size, const char *s);
 void pdf_text(Pdf *P, FontRole f, double size, double x, double y, const char *s);
 void pdf_text_color(Pdf *P, FontRole f, double size, double x, double y, const char *s, Rgb c);
@@ -197,16 +208,6 @@ double pdf_network_figure(Pdf *P, const Stmt *st, const NetworkResult *nr, int n
 void pdf_network_cover_items(Pdf *P, Vec *items);
 /* The items of a cases block: a table of inputs, results and verdicts. */
 void pdf_cases_items(Pdf *P, Vec *items, size_t which);
-/* pdf_table.c: the three header rows of a table of columns (the path and
- * network tables): each column's word (one or two centred lines at
- * word_pt), its symbol and its unit (NULL: none), between the column edges
- * x[0..n]; returns their height. */
-double pdf_column_header(Pdf *P, int n, const double *x, const char *const *word, const char *const *symbol,
-                         const char *const *unit, double word_pt, double top);
-/* Column edges x[0..n] from the columns' natural widths: the spare width
- * of `width` spread evenly, or every column shrunk to fit; returns the text
- * size, pt or less in proportion. */
-double pdf_columns_spread(const double *nat, int n, double left, double width, double pt, double *x);
 /* pdf_table.c: a statement's laid-out table (ResultTable), a curve block */
 void pdf_table_items(Pdf *P, Vec *items, const Stmt *st);
 void pdf_curve_items(Pdf *P, Vec *items, const Stmt *st);

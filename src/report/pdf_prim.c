@@ -241,3 +241,54 @@ DrawFile *pdf_attach_named(Pdf *P, const Document *d, const char *base)
     return draw_attach(P->draw, base, desc, d->text, d->len, P->pkg != NULL);
 }
 
+double pdf_column_header(Pdf *P, int n, const double *x, const char *const *word, const char *const *symbol,
+                         const char *const *unit, double word_pt, double top)
+{
+    double h_word = 15, h_sym = 13, h_unit = 10, h = h_word + h_sym + h_unit;
+    double x0 = x[0], x1 = x[n];
+    if (P->page)
+        pdf_fill(P, x0, top - h, x1 - x0, h, SHADE);
+    for (int i = 0; i < n; i++) {
+        double a = x[i], w = x[i + 1] - a;
+        /* the word, one or two centred lines */
+        const char *sp = strchr(word[i], ' ');
+        char l1[40], l2[40] = "";
+        if (sp && pdf_width(P, FONT_SANS, word_pt, word[i]) > w - 3) {
+            snprintf(l1, sizeof l1, "%.*s", (int)(sp - word[i]), word[i]);
+            snprintf(l2, sizeof l2, "%s", sp + 1);
+        } else {
+            snprintf(l1, sizeof l1, "%s", word[i]);
+        }
+        double w1 = pdf_width(P, FONT_SANS, word_pt, l1), w2 = pdf_width(P, FONT_SANS, word_pt, l2);
+        pdf_text_color(P, FONT_SANS, word_pt, a + (w - w1) / 2, top - (l2[0] ? 6.2 : 9.5), l1, GREY);
+        if (l2[0])
+            pdf_text_color(P, FONT_SANS, word_pt, a + (w - w2) / 2, top - 12.6, l2, GREY);
+        if (symbol[i][0]) {
+            MathBox *b = mbox_symbol(&P->env, symbol[i], 8.6);
+            if (P->page)
+                mbox_draw(b, &P->painter, a + (w - b->w) / 2, top - h_word - 9.2);
+        }
+        if (unit[i]) {
+            double uw = pdf_width(P, FONT_SANS, 6.4, unit[i]);
+            pdf_text_color(P, FONT_SANS, 6.4, a + (w - uw) / 2, top - h + 3, unit[i], GREY);
+        }
+        if (i > 0)
+            pdf_line(P, a, top, a, top - h, 0.3);
+    }
+    pdf_line(P, x0, top, x1, top, 0.9);
+    pdf_line(P, x0, top - h, x1, top - h, 0.5);
+    return h;
+}
+
+double pdf_columns_spread(const double *nat, int n, double left, double width, double pt, double *x)
+{
+    double sum = 0;
+    for (int i = 0; i < n; i++)
+        sum += nat[i];
+    /* spread the spare width evenly, or shrink everything to fit */
+    double extra = (width - sum) / n;
+    x[0] = left;
+    for (int i = 0; i < n; i++)
+        x[i + 1] = x[i] + (sum > width ? nat[i] * width / sum : nat[i] + extra);
+    return sum > width ? pt * width / sum : pt;
+}
