@@ -22,8 +22,14 @@ listing render one model).
 
 Prints one line per false row and a summary line
 `NAME: T true, F false, M method calls, S not on the sheets`; exit 1 when
-anything is false or missing."""
+anything is false or missing.
+
+With REDO_UNITS_CACHE set to a file, the factors GNU units gave are kept in
+it (JSON) from one run to the next, so a suite that re-does many reports
+asks units once for each distinct unit."""
+import json
 import math
+import os
 import re
 import subprocess
 import sys
@@ -31,13 +37,31 @@ import sys
 FUNCS = {"sqrt": math.sqrt, "log10": math.log10, "ln": math.log, "exp": math.exp,
          "min": min, "max": max, "abs": abs}
 _factor = {}
+_asked = False  # a factor not in the cache file was asked of GNU units
 VERBOSE = False
+
+
+def cache_load():
+    path = os.environ.get("REDO_UNITS_CACHE")
+    if path and os.path.exists(path):
+        with open(path, encoding="utf-8") as f:
+            _factor.update(json.load(f))
+
+
+def cache_save():
+    path = os.environ.get("REDO_UNITS_CACHE")
+    if path and _asked:
+        with open(path + ".tmp", "w", encoding="utf-8") as f:
+            json.dump(_factor, f)
+        os.replace(path + ".tmp", path)
 
 
 def si_factor(unit):
     """The SI factor of a unit by GNU units; None when it has none."""
+    global _asked
     if unit in _factor:
         return _factor[unit]
+    _asked = True
     u = unit
     # gauge and absolute pressure marks (DESIGN 2.9) are not units
     u = re.sub(r"\b(kPa|psi|Pa|MPa|bar)[ag]\b", r"\1", u)
@@ -190,6 +214,7 @@ def sheet_text(path):
 def main():
     global VERBOSE
     VERBOSE = "-v" in sys.argv
+    cache_load()
     listing, sheets, name = [a for a in sys.argv[1:] if a != "-v"][:3]
     sheet = sheet_text(sheets)
     sheet_nums = set(re.findall(r"-?\d+(?:\.\d+)?(?:e-?\d+)?", sheet))
@@ -245,6 +270,7 @@ def main():
                 if n not in sheet_nums and n.lstrip("-") not in sheet_nums and half_unit(n) != 0:
                     missing += 1
                     print("  NOT ON THE SHEETS %s: %s in %s = %s" % (name, n, sym, middle))
+    cache_save()
     print("%s: %d true, %d false, %d method calls, %d not on the sheets" % (name, true, false, calls, missing))
     sys.exit(1 if false or missing else 0)
 
