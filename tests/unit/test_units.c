@@ -880,6 +880,90 @@ static void test_qty(void **state)
     assert_true(n.si == 0.25 && dim_is_none(n.dim) && n.temp == TEMP_NONE);
 }
 
+/* unit_shared: one parsed copy per spelling, the same pointer every time,
+ * equal to what unit_parse gives; NULL for what does not parse. */
+static void test_shared(void **state)
+{
+    (void)state;
+    const Unit *a = unit_shared("gal/min", 7), *b = unit_shared("gal/min xx", 7);
+    assert_non_null(a);
+    assert_ptr_equal(a, b);
+    Unit u;
+    assert_int_equal(unit_parse("gal/min", 7, &u, NULL, NULL), UNIT_OK);
+    assert_true(a->factor == u.factor && dim_eq(a->dim, u.dim));
+    assert_string_equal(a->text, "gal/min");
+    /* 1 gal/min = 231 in^3 / 60 s = 6.30901964e-5 m^3/s (exact definition) */
+    assert_close(a->factor, 231 * 0.0254 * 0.0254 * 0.0254 / 60, 1e-12, "gal/min");
+    const Unit *ft = unit_shared("ft", 2), *m = unit_shared("m", 1);
+    assert_true(ft != m && ft->factor == 0.3048 && m->factor == 1);
+    assert_null(unit_shared("furlongz", 8));
+    assert_null(unit_shared("ft/", 3));
+    /* a point unit keeps its offset and kind */
+    const Unit *f = unit_shared("degF", 4);
+    assert_true(f->temp == TEMP_ABSOLUTE_OFFSET && fabs(f->offset - 255.3722222222222) < 1e-9);
+}
+
+/* unit_intern: equal units give one pointer, different ones differ; the
+ * all-zero unit is unit_blank. */
+static void test_intern(void **state)
+{
+    (void)state;
+    Unit u1, u2, u3;
+    assert_int_equal(unit_parse("psi", 3, &u1, NULL, NULL), UNIT_OK);
+    u2 = u1;
+    memset(u2.text + strlen(u2.text) + 1, 'x', sizeof u2.text - strlen(u2.text) - 1); /* bytes after the NUL */
+    assert_int_equal(unit_parse("psig", 4, &u3, NULL, NULL), UNIT_OK);
+    const Unit *p1 = unit_intern(&u1), *p2 = unit_intern(&u2), *p3 = unit_intern(&u3);
+    assert_ptr_equal(p1, p2);
+    assert_true(p1 != p3 && p3->pref == PRES_GAUGE && p1->pref == PRES_PLAIN);
+    assert_string_equal(p1->text, "psi");
+    /* the same text standing for another unit is another entry */
+    Unit odd = u1;
+    odd.factor *= 2;
+    const Unit *po = unit_intern(&odd);
+    assert_true(po != p1 && po->factor == 2 * p1->factor);
+    assert_ptr_equal(unit_intern(&odd), po);
+    Unit zero;
+    memset(&zero, 0, sizeof zero);
+    assert_ptr_equal(unit_intern(&zero), &unit_blank);
+}
+
+/* Both memos from two threads at once, as diff evaluates two revisions:
+ * every spelling still has one pointer, with the right factor. */
+#include <pthread.h>
+enum { SHARED_N = 300 };
+static const Unit *thread_seen[2][SHARED_N];
+
+static void *shared_worker(void *arg)
+{
+    int t = (int)(size_t)arg;
+    for (int i = 0; i < SHARED_N; i++) {
+        int k = t ? SHARED_N - 1 - i : i;
+        char s[32];
+        int n = snprintf(s, sizeof s, "m^%d", k % 7 + 1);
+        n += snprintf(s + n, sizeof s - (size_t)n, "/s^%d", k / 7 + 1);
+        thread_seen[t][k] = unit_shared(s, (size_t)n);
+        Unit copy = *thread_seen[t][k];
+        (void)unit_intern(&copy);
+    }
+    return NULL;
+}
+
+static void test_shared_threads(void **state)
+{
+    (void)state;
+    pthread_t th;
+    assert_int_equal(pthread_create(&th, NULL, shared_worker, (void *)(size_t)1), 0);
+    shared_worker((void *)(size_t)0);
+    pthread_join(th, NULL);
+    for (int k = 0; k < SHARED_N; k++) {
+        assert_non_null(thread_seen[0][k]);
+        assert_ptr_equal(thread_seen[0][k], thread_seen[1][k]);
+        assert_true(thread_seen[0][k]->dim.e[DIM_LENGTH] == k % 7 + 1 &&
+                    thread_seen[0][k]->dim.e[DIM_TIME] == -(k / 7 + 1));
+    }
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -898,6 +982,9 @@ int main(void)
         cmocka_unit_test(test_each),
         cmocka_unit_test(test_qty),
         cmocka_unit_test(test_references_and_rates),
+        cmocka_unit_test(test_shared),
+        cmocka_unit_test(test_intern),
+        cmocka_unit_test(test_shared_threads),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
