@@ -784,13 +784,40 @@ static StrMap memo_index;      /* spelling -> index into memo_units */
 static Unit **memo_units;
 static size_t memo_len, memo_cap;
 
+/* Each thread keeps a small cache in front of the shared memo and the
+ * interned units: the spellings of a calc are few, so nearly every lookup is
+ * answered here without the lock, which the two threads of a `diff` would
+ * otherwise take in turn on every literal (the lock's hand-overs cost that
+ * diff more CPU than its second evaluation). A cached entry is one of the
+ * memo's, never changed or freed once made. */
+enum { UNIT_CACHE = 64 };
+static _Thread_local struct {
+    const char *key;
+    size_t len;
+    const Unit *u;
+} shared_cache[UNIT_CACHE];
+static _Thread_local const Unit *intern_cache[UNIT_CACHE];
+
+static size_t cache_slot(const char *s, size_t len)
+{
+    uint32_t h = 2166136261u;
+    for (size_t i = 0; i < len; i++)
+        h = (h ^ (unsigned char)s[i]) * 16777619u;
+    return h & (UNIT_CACHE - 1);
+}
+
 const Unit *unit_shared(const char *s, size_t len)
 {
+    size_t slot = cache_slot(s, len);
+    if (shared_cache[slot].u && shared_cache[slot].len == len && memcmp(shared_cache[slot].key, s, len) == 0)
+        return shared_cache[slot].u;
     const Unit *found = NULL;
+    const char *found_key = NULL;
     pthread_mutex_lock(&memo_lock);
     size_t k;
     if (strmap_get_n(&memo_index, s, len, &k)) {
         found = memo_units[k];
+        found_key = (const char *)(memo_units[k] + 1);
     } else {
         Unit u;
         if (unit_parse(s, len, &u, NULL, NULL) == UNIT_OK) {
@@ -808,9 +835,15 @@ const Unit *unit_shared(const char *s, size_t len)
             strmap_add(&memo_index, key, memo_len, NULL);
             memo_len++;
             found = e;
+            found_key = key;
         }
     }
     pthread_mutex_unlock(&memo_lock);
+    if (found) {
+        shared_cache[slot].key = found_key;
+        shared_cache[slot].len = len;
+        shared_cache[slot].u = found;
+    }
     return found;
 }
 
@@ -841,6 +874,9 @@ const Unit *unit_intern(const Unit *u)
 {
     if (unit_same(u, &unit_blank))
         return &unit_blank;
+    size_t slot = cache_slot(u->text, strnlen(u->text, sizeof u->text));
+    if (intern_cache[slot] && unit_same(intern_cache[slot], u))
+        return intern_cache[slot];
     const Unit *found = NULL;
     pthread_mutex_lock(&memo_lock);
     size_t k, last = SIZE_MAX;
@@ -869,6 +905,7 @@ const Unit *unit_intern(const Unit *u)
         found = &e->u;
     }
     pthread_mutex_unlock(&memo_lock);
+    intern_cache[slot] = found;
     return found;
 }
 
