@@ -21,9 +21,14 @@ typedef struct ArenaBlock ArenaBlock;
 typedef struct Arena {
     ArenaBlock *head;
     size_t used_total;
+    size_t next_block;       /* size of the next block; 0 until the first */
 } Arena;
 
 void arena_init(Arena *a);
+/* The same, for an arena expected to grow to about `expect` bytes: its first
+ * block is that large (up to 64 MiB), so a large document is carved from a
+ * few huge pages instead of a chain of small blocks. */
+void arena_init_sized(Arena *a, size_t expect);
 void arena_free(Arena *a);
 /* Empty the arena for reuse: everything in it is released but its newest
  * block, which is kept (cleared) for what comes next, so a scratch arena
