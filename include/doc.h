@@ -283,7 +283,9 @@ struct Block {
     const char *text;        /* CODE, HTML: literal */
     const char *info;        /* CODE and the fences below: info string */
     const char *raw;         /* CALC, SOURCES, PATH, CURVE, NETWORK, CASES: the fence's lines as
-                                cmark gave them, for the fences stage */
+                                cmark gave them, for the fences stage; raw_len bytes, not
+                                NUL-terminated (most often they are the source's own bytes) */
+    size_t raw_len;
     int raw_line;            /* the file line of raw's first line */
     size_t first_stmt, nstmts;  /* CALC */
     Block *children;         /* LIST, ITEM, QUOTE, TABLE, TABLE_ROW */
@@ -368,6 +370,7 @@ typedef struct Document {
     const char *file;        /* display name */
     const char *text;        /* the source bytes, NUL-terminated */
     size_t len;
+    char *own_text;          /* text, when it is a heap buffer the document owns (doc_load) */
     char digest[65];         /* SHA-256 of the source bytes, lower-case hex */
     Meta meta;
     Block *blocks;

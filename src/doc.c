@@ -76,6 +76,7 @@ void doc_free(Document *doc)
     if (!doc)
         return;
     use_set_free(doc->own_uses);
+    free(doc->own_text);
     arena_free(&doc->arena);
     free(doc);
 }

@@ -48,9 +48,10 @@ static void each_fence_line(Fences *m, const Block *b, void (*fn)(Fences *, cons
     if (!lit)
         return;
     int line = b->raw_line;
-    for (const char *p = lit; *p; line++) {
-        const char *nl = strchr(p, '\n');
-        size_t len = nl ? (size_t)(nl - p) : strlen(p);
+    const char *end = lit + b->raw_len;
+    for (const char *p = lit; p < end; line++) {
+        const char *nl = memchr(p, '\n', (size_t)(end - p));
+        size_t len = (size_t)((nl ? nl : end) - p);
         size_t olen = 0;
         const char *orig = source_line(m->doc->text, m->doc->len, m->doc->line_start, m->doc->nlines, line, &olen);
         int col = 1;

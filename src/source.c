@@ -5,6 +5,7 @@
 #include "source.h"
 
 #include <errno.h>
+#include <stdbool.h>
 #include <nettle/sha2.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -22,12 +23,17 @@ char *source_read(const char *path, const char *display, size_t *len, DiagList *
         return NULL;
     }
     struct stat st;
-    if (f != stdin && fstat(fileno(f), &st) == 0 && S_ISDIR(st.st_mode)) {
+    bool sized = f != stdin && fstat(fileno(f), &st) == 0;
+    if (sized && S_ISDIR(st.st_mode)) {
         diag_error(diags, nowhere, "is a directory, not a calc file");
         fclose(f);
         return NULL;
     }
+    /* a regular file's size is known: one buffer of that size plus the byte
+     * that shows end of file (a file that grows meanwhile still doubles) */
     size_t cap = 64 * 1024, n = 0;
+    if (sized && S_ISREG(st.st_mode) && st.st_size >= 0 && st.st_size <= SOURCE_MAX_BYTES)
+        cap = (size_t)st.st_size + 1;
     char *buf = xmalloc(cap + 1);
     errno = 0;
     for (;;) {
