@@ -1,7 +1,7 @@
 /* test_arena.c — cmocka tests of the document arena: every allocation is
  * zeroed and aligned to 8, across blocks of every size (a block is zeroed
  * once, when it is made, so this checks that nothing is handed out twice),
- * and again after arena_reset. */
+ * and again after arena_reset; blocks of a huge page and more (mmap) too. */
 #include <setjmp.h>
 #include <stdarg.h>
 #include <stddef.h>
@@ -56,6 +56,31 @@ static void test_zeroed_after_reset(void **state)
     arena_free(&a);
 }
 
+/* A first block of the expected size (here 40 MiB, from mmap in huge-page
+ * units), a request larger than any block (20 MiB) and a reset that keeps a
+ * mapped block: zeroed, aligned, no byte handed out twice. */
+static void test_sized_and_large(void **state)
+{
+    (void)state;
+    Arena a;
+    arena_init_sized(&a, 40u * 1024 * 1024);
+    fill_and_check(&a, 4);
+    size_t big = 20u * 1024 * 1024;
+    unsigned char *p = arena_alloc(&a, big);
+    assert_int_equal((uintptr_t)p % 8, 0);
+    assert_true(all_zero(p, big));
+    memset(p, 0x5A, big);
+    fill_and_check(&a, 5);
+    arena_reset(&a);
+    fill_and_check(&a, 6);
+    arena_free(&a);
+    /* freed, the arena starts over like a new one */
+    assert_int_equal(a.used_total, 0);
+    assert_int_equal(a.next_block, 0);
+    fill_and_check(&a, 7);
+    arena_free(&a);
+}
+
 static void test_strings(void **state)
 {
     (void)state;
@@ -72,6 +97,7 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_zeroed_and_aligned),
         cmocka_unit_test(test_zeroed_after_reset),
+        cmocka_unit_test(test_sized_and_large),
         cmocka_unit_test(test_strings),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
