@@ -183,39 +183,57 @@ typedef struct Cite {
     int source;              /* index into Document.sources, -1 if unknown */
 } Cite;
 
+/* The parts of a statement few statements have, kept apart from it so every
+ * statement does not carry room for them (issue 17). A statement without
+ * them points at the shared empty one (stmt_no_solve, ...), never NULL. */
+typedef struct StmtSolve {
+    const char *var;         /* the varied name */
+    Pos var_pos;
+    Expr *lo, *hi;           /* optional bracket */
+} StmtSolve;
+
+typedef struct StmtAs {
+    const char *text;        /* the unit as written after `as` */
+    const Unit *unit;        /* shared, see unit_shared */
+    Pos pos;
+} StmtAs;
+
+typedef struct StmtFigure {
+    const char *kind;        /* hgl, moody or pump */
+    Expr **args;             /* its arguments */
+    size_t nargs;
+} StmtFigure;
+
+extern const StmtSolve stmt_no_solve;
+extern const StmtAs stmt_no_as;
+extern const StmtFigure stmt_no_figure;
+
 typedef struct Stmt {
     StmtKind kind;
     int index;               /* position in Document.stmts: the name's slot */
     Pos pos;                 /* first character of the statement */
-    const char *line;        /* the source line as written, without the comment */
     const char *name;        /* DEF, SOLVE */
     Pos name_pos;
     Expr *expr;              /* DEF */
-    bool has_as;             /* DEF, SOLVE */
-    const char *as_text;
-    const Unit *as_unit;     /* when has_as (shared, see unit_shared) */
-    Pos as_pos;
-    const char *var;         /* SOLVE: the varied name */
-    Pos var_pos;
-    int var_slot;
+    const StmtAs *as;        /* DEF, SOLVE when has_as */
+    const StmtSolve *solve;  /* SOLVE */
     Expr *lhs, *rhs;         /* SOLVE: the equation; CHECK: the two sides */
-    Expr *lo, *hi;           /* SOLVE: optional bracket */
     const char *label;       /* CHECK */
+    int var_slot;            /* SOLVE: the varied name's slot */
+    CmpOp cmp;
+    bool has_as;             /* DEF, SOLVE */
     bool finding;            /* CHECK written `finding LABEL: A OP B`: a yes/no
                                 answer recorded, never counted as a check */
-    CmpOp cmp;
+    bool parse_failed;       /* nothing to evaluate: errors were reported */
     const char *description; /* trailing comment, citations removed; NOTE: its text */
     Cite *cites;             /* ncites of them; NULL when none */
     size_t ncites;
     PathSpec *path;          /* PATH */
     NetworkSpec *network;    /* NETWORK */
     CurveSpec *curve;        /* CURVE */
-    const char *figure;      /* FIGURE: hgl, moody or pump */
-    Expr **args;             /* FIGURE: its arguments */
-    size_t nargs;
+    const StmtFigure *fig;   /* FIGURE */
     int *deps;               /* slots this statement reads directly, ascending */
     size_t ndeps;
-    bool parse_failed;       /* nothing to evaluate: errors were reported */
 } Stmt;
 
 /* ---- prose ------------------------------------------------------------- */

@@ -18,6 +18,10 @@
  * parse_failed set (so its name, if any, is still known) after reporting. */
 Stmt *parse_statement(Arena *a, const char *line, size_t len, Pos start, DiagList *diags);
 
+/* A zeroed statement in `a` with its optional parts at the shared empty ones
+ * (stmt_no_solve, stmt_no_as, stmt_no_figure) and no slot for a solve. */
+Stmt *stmt_new(Arena *a);
+
 /* Parse an expression that is all of text[0..len) (a table cell), with
  * positions counted from `start`; NULL after reporting on error. */
 Expr *parse_expression_at(Arena *a, const char *text, size_t len, Pos start, DiagList *diags);

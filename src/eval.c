@@ -543,7 +543,7 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
             break;
         }
         if (s->has_as)
-            v = eval_as_restate(ev, v, s->as_unit);
+            v = eval_as_restate(ev, v, s->as->unit);
         res->value = v;
         if (v.kind == VAL_NUMBER) {
             /* A plain reference to another name keeps that name's unit. */
@@ -553,7 +553,7 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
             if (!s->has_as && e->kind == EXPR_NAME && e->slot >= 0)
                 res->shown = ev->results[e->slot].shown;
             else
-                res->shown = s->has_as ? s->as_unit : eval_shown_unit(ev, &v);
+                res->shown = s->has_as ? s->as->unit : eval_shown_unit(ev, &v);
         }
         res->state = RES_OK;
         break;

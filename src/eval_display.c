@@ -104,7 +104,7 @@ bool eval_as_fits(EvalCtx *c, const Stmt *s, const Value *v)
 {
     if (!s->has_as)
         return true;
-    return eval_unit_fits(c->diags, c->ev->units, s->as_pos, s->as_text, s->as_unit, v);
+    return eval_unit_fits(c->diags, c->ev->units, s->as->pos, s->as->text, s->as->unit, v);
 }
 
 /* Inline {name}, {name.field} and {name as unit} in prose: the field must

@@ -172,7 +172,7 @@ void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, Diag
     if (var->state != RES_OK)
         return;
     if (var->value.kind != VAL_NUMBER) {
-        diag_error(diags, s->var_pos, "'%s' must be a number to be solved for", s->var);
+        diag_error(diags, s->solve->var_pos, "'%s' must be a number to be solved for", s->solve->var);
         res->state = RES_FAILED;
         return;
     }
@@ -202,27 +202,27 @@ void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, Diag
         /* an identity (5 = 5) holds for every value and a contradiction for
          * none: either way there is nothing to solve for */
         diag_error(diags, s->lhs->pos, "the equation does not depend on %s: no statement it reads "
-                                       "uses %s, so solving cannot choose a value", s->var, s->var);
+                                       "uses %s, so solving cannot choose a value", s->solve->var, s->solve->var);
         res->state = RES_FAILED;
         return;
     }
     Value lo, hi;
-    bool bracket = s->lo && s->hi;
+    bool bracket = s->solve->lo && s->solve->hi;
     if (bracket) {
-        bool okb = eval_expr(&c, s->lo, &lo);
-        okb = eval_expr(&c, s->hi, &hi) && okb;
+        bool okb = eval_expr(&c, s->solve->lo, &lo);
+        okb = eval_expr(&c, s->solve->hi, &hi) && okb;
         if (!okb) {
             res->state = RES_FAILED;
             return;
         }
         const Value *ends[2] = {&lo, &hi};
-        const Expr *ex[2] = {s->lo, s->hi};
+        const Expr *ex[2] = {s->solve->lo, s->solve->hi};
         for (int k = 0; k < 2; k++) {
             if (ends[k]->kind != VAL_NUMBER || !dim_eq(ends[k]->q.dim, trial.q.dim)) {
                 char de[128], dv[128];
                 eval_describe_operand(&c, ex[k], ends[k], de, sizeof de);
                 dim_describe(trial.q.dim, trial.q.temp, ev->units, dv, sizeof dv);
-                diag_error(diags, ex[k]->pos, "the bracket must have the dimension of '%s', %s; found %s", s->var, dv, de);
+                diag_error(diags, ex[k]->pos, "the bracket must have the dimension of '%s', %s; found %s", s->solve->var, dv, de);
                 res->state = RES_FAILED;
                 return;
             }
@@ -278,10 +278,10 @@ void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, Diag
         snprintf(where, sizeof where, "%s%s%s", num, plain ? "" : " ", plain ? "" : var->shown->text);
         format_si(ev, sd->lhs.q.si, l.q.dim, lv, sizeof lv);
         format_si(ev, sd->rhs.q.si, l.q.dim, rv, sizeof rv);
-        diag_error(diags, s->lo ? s->lo->pos : s->var_pos,
+        diag_error(diags, s->solve->lo ? s->solve->lo->pos : s->solve->var_pos,
                    "the equation changes sign near %s = %s but has no root there (left %s, right "
                    "%s): a pole or a jump in the bracket",
-                   s->var, where, lv, rv);
+                   s->solve->var, where, lv, rv);
         res->state = RES_FAILED;
         return;
     }
@@ -299,7 +299,7 @@ void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, Diag
         snprintf(b, sizeof b, "%s%s%s", nb, plain ? "" : " ", plain ? "" : vu.text);
         format_si(ev, rep.f_lo, l.q.dim, fa, sizeof fa);
         format_si(ev, rep.f_hi, l.q.dim, fb, sizeof fb);
-        Pos at = s->lo ? s->lo->pos : s->var_pos;
+        Pos at = s->solve->lo ? s->solve->lo->pos : s->solve->var_pos;
         switch (rep.status) {
         case SOLVE_NO_BRACKET:
             diag_error(diags, at,
@@ -312,7 +312,7 @@ void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, Diag
                                       "(a value is not finite or a function fails there)", a, b);
             else
                 diag_error(diags, at, "no root found by expanding around the trial value of '%s' "
-                                      "(reached %s to %s); give a bracket with 'between LO and HI'", s->var, a, b);
+                                      "(reached %s to %s); give a bracket with 'between LO and HI'", s->solve->var, a, b);
             break;
         case SOLVE_MAX_ITER:
             diag_error(diags, at, "the solver did not converge in %d iterations", SOLVE_MAX_ITERATIONS);
@@ -331,8 +331,8 @@ void eval_solve(Evaluated *ev, const Stmt *s, StmtResult *res, CallCtx *cc, Diag
         return;
     }
     if (s->has_as)
-        v = eval_as_restate(ev, v, s->as_unit);
+        v = eval_as_restate(ev, v, s->as->unit);
     res->value = v;
-    res->shown = s->has_as ? s->as_unit : var->shown;
+    res->shown = s->has_as ? s->as->unit : var->shown;
     res->state = RES_OK;
 }

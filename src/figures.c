@@ -7,10 +7,10 @@
 
 void eval_figure(const Stmt *s, StmtResult *res, EvalCtx *c)
 {
-    Value *args = arena_alloc(&c->doc->arena, (s->nargs + 1) * sizeof *args);
+    Value *args = arena_alloc(&c->doc->arena, (s->fig->nargs + 1) * sizeof *args);
     bool ok = true;
-    for (size_t i = 0; i < s->nargs; i++)
-        ok = eval_expr(c, s->args[i], &args[i]) && ok;
+    for (size_t i = 0; i < s->fig->nargs; i++)
+        ok = eval_expr(c, s->fig->args[i], &args[i]) && ok;
     if (!ok) {
         res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
         return;

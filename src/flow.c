@@ -323,15 +323,15 @@ static const PathResult *path_of(CallCtx *cx, const Stmt *s, const Value *v, siz
         return v->rec->native;
     char got[96];
     value_describe(v, cx->units, got, sizeof got);
-    diag_error(cx->diags, s->args[i]->pos, "figure %s: argument %zu must be a path, found %s", s->figure, i + 1, got);
+    diag_error(cx->diags, s->fig->args[i]->pos, "figure %s: argument %zu must be a path, found %s", s->fig->kind, i + 1, got);
     return NULL;
 }
 
 /* Hydraulic and energy grade lines and the pipe profile along the path. */
 static bool figure_hgl(CallCtx *cx, const Stmt *s, const Value *args, FigureData *fd)
 {
-    if (s->nargs != 1) {
-        diag_error(cx->diags, s->name_pos, "figure hgl takes one path, found %zu arguments", s->nargs);
+    if (s->fig->nargs != 1) {
+        diag_error(cx->diags, s->name_pos, "figure hgl takes one path, found %zu arguments", s->fig->nargs);
         return false;
     }
     const PathResult *pr = path_of(cx, s, &args[0], 0);
@@ -414,10 +414,10 @@ static bool figure_moody(CallCtx *cx, const Stmt *s, const Value *args, FigureDa
     }
     /* Operating points. */
     size_t cap = 0;
-    for (size_t i = 0; i < s->nargs; i++)
+    for (size_t i = 0; i < s->fig->nargs; i++)
         cap += args[i].kind == VAL_RECORD && args[i].rec->native ? ((const PathResult *)args[i].rec->native)->nsegs : 1;
     fd->markers = arena_alloc(cx->arena, (cap + 1) * sizeof *fd->markers);
-    for (size_t i = 0; i < s->nargs; i++) {
+    for (size_t i = 0; i < s->fig->nargs; i++) {
         if (args[i].kind == VAL_RECORD) {
             const PathResult *pr = path_of(cx, s, &args[i], i);
             if (!pr)
@@ -433,16 +433,16 @@ static bool figure_moody(CallCtx *cx, const Stmt *s, const Value *args, FigureDa
             continue;
         }
         /* Re, f as two pure numbers. */
-        if (i + 1 >= s->nargs || args[i].kind != VAL_NUMBER || args[i + 1].kind != VAL_NUMBER ||
+        if (i + 1 >= s->fig->nargs || args[i].kind != VAL_NUMBER || args[i + 1].kind != VAL_NUMBER ||
             !dim_is_none(args[i].q.dim) || !dim_is_none(args[i + 1].q.dim)) {
-            diag_error(cx->diags, s->args[i]->pos,
+            diag_error(cx->diags, s->fig->args[i]->pos,
                        "figure moody takes paths, or pairs of pure numbers Re, f, as operating points");
             return false;
         }
         Marker *mk = &fd->markers[fd->nmarkers++];
         mk->x = args[i].q.si;
         mk->y = args[i + 1].q.si;
-        const Expr *fe = s->args[i + 1];
+        const Expr *fe = s->fig->args[i + 1];
         mk->label = fe->kind == EXPR_NAME ? fe->text : "operating point";
         i++;
     }
@@ -462,13 +462,13 @@ static const char *capitalised(CallCtx *cx, const char *word)
  * laws), on logarithmic axes for a log-log curve, and each table point. */
 static bool figure_curve(CallCtx *cx, const Stmt *s, const Value *args, FigureData *fd)
 {
-    const CurveData *cd = s->nargs == 1 ? curve_of(&args[0]) : NULL;
+    const CurveData *cd = s->fig->nargs == 1 ? curve_of(&args[0]) : NULL;
     if (!cd) {
         char got[96] = "nothing";
-        if (s->nargs == 1)
+        if (s->fig->nargs == 1)
             value_describe(&args[0], cx->units, got, sizeof got);
-        diag_error(cx->diags, s->nargs ? s->args[0]->pos : s->name_pos,
-                   "figure curve takes one curve (a ```curve NAME block), found %s", s->nargs == 1 ? got : "");
+        diag_error(cx->diags, s->fig->nargs ? s->fig->args[0]->pos : s->name_pos,
+                   "figure curve takes one curve (a ```curve NAME block), found %s", s->fig->nargs == 1 ? got : "");
         return false;
     }
     const Curve *c = &cd->curve;
@@ -500,26 +500,26 @@ static bool figure_curve(CallCtx *cx, const Stmt *s, const Value *args, FigureDa
 /* Pump curve, system curve H = H_static + k*Q^2, and where they cross. */
 static bool figure_pump(CallCtx *cx, const Stmt *s, const Value *args, FigureData *fd)
 {
-    if (s->nargs != 3) {
-        diag_error(cx->diags, s->name_pos, "figure pump takes a pump, H_static and k, found %zu arguments", s->nargs);
+    if (s->fig->nargs != 3) {
+        diag_error(cx->diags, s->name_pos, "figure pump takes a pump, H_static and k, found %zu arguments", s->fig->nargs);
         return false;
     }
     const CurveData *cd = curve_of(&args[0]);
     if (cd && !(dim_eq(cd->x_dim, DIM_FLOW) && dim_eq(cd->y_dim, DIM_L))) {
-        diag_error(cx->diags, s->args[0]->pos, "figure pump: curve '%s' must give head (a length) against flow",
+        diag_error(cx->diags, s->fig->args[0]->pos, "figure pump: curve '%s' must give head (a length) against flow",
                    cd->name);
         return false;
     }
     if (!cd && (args[0].kind != VAL_RECORD || strcmp(args[0].rec->type, "pump") != 0 || !args[0].rec->native)) {
         char got[96];
         value_describe(&args[0], cx->units, got, sizeof got);
-        diag_error(cx->diags, s->args[0]->pos,
+        diag_error(cx->diags, s->fig->args[0]->pos,
                    "figure pump: argument 1 must be a pump (pump_curve(...)) or a curve of head against flow, found %s", got);
         return false;
     }
     Dim k_dim = dim_div(DIM_L, dim_mul(DIM_FLOW, DIM_FLOW));
-    if (!need(cx, &args[1], DIM_L, s->args[1]->pos, "figure pump: H_static") ||
-        !need(cx, &args[2], k_dim, s->args[2]->pos, "figure pump: k"))
+    if (!need(cx, &args[1], DIM_L, s->fig->args[1]->pos, "figure pump: H_static") ||
+        !need(cx, &args[2], k_dim, s->fig->args[2]->pos, "figure pump: k"))
         return false;
     const PumpCurve *pc = cd ? NULL : args[0].rec->native;
     double hs = args[1].q.si, k = args[2].q.si;
@@ -568,19 +568,19 @@ static bool figure_pump(CallCtx *cx, const Stmt *s, const Value *args, FigureDat
  * own result (pdf_network.c). */
 static bool figure_network(CallCtx *cx, const Stmt *s, const Value *args, FigureData *fd)
 {
-    if (s->nargs != 1) {
-        diag_error(cx->diags, s->name_pos, "figure network takes one network, found %zu arguments", s->nargs);
+    if (s->fig->nargs != 1) {
+        diag_error(cx->diags, s->name_pos, "figure network takes one network, found %zu arguments", s->fig->nargs);
         return false;
     }
     if (args[0].kind != VAL_RECORD || strcmp(args[0].rec->type, "network") != 0 || !args[0].rec->native) {
         char got[96];
         value_describe(&args[0], cx->units, got, sizeof got);
-        diag_error(cx->diags, s->args[0]->pos, "figure network: the argument must be a network, found %s", got);
+        diag_error(cx->diags, s->fig->args[0]->pos, "figure network: the argument must be a network, found %s", got);
         return false;
     }
     const NetworkResult *nr = args[0].rec->native;
     if (!nr->has_xy) {
-        diag_error(cx->diags, s->args[0]->pos,
+        diag_error(cx->diags, s->fig->args[0]->pos,
                    "figure network draws the nodes where they are: give the node table 'x' and 'y' columns");
         return false;
     }
@@ -607,21 +607,21 @@ static bool figure_network(CallCtx *cx, const Stmt *s, const Value *args, Figure
 bool flow_figure(CallCtx *cx, const Stmt *s, const Value *args, FigureData **out)
 {
     FigureData *fd = arena_alloc(cx->arena, sizeof *fd);
-    fd->kind = s->figure;
+    fd->kind = s->fig->kind;
     fd->band_lo = fd->band_hi = NAN;
     bool ok;
-    if (strcmp(s->figure, "hgl") == 0)
+    if (strcmp(s->fig->kind, "hgl") == 0)
         ok = figure_hgl(cx, s, args, fd);
-    else if (strcmp(s->figure, "moody") == 0)
+    else if (strcmp(s->fig->kind, "moody") == 0)
         ok = figure_moody(cx, s, args, fd);
-    else if (strcmp(s->figure, "pump") == 0)
+    else if (strcmp(s->fig->kind, "pump") == 0)
         ok = figure_pump(cx, s, args, fd);
-    else if (strcmp(s->figure, "curve") == 0)
+    else if (strcmp(s->fig->kind, "curve") == 0)
         ok = figure_curve(cx, s, args, fd);
-    else if (strcmp(s->figure, "network") == 0)
+    else if (strcmp(s->fig->kind, "network") == 0)
         ok = figure_network(cx, s, args, fd);
     else {
-        diag_error(cx->diags, s->name_pos, "unknown figure '%s' (hgl, moody, pump, curve or network)", s->figure);
+        diag_error(cx->diags, s->name_pos, "unknown figure '%s' (hgl, moody, pump, curve or network)", s->fig->kind);
         ok = false;
     }
     *out = ok ? fd : NULL;

@@ -507,7 +507,7 @@ static void hover_name(const Evaluated *ev, const Stmt *s, StrBuf *out)
     sb_puts(out, "\n\n```calc\n");
     if (s->kind == STMT_DEF && s->expr) {
         render_expr_text(ev, s->expr, false, &f);
-        sb_printf(out, "%s = %s%s%s\n", s->name, sb_str(&f), s->has_as ? " as " : "", s->has_as ? s->as_text : "");
+        sb_printf(out, "%s = %s%s%s\n", s->name, sb_str(&f), s->has_as ? " as " : "", s->has_as ? s->as->text : "");
         if (r->state == RES_OK && expr_reads_names(s->expr)) {
             render_expr_text(ev, s->expr, true, &v);
             sb_printf(out, "  = %s\n", sb_str(&v));
@@ -518,12 +518,12 @@ static void hover_name(const Evaluated *ev, const Stmt *s, StrBuf *out)
         StrBuf l = {0}, rr = {0};
         render_expr_text(ev, s->lhs, false, &l);
         render_expr_text(ev, s->rhs, false, &rr);
-        sb_printf(out, "%s = solve %s where %s = %s\n", s->name, s->var, sb_str(&l), sb_str(&rr));
+        sb_printf(out, "%s = solve %s where %s = %s\n", s->name, s->solve->var, sb_str(&l), sb_str(&rr));
         if (r->state == RES_OK) {
             char res[64];
             Value resid = value_number(qty(r->sides->solve.residual, r->sides->lhs.q.dim));
             render_quantity(ev, &resid, &r->sides->lhs_shown, res, sizeof res);
-            sb_printf(out, "  at %s = %s: residual %s after %d iterations\n", s->var, sb_str(&val), res,
+            sb_printf(out, "  at %s = %s: residual %s after %d iterations\n", s->solve->var, sb_str(&val), res,
                       r->sides->solve.iterations);
         }
         sb_free(&l);

@@ -52,6 +52,19 @@ static void expected(Parser *p, const char *what)
 }
 
 const ExprCall expr_no_call;
+const StmtSolve stmt_no_solve;
+const StmtAs stmt_no_as;        /* all zero: what the fields held when they were the statement's */
+const StmtFigure stmt_no_figure;
+
+Stmt *stmt_new(Arena *a)
+{
+    Stmt *st = arena_alloc(a, sizeof *st);
+    st->var_slot = SLOT_UNRESOLVED;
+    st->as = &stmt_no_as;
+    st->solve = &stmt_no_solve;
+    st->fig = &stmt_no_figure;
+    return st;
+}
 
 static Expr *new_expr(Parser *p, ExprKind kind, Pos pos)
 {
@@ -501,11 +514,13 @@ static int parse_as(Parser *p, Stmt *st)
             fail(p, sp, "%s", "a unit is written without spaces (write lbf*s/ft^2, not lbf * s / ft^2)");
             return 0;
         }
+    StmtAs *as = arena_alloc(p->arena, sizeof *as);
+    as->text = arena_strndup(p->arena, s + i, j - i);
+    as->pos = upos;
+    as->unit = unit_shared(s + i, j - i);
     st->has_as = 1;
-    st->as_text = arena_strndup(p->arena, s + i, j - i);
-    st->as_pos = upos;
-    st->as_unit = unit_shared(s + i, j - i);
-    if (!st->as_unit) { /* say why */
+    st->as = as;
+    if (!as->unit) { /* say why */
         Unit bad;
         parse_unit(s + i, j - i, upos, &bad, p->diags);
         p->failed = 1;
@@ -580,15 +595,7 @@ Stmt *parse_statement(Arena *a, const char *line, size_t len, Pos start, DiagLis
     lex_init(&p.lx, line, len, start, diags);
     advance(&p);
 
-    Stmt *st = arena_alloc(a, sizeof *st);
-    st->var_slot = SLOT_UNRESOLVED;
-    size_t code_end = p.lx.comment_at;
-    while (code_end > 0 && (line[code_end - 1] == ' ' || line[code_end - 1] == '\t' || line[code_end - 1] == '\r'))
-        code_end--;
-    size_t code_start = 0;
-    while (code_start < code_end && (line[code_start] == ' ' || line[code_start] == '\t'))
-        code_start++;
-    st->line = arena_strndup(a, line + code_start, code_end - code_start);
+    Stmt *st = stmt_new(a);
     st->pos = p.tok.pos;
 
     if (p.lx.comment_at < len) {
@@ -658,10 +665,12 @@ Stmt *parse_statement(Arena *a, const char *line, size_t len, Pos start, DiagLis
             st->kind = STMT_FIGURE;
             Expr *fe = parse_postfix(&p);
             if (fe && fe->kind == EXPR_CALL) {
-                st->figure = fe->text;
+                StmtFigure *f = arena_alloc(a, sizeof *f);
+                f->kind = fe->text;
+                f->args = fe->call->args;
+                f->nargs = fe->call->nargs;
+                st->fig = f;
                 st->name_pos = fe->pos;
-                st->args = fe->call->args;
-                st->nargs = fe->call->nargs;
                 if (fe->call->nkw) {
                     fail(&p, fe->call->kw_pos[0], "%s", "a figure takes no keyword arguments");
                 }
@@ -698,13 +707,15 @@ Stmt *parse_statement(Arena *a, const char *line, size_t len, Pos start, DiagLis
     advance(&p);
 
     if (tok_is_word(&p.tok, "solve")) {
+        StmtSolve *sv = arena_alloc(a, sizeof *sv);
         st->kind = STMT_SOLVE;
+        st->solve = sv;
         advance(&p);
         if (p.tok.kind != TOK_NAME) {
             expected(&p, "the name to vary after 'solve'");
         } else {
-            st->var = arena_strndup(a, p.tok.text, p.tok.len);
-            st->var_pos = p.tok.pos;
+            sv->var = arena_strndup(a, p.tok.text, p.tok.len);
+            sv->var_pos = p.tok.pos;
             advance(&p);
             if (!tok_is_word(&p.tok, "where"))
                 expected(&p, "'where' after the varied name");
@@ -720,12 +731,12 @@ Stmt *parse_statement(Arena *a, const char *line, size_t len, Pos start, DiagLis
             }
             if (!p.failed && tok_is_word(&p.tok, "between")) {
                 advance(&p);
-                st->lo = parse_expr(&p);
-                if (st->lo && !tok_is_word(&p.tok, "and"))
+                sv->lo = parse_expr(&p);
+                if (sv->lo && !tok_is_word(&p.tok, "and"))
                     expected(&p, "'and' between the two ends of the bracket");
                 if (!p.failed) {
                     advance(&p);
-                    st->hi = parse_expr(&p);
+                    sv->hi = parse_expr(&p);
                 }
             }
         }

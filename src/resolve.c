@@ -408,19 +408,19 @@ static void resolve_statements(Document *doc, DiagList *diags)
                         ok = resolve_expr(&r, cells[c]) && ok;
             }
         } else if (s->kind == STMT_FIGURE) {
-            for (size_t k = 0; k < s->nargs; k++)
-                ok = resolve_expr(&r, s->args[k]) && ok;
+            for (size_t k = 0; k < s->fig->nargs; k++)
+                ok = resolve_expr(&r, s->fig->args[k]) && ok;
         } else if (s->kind == STMT_SOLVE) {
-            s->var_slot = resolve_name(&r, s->var, s->var_pos, false);
+            s->var_slot = resolve_name(&r, s->solve->var, s->solve->var_pos, false);
             ok = s->var_slot >= 0;
             if (s->var_slot >= 0 && doc->stmts[s->var_slot]->kind == STMT_CHECK)
                 ok = 0;
             ok = resolve_expr(&r, s->lhs) && ok;
             ok = resolve_expr(&r, s->rhs) && ok;
-            if (s->lo)
-                ok = resolve_expr(&r, s->lo) && ok;
-            if (s->hi)
-                ok = resolve_expr(&r, s->hi) && ok;
+            if (s->solve->lo)
+                ok = resolve_expr(&r, s->solve->lo) && ok;
+            if (s->solve->hi)
+                ok = resolve_expr(&r, s->solve->hi) && ok;
         }
         if (!ok)
             s->parse_failed = 1;

@@ -378,17 +378,14 @@ static const char *field_name(Arena *a, const char *id)
     return f;
 }
 
-/* A fenced block's statement: its kind, name and the line a listing shows
- * ("path NAME", "curve NAME", "network NAME"). */
-static Stmt *fence_stmt_new(Arena *a, StmtKind kind, const char *word, const char *name, Pos at)
+/* A fenced block's statement: its kind and name. */
+static Stmt *fence_stmt_new(Arena *a, StmtKind kind, const char *name, Pos at)
 {
-    Stmt *st = arena_alloc(a, sizeof *st);
+    Stmt *st = stmt_new(a);
     st->kind = kind;
     st->pos = at;
     st->name = name;
     st->name_pos = at;
-    st->var_slot = SLOT_UNRESOLVED;
-    st->line = arena_printf(a, "%s %s", word, name);
     return st;
 }
 
@@ -418,7 +415,7 @@ static bool fence_option_read(const FenceLine *l, Cell *key, Cell *value, const 
 
 Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags)
 {
-    Stmt *st = fence_stmt_new(a, STMT_PATH, "path", name, at);
+    Stmt *st = fence_stmt_new(a, STMT_PATH, name, at);
     PathSpec *ps = arena_alloc(a, sizeof *ps);
     st->path = ps;
     bool ok = true;
@@ -786,7 +783,7 @@ CaseTable *tables_parse_cases(Arena *a, Pos at, const FenceLine *lines, size_t n
  * where the values are known. */
 Stmt *tables_parse_curve(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags)
 {
-    Stmt *st = fence_stmt_new(a, STMT_CURVE, "curve", name, at);
+    Stmt *st = fence_stmt_new(a, STMT_CURVE, name, at);
     CurveSpec *cs = arena_alloc(a, sizeof *cs);
     st->curve = cs;
     bool ok = true;
@@ -1288,7 +1285,7 @@ static bool check_network_reach(Arena *a, const NetworkSpec *ns, DiagList *diags
 
 Stmt *tables_parse_network(Arena *a, const char *name, Pos at, const FenceLine *lines, size_t n, DiagList *diags)
 {
-    Stmt *st = fence_stmt_new(a, STMT_NETWORK, "network", name, at);
+    Stmt *st = fence_stmt_new(a, STMT_NETWORK, name, at);
     NetworkSpec *ns = arena_alloc(a, sizeof *ns);
     st->network = ns;
     bool ok = true;

@@ -207,7 +207,7 @@ static void stmt_text(const Evaluated *ev, const Stmt *s, StrBuf *out)
         render_expr_text(ev, s->expr, false, out);
         break;
     case STMT_SOLVE:
-        sb_printf(out, "%s = solve %s where ", s->name, s->var);
+        sb_printf(out, "%s = solve %s where ", s->name, s->solve->var);
         render_expr_text(ev, s->lhs, false, out);
         sb_puts(out, " = ");
         render_expr_text(ev, s->rhs, false, out);

@@ -96,9 +96,9 @@ static void row_solve(const Evaluated *ev, const Stmt *s, const StmtResult *r, M
     row->lhs_formula = expr_text(ev, NULL, s->lhs, false, a);
     row->rhs_formula = expr_text(ev, NULL, s->rhs, false, a);
     row->formula = arena_printf(a, "%s = %s", row->lhs_formula, row->rhs_formula);
-    if (s->lo && s->hi) {
-        row->lo_text = expr_text(ev, NULL, s->lo, false, a);
-        row->hi_text = expr_text(ev, NULL, s->hi, false, a);
+    if (s->solve->lo && s->solve->hi) {
+        row->lo_text = expr_text(ev, NULL, s->solve->lo, false, a);
+        row->hi_text = expr_text(ev, NULL, s->solve->hi, false, a);
     }
     if (!row->evaluated)
         return;

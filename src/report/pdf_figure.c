@@ -490,10 +490,10 @@ static void draw_markers(Pdf *P, const FigureData *fd, const Axis *ax, const Axi
 /* The segment ids of a grade-line figure's path, between its junctions. */
 static void draw_segments(Pdf *P, const Stmt *st, const Axis *ax, const Axis *ay, const Unit *xu)
 {
-    if (st->nargs < 1 || !st->args[0] || st->args[0]->kind != EXPR_NAME || st->args[0]->slot < 0 ||
-        (size_t)st->args[0]->slot >= P->d->nstmts)
+    if (st->fig->nargs < 1 || !st->fig->args[0] || st->fig->args[0]->kind != EXPR_NAME || st->fig->args[0]->slot < 0 ||
+        (size_t)st->fig->args[0]->slot >= P->d->nstmts)
         return;
-    const PathResult *pr = P->ev->results[st->args[0]->slot].path;
+    const PathResult *pr = P->ev->results[st->fig->args[0]->slot].path;
     if (!pr)
         return;
     for (size_t i = 0; i < pr->nsegs; i++) {
@@ -516,10 +516,10 @@ static void draw_segments(Pdf *P, const Stmt *st, const Axis *ax, const Axis *ay
  * lowest pressure; the others mark the path's devices. */
 static const char *hgl_suffix(Pdf *P, const Stmt *st, const FigureData *fd)
 {
-    if (strcmp(fd->kind, "hgl") != 0 || fd->nmarkers < 1 || st->nargs < 1 || !st->args[0] ||
-        st->args[0]->kind != EXPR_NAME || st->args[0]->slot < 0 || (size_t)st->args[0]->slot >= P->d->nstmts)
+    if (strcmp(fd->kind, "hgl") != 0 || fd->nmarkers < 1 || st->fig->nargs < 1 || !st->fig->args[0] ||
+        st->fig->args[0]->kind != EXPR_NAME || st->fig->args[0]->slot < 0 || (size_t)st->fig->args[0]->slot >= P->d->nstmts)
         return NULL;
-    const PathResult *pr = P->ev->results[st->args[0]->slot].path;
+    const PathResult *pr = P->ev->results[st->fig->args[0]->slot].path;
     if (!pr)
         return NULL;
     Unit uP = unit_default(DIM_PRESSURE, TEMP_NONE, P->ev->units);
@@ -543,19 +543,19 @@ static void figure_margin(Pdf *P, const Stmt *st, int number, double top)
 
 static const char *default_caption(const Pdf *P, const Stmt *st)
 {
-    const char *arg = st->nargs && st->args[0] && st->args[0]->kind == EXPR_NAME ? st->args[0]->text : "";
+    const char *arg = st->fig->nargs && st->fig->args[0] && st->fig->args[0]->kind == EXPR_NAME ? st->fig->args[0]->text : "";
     Arena *a = (Arena *)&P->arena;
-    if (strcmp(st->figure, "hgl") == 0)
+    if (strcmp(st->fig->kind, "hgl") == 0)
         return arena_printf(a, "Hydraulic and energy grade lines along %s", arg);
-    if (strcmp(st->figure, "moody") == 0)
+    if (strcmp(st->fig->kind, "moody") == 0)
         return "Darcy friction factor against Reynolds number";
-    if (strcmp(st->figure, "pump") == 0)
+    if (strcmp(st->fig->kind, "pump") == 0)
         return arena_printf(a, "Pump curve of %s and system curve", arg);
-    if (strcmp(st->figure, "network") == 0)
+    if (strcmp(st->fig->kind, "network") == 0)
         return arena_printf(a, "Network %s: links shaded by velocity, arrows in the direction of flow", arg);
-    if (strcmp(st->figure, "curve") == 0)
+    if (strcmp(st->fig->kind, "curve") == 0)
         return arena_printf(a, "Curve %s with its table points", arg);
-    return st->figure;
+    return st->fig->kind;
 }
 
 double pdf_fn_figure(Pdf *P, const Item *it, double top)
@@ -566,14 +566,14 @@ double pdf_fn_figure(Pdf *P, const Item *it, double top)
     const Sheet *s = &P->sheet;
     double x0 = s->body_l, W = s->body_r - s->body_l - s->margin_w;
     figure_margin(P, st, it->aux, top);
-    if (fd && strcmp(fd->kind, "network") == 0 && st->nargs == 1 && st->args[0]->kind == EXPR_NAME &&
-        st->args[0]->slot >= 0 && P->ev->results[st->args[0]->slot].network)
-        return pdf_network_figure(P, st, P->ev->results[st->args[0]->slot].network, it->aux,
+    if (fd && strcmp(fd->kind, "network") == 0 && st->fig->nargs == 1 && st->fig->args[0]->kind == EXPR_NAME &&
+        st->fig->args[0]->slot >= 0 && P->ev->results[st->fig->args[0]->slot].network)
+        return pdf_network_figure(P, st, P->ev->results[st->fig->args[0]->slot].network, it->aux,
                                   default_caption(P, st), top);
     Axis ax = {0}, ay = {0};
     if (!fd || !figure_axes(fd, &ax, &ay)) {
         char *t = arena_printf(&P->arena, "Figure %d — %s: no data to draw.", it->aux,
-                               st->description && *st->description ? st->description : st->figure);
+                               st->description && *st->description ? st->description : st->fig->kind);
         return pdf_wrap_color(P, FONT_SERIF_ITALIC, 9, 11, x0, top, W, t, FAIL) + 4;
     }
 

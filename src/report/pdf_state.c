@@ -81,8 +81,8 @@ void pdf_figures_of(const Pdf *P, int slot, char *buf, size_t n)
         const Stmt *st = P->d->stmts[i];
         if (st->kind != STMT_FIGURE || !P->figure_no[i])
             continue;
-        for (size_t a = 0; a < st->nargs; a++)
-            if (st->args[a] && st->args[a]->kind == EXPR_NAME && st->args[a]->slot == slot) {
+        for (size_t a = 0; a < st->fig->nargs; a++)
+            if (st->fig->args[a] && st->fig->args[a]->kind == EXPR_NAME && st->fig->args[a]->slot == slot) {
                 nums[k++] = P->figure_no[i];
                 break;
             }

@@ -491,7 +491,7 @@ static void put_curve(const Evaluated *ev, const Stmt *s, const StmtResult *r, S
 /* A figure in the listing is its data, a small table per series. */
 static void put_figure(const Evaluated *ev, const Stmt *s, const StmtResult *r, StrBuf *out)
 {
-    sb_printf(out, "figure %s", s->figure);
+    sb_printf(out, "figure %s", s->fig->kind);
     if (s->description)
         sb_printf(out, ": %s", s->description);
     if (r->state != RES_OK || !r->figure) {
@@ -626,13 +626,13 @@ static void put_statement(const Evaluated *ev, const ReportModel *model, const S
     }
     case STMT_SOLVE: {
         const ModelRow *mr = &model->rows[s->index];
-        sb_printf(out, "%s = solve %s where %s", mr->symbol, s->var, mr->formula);
+        sb_printf(out, "%s = solve %s where %s", mr->symbol, s->solve->var, mr->formula);
         if (mr->lo_text)
             sb_printf(out, " between %s and %s", mr->lo_text, mr->hi_text);
         if (mr->evaluated) {
             sb_printf(out, " = %s", mr->result.text);
             put_comment(s, out);
-            sb_printf(out, "\n      at %s = %s: ", s->var, mr->result.text);
+            sb_printf(out, "\n      at %s = %s: ", s->solve->var, mr->result.text);
             if (mr->show_substituted)
                 sb_printf(out, "%s = ", mr->substituted);
             sb_printf(out, "%s = %s; residual %s after %d iterations", mr->lhs_at_root.text,

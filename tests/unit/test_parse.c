@@ -104,7 +104,7 @@ static void test_statement_forms(void **state)
     assert_int_equal(s->kind, STMT_DEF);
     assert_string_equal(s->name, "V");
     assert_true(s->has_as);
-    assert_string_equal(s->as_text, "ft/s");
+    assert_string_equal(s->as->text, "ft/s");
     assert_string_equal(s->description, "velocity in the riser");
     assert_int_equal(s->ncites, 2);
     assert_string_equal(s->cites[0].key, "ipc");
@@ -113,14 +113,14 @@ static void test_statement_forms(void **state)
 
     s = parse("Q2 = solve Q where h(Q) = 10 ft between 1 gal/min and 500 gal/min as L/s");
     assert_int_equal(s->kind, STMT_SOLVE);
-    assert_string_equal(s->var, "Q");
-    assert_non_null(s->lo);
-    assert_non_null(s->hi);
-    assert_string_equal(s->as_text, "L/s");
+    assert_string_equal(s->solve->var, "Q");
+    assert_non_null(s->solve->lo);
+    assert_non_null(s->solve->hi);
+    assert_string_equal(s->as->text, "L/s");
 
     s = parse("Q3 = solve Q where a = b");
     assert_int_equal(s->kind, STMT_SOLVE);
-    assert_null(s->lo);
+    assert_null(s->solve->lo);
 
     s = parse("check velocity limit: V <= 8 ft/s  # erosion [ashrae]");
     assert_int_equal(s->kind, STMT_CHECK);
