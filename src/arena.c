@@ -166,6 +166,13 @@ void *arena_alloc(Arena *a, size_t n)
          * never reused, so arena_alloc need not clear it again (a block this
          * large comes from the kernel already zero) */
         b = size >= HUGE_PAGE ? block_huge(size) : NULL;
+        if (!b && size >= HUGE_PAGE) {
+            /* no room for the mapping (an address-space limit, say): go on
+             * in the usual blocks, so a generous hint never turns into an
+             * out-of-memory exit that the document itself would not cause */
+            size = ARENA_MIN_BLOCK * 16 > n ? ARENA_MIN_BLOCK * 16 : n;
+            a->next_block = size * 2;
+        }
         if (!b) {
             b = xcalloc(1, sizeof *b + size);
             b->size = size;
