@@ -20,7 +20,7 @@
 
 /* ---- expressions ------------------------------------------------------ */
 
-typedef enum ExprKind {
+typedef enum __attribute__((packed)) ExprKind {
     EXPR_NUMBER,  /* 38 gal/min                      */
     EXPR_STRING,  /* "1-1/2"                         */
     EXPR_NAME,    /* Q, rho_w, pi                    */
@@ -31,7 +31,7 @@ typedef enum ExprKind {
     EXPR_PAREN    /* (a + b): kept for display       */
 } ExprKind;
 
-typedef enum BinOp { OP_ADD, OP_SUB, OP_MUL, OP_DIV, OP_POW } BinOp;
+typedef enum __attribute__((packed)) BinOp { OP_ADD, OP_SUB, OP_MUL, OP_DIV, OP_POW } BinOp;
 
 /* Where a name refers to. Statement slots are >= 0. */
 enum { SLOT_UNRESOLVED = -1, SLOT_PI = -2, SLOT_G = -3 };
@@ -39,28 +39,32 @@ enum { SLOT_UNRESOLVED = -1, SLOT_PI = -2, SLOT_G = -3 };
 typedef struct Expr Expr;
 typedef struct ExprCall ExprCall;
 struct Expr {
-    /* fields ordered so the node packs into 88 bytes: a calc holds a few
-     * of these per statement (issue 17) */
-    ExprKind kind;
+    /* fields ordered and packed so the node takes 72 bytes: a calc holds a
+     * few of these per statement (issue 17) */
+    ExprKind kind;           /* one byte (a packed enum) */
+    BinOp op;                /* EXPR_BINARY; one byte */
+    bool has_unit;           /* EXPR_NUMBER */
+    bool middle_dot;         /* EXPR_BINARY written with · */
     int height;              /* levels of the tree from here down (a leaf is 1);
                                 at most PARSE_MAX_DEPTH, so no walker recurses deeper */
-    Pos pos;
-    /* EXPR_NUMBER */
-    double number;           /* as written, in `unit` */
-    const char *text;        /* the literal as written: number, string or name */
-    const Unit *unit;        /* resolved unit when has_unit (shared, see unit_shared) */
-    /* EXPR_NAME: text is the name */
-    int slot;
-    /* EXPR_NEG (operand in lhs), EXPR_BINARY, EXPR_PAREN (inner in lhs) */
-    BinOp op;
+    int slot;                /* EXPR_NAME */
     int callee_slot;         /* EXPR_CALL: a record defined in the calc called as f(x), else -1 */
-    bool has_unit;
-    bool middle_dot;         /* written with · */
-    Expr *lhs, *rhs;
-    /* EXPR_CALL: text is the function name; its arguments */
-    const ExprCall *call;    /* &expr_no_call on every other node: no arguments */
-    /* EXPR_FIELD: base in lhs, text is the field name */
+    Pos pos;
+    const char *text;        /* the literal as written: number, string or name;
+                                EXPR_CALL: the function; EXPR_FIELD: the field */
+    /* One or the other, by kind: a number has no right operand. A walker
+     * reads rhs of an EXPR_BINARY only (expr_rhs() is NULL for the rest). */
+    union {
+        double number;       /* EXPR_NUMBER: as written, in `unit` */
+        Expr *rhs;           /* EXPR_BINARY */
+    };
+    const Unit *unit;        /* EXPR_NUMBER: resolved unit when has_unit (shared, see unit_shared) */
+    Expr *lhs;               /* EXPR_NEG, EXPR_PAREN (inner), EXPR_FIELD (base), EXPR_BINARY */
+    const ExprCall *call;    /* EXPR_CALL: its arguments; &expr_no_call on every other node */
 };
+
+/* The right operand of a binary node; NULL for every other kind. */
+static inline const Expr *expr_rhs(const Expr *e) { return e->kind == EXPR_BINARY ? e->rhs : NULL; }
 
 /* A call's arguments, kept apart from the node: calls are a few of the
  * nodes of a calc, and every node would otherwise carry room for them. */

@@ -11,6 +11,8 @@
 #ifndef HEADROOM_EVAL_H
 #define HEADROOM_EVAL_H
 
+#include <stdint.h>
+
 #include "doc.h"
 #include "library.h"
 #include "solve.h"
@@ -138,24 +140,32 @@ typedef struct StmtSides {
 /* The sides of a result that has none: all zero. */
 extern const StmtSides eval_no_sides;
 
-typedef struct StmtResult {
-    ResultState state;
-    Value value;             /* DEF, SOLVE: the bound value */
-    const Unit *shown;       /* DEF, SOLVE: the unit the value is shown in (numbers; shared,
-                                see unit_intern); never NULL (&unit_blank) */
-    const StmtSides *sides;  /* CHECK, SOLVE: in the arena; never NULL (&eval_no_sides) */
-    bool holds;              /* CHECK */
-    double utilization;      /* CHECK: lhs/rhs for <, <=; rhs/lhs for >, >= */
-    const char *const *warnings; /* what evaluating the row warned of, in order */
-    size_t nwarnings;
+/* What a statement made besides its value, kept out of line like the sides:
+ * most statements make none (issue 17). */
+typedef struct StmtMade {
     const PathResult *path;  /* PATH */
     const NetworkResult *network; /* NETWORK */
     const ResultTable *table;/* CURVE: its points; DEF: a table a function laid out */
     const FigureData *figure;/* FIGURE */
+} StmtMade;
+
+/* What a result that made nothing points at: all NULL. */
+extern const StmtMade eval_made_none;
+
+typedef struct StmtResult {
+    ResultState state;
+    bool holds;              /* CHECK */
+    Value value;             /* DEF, SOLVE: the bound value */
+    const Unit *shown;       /* DEF, SOLVE: the unit the value is shown in (numbers; shared,
+                                see unit_intern); never NULL (&unit_blank) */
+    const StmtSides *sides;  /* CHECK, SOLVE: in the arena; never NULL (&eval_no_sides) */
+    const StmtMade *made;    /* PATH, NETWORK, CURVE, FIGURE, a DEF that laid out a table;
+                                never NULL (&eval_made_none) */
+    double utilization;      /* CHECK: lhs/rhs for <, <=; rhs/lhs for >, >= */
+    const char *const *warnings; /* what evaluating the row warned of, in order (nwarnings) */
     const Method *const *methods; /* published methods the line used (nmethods; in the arena) */
-    size_t nmethods;
-    const MethodUse *uses;   /* how its calls applied them, with the values used */
-    size_t nuses;
+    const MethodUse *uses;   /* how its calls applied them, with the values used (nuses) */
+    uint32_t nwarnings, nmethods, nuses;
 } StmtResult;
 
 /* A parametric case table, evaluated: per row, the shown values and every

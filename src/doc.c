@@ -46,7 +46,7 @@ bool expr_reads_names(const Expr *e)
                 return true;
         return e->callee_slot >= 0;
     default:
-        return expr_reads_names(e->lhs) || expr_reads_names(e->rhs);
+        return expr_reads_names(e->lhs) || expr_reads_names(expr_rhs(e));
     }
 }
 

@@ -507,6 +507,14 @@ const Value *eval_read(const Evaluated *ev, const StmtResult *row, int slot, Uni
 /* ---- statements --------------------------------------------------------- */
 
 const StmtSides eval_no_sides;
+const StmtMade eval_made_none;
+
+const StmtMade *eval_made(Evaluated *ev, StmtMade made)
+{
+    StmtMade *m = arena_alloc(&ev->doc->arena, sizeof *m);
+    *m = made;
+    return m;
+}
 
 static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
 {
@@ -520,9 +528,10 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
     size_t nmethods = res->nmethods;
     memset(res, 0, sizeof *res);
     res->sides = &eval_no_sides;
+    res->made = &eval_made_none;
     res->shown = &unit_blank;
     res->warnings = warnings;
-    res->nwarnings = nwarnings;
+    res->nwarnings = (uint32_t)nwarnings;
     if (s->parse_failed || s->kind == STMT_NOTE)
         return;
     for (size_t k = 0; k < s->ndeps; k++)
@@ -588,17 +597,17 @@ static void eval_statement(Evaluated *ev, size_t i, DiagList *diags)
         memcpy(m, cc.methods, cc.nmethods * sizeof *m);
         res->methods = m;
     }
-    res->nmethods = cc.nmethods;
+    res->nmethods = (uint32_t)cc.nmethods;
     res->uses = NULL;
     res->nuses = 0;
     if (cc.nuses && res->state == RES_OK) {
         MethodUse *u = arena_alloc(&ev->doc->arena, cc.nuses * sizeof *u);
         memcpy(u, cc.uses, cc.nuses * sizeof *u);
         res->uses = u;
-        res->nuses = cc.nuses;
+        res->nuses = (uint32_t)cc.nuses;
     }
-    if (!res->table)
-        res->table = res->state == RES_OK ? cc.table : NULL;
+    if (!res->made->table && res->state == RES_OK && cc.table)
+        res->made = eval_made(ev, (StmtMade){.table = cc.table});
     if (cc.atmosphere_used)
         ev->atmosphere_used = true;
 }
@@ -697,7 +706,7 @@ static void keep_warnings(Evaluated *ev, size_t i, const DiagList *diags, size_t
         if (diags->items[k].severity == SEV_WARNING)
             w[j++] = arena_strdup(&ev->doc->arena, diags->items[k].message);
     ev->results[i].warnings = w;
-    ev->results[i].nwarnings = n;
+    ev->results[i].nwarnings = (uint32_t)n;
     ev->nwarnings += n;
 }
 

@@ -33,6 +33,8 @@ bool eval_expr(EvalCtx *c, const Expr *e, Value *out);
 /* "pressure (psi)": an operand's dimension and the unit it is written or
  * shown in, for messages. */
 void eval_describe_operand(EvalCtx *c, const Expr *e, const Value *v, char *buf, size_t n);
+/* `made` copied into the document's arena, for StmtResult.made. */
+const StmtMade *eval_made(Evaluated *ev, StmtMade made);
 /* A number, or an error at `e` naming its `role`. */
 bool eval_need_number(EvalCtx *c, const Expr *e, const Value *v, const char *role);
 /* The unit that states `ref` in the calc's system: "psia", "kPag". */

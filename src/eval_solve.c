@@ -82,7 +82,7 @@ static void expr_push_slots(const Expr *e, Vec *stack)
             expr_push_slots(e->call->kw[i], stack);
     }
     expr_push_slots(e->lhs, stack);
-    expr_push_slots(e->rhs, stack);
+    expr_push_slots(expr_rhs(e), stack);
 }
 
 /* Does the equation read `var` directly or through the statements it reads?
@@ -138,7 +138,7 @@ static void collect_reads(const Expr *e, int **out, size_t *n, size_t *cap)
         }
     }
     collect_reads(e->lhs, out, n, cap);
-    collect_reads(e->rhs, out, n, cap);
+    collect_reads(expr_rhs(e), out, n, cap);
     for (size_t i = 0; i < e->call->nargs; i++)
         collect_reads(e->call->args[i], out, n, cap);
     for (size_t i = 0; i < e->call->nkw; i++)

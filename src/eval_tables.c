@@ -103,7 +103,7 @@ void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, EvalCtx *c)
         res->state = RES_FAILED;
         return;
     }
-    res->path = pr;
+    res->made = eval_made(c->ev, (StmtMade){.path = pr});
     res->state = RES_OK;
 }
 
@@ -204,7 +204,7 @@ void eval_curve(const Stmt *s, StmtResult *res, EvalCtx *c)
     for (size_t k = 0; k < 2; k++)
         t->units[k] = eval_display_unit(c->ev, &v[k], eval_written_unit(c->ev, k ? cs->y[0] : cs->x[0]));
     t->cells = v;
-    res->table = t;
+    res->made = eval_made(c->ev, (StmtMade){.table = t});
     res->value = (Value){.kind = VAL_RECORD, .rec = curve_record_new(a, cd)};
     call_use_method(c->call, curve_method(cd->curve.interp));
     res->state = RES_OK;
@@ -246,6 +246,6 @@ void eval_network(Evaluated *ev, const Stmt *s, StmtResult *res, EvalCtx *c)
         res->state = RES_FAILED;
         return;
     }
-    res->network = nr;
+    res->made = eval_made(c->ev, (StmtMade){.network = nr});
     res->state = RES_OK;
 }

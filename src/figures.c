@@ -20,6 +20,6 @@ void eval_figure(const Stmt *s, StmtResult *res, EvalCtx *c)
         res->state = RES_FAILED;
         return;
     }
-    res->figure = fd;
+    res->made = eval_made(c->ev, (StmtMade){.figure = fd});
     res->state = RES_OK;
 }

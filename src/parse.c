@@ -88,7 +88,7 @@ static bool tree_grow(Parser *p, Expr *e)
     int h = 0;
     if (e->lhs && e->lhs->height > h)
         h = e->lhs->height;
-    if (e->rhs && e->rhs->height > h)
+    if (expr_rhs(e) && e->rhs->height > h)
         h = e->rhs->height;
     for (size_t i = 0; i < e->call->nargs; i++)
         if (e->call->args[i]->height > h)

@@ -386,14 +386,14 @@ static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, co
     if (!open)
         return;
     json_out_int(w, "line", s->pos.line);
-    if (s->kind == STMT_PATH && r->state == RES_OK && r->path) {
+    if (s->kind == STMT_PATH && r->state == RES_OK && r->made->path) {
         json_out_begin_array(w, "segments");
         for (size_t k = 0; k < s->path->nsegs; k++)
             json_out_string(w, NULL, s->path->segs[k].field);
         json_out_end_array(w);
     }
-    if (s->kind == STMT_NETWORK && r->state == RES_OK && r->network) {
-        const NetworkResult *nr = r->network;
+    if (s->kind == STMT_NETWORK && r->state == RES_OK && r->made->network) {
+        const NetworkResult *nr = r->made->network;
         json_out_begin_array(w, "nodes");
         for (size_t k = 0; k < s->network->nnodes; k++)
             json_out_string(w, NULL, s->network->nodes[k].field);
@@ -418,8 +418,8 @@ static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, co
         json_out_real(w, "energy_residual_m", nr->energy_residual);
         json_out_end_object(w);
     }
-    if (r->state == RES_OK && r->table)
-        table_write(w, ev, r->table, tmp);
+    if (r->state == RES_OK && r->made->table)
+        table_write(w, ev, r->made->table, tmp);
     if (s->kind == STMT_SOLVE && r->state == RES_OK) {
         json_out_real(w, "residual", r->sides->solve.residual);
         json_out_int(w, "iterations", r->sides->solve.iterations);
@@ -568,8 +568,8 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
     for (size_t i = 0; i < n; i++) {
         const Stmt *s = doc->stmts[i];
         const StmtResult *r = &ev->results[i];
-        if (s->kind == STMT_FIGURE && r->state == RES_OK && r->figure)
-            figure_write(w, s, r->figure);
+        if (s->kind == STMT_FIGURE && r->state == RES_OK && r->made->figure)
+            figure_write(w, s, r->made->figure);
     }
     json_out_end_array(w);
 

@@ -184,7 +184,7 @@ static bool use_covers(const MethodUse *u, const Expr *e)
     case EXPR_FIELD:
         return false;
     default:
-        return use_covers(u, e->lhs) && use_covers(u, e->rhs);
+        return use_covers(u, e->lhs) && use_covers(u, expr_rhs(e));
     }
 }
 

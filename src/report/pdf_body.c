@@ -701,7 +701,7 @@ void pdf_body_items(Pdf *P, Vec *items)
                     item_add(items, P, fn_stmt, st, 0, i == 0 ? 8 : 2);
                     ((Item *)items->items[items->len - 1])->warnings =
                         (int)P->ev->results[st->index].nwarnings;
-                    if (P->ev->results[st->index].table)
+                    if (P->ev->results[st->index].made->table)
                         pdf_table_items(P, items, st);
                 }
             }

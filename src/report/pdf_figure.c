@@ -493,7 +493,7 @@ static void draw_segments(Pdf *P, const Stmt *st, const Axis *ax, const Axis *ay
     if (st->fig->nargs < 1 || !st->fig->args[0] || st->fig->args[0]->kind != EXPR_NAME || st->fig->args[0]->slot < 0 ||
         (size_t)st->fig->args[0]->slot >= P->d->nstmts)
         return;
-    const PathResult *pr = P->ev->results[st->fig->args[0]->slot].path;
+    const PathResult *pr = P->ev->results[st->fig->args[0]->slot].made->path;
     if (!pr)
         return;
     for (size_t i = 0; i < pr->nsegs; i++) {
@@ -519,7 +519,7 @@ static const char *hgl_suffix(Pdf *P, const Stmt *st, const FigureData *fd)
     if (strcmp(fd->kind, "hgl") != 0 || fd->nmarkers < 1 || st->fig->nargs < 1 || !st->fig->args[0] ||
         st->fig->args[0]->kind != EXPR_NAME || st->fig->args[0]->slot < 0 || (size_t)st->fig->args[0]->slot >= P->d->nstmts)
         return NULL;
-    const PathResult *pr = P->ev->results[st->fig->args[0]->slot].path;
+    const PathResult *pr = P->ev->results[st->fig->args[0]->slot].made->path;
     if (!pr)
         return NULL;
     Unit uP = unit_default(DIM_PRESSURE, TEMP_NONE, P->ev->units);
@@ -562,13 +562,13 @@ double pdf_fn_figure(Pdf *P, const Item *it, double top)
 {
     const Stmt *st = it->p;
     const StmtResult *r = &P->ev->results[st->index];
-    const FigureData *fd = r->state == RES_OK ? r->figure : NULL;
+    const FigureData *fd = r->state == RES_OK ? r->made->figure : NULL;
     const Sheet *s = &P->sheet;
     double x0 = s->body_l, W = s->body_r - s->body_l - s->margin_w;
     figure_margin(P, st, it->aux, top);
     if (fd && strcmp(fd->kind, "network") == 0 && st->fig->nargs == 1 && st->fig->args[0]->kind == EXPR_NAME &&
-        st->fig->args[0]->slot >= 0 && P->ev->results[st->fig->args[0]->slot].network)
-        return pdf_network_figure(P, st, P->ev->results[st->fig->args[0]->slot].network, it->aux,
+        st->fig->args[0]->slot >= 0 && P->ev->results[st->fig->args[0]->slot].made->network)
+        return pdf_network_figure(P, st, P->ev->results[st->fig->args[0]->slot].made->network, it->aux,
                                   default_caption(P, st), top);
     Axis ax = {0}, ay = {0};
     if (!fd || !figure_axes(fd, &ax, &ay)) {

@@ -126,7 +126,7 @@ static double path_header(Pdf *P, const PathCols *c, const PathLayout *L, double
 static double fn_path_table(Pdf *P, const Item *it, double top)
 {
     const Stmt *st = it->p;
-    const PathResult *pr = P->ev->results[st->index].path;
+    const PathResult *pr = P->ev->results[st->index].made->path;
     PathCols c = path_cols(P, pr);
     PathLayout L = path_layout(P, &c, pr);
     double y = top - path_header(P, &c, &L, top);
@@ -168,7 +168,7 @@ static double fn_path_head(Pdf *P, const Item *it, double top)
 {
     const Stmt *st = it->p;
     const StmtResult *r = &P->ev->results[st->index];
-    const PathResult *pr = r->path;
+    const PathResult *pr = r->made->path;
     double x = P->sheet.body_l, w = text_width(P) - 6, y = top - 1;
     char *t = arena_printf(&P->arena, "Path: %s", st->name ? st->name : "");
     y -= pdf_wrap(P, FONT_SERIF_BOLD, 9.6, 12, x, y, w, t);
@@ -275,8 +275,8 @@ static double fn_path_summary(Pdf *P, const Item *it, double top)
             for (size_t f = 0; f < sg->nfittings; f++)
                 sb_printf(&sb, "%s%d %s", f ? ", " : "", sg->fittings[f].count, sg->fittings[f].kind);
         }
-        if (sg->nfixtures && r->path) {
-            const SegmentResult *g = &r->path->segs[k];
+        if (sg->nfixtures && r->made->path) {
+            const SegmentResult *g = &r->made->path->segs[k];
             sb_puts(&sb, ", fixtures at the outlet ");
             for (size_t f = 0; f < sg->nfixtures; f++) {
                 char each[48], total[48];
@@ -300,7 +300,7 @@ static double fn_path_summary(Pdf *P, const Item *it, double top)
         }
     }
     sb_puts(&sb, ". Bold in the table: the lowest pressure and the highest velocity.");
-    if (r->path && r->path->nsegs && r->path->segs[0].has_load)
+    if (r->made->path && r->made->path->nsegs && r->made->path->segs[0].has_load)
         sb_puts(&sb, " The fixture load of a segment is the sum of the loads of every fixture downstream "
                      "of its inlet (loads add; demands do not).");
     char figs[96];
@@ -329,10 +329,10 @@ void pdf_path_items(Pdf *P, Vec *items, const Stmt *st)
     const StmtResult *r = &P->ev->results[st->index];
     item_add(items, P, fn_path_head, st, 0, 8);
     Item *head = items->items[items->len - 1];
-    if (r->state != RES_OK || !r->path)
+    if (r->state != RES_OK || !r->made->path)
         return;
     head->layout.keep_with_next = true;
-    const PathResult *pr = r->path;
+    const PathResult *pr = r->made->path;
     for (size_t k = 0; k < pr->nsegs; k += PATH_CHUNK) {
         item_add(items, P, fn_path_table, st, (int)k, k ? 6 : 3);
         Item *it = items->items[items->len - 1];

@@ -197,7 +197,7 @@ static double net_header(Pdf *P, const NetCols *c, const NetLayout *L, double to
 static double fn_net_table(Pdf *P, const Item *it, double top)
 {
     const Stmt *st = it->p;
-    const NetworkResult *nr = P->ev->results[st->index].network;
+    const NetworkResult *nr = P->ev->results[st->index].made->network;
     bool nodes = it->depth > 0;
     size_t count = (size_t)(nodes ? it->depth : -it->depth);
     NetCols c = nodes ? node_cols(P) : link_cols(P);
@@ -244,7 +244,7 @@ static double fn_net_head(Pdf *P, const Item *it, double top)
     const Stmt *st = it->p;
     const NetworkSpec *ns = st->network;
     const StmtResult *r = &P->ev->results[st->index];
-    const NetworkResult *nr = r->network;
+    const NetworkResult *nr = r->made->network;
     double x = P->sheet.body_l, w = full_width(P) - P->sheet.margin_w - 6, y = top - 1;
     y -= pdf_wrap(P, FONT_SERIF_BOLD, 9.6, 12, x, y, w, arena_printf(&P->arena, "Network: %s", st->name));
     StrBuf sb = {0};
@@ -279,7 +279,7 @@ static double fn_net_summary(Pdf *P, const Item *it, double top)
 {
     const Stmt *st = it->p;
     const StmtResult *r = &P->ev->results[st->index];
-    const NetworkResult *nr = r->network;
+    const NetworkResult *nr = r->made->network;
     double x = P->sheet.body_l, W = full_width(P), y = top - 2;
     Unit uQ = unit_default(DIM_FLOW, TEMP_NONE, P->ev->units), uP = unit_default(DIM_PRESSURE, TEMP_NONE, P->ev->units);
     Unit uV = unit_default(DIM_VELOCITY, TEMP_NONE, P->ev->units), uL = unit_default(DIM_L, TEMP_NONE, P->ev->units);
@@ -322,10 +322,10 @@ void pdf_network_items(Pdf *P, Vec *items, const Stmt *st)
     const StmtResult *r = &P->ev->results[st->index];
     item_add(items, P, fn_net_head, st, 0, 8);
     Item *head = items->items[items->len - 1];
-    if (r->state != RES_OK || !r->network)
+    if (r->state != RES_OK || !r->made->network)
         return;
     head->layout.keep_with_next = true;
-    const NetworkResult *nr = r->network;
+    const NetworkResult *nr = r->made->network;
     for (size_t k = 0; k < nr->nnodes; k += NET_CHUNK) {
         item_add(items, P, fn_net_table, st, (int)k, k ? 6 : 3);
         Item *it = items->items[items->len - 1];
@@ -513,7 +513,7 @@ static bool reads_p_min(const Expr *e, const char *name)
     if (e->kind == EXPR_FIELD && e->text && strcmp(e->text, "p_min") == 0 && e->lhs && e->lhs->kind == EXPR_NAME &&
         strcmp(e->lhs->text, name) == 0)
         return true;
-    if (reads_p_min(e->lhs, name) || reads_p_min(e->rhs, name))
+    if (reads_p_min(e->lhs, name) || reads_p_min(expr_rhs(e), name))
         return true;
     for (size_t i = 0; i < e->call->nargs; i++)
         if (reads_p_min(e->call->args[i], name))
@@ -524,7 +524,7 @@ static bool reads_p_min(const Expr *e, const char *name)
 static double fn_network_cover(Pdf *P, const Item *it, double top)
 {
     const Stmt *st = it->p;
-    const NetworkResult *nr = P->ev->results[st->index].network;
+    const NetworkResult *nr = P->ev->results[st->index].made->network;
     const NodeResult *c = &nr->nodes[nr->p_min_node];
     double x = P->sheet.body_l, W = full_width(P);
     Unit uP = unit_default(DIM_PRESSURE, TEMP_NONE, P->ev->units);
@@ -564,8 +564,8 @@ void pdf_network_cover_items(Pdf *P, Vec *items)
 {
     for (size_t i = 0; i < P->d->nstmts; i++) {
         const Stmt *st = P->d->stmts[i];
-        if (st->kind == STMT_NETWORK && P->ev->results[i].state == RES_OK && P->ev->results[i].network &&
-            P->ev->results[i].network->nnodes > 0)
+        if (st->kind == STMT_NETWORK && P->ev->results[i].state == RES_OK && P->ev->results[i].made->network &&
+            P->ev->results[i].made->network->nnodes > 0)
             item_add(items, P, fn_network_cover, st, 0, 0);
     }
 }

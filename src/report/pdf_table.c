@@ -71,7 +71,7 @@ static double *table_edges(Pdf *P, const ResultTable *t, double *size)
 static double fn_table(Pdf *P, const Item *it, double top)
 {
     const Stmt *st = it->p;
-    const ResultTable *t = P->ev->results[st->index].table;
+    const ResultTable *t = P->ev->results[st->index].made->table;
     double size;
     double *x = table_edges(P, t, &size);
     double y = top;
@@ -118,7 +118,7 @@ static double fn_table(Pdf *P, const Item *it, double top)
 
 void pdf_table_items(Pdf *P, Vec *items, const Stmt *st)
 {
-    const ResultTable *t = P->ev->results[st->index].table;
+    const ResultTable *t = P->ev->results[st->index].made->table;
     if (!t)
         return;
     for (size_t r = 0; r < t->nrows || r == 0; r += TABLE_CHUNK) {
@@ -169,7 +169,7 @@ void pdf_curve_items(Pdf *P, Vec *items, const Stmt *st)
 {
     item_add(items, P, fn_curve_head, st, 0, 8);
     const StmtResult *r = &P->ev->results[st->index];
-    if (r->state != RES_OK || !r->table)
+    if (r->state != RES_OK || !r->made->table)
         return;
     ((Item *)items->items[items->len - 1])->layout.keep_with_next = true;
     pdf_table_items(P, items, st);

@@ -295,11 +295,11 @@ static void put_cell(const Evaluated *ev, double si, const Unit *u, bool differe
 static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, StrBuf *out)
 {
     sb_printf(out, "path %s", s->name);
-    if (r->state != RES_OK || !r->path) {
+    if (r->state != RES_OK || !r->made->path) {
         sb_puts(out, " = (not evaluated)\n");
         return;
     }
-    const PathResult *pr = r->path;
+    const PathResult *pr = r->made->path;
     Unit one = unit_default(DIM_NONE, TEMP_NONE, ev->units);
     sb_printf(out, ": %zu segments, %s loss\n", pr->nsegs,
               s->path->loss == LOSS_DARCY ? "Darcy-Weisbach" : "Hazen-Williams");
@@ -363,11 +363,11 @@ static void put_path(const Evaluated *ev, const Stmt *s, const StmtResult *r, St
 static void put_network(const Evaluated *ev, const Stmt *s, const StmtResult *r, StrBuf *out)
 {
     sb_printf(out, "network %s", s->name);
-    if (r->state != RES_OK || !r->network) {
+    if (r->state != RES_OK || !r->made->network) {
         sb_puts(out, " = (not evaluated)\n");
         return;
     }
-    const NetworkResult *nr = r->network;
+    const NetworkResult *nr = r->made->network;
     UnitSystem us = ev->units;
     Unit uQ = unit_default(DIM_FLOW, TEMP_NONE, us), uL = unit_default(DIM_L, TEMP_NONE, us);
     Unit uV = unit_default(DIM_VELOCITY, TEMP_NONE, us), uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
@@ -478,12 +478,12 @@ static void put_table(const Evaluated *ev, const ResultTable *t, StrBuf *out)
 static void put_curve(const Evaluated *ev, const Stmt *s, const StmtResult *r, StrBuf *out)
 {
     sb_printf(out, "curve %s", s->name);
-    if (r->state != RES_OK || !r->table) {
+    if (r->state != RES_OK || !r->made->table) {
         sb_puts(out, " = (not evaluated)\n");
         return;
     }
     sb_printf(out, ": %zu points, %s interpolation\n", s->curve->npoints, s->curve->loglog ? "log-log" : "linear");
-    put_table(ev, r->table, out);
+    put_table(ev, r->made->table, out);
     for (size_t k = 0; k < r->nmethods; k++)
         sb_printf(out, "      method: %s\n", r->methods[k]->title);
 }
@@ -494,11 +494,11 @@ static void put_figure(const Evaluated *ev, const Stmt *s, const StmtResult *r, 
     sb_printf(out, "figure %s", s->fig->kind);
     if (s->description)
         sb_printf(out, ": %s", s->description);
-    if (r->state != RES_OK || !r->figure) {
+    if (r->state != RES_OK || !r->made->figure) {
         sb_puts(out, " (not evaluated)\n");
         return;
     }
-    const FigureData *fd = r->figure;
+    const FigureData *fd = r->made->figure;
     bool xd = fd->x_unit.text[0] && strcmp(fd->x_unit.text, "1") != 0;
     bool yd = fd->y_unit.text[0] && strcmp(fd->y_unit.text, "1") != 0;
     sb_printf(out, "\n  x: %s%s%s%s, y: %s%s%s%s%s\n", fd->x_title, xd ? " (" : "", xd ? fd->x_unit.text : "", xd ? ")" : "",
@@ -620,8 +620,8 @@ static void put_statement(const Evaluated *ev, const ReportModel *model, const S
             put_uses(mr, out);
         }
         sb_putc(out, '\n');
-        if (r->state == RES_OK && r->table)
-            put_table(ev, r->table, out);
+        if (r->state == RES_OK && r->made->table)
+            put_table(ev, r->made->table, out);
         return;
     }
     case STMT_SOLVE: {
