@@ -71,6 +71,11 @@ static const Dim dim_freq = D_FREQ, dim_mflow = D_MFLOW, dim_spheat = D_SPHEAT,
  * (m^3)^(1/3) is exactly m; the rounding also turns -0 into 0. */
 static double exp_round(double x)
 {
+    /* an exponent already whole (nearly every one: m, s^-2, kg*m^-3) is on
+     * the grid as it is: x * 1e9 is an exact integer below 2^53, so the
+     * rounding would give x back; + 0.0 turns -0 into 0 */
+    if (x > -1e6 && x < 1e6 && x == (double)(long)x)
+        return x + 0.0;
     double r = round(x * 1e9) / 1e9;
     return r == 0 ? 0.0 : r;
 }
