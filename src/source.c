@@ -7,6 +7,7 @@
 #include <errno.h>
 #include <stdbool.h>
 #include <nettle/sha2.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -114,6 +115,21 @@ bool source_check_text(const char *text, size_t len, const char *display, DiagLi
     size_t i = 0;
     /* A byte-order mark at the start is allowed and ignored by later stages. */
     while (i < len) {
+        /* eight bytes at a time while all are printable ASCII (no high bit,
+         * none below 0x20, none 0x7F: the classic test for a zero byte, on
+         * x - 0x20.. and on x ^ 0x7F..) */
+        while (i + 8 <= len && col + 8 <= SOURCE_MAX_LINE + 1) {
+            uint64_t x;
+            memcpy(&x, s + i, 8);
+            const uint64_t ones = 0x0101010101010101u, highs = 0x8080808080808080u;
+            uint64_t d = x ^ (0x7Fu * ones);
+            if ((x & highs) || ((x - 0x20u * ones) & ~x & highs) || ((d - ones) & ~d & highs))
+                break;
+            i += 8;
+            col += 8;
+        }
+        if (i >= len)
+            break;
         unsigned char c = s[i];
         if (c >= 0x20 && c < 0x7F && col <= SOURCE_MAX_LINE) { /* printable ASCII: most of a calc */
             i++;
