@@ -7,10 +7,64 @@
 #include "numfmt.h"
 
 #include <math.h>
+#include <stdbool.h>
 #include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+
+/* The literal s[0..n) (digits, an optional fraction and exponent, already
+ * checked) converted without strtod where that is exact: with at most 15
+ * significant digits the digits make an integer m below 2^53, and with a
+ * power of ten 10^k, |k| <= 22, exact as a double too, m * 10^k or m / 10^k is
+ * one correctly rounded operation on two exact numbers, which is what strtod
+ * returns (Clinger, "How to read floating point numbers accurately", PLDI
+ * 1990). False for anything else: strtod then. */
+static bool parse_exact(const char *s, size_t n, double *out)
+{
+    static const double pow10[] = {1e0,  1e1,  1e2,  1e3,  1e4,  1e5,  1e6,  1e7,  1e8,  1e9,  1e10, 1e11,
+                                   1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22};
+    uint64_t m = 0;
+    int sig = 0, scale = 0; /* significant digits in m; digits after the point */
+    size_t i = 0;
+    bool point = false;
+    for (; i < n && ((s[i] >= '0' && s[i] <= '9') || (s[i] == '.' && !point)); i++) {
+        if (s[i] == '.') {
+            point = true;
+            continue;
+        }
+        if (m == 0 && s[i] == '0') { /* a leading zero adds no digit */
+            scale += point;
+            continue;
+        }
+        if (++sig > 15)
+            return false;
+        m = m * 10 + (uint64_t)(s[i] - '0');
+        scale += point;
+    }
+    int exp10 = 0;
+    if (i < n) { /* the exponent: e or E, a sign, digits */
+        i++;
+        bool neg = i < n && s[i] == '-';
+        if (i < n && (s[i] == '+' || s[i] == '-'))
+            i++;
+        for (; i < n; i++) {
+            if (exp10 > 1000)
+                return false;
+            exp10 = exp10 * 10 + (s[i] - '0');
+        }
+        exp10 = neg ? -exp10 : exp10;
+    }
+    int k = exp10 - scale;
+    if (m == 0) {
+        *out = 0.0;
+        return true;
+    }
+    if (k < -22 || k > 22)
+        return false;
+    *out = k >= 0 ? (double)m * pow10[k] : (double)m / pow10[-k];
+    return true;
+}
 
 size_t num_parse(const char *s, size_t len, double *out)
 {
@@ -33,6 +87,11 @@ size_t num_parse(const char *s, size_t len, double *out)
             k++;
         if (k > j) /* "2e" without digits is a number followed by a name */
             i = k;
+    }
+    double fast;
+    if (parse_exact(s, i, &fast)) {
+        *out = fast;
+        return i;
     }
     char buf[512];
     if (i >= sizeof buf) {

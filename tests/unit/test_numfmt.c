@@ -163,12 +163,56 @@ static void test_round_matches_printf(void **state)
     assert_false(num_round(0.0, 3, &d, &ex));
 }
 
+/* num_parse against glibc's strtod (correctly rounded) on literals of every
+ * shape the lexer passes: up to 20 digits with the point anywhere, leading
+ * and trailing zeros, exponents -30..30 with and without a sign; the result
+ * must be the same double, bit for bit. */
+static void test_parse_matches_strtod(void **state)
+{
+    (void)state;
+    uint64_t x = 88172645463325252u;
+    int tested = 0;
+    for (int n = 0; n < 400000; n++) {
+        x ^= x << 13, x ^= x >> 7, x ^= x << 17;
+        char lit[64];
+        size_t len = 0;
+        int ndig = 1 + (int)(x % 20), point = (int)((x >> 8) % (uint64_t)(ndig + 2));
+        for (int d = 0; d < ndig; d++) {
+            if (d == point && d > 0)
+                lit[len++] = '.';
+            uint64_t r = x >> (16 + 2 * (d % 20));
+            lit[len++] = (char)('0' + ((x >> 5) % 3 == 0 && d > ndig / 2 ? 0 : (int)((r ^ (uint64_t)d * 2654435761u) % 10)));
+        }
+        if ((x >> 40) % 4 == 0) {
+            int e = (int)((x >> 44) % 61) - 30;
+            len += (size_t)snprintf(lit + len, sizeof lit - len, (x >> 50) % 2 ? "e%d" : "E%+d", e);
+        }
+        lit[len] = '\0';
+        double got = -1, want = strtod(lit, NULL);
+        size_t used = num_parse(lit, len, &got);
+        assert_int_equal(used, len);
+        if (memcmp(&got, &want, sizeof got) != 0)
+            fail_msg("num_parse(\"%s\") = %.17g, strtod gives %.17g", lit, got, want);
+        tested++;
+    }
+    assert_int_equal(tested, 400000);
+    /* the edges of the exact path: 15 and 16 digits, 10^22 and 10^23 */
+    const char *edge[] = {"999999999999999", "9999999999999999", "123456789012345e22", "123456789012345e23",
+                          "1e-22", "1e-23", "0.000000000000000000000001", "4.35", "0.1", "2.675", "0"};
+    for (size_t i = 0; i < sizeof edge / sizeof *edge; i++) {
+        double got = -1, want = strtod(edge[i], NULL);
+        num_parse(edge[i], strlen(edge[i]), &got);
+        assert_memory_equal(&got, &want, sizeof got);
+    }
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_formats),
         cmocka_unit_test(test_superscript),
         cmocka_unit_test(test_round_matches_printf),
+        cmocka_unit_test(test_parse_matches_strtod),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
