@@ -30,8 +30,15 @@ void lex_init(Lexer *lx, const char *line, size_t len, Pos start, DiagList *diag
     lx->start = start;
     lx->diags = diags;
     lx->comment_at = len;
+    /* the comment starts at the first '#' outside a string: with no quote
+     * before the first '#' (most lines), memchr finds it */
+    const char *hash = memchr(line, '#', len);
+    size_t upto = hash ? (size_t)(hash - line) : len;
+    const char *quote = memchr(line, '"', upto);
+    if (!quote)
+        lx->comment_at = upto;
     int in_string = 0;
-    for (size_t i = 0; i < len; i++) {
+    for (size_t i = quote ? (size_t)(quote - line) : len; i < len; i++) {
         if (in_string) {
             if (line[i] == '\\' && i + 1 < len)
                 i++;

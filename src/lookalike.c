@@ -1,6 +1,7 @@
 /* lookalike.c — hidden characters and look-alike letters (see lookalike.h). */
 #include "lookalike.h"
 
+#include <stdint.h>
 #include <string.h>
 
 /* One UTF-8 character at s (n bytes left): its code point and length; a
@@ -45,7 +46,12 @@ size_t lookalike_find_hidden(const char *s, size_t len, unsigned *cp)
 {
     const unsigned char *u = (const unsigned char *)s;
     for (size_t i = 0; i < len;) {
-        if (u[i] < 0x80) { /* no hidden character is ASCII */
+        uint64_t w;
+        if (i + 8 <= len && (memcpy(&w, u + i, 8), (w & 0x8080808080808080u) == 0)) {
+            i += 8; /* eight ASCII bytes: no hidden character is ASCII */
+            continue;
+        }
+        if (u[i] < 0x80) {
             i++;
             continue;
         }
