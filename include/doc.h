@@ -13,6 +13,7 @@
 
 #include <stdbool.h>
 #include <stddef.h>
+#include <stdint.h>
 
 #include "arena.h"
 #include "diag.h"
@@ -39,16 +40,15 @@ enum { SLOT_UNRESOLVED = -1, SLOT_PI = -2, SLOT_G = -3 };
 typedef struct Expr Expr;
 typedef struct ExprCall ExprCall;
 struct Expr {
-    /* fields ordered and packed so the node takes 72 bytes: a calc holds a
+    /* fields ordered and packed so the node takes 64 bytes: a calc holds a
      * few of these per statement (issue 17) */
     ExprKind kind;           /* one byte (a packed enum) */
     BinOp op;                /* EXPR_BINARY; one byte */
-    bool has_unit;           /* EXPR_NUMBER */
-    bool middle_dot;         /* EXPR_BINARY written with · */
-    int height;              /* levels of the tree from here down (a leaf is 1);
-                                at most PARSE_MAX_DEPTH, so no walker recurses deeper */
+    bool has_unit : 1;       /* EXPR_NUMBER */
+    bool middle_dot : 1;     /* EXPR_BINARY written with · */
+    uint8_t height;          /* levels of the tree from here down (a leaf is 1);
+                                at most PARSE_MAX_DEPTH (200), so no walker recurses deeper */
     int slot;                /* EXPR_NAME */
-    int callee_slot;         /* EXPR_CALL: a record defined in the calc called as f(x), else -1 */
     Pos pos;
     const char *text;        /* the literal as written: number, string or name;
                                 EXPR_CALL: the function; EXPR_FIELD: the field */
@@ -60,7 +60,7 @@ struct Expr {
     };
     const Unit *unit;        /* EXPR_NUMBER: resolved unit when has_unit (shared, see unit_shared) */
     Expr *lhs;               /* EXPR_NEG, EXPR_PAREN (inner), EXPR_FIELD (base), EXPR_BINARY */
-    const ExprCall *call;    /* EXPR_CALL: its arguments; &expr_no_call on every other node */
+    const ExprCall *call;    /* EXPR_CALL: its arguments, its own; &expr_no_call on every other node */
 };
 
 /* The right operand of a binary node; NULL for every other kind. */
@@ -69,6 +69,7 @@ static inline const Expr *expr_rhs(const Expr *e) { return e->kind == EXPR_BINAR
 /* A call's arguments, kept apart from the node: calls are a few of the
  * nodes of a calc, and every node would otherwise carry room for them. */
 struct ExprCall {
+    int callee_slot;         /* a record defined in the calc called as f(x), else -1 */
     Expr **args;
     size_t nargs;
     const char **kw_names;   /* keyword arguments: name, value, where */

@@ -177,8 +177,8 @@ static bool expr_same(const Diff *d, const Expr *a, const Expr *b)
     case EXPR_FIELD:
         return str_same(a->text, b->text) && expr_same(d, a->lhs, b->lhs);
     case EXPR_CALL:
-        if (a->callee_slot >= 0 || b->callee_slot >= 0) {
-            if (!slot_same(d, a->callee_slot, b->callee_slot))
+        if (a->call->callee_slot >= 0 || b->call->callee_slot >= 0) {
+            if (!slot_same(d, a->call->callee_slot, b->call->callee_slot))
                 return false;
         } else if (!str_same(a->text, b->text)) {
             return false;
@@ -411,7 +411,7 @@ static uint64_t expr_key(const Diff *d, const Expr *e, bool new_side, uint64_t h
     case EXPR_FIELD:
         return expr_key(d, e->lhs, new_side, mix_str(h, e->text));
     case EXPR_CALL:
-        h = e->callee_slot >= 0 ? mix(h, slot_key(d, e->callee_slot, new_side)) : mix_str(h, e->text);
+        h = e->call->callee_slot >= 0 ? mix(h, slot_key(d, e->call->callee_slot, new_side)) : mix_str(h, e->text);
         h = mix(mix(h, e->call->nargs), e->call->nkw);
         for (size_t i = 0; i < e->call->nargs; i++)
             h = expr_key(d, e->call->args[i], new_side, h);

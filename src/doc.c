@@ -44,7 +44,7 @@ bool expr_reads_names(const Expr *e)
         for (size_t i = 0; i < e->call->nkw; i++)
             if (expr_reads_names(e->call->kw[i]))
                 return true;
-        return e->callee_slot >= 0;
+        return e->call->callee_slot >= 0;
     default:
         return expr_reads_names(e->lhs) || expr_reads_names(expr_rhs(e));
     }
@@ -65,7 +65,7 @@ bool expr_is_simple(const Expr *e)
 const char *doc_stmt_use(const Stmt *s)
 {
     const Expr *e = s && s->kind == STMT_DEF && !s->parse_failed ? s->expr : NULL;
-    if (!e || e->kind != EXPR_CALL || strcmp(e->text, "use") != 0 || e->callee_slot >= 0 ||
+    if (!e || e->kind != EXPR_CALL || strcmp(e->text, "use") != 0 || e->call->callee_slot >= 0 ||
         e->call->nargs != 1 || e->call->nkw != 0 || e->call->args[0]->kind != EXPR_STRING)
         return NULL;
     return e->call->args[0]->text;

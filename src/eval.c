@@ -332,7 +332,7 @@ static bool eval_use(EvalCtx *c, const Expr *e, Value *out)
 
 static bool eval_call(EvalCtx *c, const Expr *e, Value *out)
 {
-    if (e->callee_slot < 0 && strcmp(e->text, "use") == 0 && e->call->nargs == 1 &&
+    if (e->call->callee_slot < 0 && strcmp(e->text, "use") == 0 && e->call->nargs == 1 &&
         e->call->args[0]->kind == EXPR_STRING)
         return eval_use(c, e, out);
     size_t n = e->call->nargs, nk = e->call->nkw;
@@ -350,8 +350,8 @@ static bool eval_call(EvalCtx *c, const Expr *e, Value *out)
         return false;
     CallArgs ca = {n, args, apos, nk, e->call->kw_names, kw, e->call->kw_pos, e->pos, e->text};
 
-    if (e->callee_slot >= 0) {
-        const StmtResult *r = &c->ev->results[e->callee_slot];
+    if (e->call->callee_slot >= 0) {
+        const StmtResult *r = &c->ev->results[e->call->callee_slot];
         if (r->state != RES_OK)
             return fail_upstream(c);
         if (r->value.kind != VAL_RECORD || !r->value.rec->call) {

@@ -74,8 +74,8 @@ static void expr_push_slots(const Expr *e, Vec *stack)
     if (e->kind == EXPR_NAME && e->slot >= 0)
         vec_push(stack, (void *)(intptr_t)(e->slot + 1));
     if (e->kind == EXPR_CALL) {
-        if (e->callee_slot >= 0)
-            vec_push(stack, (void *)(intptr_t)(e->callee_slot + 1));
+        if (e->call->callee_slot >= 0)
+            vec_push(stack, (void *)(intptr_t)(e->call->callee_slot + 1));
         for (size_t i = 0; i < e->call->nargs; i++)
             expr_push_slots(e->call->args[i], stack);
         for (size_t i = 0; i < e->call->nkw; i++)
@@ -124,7 +124,7 @@ static void collect_reads(const Expr *e, int **out, size_t *n, size_t *cap)
     if (e->kind == EXPR_NAME)
         slot = e->slot;
     else if (e->kind == EXPR_CALL)
-        slot = e->callee_slot;
+        slot = e->call->callee_slot;
     if (slot >= 0) {
         bool seen = false;
         for (size_t i = 0; i < *n && !seen; i++)

@@ -51,7 +51,7 @@ static void expected(Parser *p, const char *what)
     fail(p, p->tok.pos, "%s", msg);
 }
 
-const ExprCall expr_no_call;
+const ExprCall expr_no_call = {.callee_slot = -1};
 const StmtSolve stmt_no_solve;
 const StmtAs stmt_no_as;        /* all zero: what the fields held when they were the statement's */
 const StmtFigure stmt_no_figure;
@@ -72,7 +72,6 @@ static Expr *new_expr(Parser *p, ExprKind kind, Pos pos)
     e->kind = kind;
     e->pos = pos;
     e->slot = SLOT_UNRESOLVED;
-    e->callee_slot = -1;
     e->height = 1;
     e->call = &expr_no_call;
     return e;
@@ -96,14 +95,14 @@ static bool tree_grow(Parser *p, Expr *e)
     for (size_t i = 0; i < e->call->nkw; i++)
         if (e->call->kw[i]->height > h)
             h = e->call->kw[i]->height;
-    e->height = h + 1;
-    if (e->height > PARSE_MAX_DEPTH) {
+    if (h + 1 > PARSE_MAX_DEPTH) {
         char lim[16];
         snprintf(lim, sizeof lim, "%d", PARSE_MAX_DEPTH);
         fail(p, e->pos, "expression nested too deeply (more than %s levels): every operator, sign, "
                         "parenthesis, field and call is a level; split it into named steps", lim);
         return false;
     }
+    e->height = (uint8_t)(h + 1);
     return true;
 }
 
@@ -206,6 +205,7 @@ static void parse_args(Parser *p, Expr *call, Pos open)
         advance(p);
     ExprCall *c = arena_alloc(p->arena, sizeof *c);
     call->call = c;
+    c->callee_slot = -1;
     c->nargs = args.len;
     c->args = arena_alloc(p->arena, (args.len + 1) * sizeof *c->args);
     for (size_t i = 0; i < args.len; i++)

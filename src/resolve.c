@@ -203,17 +203,20 @@ static int resolve_expr(Resolver *r, Expr *e)
             ok = 0;
             break;
         }
-        if (!builtin_lookup(e->text)) {
+        if (!builtin_lookup(e->text) && e->call != &expr_no_call) {
+            /* a call node's arguments are its own (parse_args), not the
+             * shared empty ones: where it calls is written there */
+            ExprCall *call = (ExprCall *)e->call;
             int slot = doc_lookup(r->doc, e->text);
             if (slot >= 0 && slot < r->current) {
-                e->callee_slot = slot;
+                call->callee_slot = slot;
                 note_dep(r, slot);
             } else {
-                e->callee_slot = resolve_name(r, e->text, e->pos, true);
-                if (e->callee_slot == SLOT_PI || e->callee_slot == SLOT_G)
+                call->callee_slot = resolve_name(r, e->text, e->pos, true);
+                if (call->callee_slot == SLOT_PI || call->callee_slot == SLOT_G)
                     diag_error(r->diags, e->pos, "'%s' is a constant (a number) and cannot be called", e->text);
-                if (e->callee_slot < 0) {
-                    e->callee_slot = -1;
+                if (call->callee_slot < 0) {
+                    call->callee_slot = -1;
                     ok = 0;
                 }
             }

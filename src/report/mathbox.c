@@ -539,7 +539,7 @@ static MathBox *call_box(const MathEnv *env, const Expr *e, double size, bool su
         return mbox_fence(env, in, size, "|", "|");
     }
     MathBox *head;
-    if (e->callee_slot >= 0) {
+    if (e->call->callee_slot >= 0) {
         head = mbox_symbol(env, name, size);
     } else {
         const char *print = NULL;
