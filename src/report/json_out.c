@@ -51,6 +51,16 @@ static inline void put(JsonOut *w, const char *s, size_t n)
 
 static inline void put_str(JsonOut *w, const char *s) { put(w, s, strlen(s)); }
 
+/* Room for n more bytes at the end of the buffer, written out first when
+ * they do not fit; n is at most the buffer's size. The caller adds what it
+ * writes there to w->len. */
+static inline char *room(JsonOut *w, size_t n)
+{
+    if (w->len + n > sizeof w->buf)
+        flush(w);
+    return w->buf + w->len;
+}
+
 static inline void put_char(JsonOut *w, char c)
 {
     if (w->len == sizeof w->buf)
@@ -128,67 +138,119 @@ static void put_quoted(JsonOut *w, const char *s)
     put_char(w, '"');
 }
 
-/* 1: a byte written between quotes as it is (printable ASCII but '"' and '\\') */
+/* 1: a byte written between quotes as it is (ASCII from the space up but
+ * '"' and '\\'; DEL is written as it is by put_quoted too) */
 static const unsigned char PLAIN[256] = {
     0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0,
     1, 1, 0, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1,
     1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 0, 1, 1, 1,
-    1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 0,
+    1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1,
     0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0,
     0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0,
     0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0,
     0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0,
 };
 
-/* True, with its length, when s is printable ASCII without '"' or '\\': the
- * common text, valid and written between quotes as it is. */
-static bool plain_text(const char *s, size_t *len)
+/* True when s[0..n) is ASCII from the space up without '"' or '\\': the common
+ * text, valid and written between quotes as it is. Eight bytes a step: a
+ * byte below 0x20, equal to '"' or '\\' or with its high bit set marks its
+ * word (the borrow of a subtraction reaches the high bit of a byte only
+ * from a byte that matches, so the test is exact for the word). */
+static bool plain_bytes(const char *s, size_t n)
 {
-    const unsigned char *p = (const unsigned char *)s;
-    for (; PLAIN[*p]; p++)
-        ;
-    if (*p)
-        return false;
-    *len = (size_t)(p - (const unsigned char *)s);
+    const uint64_t ones = 0x0101010101010101ULL, high = 0x8080808080808080ULL;
+    size_t i = 0;
+    for (; i + 8 <= n; i += 8) {
+        uint64_t v;
+        memcpy(&v, s + i, sizeof v);
+        uint64_t q = v ^ (ones * '"'), b = v ^ (ones * '\\');
+        uint64_t hit = ((v - ones * 0x20) & ~v) | ((q - ones) & ~q) | ((b - ones) & ~b) | v;
+        if (hit & high)
+            return false;
+    }
+    for (; i < n; i++)
+        if (!PLAIN[(unsigned char)s[i]])
+            return false;
     return true;
 }
 
-static void put_plain(JsonOut *w, const char *s, size_t n)
+/* True, with its length, when s is plain text (plain_bytes). */
+static bool plain_text(const char *s, size_t *len)
 {
-    put_char(w, '"');
-    put(w, s, n);
-    put_char(w, '"');
+    size_t n = strlen(s);
+    if (!plain_bytes(s, n))
+        return false;
+    *len = n;
+    return true;
 }
 
-/* Start a member: false (write nothing) when it is left out. */
+/* A key longer than this is written by put_quoted. */
+enum { KEY_FAST = 64 };
+
+static void put_plain(JsonOut *w, const char *s, size_t n)
+{
+    if (n + 2 > sizeof w->buf) {
+        put_char(w, '"');
+        put(w, s, n);
+        put_char(w, '"');
+        return;
+    }
+    char *o = room(w, n + 2);
+    o[0] = '"';
+    memcpy(o + 1, s, n);
+    o[n + 1] = '"';
+    w->len += n + 2;
+}
+
+/* Start a member: false (write nothing) when it is left out. The comma, the
+ * indent and the key are written in one piece, the key copied as it is
+ * checked (a key is short), when it is plain and fits. */
 static bool member(JsonOut *w, const char *key)
 {
     if (w->skip)
         return false;
-    bool keyed = w->depth > 0 && w->is_object[w->depth];
-    size_t klen = 0;
-    bool kplain = false;
+    if (w->depth == 0)
+        return true;
+    bool keyed = w->is_object[w->depth];
+    if (keyed && !key)
+        return false;
+    bool comma = w->has_items[w->depth];
+    size_t indent = w->compact ? 0 : 1 + 2 * (size_t)w->depth; /* at most 65 (JSON_OUT_DEPTH) */
+    /* the prefix without the key, the key's quotes and ": " in 16 bytes more */
+    char *o = room(w, comma + indent + 16 + KEY_FAST);
+    char *start = o;
+    if (comma)
+        *o++ = ',';
+    if (indent) {
+        *o = '\n';
+        for (size_t i = 1; i < indent; i += 8)
+            memcpy(o + i, "        ", 8);
+        o += indent;
+    }
     if (keyed) {
-        if (!key)
-            return false;
-        kplain = plain_text(key, &klen);
-        if (!kplain && !json_out_utf8_ok(key))
-            return false;
-    }
-    if (w->depth > 0) {
-        if (w->has_items[w->depth])
-            put_char(w, ',');
-        w->has_items[w->depth] = true;
-        if (!w->compact)
-            put_indent(w, w->depth);
-        if (keyed) {
-            if (kplain)
-                put_plain(w, key, klen);
-            else
-                put_quoted(w, key);
+        *o++ = '"';
+        size_t i = 0;
+        const unsigned char *k = (const unsigned char *)key;
+        for (; i < KEY_FAST && PLAIN[k[i]]; i++)
+            o[i] = (char)k[i];
+        if (k[i] != '\0') {
+            /* not plain, or long: the general way */
+            if (!plain_text(key, &i) && !json_out_utf8_ok(key))
+                return false;
+            w->len += (size_t)(o - 1 - start);
+            w->has_items[w->depth] = true;
+            put_quoted(w, key);
             put(w, ": ", w->compact ? 1 : 2);
+            return true;
         }
+        o += i;
+        *o++ = '"';
+        *o++ = ':';
+        if (!w->compact)
+            *o++ = ' ';
     }
+    w->has_items[w->depth] = true;
+    w->len += (size_t)(o - start);
     return true;
 }
 
@@ -269,15 +331,14 @@ void json_out_text(JsonOut *w, const char *key, const char *s)
 
 /* What %.17g prints for x (with num_round's digits d and power ex), in the
  * JSON form below: exponent without '+' or leading zeros, ".0" on a whole
- * number. buf holds at least 32 bytes. */
-static const char *real_text(double x, uint64_t d, int ex, char *buf)
+ * number. Written at o, which has room for 32 bytes; returns the end. */
+static char *real_text(double x, uint64_t d, int ex, char *o)
 {
     char dig[20];
     num_digit_text(d, 17, dig);
     int n = 17; /* %g drops trailing zeros */
     while (n > 1 && dig[n - 1] == '0')
         n--;
-    char *o = buf;
     if (x < 0)
         *o++ = '-';
     if (ex < -4 || ex >= 17) {
@@ -306,8 +367,7 @@ static const char *real_text(double x, uint64_t d, int ex, char *buf)
             *o++ = '0';
         }
     }
-    *o = '\0';
-    return buf;
+    return o;
 }
 
 void json_out_real(JsonOut *w, const char *key, double x)
@@ -322,7 +382,8 @@ void json_out_real(JsonOut *w, const char *key, double x)
     uint64_t d;
     int ex;
     if (num_round(x, 17, &d, &ex)) {
-        put_str(w, real_text(x, d, ex, buf));
+        char *o = room(w, 32);
+        w->len += (size_t)(real_text(x, d, ex, o) - o);
         return;
     }
     int n = snprintf(buf, sizeof buf, "%.17g", x);
