@@ -71,14 +71,19 @@ void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBu
  * statements' own values). pi stays the letter, as the PDF sets it. */
 void render_expr_text_at(const Evaluated *ev, const StmtResult *row, const Expr *e, bool substitute,
                          StrBuf *out);
+/* The same text as a copy in `a`. */
+const char *render_expr_string(const Evaluated *ev, const StmtResult *row, const Expr *e, bool substitute,
+                               Arena *a);
 
 /* A published method's formula `e` with the names it uses replaced by the
  * values one call used (MethodUse, library.h); g is its value, pi the letter. */
 void render_method_text(const Evaluated *ev, const MethodUse *use, const Expr *e, StrBuf *out);
+const char *render_method_string(const Evaluated *ev, const MethodUse *use, const Expr *e, Arena *a);
 
 /* A value as plain text in the unit it is shown in ("4.160 ft/s", a string
  * in quotes, a record as "(pipe record)"). */
 void render_value_text(const Evaluated *ev, const Value *v, const Unit *shown, StrBuf *out);
+const char *render_value_string(const Evaluated *ev, const Value *v, const Unit *shown, Arena *a);
 
 /* ---- the CI formats of `check --format` (DESIGN 2.14) ------------------ */
 

@@ -16,30 +16,23 @@
 static const char *expr_text(const Evaluated *ev, const StmtResult *row, const Expr *e, bool sub,
                              Arena *a)
 {
-    StrBuf sb = {0};
-    render_expr_text_at(ev, row, e, sub, &sb);
-    char *s = arena_strdup(a, sb_str(&sb));
-    sb_free(&sb);
-    return s;
+    return render_expr_string(ev, row, e, sub, a);
 }
 
 ModelValue report_model_value(const Evaluated *ev, const Value *v, const Unit *unit, Arena *a)
 {
     ModelValue m = {0};
-    StrBuf sb = {0};
     if (v->kind == VAL_NUMBER) {
         m.number = true;
         m.si = v->q.si;
         m.unit = unit && unit->text[0] ? *unit : eval_display_unit(ev, v, NULL);
         m.shown = unit_from_si(v->q.si, &m.unit, v->q.temp == TEMP_NONE);
-        render_value_text(ev, v, &m.unit, &sb);
+        m.text = render_value_string(ev, v, &m.unit, a);
     } else {
         m.si = NAN;
         m.shown = NAN;
-        render_value_text(ev, v, NULL, &sb);
+        m.text = render_value_string(ev, v, NULL, a);
     }
-    m.text = arena_strdup(a, sb_str(&sb));
-    sb_free(&sb);
     return m;
 }
 
@@ -206,12 +199,8 @@ static void row_uses(const ReportModel *m, const StmtResult *r, ModelRow *row, A
         if (mm->lhs && mm->rhs) {
             mu->lhs = expr_text(m->ev, NULL, mm->lhs, false, a);
             mu->formula = expr_text(m->ev, NULL, mm->rhs, false, a);
-            if (u->ninputs && use_covers(u, mm->rhs)) {
-                StrBuf sb = {0};
-                render_method_text(m->ev, u, mm->rhs, &sb);
-                mu->substituted = arena_strdup(a, sb_str(&sb));
-                sb_free(&sb);
-            }
+            if (u->ninputs && use_covers(u, mm->rhs))
+                mu->substituted = render_method_string(m->ev, u, mm->rhs, a);
         }
         if (u->result.kind == VAL_NUMBER)
             mu->result = report_model_value(m->ev, &u->result, NULL, a);

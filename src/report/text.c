@@ -7,6 +7,7 @@
  * linear expression printer here is shared with the other renderers' plain
  * texts (check summaries, diagnostics of the diff). */
 #include <math.h>
+#include <stdlib.h>
 #include <string.h>
 
 #include "numfmt.h"
@@ -60,26 +61,122 @@ void render_atmosphere(const Evaluated *ev, char *buf, size_t n)
     }
 }
 
-void render_value_text(const Evaluated *ev, const Value *v, const Unit *shown, StrBuf *out)
+/* ---- the linear printer ------------------------------------------------
+ *
+ * Expressions and values are written into a TextOut: a buffer on the stack
+ * while the text fits, grown on the heap when it does not, with the
+ * printer's state beside it (the statement being listed, the call whose
+ * values a method's formula shows), so two threads can print at once. The
+ * public functions hand the finished text on in one piece, to a StrBuf or
+ * as a copy in an arena. */
+
+typedef struct TextOut {
+    char *data;                       /* local, or the heap once grown */
+    size_t len, cap;
+    const StmtResult *row;            /* a solve row substitutes its root values; NULL */
+    const MethodUse *method_values;   /* printing a method's formula with one call's values */
+    char local[256];
+} TextOut;
+
+static void text_init(TextOut *t, const StmtResult *row, const MethodUse *use)
+{
+    t->data = t->local;
+    t->len = 0;
+    t->cap = sizeof t->local;
+    t->row = row;
+    t->method_values = use;
+}
+
+static void text_grow(TextOut *t, size_t n)
+{
+    size_t cap = 2 * t->cap;
+    while (cap < t->len + n)
+        cap *= 2;
+    if (t->data == t->local) {
+        t->data = xmalloc(cap);
+        memcpy(t->data, t->local, t->len);
+    } else {
+        t->data = xrealloc(t->data, cap);
+    }
+    t->cap = cap;
+}
+
+static inline void text_put(TextOut *t, const char *s, size_t n)
+{
+    if (t->len + n > t->cap)
+        text_grow(t, n);
+    memcpy(t->data + t->len, s, n);
+    t->len += n;
+}
+
+/* NULL as printf's %s writes it, as this printer once did */
+static inline void text_puts(TextOut *t, const char *s)
+{
+    if (!s)
+        s = "(null)";
+    text_put(t, s, strlen(s));
+}
+static inline void text_putc(TextOut *t, char c) { text_put(t, &c, 1); }
+
+static void text_free(TextOut *t)
+{
+    if (t->data != t->local)
+        free(t->data);
+}
+
+static void text_to_sb(TextOut *t, StrBuf *out)
+{
+    sb_putn(out, t->data, t->len);
+    text_free(t);
+}
+
+static const char *text_to_arena(TextOut *t, Arena *a)
+{
+    char *s = arena_strndup(a, t->data, t->len);
+    text_free(t);
+    return s;
+}
+
+static void value_text(const Evaluated *ev, const Value *v, const Unit *shown, TextOut *out)
 {
     char buf[128];
     switch (v->kind) {
     case VAL_NUMBER: {
         Unit u = shown && shown->text[0] ? *shown : eval_display_unit(ev, v, NULL);
         render_quantity(ev, v, &u, buf, sizeof buf);
-        sb_puts(out, buf);
+        text_puts(out, buf);
         break;
     }
     case VAL_STRING:
-        sb_printf(out, "\"%s\"", v->str);
+        text_putc(out, '"');
+        text_puts(out, v->str);
+        text_putc(out, '"');
         break;
     case VAL_RECORD:
-        sb_printf(out, "(%s record)", v->rec->type);
+        text_putc(out, '(');
+        text_puts(out, v->rec->type);
+        text_puts(out, " record)");
         break;
     default:
-        sb_puts(out, "?");
+        text_putc(out, '?');
         break;
     }
+}
+
+void render_value_text(const Evaluated *ev, const Value *v, const Unit *shown, StrBuf *out)
+{
+    TextOut t;
+    text_init(&t, NULL, NULL);
+    value_text(ev, v, shown, &t);
+    text_to_sb(&t, out);
+}
+
+const char *render_value_string(const Evaluated *ev, const Value *v, const Unit *shown, Arena *a)
+{
+    TextOut t;
+    text_init(&t, NULL, NULL);
+    value_text(ev, v, shown, &t);
+    return text_to_arena(&t, a);
 }
 
 /* Binding strengths, spaced so the right operand of '-' and '/' can bind a
@@ -111,48 +208,49 @@ static bool value_needs_parens(const Value *v, const Unit *u, int parent_prec)
     return has_unit && parent_prec >= PREC_MUL;
 }
 
-static void put_value(const Evaluated *ev, const Value *v, const Unit *u, int parent_prec, StrBuf *out)
+static void put_value(const Evaluated *ev, const Value *v, const Unit *u, int parent_prec, TextOut *out)
 {
     bool paren = value_needs_parens(v, u, parent_prec);
     if (paren)
-        sb_putc(out, '(');
-    render_value_text(ev, v, u, out);
+        text_putc(out, '(');
+    value_text(ev, v, u, out);
     if (paren)
-        sb_putc(out, ')');
+        text_putc(out, ')');
 }
 
-/* While a method's formula is printed with one call's values (render_method_text). */
-static const MethodUse *method_values;
-
-static const Value *method_value(const char *name)
+/* A symbol of a method's formula as the call's value (render_method_text). */
+static const Value *method_value(const MethodUse *use, const char *name)
 {
-    for (size_t i = 0; method_values && i < method_values->ninputs; i++)
-        if (strcmp(method_values->inputs[i].name, name) == 0)
-            return &method_values->inputs[i].value;
+    for (size_t i = 0; use && i < use->ninputs; i++)
+        if (strcmp(use->inputs[i].name, name) == 0)
+            return &use->inputs[i].value;
     return NULL;
 }
 
-/* `row` is the statement being listed (a solve substitutes its root values), or NULL. */
-static void put_expr(const Evaluated *ev, const StmtResult *row, const Expr *e, bool sub, StrBuf *out,
-                     int parent_prec)
+static void put_expr(const Evaluated *ev, const Expr *e, bool sub, TextOut *out, int parent_prec)
 {
     switch (e->kind) {
     case EXPR_NUMBER:
-        if (e->has_unit && sub && parent_prec >= PREC_MUL)
-            sb_printf(out, "(%s)", e->text);
-        else
-            sb_puts(out, e->text);
+        if (e->has_unit && sub && parent_prec >= PREC_MUL) {
+            text_putc(out, '(');
+            text_puts(out, e->text);
+            text_putc(out, ')');
+        } else {
+            text_puts(out, e->text);
+        }
         break;
     case EXPR_STRING:
-        sb_printf(out, "\"%s\"", e->text);
+        text_putc(out, '"');
+        text_puts(out, e->text);
+        text_putc(out, '"');
         break;
     case EXPR_NAME: {
         Unit shown;
         Value cv;
-        const Value *v = sub ? eval_read(ev, row, e->slot, &shown) : NULL;
-        if (sub && method_values && e->slot == SLOT_UNRESOLVED) {
+        const Value *v = sub ? eval_read(ev, out->row, e->slot, &shown) : NULL;
+        if (sub && out->method_values && e->slot == SLOT_UNRESOLVED) {
             /* a method's formula: its symbols are the call's values */
-            v = method_value(e->text);
+            v = method_value(out->method_values, e->text);
             if (v && v->kind == VAL_NUMBER)
                 shown = eval_display_unit(ev, v, NULL);
             if (!v && strcmp(e->text, "g") == 0 && eval_constant(SLOT_G, &cv)) {
@@ -166,36 +264,40 @@ static void put_expr(const Evaluated *ev, const StmtResult *row, const Expr *e, 
             Unit u = eval_display_unit(ev, &cv, NULL);
             put_value(ev, &cv, &u, parent_prec, out);
         } else {
-            sb_puts(out, e->text);
+            text_puts(out, e->text);
         }
         break;
     }
     case EXPR_PAREN:
-        sb_putc(out, '(');
-        put_expr(ev, row, e->lhs, sub, out, PREC_TOP);
-        sb_putc(out, ')');
+        text_putc(out, '(');
+        put_expr(ev, e->lhs, sub, out, PREC_TOP);
+        text_putc(out, ')');
         break;
     case EXPR_NEG:
-        sb_putc(out, '-');
-        put_expr(ev, row, e->lhs, sub, out, PREC_NEG);
+        text_putc(out, '-');
+        put_expr(ev, e->lhs, sub, out, PREC_NEG);
         break;
     case EXPR_BINARY: {
         int p = precedence(e);
         bool wrap = p < parent_prec;
         if (wrap)
-            sb_putc(out, '(');
-        put_expr(ev, row, e->lhs, sub, out, e->op == OP_POW ? PREC_ATOM : p);
+            text_putc(out, '(');
+        put_expr(ev, e->lhs, sub, out, e->op == OP_POW ? PREC_ATOM : p);
         switch (e->op) {
-        case OP_ADD: sb_puts(out, " + "); break;
-        case OP_SUB: sb_puts(out, " - "); break;
-        case OP_MUL: sb_puts(out, e->middle_dot ? "·" : "*"); break;
-        case OP_DIV: sb_puts(out, "/"); break;
-        case OP_POW: sb_puts(out, "^"); break;
+        case OP_ADD: text_put(out, " + ", 3); break;
+        case OP_SUB: text_put(out, " - ", 3); break;
+        case OP_MUL:
+            if (e->middle_dot)
+                text_puts(out, "·");
+            else
+                text_putc(out, '*');
+            break;
+        case OP_DIV: text_putc(out, '/'); break;
+        case OP_POW: text_putc(out, '^'); break;
         }
-        put_expr(ev, row, e->rhs, sub, out,
-                 e->op == OP_POW ? PREC_NEG : p + (e->op == OP_SUB || e->op == OP_DIV));
+        put_expr(ev, e->rhs, sub, out, e->op == OP_POW ? PREC_NEG : p + (e->op == OP_SUB || e->op == OP_DIV));
         if (wrap)
-            sb_putc(out, ')');
+            text_putc(out, ')');
         break;
     }
     case EXPR_FIELD:
@@ -203,50 +305,73 @@ static void put_expr(const Evaluated *ev, const StmtResult *row, const Expr *e, 
             /* Substitute the field's value (basis.p_city, basis.w.rho); a
              * solve row reads its record at the root. */
             Unit u;
-            const Value *f = eval_named_value_at(ev, row, e, &u);
+            const Value *f = eval_named_value_at(ev, out->row, e, &u);
             if (f && f->kind == VAL_NUMBER) {
                 put_value(ev, f, &u, parent_prec, out);
                 break;
             }
         }
-        put_expr(ev, row, e->lhs, false, out, PREC_ATOM);
-        sb_printf(out, ".%s", e->text);
+        put_expr(ev, e->lhs, false, out, PREC_ATOM);
+        text_putc(out, '.');
+        text_puts(out, e->text);
         break;
     case EXPR_CALL:
-        sb_puts(out, e->text);
-        sb_putc(out, '(');
+        text_puts(out, e->text);
+        text_putc(out, '(');
         for (size_t i = 0; i < e->call->nargs; i++) {
             if (i)
-                sb_puts(out, ", ");
-            put_expr(ev, row, e->call->args[i], sub, out, PREC_TOP);
+                text_put(out, ", ", 2);
+            put_expr(ev, e->call->args[i], sub, out, PREC_TOP);
         }
         for (size_t i = 0; i < e->call->nkw; i++) {
             if (i || e->call->nargs)
-                sb_puts(out, ", ");
-            sb_printf(out, "%s=", e->call->kw_names[i]);
-            put_expr(ev, row, e->call->kw[i], sub, out, PREC_TOP);
+                text_put(out, ", ", 2);
+            text_puts(out, e->call->kw_names[i]);
+            text_putc(out, '=');
+            put_expr(ev, e->call->kw[i], sub, out, PREC_TOP);
         }
-        sb_putc(out, ')');
+        text_putc(out, ')');
         break;
     }
 }
 
 void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBuf *out)
 {
-    put_expr(ev, NULL, e, substitute, out, PREC_TOP);
+    render_expr_text_at(ev, NULL, e, substitute, out);
 }
 
 void render_method_text(const Evaluated *ev, const MethodUse *use, const Expr *e, StrBuf *out)
 {
-    method_values = use;
-    put_expr(ev, NULL, e, true, out, PREC_TOP);
-    method_values = NULL;
+    TextOut t;
+    text_init(&t, NULL, use);
+    put_expr(ev, e, true, &t, PREC_TOP);
+    text_to_sb(&t, out);
+}
+
+const char *render_method_string(const Evaluated *ev, const MethodUse *use, const Expr *e, Arena *a)
+{
+    TextOut t;
+    text_init(&t, NULL, use);
+    put_expr(ev, e, true, &t, PREC_TOP);
+    return text_to_arena(&t, a);
 }
 
 void render_expr_text_at(const Evaluated *ev, const StmtResult *row, const Expr *e, bool substitute,
                          StrBuf *out)
 {
-    put_expr(ev, row, e, substitute, out, PREC_TOP);
+    TextOut t;
+    text_init(&t, row, NULL);
+    put_expr(ev, e, substitute, &t, PREC_TOP);
+    text_to_sb(&t, out);
+}
+
+const char *render_expr_string(const Evaluated *ev, const StmtResult *row, const Expr *e, bool substitute,
+                               Arena *a)
+{
+    TextOut t;
+    text_init(&t, row, NULL);
+    put_expr(ev, e, substitute, &t, PREC_TOP);
+    return text_to_arena(&t, a);
 }
 
 static void put_comment(const Stmt *s, StrBuf *out)
