@@ -71,9 +71,19 @@ void render_expr_text(const Evaluated *ev, const Expr *e, bool substitute, StrBu
  * statements' own values). pi stays the letter, as the PDF sets it. */
 void render_expr_text_at(const Evaluated *ev, const StmtResult *row, const Expr *e, bool substitute,
                          StrBuf *out);
-/* The same text as a copy in `a`. */
+/* The texts of the statements' values as substituted formulas show them,
+ * each made once while one document's report is made: texts[slot] is NULL
+ * until a formula needs it, then a copy in `arena`, which outlives every
+ * text made with the memo. One per document and per thread. */
+typedef struct ValueTexts {
+    const char **texts;      /* one per statement */
+    Arena *arena;
+} ValueTexts;
+
+/* The same text as a copy in `a`; `memo` (or NULL) keeps the texts of the
+ * values it substitutes for the next formula. */
 const char *render_expr_string(const Evaluated *ev, const StmtResult *row, const Expr *e, bool substitute,
-                               Arena *a);
+                               ValueTexts *memo, Arena *a);
 
 /* A published method's formula `e` with the names it uses replaced by the
  * values one call used (MethodUse, library.h); g is its value, pi the letter. */

@@ -20,6 +20,7 @@
 
 #include "arena.h"
 #include "eval.h"
+#include "render.h"
 
 /* A value as every renderer shows it. */
 typedef struct ModelValue {
@@ -109,6 +110,7 @@ typedef struct ReportModel {
     size_t nchecks, nfailed; /* the evaluator's counts: checks evaluated, checks that fail */
     size_t nwarnings;        /* warnings over every row */
     size_t case_rows_failing;/* the evaluator's count over every case table */
+    ValueTexts *value_texts; /* the statements' values as formulas substitute them, made once */
 } ReportModel;
 
 /* The columns of a path's segment table, defined once for the listing and

@@ -13,10 +13,9 @@
 #include "render.h"
 #include "report_model.h"
 
-static const char *expr_text(const Evaluated *ev, const StmtResult *row, const Expr *e, bool sub,
-                             Arena *a)
+static const char *expr_text(const ReportModel *m, const StmtResult *row, const Expr *e, bool sub, Arena *a)
 {
-    return render_expr_string(ev, row, e, sub, a);
+    return render_expr_string(m->ev, row, e, sub, m->value_texts, a);
 }
 
 ModelValue report_model_value(const Evaluated *ev, const Value *v, const Unit *unit, Arena *a)
@@ -60,16 +59,17 @@ static bool is_input(const Stmt *s, const StmtResult *r)
     return e->has_unit ? strcmp(e->unit->text, r->shown->text) == 0 : unitless;
 }
 
-static void row_def(const Evaluated *ev, const Stmt *s, const StmtResult *r, ModelRow *row, Arena *a)
+static void row_def(const ReportModel *m, const Stmt *s, const StmtResult *r, ModelRow *row, Arena *a)
 {
+    const Evaluated *ev = m->ev;
     row->symbol = s->name;
-    row->formula = expr_text(ev, NULL, s->expr, false, a);
+    row->formula = expr_text(m, NULL, s->expr, false, a);
     if (!row->evaluated)
         return;
     const Expr *e = bare(s->expr);
     bool reference = e->kind == EXPR_NAME || e->kind == EXPR_FIELD;
     if (!reference && expr_reads_names(s->expr)) {
-        const char *sub = expr_text(ev, NULL, s->expr, true, a);
+        const char *sub = expr_text(m, NULL, s->expr, true, a);
         /* a substitution that changes nothing (pump(0 gal/min)) is not repeated */
         if (strcmp(sub, row->formula) != 0) {
             row->substituted = sub;
@@ -83,23 +83,24 @@ static void row_def(const Evaluated *ev, const Stmt *s, const StmtResult *r, Mod
         row->result.text = row->formula;
 }
 
-static void row_solve(const Evaluated *ev, const Stmt *s, const StmtResult *r, ModelRow *row, Arena *a)
+static void row_solve(const ReportModel *m, const Stmt *s, const StmtResult *r, ModelRow *row, Arena *a)
 {
+    const Evaluated *ev = m->ev;
     row->symbol = s->name;
-    row->lhs_formula = expr_text(ev, NULL, s->lhs, false, a);
-    row->rhs_formula = expr_text(ev, NULL, s->rhs, false, a);
+    row->lhs_formula = expr_text(m, NULL, s->lhs, false, a);
+    row->rhs_formula = expr_text(m, NULL, s->rhs, false, a);
     row->formula = arena_printf(a, "%s = %s", row->lhs_formula, row->rhs_formula);
     if (s->solve->lo && s->solve->hi) {
-        row->lo_text = expr_text(ev, NULL, s->solve->lo, false, a);
-        row->hi_text = expr_text(ev, NULL, s->solve->hi, false, a);
+        row->lo_text = expr_text(m, NULL, s->solve->lo, false, a);
+        row->hi_text = expr_text(m, NULL, s->solve->hi, false, a);
     }
     if (!row->evaluated)
         return;
     row->result = report_model_value(ev, &r->value, r->shown, a);
     row->show_result = true;
     if (!(expr_is_simple(s->lhs) && expr_is_simple(s->rhs))) {
-        row->lhs_substituted = expr_text(ev, r, s->lhs, true, a);
-        row->rhs_substituted = expr_text(ev, r, s->rhs, true, a);
+        row->lhs_substituted = expr_text(m, r, s->lhs, true, a);
+        row->rhs_substituted = expr_text(m, r, s->rhs, true, a);
         row->substituted = arena_printf(a, "%s = %s", row->lhs_substituted, row->rhs_substituted);
         row->show_substituted = true;
     }
@@ -115,11 +116,12 @@ static void row_solve(const Evaluated *ev, const Stmt *s, const StmtResult *r, M
     row->iterations = r->sides->solve.iterations;
 }
 
-static void row_check(const Evaluated *ev, const Stmt *s, const StmtResult *r, ModelRow *row, Arena *a)
+static void row_check(const ReportModel *m, const Stmt *s, const StmtResult *r, ModelRow *row, Arena *a)
 {
+    const Evaluated *ev = m->ev;
     ModelCheck *c = &row->check;
-    row->lhs_formula = expr_text(ev, NULL, s->lhs, false, a);
-    row->rhs_formula = expr_text(ev, NULL, s->rhs, false, a);
+    row->lhs_formula = expr_text(m, NULL, s->lhs, false, a);
+    row->rhs_formula = expr_text(m, NULL, s->rhs, false, a);
     row->formula = arena_printf(a, "%s %s %s", row->lhs_formula, cmp_op_text(s->cmp, false),
                                 row->rhs_formula);
     c->finding = s->finding;
@@ -129,8 +131,8 @@ static void row_check(const Evaluated *ev, const Stmt *s, const StmtResult *r, M
         return;
     if ((expr_reads_names(s->lhs) || expr_reads_names(s->rhs)) &&
         !(expr_is_simple(s->lhs) && expr_is_simple(s->rhs))) {
-        row->lhs_substituted = expr_text(ev, NULL, s->lhs, true, a);
-        row->rhs_substituted = expr_text(ev, NULL, s->rhs, true, a);
+        row->lhs_substituted = expr_text(m, NULL, s->lhs, true, a);
+        row->rhs_substituted = expr_text(m, NULL, s->rhs, true, a);
         row->substituted = arena_printf(a, "%s %s %s", row->lhs_substituted,
                                         cmp_op_text(s->cmp, false), row->rhs_substituted);
         row->show_substituted = true;
@@ -197,8 +199,8 @@ static void row_uses(const ReportModel *m, const StmtResult *r, ModelRow *row, A
         mu->method = k;
         mu->branch = u->branch;
         if (mm->lhs && mm->rhs) {
-            mu->lhs = expr_text(m->ev, NULL, mm->lhs, false, a);
-            mu->formula = expr_text(m->ev, NULL, mm->rhs, false, a);
+            mu->lhs = expr_text(m, NULL, mm->lhs, false, a);
+            mu->formula = expr_text(m, NULL, mm->rhs, false, a);
             if (u->ninputs && use_covers(u, mm->rhs))
                 mu->substituted = render_method_string(m->ev, u, mm->rhs, a);
         }
@@ -252,6 +254,9 @@ ReportModel *report_model_begin(const Evaluated *ev, Arena *a)
     m->nchecks = ev->nchecks;
     m->nfailed = ev->nfailed;
     m->case_rows_failing = ev->case_rows_failing;
+    m->value_texts = arena_alloc(a, sizeof *m->value_texts);
+    m->value_texts->texts = arena_alloc(a, (d->nstmts + 1) * sizeof *m->value_texts->texts);
+    m->value_texts->arena = a;
     return m;
 }
 
@@ -282,13 +287,13 @@ void report_model_row(const ReportModel *m, size_t i, ModelRow *row, Arena *a)
         return;
     switch (s->kind) {
     case STMT_DEF:
-        row_def(ev, s, r, row, a);
+        row_def(m, s, r, row, a);
         break;
     case STMT_SOLVE:
-        row_solve(ev, s, r, row, a);
+        row_solve(m, s, r, row, a);
         break;
     case STMT_CHECK:
-        row_check(ev, s, r, row, a);
+        row_check(m, s, r, row, a);
         row->check.governs = (int)i == m->governing;
         break;
     default:

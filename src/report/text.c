@@ -75,6 +75,7 @@ typedef struct TextOut {
     size_t len, cap;
     const StmtResult *row;            /* a solve row substitutes its root values; NULL */
     const MethodUse *method_values;   /* printing a method's formula with one call's values */
+    ValueTexts *memo;                 /* the statements' value texts, or NULL */
     char local[256];
 } TextOut;
 
@@ -85,6 +86,7 @@ static void text_init(TextOut *t, const StmtResult *row, const MethodUse *use)
     t->cap = sizeof t->local;
     t->row = row;
     t->method_values = use;
+    t->memo = NULL;
 }
 
 static void text_grow(TextOut *t, size_t n)
@@ -218,6 +220,26 @@ static void put_value(const Evaluated *ev, const Value *v, const Unit *u, int pa
         text_putc(out, ')');
 }
 
+/* Statement `slot`'s own value (v, shown in u) where a formula names it:
+ * its text from the memo, made there the first time. */
+static void put_slot_value(const Evaluated *ev, int slot, const Value *v, const Unit *u, int parent_prec,
+                           TextOut *out)
+{
+    const char **text = &out->memo->texts[slot];
+    if (!*text) {
+        TextOut t;
+        text_init(&t, NULL, NULL);
+        value_text(ev, v, u, &t);
+        *text = text_to_arena(&t, out->memo->arena);
+    }
+    bool paren = value_needs_parens(v, u, parent_prec);
+    if (paren)
+        text_putc(out, '(');
+    text_puts(out, *text);
+    if (paren)
+        text_putc(out, ')');
+}
+
 /* A symbol of a method's formula as the call's value (render_method_text). */
 static const Value *method_value(const MethodUse *use, const char *name)
 {
@@ -258,7 +280,9 @@ static void put_expr(const Evaluated *ev, const Expr *e, bool sub, TextOut *out,
                 shown = eval_display_unit(ev, v, NULL);
             }
         }
-        if (v && v->kind == VAL_NUMBER) {
+        if (v && v->kind == VAL_NUMBER && out->memo && !out->row && !out->method_values) {
+            put_slot_value(ev, e->slot, v, &shown, parent_prec, out); /* eval_read: the slot's own value */
+        } else if (v && v->kind == VAL_NUMBER) {
             put_value(ev, v, &shown, parent_prec, out);
         } else if (sub && e->slot != SLOT_PI && eval_constant(e->slot, &cv)) {
             Unit u = eval_display_unit(ev, &cv, NULL);
@@ -366,10 +390,11 @@ void render_expr_text_at(const Evaluated *ev, const StmtResult *row, const Expr 
 }
 
 const char *render_expr_string(const Evaluated *ev, const StmtResult *row, const Expr *e, bool substitute,
-                               Arena *a)
+                               ValueTexts *memo, Arena *a)
 {
     TextOut t;
     text_init(&t, row, NULL);
+    t.memo = memo;
     put_expr(ev, e, substitute, &t, PREC_TOP);
     return text_to_arena(&t, a);
 }
