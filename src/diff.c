@@ -27,7 +27,8 @@ DiffOptions diff_options_default(void)
     return (DiffOptions){.rel_tol = 1e-9, .abs_floor = 1e-15};
 }
 
-bool diff_numbers_differ(double a, double b, const DiffOptions *opt)
+/* diff_numbers_differ, inline where the renames' candidates are sifted */
+static inline bool numbers_differ(double a, double b, const DiffOptions *opt)
 {
     if (isnan(a) || isnan(b))
         return isnan(a) != isnan(b);
@@ -36,8 +37,14 @@ bool diff_numbers_differ(double a, double b, const DiffOptions *opt)
     if (isinf(a) || isinf(b))
         return true;
     double d = fabs(a - b);
-    double scale = fmax(fabs(a), fabs(b));
+    double fa = fabs(a), fb = fabs(b);
+    double scale = fa > fb ? fa : fb; /* fmax: neither is NaN here */
     return d > opt->rel_tol * scale && d > opt->abs_floor;
+}
+
+bool diff_numbers_differ(double a, double b, const DiffOptions *opt)
+{
+    return numbers_differ(a, b, opt);
 }
 
 static bool str_same(const char *a, const char *b)
@@ -439,9 +446,83 @@ static uint64_t stmt_key(const Diff *d, const Stmt *s, bool new_side)
     }
 }
 
+/* The first and the last literal of a statement's formula (in the order
+ * expr_same walks it), in SI, to pass over most candidates under one key
+ * without walking their trees: under equal keys the trees have one shape,
+ * so stmt_same holds only where both pairs are the same within the
+ * tolerance. `has` is false for a formula without literals and for the
+ * kinds the key leaves out. */
+typedef struct Literals {
+    bool has;
+    double first, last;
+} Literals;
+
+static void expr_literals(const Expr *e, Literals *l)
+{
+    e = bare(e);
+    if (!e)
+        return;
+    switch (e->kind) {
+    case EXPR_NUMBER: {
+        double si = literal_qty(e).si;
+        if (!l->has)
+            l->first = si;
+        l->last = si;
+        l->has = true;
+        return;
+    }
+    case EXPR_STRING:
+    case EXPR_NAME:
+        return;
+    case EXPR_NEG:
+    case EXPR_PAREN:
+    case EXPR_FIELD:
+        expr_literals(e->lhs, l);
+        return;
+    case EXPR_BINARY:
+        expr_literals(e->lhs, l);
+        expr_literals(e->rhs, l);
+        return;
+    case EXPR_CALL:
+        for (size_t i = 0; i < e->call->nargs; i++)
+            expr_literals(e->call->args[i], l);
+        for (size_t i = 0; i < e->call->nkw; i++)
+            expr_literals(e->call->kw[i], l);
+        return;
+    }
+}
+
+static Literals stmt_literals(const Stmt *s)
+{
+    Literals l = {false, 0, 0};
+    switch (s->kind) {
+    case STMT_DEF:
+        expr_literals(s->expr, &l);
+        break;
+    case STMT_SOLVE:
+    case STMT_CHECK:
+        expr_literals(s->lhs, &l);
+        expr_literals(s->rhs, &l);
+        break;
+    default:
+        break;
+    }
+    return l;
+}
+
+/* False only where stmt_same cannot hold: both formulas have literals and
+ * the first or the last differ. */
+static bool literals_may_match(const Diff *d, const Literals *a, const Literals *b)
+{
+    if (!a->has || !b->has)
+        return true;
+    return !numbers_differ(a->first, b->first, &d->opt) && !numbers_differ(a->last, b->last, &d->opt);
+}
+
 typedef struct Candidate {
     uint64_t key;
     size_t k; /* the orphan's place in source order */
+    Literals lit;
 } Candidate;
 
 static int cmp_candidate(const void *a, const void *b)
@@ -485,7 +566,7 @@ static void match_statements(Builder *b)
     Candidate *cand = xmalloc((norphans + 1) * sizeof *cand);
     size_t *open = xmalloc((norphans + 1) * sizeof *open); /* per key: its first orphan not yet taken */
     for (size_t k = 0; k < norphans; k++)
-        cand[k] = (Candidate){stmt_key(d, od->stmts[orphans[k]], false), k};
+        cand[k] = (Candidate){stmt_key(d, od->stmts[orphans[k]], false), k, stmt_literals(od->stmts[orphans[k]])};
     qsort(cand, norphans, sizeof *cand, cmp_candidate);
     for (size_t j = 0; j < norphans; j++)
         open[j] = j;
@@ -508,10 +589,12 @@ static void match_statements(Builder *b)
         while (j < norphans && cand[j].key == key && d->old_to_new[orphans[cand[j].k]] >= 0)
             j++;
         open[lo] = j;
+        Literals lit = stmt_literals(s);
         for (; j < norphans && cand[j].key == key; j++) {
             int o = orphans[cand[j].k];
             const Stmt *os = od->stmts[o];
-            if (d->old_to_new[o] < 0 && is_check(os) == is_check(s) && stmt_same(d, os, s)) {
+            if (d->old_to_new[o] < 0 && literals_may_match(d, &cand[j].lit, &lit) && is_check(os) == is_check(s) &&
+                stmt_same(d, os, s)) {
                 d->old_to_new[o] = (int)i;
                 d->new_to_old[i] = o;
                 StmtChange c = {STMT_RENAMED, o, (int)i};

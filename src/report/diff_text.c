@@ -44,18 +44,46 @@ static void put_rel(const ValueChange *c, StrBuf *out)
     } else if (c->old_value.kind == VAL_NUMBER && !isnan(c->rel)) {
         char buf[48];
         num_sig(fabs(c->rel) * 100, 3, buf, sizeof buf);
-        sb_printf(out, " (%s%s %%)", c->rel < 0 ? "-" : "+", buf);
+        sb_puts(out, c->rel < 0 ? " (-" : " (+");
+        sb_puts(out, buf);
+        sb_puts(out, " %)");
     } else if (c->old_value.kind == VAL_NUMBER && c->old_value.q.si == 0) {
         sb_puts(out, " (from zero)");
     }
 }
 
+/* A text as printf's %s writes it (NULL too), without printf: these run
+ * for every statement of a diff. */
+static void put_text(StrBuf *out, const char *s)
+{
+    sb_puts(out, s ? s : "(null)");
+}
+
+static void put_int(StrBuf *out, int v)
+{
+    char buf[16];
+    char *o = buf + sizeof buf;
+    unsigned u = v < 0 ? 0u - (unsigned)v : (unsigned)v;
+    do {
+        *--o = (char)('0' + u % 10);
+        u /= 10;
+    } while (u);
+    if (v < 0)
+        *--o = '-';
+    sb_putn(out, o, (size_t)(buf + sizeof buf - o));
+}
+
 static void put_line(const Diff *d, int new_slot, int old_slot, StrBuf *out)
 {
-    if (new_slot >= 0)
-        sb_printf(out, "  [line %d]", d->new_ev->doc->stmts[new_slot]->pos.line);
-    else if (old_slot >= 0)
-        sb_printf(out, "  [old line %d]", d->old_ev->doc->stmts[old_slot]->pos.line);
+    if (new_slot >= 0) {
+        sb_puts(out, "  [line ");
+        put_int(out, d->new_ev->doc->stmts[new_slot]->pos.line);
+        sb_putc(out, ']');
+    } else if (old_slot >= 0) {
+        sb_puts(out, "  [old line ");
+        put_int(out, d->old_ev->doc->stmts[old_slot]->pos.line);
+        sb_putc(out, ']');
+    }
 }
 
 static void put_inputs(const Diff *d, StrBuf *out)
@@ -119,13 +147,20 @@ static void put_results(const Diff *d, StrBuf *out)
         else if (c->formula_changed && (same || c->new_value.kind == VAL_RECORD))
             sb_printf(out, "  %s: formula changed, value unchanged", c->name);
         else {
-            sb_printf(out, "  %s = %s → %s", c->name, sb_str(&a), sb_str(&b));
+            sb_puts(out, "  ");
+            put_text(out, c->name);
+            sb_puts(out, " = ");
+            sb_puts(out, sb_str(&a));
+            sb_puts(out, " → ");
+            sb_puts(out, sb_str(&b));
             put_rel(c, out);
             if (c->formula_changed)
                 sb_puts(out, "; formula changed");
         }
-        for (size_t k = 0; k < c->ninputs; k++)
-            sb_printf(out, "%s%s", k ? ", " : "; from ", d->inputs[c->inputs[k]].name);
+        for (size_t k = 0; k < c->ninputs; k++) {
+            sb_puts(out, k ? ", " : "; from ");
+            put_text(out, d->inputs[c->inputs[k]].name);
+        }
         put_line(d, c->new_slot, c->old_slot, out);
         sb_putc(out, '\n');
         sb_free(&a);
@@ -203,19 +238,27 @@ static void stmt_text(const Evaluated *ev, const Stmt *s, StrBuf *out)
 {
     switch (s->kind) {
     case STMT_DEF:
-        sb_printf(out, "%s = ", s->name);
+        put_text(out, s->name);
+        sb_puts(out, " = ");
         render_expr_text(ev, s->expr, false, out);
         break;
     case STMT_SOLVE:
-        sb_printf(out, "%s = solve %s where ", s->name, s->solve->var);
+        put_text(out, s->name);
+        sb_puts(out, " = solve ");
+        put_text(out, s->solve->var);
+        sb_puts(out, " where ");
         render_expr_text(ev, s->lhs, false, out);
         sb_puts(out, " = ");
         render_expr_text(ev, s->rhs, false, out);
         break;
     case STMT_CHECK:
-        sb_printf(out, "%s %s: ", s->finding ? "finding" : "check", s->label);
+        sb_puts(out, s->finding ? "finding " : "check ");
+        put_text(out, s->label);
+        sb_puts(out, ": ");
         render_expr_text(ev, s->lhs, false, out);
-        sb_printf(out, " %s ", cmp_op_text(s->cmp, false));
+        sb_putc(out, ' ');
+        put_text(out, cmp_op_text(s->cmp, false));
+        sb_putc(out, ' ');
         render_expr_text(ev, s->rhs, false, out);
         break;
     case STMT_PATH:
@@ -247,7 +290,10 @@ static void put_stmts(const Diff *d, StrBuf *out)
         const Stmt *ns = c->new_slot >= 0 ? d->new_ev->doc->stmts[c->new_slot] : NULL;
         switch (c->kind) {
         case STMT_RENAMED:
-            sb_printf(out, "  renamed  %s%s → %s", ns->kind == STMT_CHECK ? "check " : "", stmt_title(os), stmt_title(ns));
+            sb_puts(out, ns->kind == STMT_CHECK ? "  renamed  check " : "  renamed  ");
+            put_text(out, stmt_title(os));
+            sb_puts(out, " → ");
+            put_text(out, stmt_title(ns));
             break;
         case STMT_ADDED:
             sb_puts(out, "  added    ");

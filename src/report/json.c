@@ -70,12 +70,40 @@ static void row_texts_write(JsonOut *w, const ModelRow *mr)
     json_out_end_array(w);
 }
 
+/* The SI unit of a dimension as text, for the last few dimensions written
+ * (a calc's values share a handful): kept with the writer's scratch. */
+enum { SI_UNITS_KEPT = 8 };
+typedef struct SiUnitCache {
+    Dim dim[SI_UNITS_KEPT];
+    char text[SI_UNITS_KEPT][64];
+    size_t n;                /* entries made; the next goes at n % SI_UNITS_KEPT */
+} SiUnitCache;
+
+/* Scratch space of one document's writing: an arena reset after each
+ * value, and the SI units. */
+typedef struct Scratch {
+    Arena arena;
+    SiUnitCache si;
+} Scratch;
+
+/* dim_format_si(d), from the cache when d is bit for bit one seen lately. */
+static const char *si_unit_text(SiUnitCache *c, Dim d)
+{
+    size_t kept = c->n < SI_UNITS_KEPT ? c->n : SI_UNITS_KEPT;
+    for (size_t i = 0; i < kept; i++)
+        if (memcmp(&c->dim[i], &d, sizeof d) == 0)
+            return c->text[i];
+    size_t at = c->n++ % SI_UNITS_KEPT;
+    c->dim[at] = d;
+    dim_format_si(d, c->text[at], sizeof c->text[at]);
+    return c->text[at];
+}
+
 /* `shown` at full precision in the display unit and `text` exactly as the
  * report prints it, from the report model's value (DESIGN 2.5). */
-static void number_members(JsonOut *w, const Value *v, const ModelValue *mv, bool with_kind)
+static void number_members(JsonOut *w, const Value *v, const ModelValue *mv, bool with_kind, Scratch *tmp)
 {
-    char si_unit[64];
-    dim_format_si(v->q.dim, si_unit, sizeof si_unit);
+    const char *si_unit = si_unit_text(&tmp->si, v->q.dim);
     if (with_kind)
         json_out_string(w, "kind", "number");
     json_out_real(w, "si", v->q.si);
@@ -90,24 +118,24 @@ static void number_members(JsonOut *w, const Value *v, const ModelValue *mv, boo
 }
 
 static void value_write(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *shown,
-                        Arena *tmp);
+                        Scratch *tmp);
 
 /* A value as an object left open for the caller's members (true), or null
  * (false: nothing to close). A number's display comes from the report
  * model: the row's own (mv) where the model has it, else made here. */
 static bool value_open(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *shown,
-                       const ModelValue *mv, Arena *tmp)
+                       const ModelValue *mv, Scratch *tmp)
 {
     switch (v->kind) {
     case VAL_NUMBER: {
         json_out_begin_object(w, key);
         if (mv) {
-            number_members(w, v, mv, true);
+            number_members(w, v, mv, true, tmp);
             return true;
         }
-        ModelValue made = report_model_value(ev, v, shown, tmp);
-        number_members(w, v, &made, true);
-        arena_reset(tmp);
+        ModelValue made = report_model_value(ev, v, shown, &tmp->arena);
+        number_members(w, v, &made, true, tmp);
+        arena_reset(&tmp->arena);
         return true;
     }
     case VAL_STRING:
@@ -145,7 +173,7 @@ static bool value_open(JsonOut *w, const char *key, const Evaluated *ev, const V
 }
 
 static void value_write(JsonOut *w, const char *key, const Evaluated *ev, const Value *v, const Unit *shown,
-                        Arena *tmp)
+                        Scratch *tmp)
 {
     if (value_open(w, key, ev, v, shown, NULL, tmp))
         json_out_end_object(w);
@@ -272,7 +300,7 @@ static void figure_write(JsonOut *w, const Stmt *s, const FigureData *fd)
 }
 
 /* A table a statement laid out: title, heads, units and rows of values. */
-static void table_write(JsonOut *w, const Evaluated *ev, const ResultTable *t, Arena *tmp)
+static void table_write(JsonOut *w, const Evaluated *ev, const ResultTable *t, Scratch *tmp)
 {
     json_out_begin_object(w, "table");
     json_out_string(w, "title", t->title);
@@ -296,7 +324,7 @@ static void table_write(JsonOut *w, const Evaluated *ev, const ResultTable *t, A
 }
 
 /* A case table: per row, the inputs, the shown results and every check. */
-static void cases_write(JsonOut *w, const Evaluated *ev, size_t which, Arena *tmp)
+static void cases_write(JsonOut *w, const Evaluated *ev, size_t which, Scratch *tmp)
 {
     const CaseTable *ct = ev->doc->cases[which];
     const CaseResult *cr = &ev->cases[which];
@@ -373,7 +401,7 @@ static bool is_value_stmt(const Stmt *s)
 
 /* One named result under "values", with its row of the report model. */
 static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, const StmtResult *r,
-                              const ModelRow *row, Arena *tmp)
+                              const ModelRow *row, Scratch *tmp)
 {
     bool open;
     if (r->state == RES_OK) {
@@ -433,13 +461,13 @@ static void named_value_write(JsonOut *w, const Evaluated *ev, const Stmt *s, co
 
 /* Both sides of a check or finding, without their "kind", as the report
  * model shows them. */
-static void sides_write(JsonOut *w, const StmtResult *r, const ModelCheck *c)
+static void sides_write(JsonOut *w, const StmtResult *r, const ModelCheck *c, Scratch *tmp)
 {
     json_out_begin_object(w, "lhs");
-    number_members(w, &r->sides->lhs, &c->lhs, false);
+    number_members(w, &r->sides->lhs, &c->lhs, false, tmp);
     json_out_end_object(w);
     json_out_begin_object(w, "rhs");
-    number_members(w, &r->sides->rhs, &c->rhs, false);
+    number_members(w, &r->sides->rhs, &c->rhs, false, tmp);
     json_out_end_object(w);
 }
 
@@ -448,10 +476,12 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
     const Document *doc = ev->doc;
     /* The report model's rows, each made when it is written, in a scratch
      * arena of its own: memory does not grow with the calc. */
-    Arena arena, scratch, values; /* values: a value's texts while it is written */
+    Arena arena, scratch;
+    Scratch values; /* a value's texts while it is written */
     arena_init(&arena);
     arena_init(&scratch);
-    arena_init(&values);
+    arena_init(&values.arena);
+    values.si.n = 0;
     const ReportModel *model = report_model_begin(ev, &arena);
     ModelRow row;
     json_out_begin_object(w, NULL);
@@ -503,7 +533,7 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
         if (r->state == RES_OK) {
             report_model_row(model, i, &row, &scratch);
             json_out_bool(w, "holds", r->holds);
-            sides_write(w, r, &row.check);
+            sides_write(w, r, &row.check, &values);
             json_out_real(w, "utilization", r->utilization);
             json_out_bool(w, "governing", row.check.governs);
             row_texts_write(w, &row);
@@ -532,7 +562,7 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
             if (r->state == RES_OK) {
                     report_model_row(model, i, &row, &scratch);
                 json_out_bool(w, "answer", r->holds);
-                sides_write(w, r, &row.check);
+                sides_write(w, r, &row.check, &values);
                 arena_reset(&scratch);
             } else {
                 json_out_null(w, "answer");
@@ -579,7 +609,7 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
     json_out_end_array(w);
     diagnostics_write(w, diags, doc->file);
     json_out_end_object(w);
-    arena_free(&values);
+    arena_free(&values.arena);
     arena_free(&scratch);
     arena_free(&arena);
 }
