@@ -211,14 +211,43 @@ bool num_round(double x, int p, uint64_t *digits, int *exp10)
     return false;
 }
 
+static const char PAIRS[] = "00010203040506070809101112131415161718192021222324252627282930313233343536373839"
+                            "40414243444546474849505152535455565758596061626364656667686970717273747576777879"
+                            "8081828384858687888990919293949596979899";
+
+/* The eight digits of n < 10^8, two a step without a division: y holds
+ * n / 10^6 as a fixed-point number with 57 bits of fraction (the factor is
+ * 2^57 / 10^6 rounded up), its integer part the first two digits; times 100
+ * the fraction gives the next two. Checked for every n below 10^8. */
+static inline void eight_digits(uint32_t n, char *out)
+{
+    const uint64_t frac = (1ULL << 57) - 1;
+    uint64_t y = (uint64_t)n * 144115188076ULL;
+    memcpy(out, PAIRS + 2 * (y >> 57), 2);
+    y = (y & frac) * 100;
+    memcpy(out + 2, PAIRS + 2 * (y >> 57), 2);
+    y = (y & frac) * 100;
+    memcpy(out + 4, PAIRS + 2 * (y >> 57), 2);
+    y = (y & frac) * 100;
+    memcpy(out + 6, PAIRS + 2 * (y >> 57), 2);
+}
+
 void num_digit_text(uint64_t digits, int p, char *out)
 {
-    static const char PAIRS[] = "00010203040506070809101112131415161718192021222324252627282930313233343536373839"
-                                "40414243444546474849505152535455565758596061626364656667686970717273747576777879"
-                                "8081828384858687888990919293949596979899";
+    if (p >= 8 && p <= 17) {
+        /* the last p of its digits (p <= 17): the last sixteen eight at a
+         * time, the one before them alone */
+        char all[17];
+        all[0] = (char)('0' + digits / 10000000000000000ULL % 10);
+        eight_digits((uint32_t)(digits / 100000000ULL % 100000000ULL), all + 1);
+        eight_digits((uint32_t)(digits % 100000000ULL), all + 9);
+        memcpy(out, all + 17 - p, (size_t)p);
+        out[p] = '\0';
+        return;
+    }
     int i = p;
     out[p] = '\0';
-    for (; i >= 2; i -= 2) { /* two digits a step */
+    for (; i >= 2; i -= 2) { /* fewer: two digits a step */
         unsigned two = (unsigned)(digits % 100);
         digits /= 100;
         out[i - 2] = PAIRS[2 * two];
