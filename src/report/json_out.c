@@ -235,7 +235,8 @@ static bool member(JsonOut *w, const char *key)
             o[i] = (char)k[i];
         if (k[i] != '\0') {
             /* not plain, or long: the general way */
-            if (!plain_text(key, &i) && !json_out_utf8_ok(key))
+            size_t n;
+            if (!plain_text(key, &n) && !json_out_utf8_ok(key))
                 return false;
             w->len += (size_t)(o - 1 - start);
             w->has_items[w->depth] = true;
