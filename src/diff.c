@@ -736,19 +736,21 @@ static size_t compare_record(Builder *b, const char *name, int o, int n, const R
     for (size_t i = 0; i < rb->nfields; i++) {
         const RecordField *f = &rb->fields[i];
         const Value *ov = record_get(ra, f->name);
-        const char *fname = arena_printf(a, "%s.%s", name, f->name);
+        /* the field's full name is made only for a change or a nested record */
         if (!ov) {
-            add_value_change(b, false, fname, o, n, &none, &f->value, NULL, NULL, true);
+            add_value_change(b, false, arena_printf(a, "%s.%s", name, f->name), o, n, &none, &f->value, NULL, NULL,
+                             true);
             found++;
             continue;
         }
         if (ov->kind == VAL_RECORD && f->value.kind == VAL_RECORD) {
-            found += compare_record(b, fname, o, n, ov->rec, f->value.rec, true);
+            found += compare_record(b, arena_printf(a, "%s.%s", name, f->name), o, n, ov->rec, f->value.rec, true);
             continue;
         }
         bool dim_changed;
         if (values_differ(ov, &f->value, &b->d->opt, &dim_changed)) {
-            add_value_change(b, false, fname, o, n, ov, &f->value, NULL, NULL, dim_changed);
+            add_value_change(b, false, arena_printf(a, "%s.%s", name, f->name), o, n, ov, &f->value, NULL, NULL,
+                             dim_changed);
             found++;
         }
     }
