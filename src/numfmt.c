@@ -155,9 +155,11 @@ bool num_round(double x, int p, uint64_t *digits, int *exp10)
         return false; /* subnormal */
     uint64_t m = (bits & ((1ULL << 52) - 1)) | (1ULL << 52);
     int e = biased - 1075;
-    /* a guess at the power of ten from the binary one (log10(2) = 0.30103),
-     * corrected below */
-    int ex = (int)floor((double)(e + 52) * 0.30102999566398120);
+    /* a guess at the power of ten from the binary one, corrected below:
+     * floor((e + 52) * log10(2)) in integers (78913 / 2^18 = 0.3010292, the
+     * same floor for every exponent of a double; the shift of a negative
+     * product rounds down) */
+    int ex = ((e + 52) * 78913) >> 18;
     for (int tries = 0; tries < 6; tries++) {
         int k = p - 1 - ex; /* |x| * 10^k should lie in [10^(p-1), 10^p) */
         if (k > 54 || k < -54)
