@@ -499,16 +499,26 @@ static void document_write(JsonOut *w, const Evaluated *ev, const DiagList *diag
     }
     meta_write(w, ev);
 
-    /* values: a name defined twice keeps its first place and its last value */
+    /* values: a name defined twice keeps its first place and its last value.
+     * The document's name table holds each name's first definition: when
+     * every named statement is its name's first, no name repeats and the
+     * statements are their own picks. */
     size_t n = doc->nstmts;
     const char **names = xmalloc((n + 1) * sizeof *names);
+    long *pick = xmalloc((n + 1) * sizeof *pick);
     size_t nfindings = 0;
+    bool repeats = false;
     for (size_t i = 0; i < n; i++) {
         const Stmt *s = doc->stmts[i];
         names[i] = is_value_stmt(s) ? s->name : NULL;
+        pick[i] = names[i] ? (long)i : -1;
+        repeats = repeats || (names[i] && doc_lookup(doc, names[i]) != (int)i);
         nfindings += s->kind == STMT_CHECK && s->label && s->finding;
     }
-    long *pick = unique_keys(names, n);
+    if (repeats) {
+        free(pick);
+        pick = unique_keys(names, n);
+    }
     json_out_begin_object(w, "values");
     for (size_t i = 0; i < n; i++)
         if (pick[i] >= 0) {
