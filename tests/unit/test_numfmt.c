@@ -206,6 +206,35 @@ static void test_parse_matches_strtod(void **state)
     }
 }
 
+/* num_digit_text writes 8 to 17 digits eight at a time by a fixed-point
+ * product: the digits of every width, at the ends of each group, against
+ * printf's %0*llu (and the last p digits of a value with more). */
+static void test_digit_text(void **state)
+{
+    (void)state;
+    static const uint64_t values[] = {0ULL, 1ULL, 9ULL, 10ULL, 99999999ULL, 100000000ULL, 100000001ULL,
+                                      12345678901234567ULL, 99999999999999999ULL, 10000000000000000ULL,
+                                      10000000099999999ULL, 99999999000000009ULL, 18446744073709551615ULL};
+    for (size_t i = 0; i < sizeof values / sizeof values[0]; i++)
+        for (int p = 1; p <= 17; p++) {
+            uint64_t pow = 1;
+            for (int k = 0; k < p; k++)
+                pow *= 10;
+            char want[24], got[24];
+            snprintf(want, sizeof want, "%0*llu", p, (unsigned long long)(values[i] % pow));
+            memset(got, 'x', sizeof got);
+            num_digit_text(values[i], p, got);
+            if (strcmp(got, want) != 0)
+                fail_msg("num_digit_text(%llu, %d): '%s', printf '%s'", (unsigned long long)values[i], p, got,
+                         want);
+        }
+    char dig[20];
+    num_digit_text(12345678901234567ULL, 17, dig);
+    assert_string_equal(dig, "12345678901234567");
+    num_digit_text(100000000ULL, 9, dig);
+    assert_string_equal(dig, "100000000");
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -213,6 +242,7 @@ int main(void)
         cmocka_unit_test(test_superscript),
         cmocka_unit_test(test_round_matches_printf),
         cmocka_unit_test(test_parse_matches_strtod),
+        cmocka_unit_test(test_digit_text),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
