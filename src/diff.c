@@ -525,12 +525,62 @@ typedef struct Candidate {
     Literals lit;
 } Candidate;
 
+/* Under one key, candidates come in three runs: formulas without literals,
+ * those whose first literal is finite (in the order of that literal) and
+ * the rest (infinite or NaN); each run in source order where it has no
+ * order of its own. A formula can only match a candidate of its own run. */
+enum { LIT_NONE, LIT_FINITE, LIT_OTHER };
+
+static int literal_run(const Literals *l)
+{
+    return !l->has ? LIT_NONE : isfinite(l->first) ? LIT_FINITE : LIT_OTHER;
+}
+
 static int cmp_candidate(const void *a, const void *b)
 {
     const Candidate *x = a, *y = b;
     if (x->key != y->key)
         return x->key < y->key ? -1 : 1;
+    int rx = literal_run(&x->lit), ry = literal_run(&y->lit);
+    if (rx != ry)
+        return rx - ry;
+    if (rx == LIT_FINITE && x->lit.first != y->lit.first)
+        return x->lit.first < y->lit.first ? -1 : 1;
     return (x->k > y->k) - (x->k < y->k);
+}
+
+/* The first index in [lo, hi) whose candidate is not before (key, run,
+ * first): candidates sorted by cmp_candidate. */
+static size_t candidate_find(const Candidate *cand, size_t lo, size_t hi, uint64_t key, int run, double first)
+{
+    while (lo < hi) {
+        size_t mid = (lo + hi) / 2;
+        const Candidate *c = &cand[mid];
+        int r = literal_run(&c->lit);
+        bool before = c->key != key ? c->key < key : r != run ? r < run : run == LIT_FINITE && c->lit.first < first;
+        if (before)
+            lo = mid + 1;
+        else
+            hi = mid;
+    }
+    return lo;
+}
+
+/* Where two first literals can be the same within the tolerance: every b
+ * with numbers_differ(a, b) false lies within a +- w (rel_tol < 1/4 keeps
+ * |b - a| <= 2 rel_tol |a|, doubled here, and one step of the doubles more).
+ * False when the tolerance gives no such window. */
+static bool literal_window(const DiffOptions *opt, double a, double *lo, double *hi)
+{
+    if (!(opt->rel_tol < 0.25) || !isfinite(opt->abs_floor) || !isfinite(a))
+        return false;
+    double rel = opt->rel_tol > 0 ? opt->rel_tol : 0;
+    double w = 2 * (fabs(opt->abs_floor) + 2 * rel * fabs(a));
+    if (!isfinite(w))
+        return false;
+    *lo = nextafter(a - w, -INFINITY);
+    *hi = nextafter(a + w, INFINITY);
+    return true;
 }
 
 static void match_statements(Builder *b)
@@ -564,7 +614,7 @@ static void match_statements(Builder *b)
         if (d->old_to_new[i] < 0 && (is_named(od->stmts[i]) || is_check(od->stmts[i])))
             orphans[norphans++] = (int)i;
     Candidate *cand = xmalloc((norphans + 1) * sizeof *cand);
-    size_t *open = xmalloc((norphans + 1) * sizeof *open); /* per key: its first orphan not yet taken */
+    size_t *open = xmalloc((norphans + 1) * sizeof *open); /* per run in source order: its first orphan not yet taken */
     for (size_t k = 0; k < norphans; k++)
         cand[k] = (Candidate){stmt_key(d, od->stmts[orphans[k]], false), k, stmt_literals(od->stmts[orphans[k]])};
     qsort(cand, norphans, sizeof *cand, cmp_candidate);
@@ -575,32 +625,51 @@ static void match_statements(Builder *b)
         if (d->new_to_old[i] >= 0 || !(is_named(s) || is_check(s)))
             continue;
         uint64_t key = stmt_key(d, s, true);
-        size_t lo = 0, hi = norphans;
-        while (lo < hi) {
-            size_t mid = (lo + hi) / 2;
-            if (cand[mid].key < key)
-                lo = mid + 1;
-            else
-                hi = mid;
-        }
-        if (lo == norphans || cand[lo].key != key)
-            continue;
-        size_t j = open[lo];
-        while (j < norphans && cand[j].key == key && d->old_to_new[orphans[cand[j].k]] >= 0)
-            j++;
-        open[lo] = j;
         Literals lit = stmt_literals(s);
-        for (; j < norphans && cand[j].key == key; j++) {
-            int o = orphans[cand[j].k];
-            const Stmt *os = od->stmts[o];
-            if (d->old_to_new[o] < 0 && literals_may_match(d, &cand[j].lit, &lit) && is_check(os) == is_check(s) &&
-                stmt_same(d, os, s)) {
-                d->old_to_new[o] = (int)i;
-                d->new_to_old[i] = o;
-                StmtChange c = {STMT_RENAMED, o, (int)i};
-                PUSH(d->stmts, d->nstmts, b->cap_stmts, c);
-                break;
+        int run = literal_run(&lit);
+        size_t lo = candidate_find(cand, 0, norphans, key, run, -INFINITY);
+        size_t end = candidate_find(cand, lo, norphans, key, run + 1, -INFINITY); /* the run ends */
+        if (lo == end)
+            continue;
+        double wlo = 0, whi = 0;
+        int taken = -1; /* the candidate that matches: the first in source order */
+        if (run == LIT_FINITE) {
+            /* in the order of the first literal: only the window around
+             * this one's can hold a match (all of the run when the
+             * tolerance gives no window) */
+            size_t j = lo;
+            bool windowed = literal_window(&d->opt, lit.first, &wlo, &whi);
+            if (windowed)
+                j = candidate_find(cand, lo, end, key, run, wlo);
+            for (; j < end && (!windowed || cand[j].lit.first <= whi); j++) {
+                int o = orphans[cand[j].k];
+                const Stmt *os = od->stmts[o];
+                if ((taken < 0 || cand[j].k < cand[taken].k) && d->old_to_new[o] < 0 &&
+                    literals_may_match(d, &cand[j].lit, &lit) && is_check(os) == is_check(s) && stmt_same(d, os, s))
+                    taken = (int)j;
             }
+        } else {
+            /* in source order: the first that matches */
+            size_t j = open[lo];
+            while (j < end && d->old_to_new[orphans[cand[j].k]] >= 0)
+                j++;
+            open[lo] = j;
+            for (; j < end; j++) {
+                int o = orphans[cand[j].k];
+                const Stmt *os = od->stmts[o];
+                if (d->old_to_new[o] < 0 && literals_may_match(d, &cand[j].lit, &lit) && is_check(os) == is_check(s) &&
+                    stmt_same(d, os, s)) {
+                    taken = (int)j;
+                    break;
+                }
+            }
+        }
+        if (taken >= 0) {
+            int o = orphans[cand[taken].k];
+            d->old_to_new[o] = (int)i;
+            d->new_to_old[i] = o;
+            StmtChange c = {STMT_RENAMED, o, (int)i};
+            PUSH(d->stmts, d->nstmts, b->cap_stmts, c);
         }
     }
     free(cand);
