@@ -967,7 +967,7 @@ static Unit unit_of(const char *text, Dim d)
     return u;
 }
 
-Unit unit_default(Dim d, TempKind temp, UnitSystem sys)
+static Unit default_for(Dim d, TempKind temp, UnitSystem sys)
 {
     bool us = sys == UNITS_US;
     if (dim_eq(d, DIM_THETA)) {
@@ -982,6 +982,40 @@ Unit unit_default(Dim d, TempKind temp, UnitSystem sys)
     /* A pure number is shown bare: "Re = 45000", not "45000 1". */
     if (!dim_is_none(d))
         dim_format_si(d, u.text, sizeof u.text);
+    return u;
+}
+
+/* Every value shown asks for its dimension's unit, and a calc has a few
+ * dimensions: each thread keeps its last answers, keyed by the dimension's
+ * exact bits (a near-equal dimension is simply asked again), so the answer
+ * is the one default_for gives. */
+enum { DEFAULT_CACHE = 32 };
+static _Thread_local struct {
+    bool used;
+    Dim d;
+    TempKind temp;
+    UnitSystem sys;
+    Unit u;
+} default_cache[DEFAULT_CACHE];
+
+Unit unit_default(Dim d, TempKind temp, UnitSystem sys)
+{
+    uint64_t h = (uint64_t)temp * 31u + (uint64_t)sys;
+    for (int i = 0; i < DIM_COUNT; i++) {
+        uint64_t bits;
+        memcpy(&bits, &d.e[i], sizeof bits);
+        h = (h ^ bits) * 1099511628211u;
+    }
+    size_t k = (size_t)(h >> 40) % DEFAULT_CACHE;
+    if (default_cache[k].used && default_cache[k].temp == temp && default_cache[k].sys == sys &&
+        memcmp(&default_cache[k].d, &d, sizeof d) == 0)
+        return default_cache[k].u;
+    Unit u = default_for(d, temp, sys);
+    default_cache[k].used = true;
+    default_cache[k].d = d;
+    default_cache[k].temp = temp;
+    default_cache[k].sys = sys;
+    default_cache[k].u = u;
     return u;
 }
 
