@@ -80,8 +80,11 @@ typedef struct Quantity {
     PressureRef pref;
 } Quantity;
 
-Quantity qty(double si, Dim dim);     /* a TEMP_NONE quantity */
-Quantity qty_number(double x);        /* dimensionless */
+/* A TEMP_NONE quantity; inline, like qty_number and value_number: every
+ * step of an evaluation makes one, and out of line each was built in a
+ * temporary and copied (issue 17). */
+static inline Quantity qty(double si, Dim dim) { return (Quantity){si, dim, TEMP_NONE, PRES_PLAIN}; }
+static inline Quantity qty_number(double x) { return qty(x, DIM_NONE); } /* dimensionless */
 
 /* A resolved unit expression: si = value * factor + offset. `offset` is
  * non-zero only for a lone degC or degF; inside a compound (J/(kg*degC)) an

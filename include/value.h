@@ -48,7 +48,7 @@ struct Record {
     bool (*call)(struct CallCtx *cx, const Record *self, const struct CallArgs *args, Value *out);
 };
 
-Value value_number(Quantity q);
+static inline Value value_number(Quantity q) { return (Value){.kind = VAL_NUMBER, .q = q}; }
 Value value_hinted(Quantity q, const char *hint_us, const char *hint_si);
 Value value_string(const char *s);
 const Value *record_get(const Record *r, const char *name);

@@ -173,8 +173,8 @@ static bool heat_rate(const Value *v)
 
 static void keep_heat_rate(const Value *a, const Value *b, Value *out)
 {
-    if (dim_eq(out->q.dim, DIM_POWER) && ((heat_rate(a) && dim_eq(a->q.dim, DIM_POWER)) ||
-                                          (heat_rate(b) && dim_eq(b->q.dim, DIM_POWER)))) {
+    if (((heat_rate(a) && dim_eq(a->q.dim, DIM_POWER)) || (heat_rate(b) && dim_eq(b->q.dim, DIM_POWER))) &&
+        dim_eq(out->q.dim, DIM_POWER)) {
         out->hint[UNITS_US] = HEAT_RATE_HINT[UNITS_US];
         out->hint[UNITS_SI] = HEAT_RATE_HINT[UNITS_SI];
     }

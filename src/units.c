@@ -317,16 +317,6 @@ void dim_format_si(Dim d, char *buf, size_t n)
 
 /* ---- quantities ------------------------------------------------------- */
 
-Quantity qty(double si, Dim dim)
-{
-    return (Quantity){si, dim, TEMP_NONE, PRES_PLAIN};
-}
-
-Quantity qty_number(double x)
-{
-    return qty(x, DIM_NONE);
-}
-
 /* ---- the registry ------------------------------------------------------ */
 
 enum {

@@ -3,14 +3,6 @@
 
 #include <string.h>
 
-Value value_number(Quantity q)
-{
-    Value v = {0};
-    v.kind = VAL_NUMBER;
-    v.q = q;
-    return v;
-}
-
 Value value_hinted(Quantity q, const char *hint_us, const char *hint_si)
 {
     Value v = value_number(q);
