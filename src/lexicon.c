@@ -1,6 +1,7 @@
 /* lexicon.c — the keywords and named constants of the calc language. */
 #include "lexicon.h"
 
+#include <pthread.h>
 #include <string.h>
 
 #include "doc.h"
@@ -33,8 +34,22 @@ static bool spelled(const char *word, const char *s, size_t len)
     return len > 0 && word[0] == s[0] && strncmp(word, s, len) == 0 && word[len] == '\0';
 }
 
+/* The bytes a keyword can start with, made once from the table: most names
+ * the lexer asks about start with none of them. */
+static bool keyword_start[256];
+static pthread_once_t keyword_start_once = PTHREAD_ONCE_INIT;
+
+static void keyword_start_make(void)
+{
+    for (const Keyword *k = lexicon_keywords; k->word; k++)
+        keyword_start[(unsigned char)k->word[0]] = true;
+}
+
 const Keyword *lexicon_keyword(const char *s, size_t len, unsigned roles)
 {
+    pthread_once(&keyword_start_once, keyword_start_make);
+    if (len == 0 || !keyword_start[(unsigned char)s[0]])
+        return NULL;
     for (const Keyword *k = lexicon_keywords; k->word; k++)
         if ((k->roles & roles) && spelled(k->word, s, len))
             return k;
