@@ -573,6 +573,9 @@ void markdown_read(Document *doc, size_t body_start, DiagList *diags)
     doc->blocks = convert_blocks(&m, root, 0);
     cmark_node_free(root);
     cmark_parser_free(parser);
-    release_heap();
+    /* worth the system calls when the tree was large (its nodes and text
+     * are a few times the file); a small one is left for glibc to reuse */
+    if (doc->len >= (size_t)1 << 20)
+        release_heap();
 
 }
