@@ -9,6 +9,7 @@
 #define HEADROOM_LEX_H
 
 #include <stddef.h>
+#include <string.h>
 
 #include "diag.h"
 
@@ -53,6 +54,12 @@ Token lex_next(Lexer *lx);
  * the comment. */
 int lex_raw_until(Lexer *lx, char stop, const char **text, size_t *len, Pos *pos);
 const char *tok_describe(TokKind k);
-int tok_is_word(const Token *t, const char *word);
+/* Is the token the name `word`? Inline, so a literal's length is known where
+ * it is written (the parser asks this of every statement's first token). */
+static inline int tok_is_word(const Token *t, const char *word)
+{
+    size_t n = strlen(word);
+    return t->kind == TOK_NAME && t->len == n && memcmp(t->text, word, n) == 0;
+}
 
 #endif

@@ -369,8 +369,3 @@ const char *tok_describe(TokKind k)
     return "a token";
 }
 
-int tok_is_word(const Token *t, const char *word)
-{
-    size_t n = strlen(word);
-    return t->kind == TOK_NAME && t->len == n && memcmp(t->text, word, n) == 0;
-}
