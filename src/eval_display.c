@@ -7,6 +7,7 @@
 #include "eval_internal.h"
 
 #include <math.h>
+#include <stdint.h>
 #include <string.h>
 
 static Unit display_default(const Value *v, UnitSystem sys)
@@ -38,10 +39,56 @@ Unit eval_display_unit(const Evaluated *ev, const Value *v, const Unit *as_unit)
     return display_default(v, ev->units);
 }
 
+/* Most results are plain numbers with no hint, shown in their dimension's
+ * default unit: each thread remembers, per dimension (its exact bits),
+ * temperature kind and unit system, that unit interned, and uses it where
+ * display_default would (the value fits it); anything else is worked out
+ * in full. */
+enum { SHOWN_CACHE = 32 };
+static _Thread_local struct {
+    const Unit *unit;        /* NULL: empty */
+    Dim d;
+    TempKind temp;
+    UnitSystem sys;
+} shown_cache[SHOWN_CACHE];
+
+static size_t shown_slot(const Value *v, UnitSystem sys)
+{
+    uint64_t h = (uint64_t)v->q.temp * 31u + (uint64_t)sys;
+    for (int i = 0; i < DIM_COUNT; i++) {
+        uint64_t bits;
+        memcpy(&bits, &v->q.dim.e[i], sizeof bits);
+        h = (h ^ bits) * 1099511628211u;
+    }
+    return (size_t)(h >> 40) % SHOWN_CACHE;
+}
+
 const Unit *eval_shown_unit(const Evaluated *ev, const Value *v)
 {
+    bool plain = v->q.pref == PRES_PLAIN && !v->hint[ev->units];
+    if (plain) {
+        size_t k = shown_slot(v, ev->units);
+        const Unit *u = shown_cache[k].unit;
+        if (u && shown_cache[k].temp == v->q.temp && shown_cache[k].sys == ev->units &&
+            memcmp(&shown_cache[k].d, &v->q.dim, sizeof v->q.dim) == 0) {
+            bool difference = v->q.temp == TEMP_NONE || u->temp == TEMP_NONE;
+            if (!(ev->units != UNITS_SI && isfinite(v->q.si) && !isfinite(unit_from_si(v->q.si, u, difference))))
+                return u; /* what display_default gives: the default, which the value fits */
+        }
+    }
     Unit u = eval_display_unit(ev, v, NULL);
-    return unit_intern(&u);
+    const Unit *in = unit_intern(&u);
+    if (plain) {
+        Unit d = unit_default(v->q.dim, v->q.temp, ev->units);
+        if (unit_intern(&d) == in) { /* remember the default only, never the fallback */
+            size_t k = shown_slot(v, ev->units);
+            shown_cache[k].unit = in;
+            shown_cache[k].d = v->q.dim;
+            shown_cache[k].temp = v->q.temp;
+            shown_cache[k].sys = ev->units;
+        }
+    }
+    return in;
 }
 
 /* `as UNIT` must fit the value: same dimension, and a point shown in a
