@@ -22,6 +22,8 @@ typedef struct Arena {
     ArenaBlock *head;
     size_t used_total;
     size_t next_block;       /* size of the next block; 0 until the first */
+    char *cur;               /* the newest block's first unused byte (NULL before any) */
+    size_t left;             /* bytes unused from cur to the block's end */
 } Arena;
 
 void arena_init(Arena *a);
@@ -34,7 +36,27 @@ void arena_free(Arena *a);
  * block, which is kept (cleared) for what comes next, so a scratch arena
  * used over and over costs no allocation. */
 void arena_reset(Arena *a);
-void *arena_alloc(Arena *a, size_t n);   /* zeroed, aligned to 8 (any type but long double) */
+
+enum { ARENA_ALIGN = 8 };
+/* n bytes (n rounded up to ARENA_ALIGN) in a new block: arena_alloc's slow way. */
+void *arena_alloc_block(Arena *a, size_t n);
+
+/* Zeroed, aligned to 8 (any type but long double). Inline: a calc makes a
+ * few hundred thousand of these, and the usual case is a pointer bump. */
+static inline void *arena_alloc(Arena *a, size_t n)
+{
+    if (n > a->left) /* also every n too large to round: the block's calloc refuses it */
+        return arena_alloc_block(a, n);
+    n = n ? (n + ARENA_ALIGN - 1) & ~(size_t)(ARENA_ALIGN - 1) : ARENA_ALIGN;
+    if (n > a->left)
+        return arena_alloc_block(a, n);
+    void *p = a->cur;
+    a->cur += n;
+    a->left -= n;
+    a->used_total += n;
+    return p;
+}
+
 char *arena_strdup(Arena *a, const char *s);
 char *arena_strndup(Arena *a, const char *s, size_t n);
 char *arena_printf(Arena *a, const char *fmt, ...)

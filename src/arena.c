@@ -56,8 +56,7 @@ char *xstrdup(const char *s) { return xstrndup(s, strlen(s)); }
  * block of its own. */
 struct ArenaBlock {
     ArenaBlock *next;
-    size_t size;
-    size_t used;
+    size_t size;             /* bytes of data[]; the newest block's unused ones are Arena.left */
     size_t mapped;           /* bytes mapped for the block (block_huge), else 0 */
     max_align_t data[];
 };
@@ -106,6 +105,8 @@ void arena_init(Arena *a)
     a->head = NULL;
     a->used_total = 0;
     a->next_block = 0;
+    a->cur = NULL;
+    a->left = 0;
 }
 
 void arena_init_sized(Arena *a, size_t expect)
@@ -135,56 +136,52 @@ void arena_reset(Arena *a)
         next = b->next;
         block_free(b);
     }
-    memset(keep->data, 0, keep->used); /* handed out again: zeroed again */
-    keep->used = 0;
+    memset(keep->data, 0, keep->size - a->left); /* handed out again: zeroed again */
     keep->next = NULL;
+    a->cur = (char *)keep->data;
+    a->left = keep->size;
     a->used_total = 0;
 }
 
-void *arena_alloc(Arena *a, size_t n)
+/* Eight bytes: the alignment of a double, a pointer and a size_t, the
+ * strictest of anything kept in an arena (no long double is). Rounding every
+ * node and string up to max_align_t's 16 cost a calc tenths of its memory
+ * (issue 17). arena_alloc (arena.h) rounds to it. */
+_Static_assert(ARENA_ALIGN == 8 && _Alignof(double) <= ARENA_ALIGN && _Alignof(void *) <= ARENA_ALIGN &&
+                   _Alignof(size_t) <= ARENA_ALIGN && _Alignof(long long) <= ARENA_ALIGN,
+               "arena alignment");
+
+void *arena_alloc_block(Arena *a, size_t n)
 {
-    /* Eight bytes: the alignment of a double, a pointer and a size_t, the
-     * strictest of anything kept in an arena (no long double is). Rounding
-     * every node and string up to max_align_t's 16 cost a calc tenths of
-     * its memory (issue 17). */
-    enum { ALIGN = 8 };
-    _Static_assert(_Alignof(double) <= ALIGN && _Alignof(void *) <= ALIGN && _Alignof(size_t) <= ALIGN &&
-                       _Alignof(long long) <= ALIGN,
-                   "arena alignment");
-    const size_t align = ALIGN;
-    n = (n + align - 1) / align * align;
-    if (n == 0)
-        n = align;
-    ArenaBlock *b = a->head;
-    if (!b || b->size - b->used < n) {
-        /* blocks double up to ARENA_MAX_BLOCK, then stay there */
-        size_t size = a->next_block ? a->next_block : ARENA_MIN_BLOCK;
-        a->next_block = size < ARENA_MAX_BLOCK ? size * 2 : ARENA_MAX_BLOCK;
-        if (size < n)
-            size = n;
-        /* zeroed once, here: every byte of a block is handed out once and
-         * never reused, so arena_alloc need not clear it again (a block this
-         * large comes from the kernel already zero) */
-        b = size >= HUGE_PAGE ? block_huge(size) : NULL;
-        if (!b && size >= HUGE_PAGE) {
-            /* no room for the mapping (an address-space limit, say): go on
-             * in the usual blocks, so a generous hint never turns into an
-             * out-of-memory exit that the document itself would not cause */
-            size = ARENA_MIN_BLOCK * 16 > n ? ARENA_MIN_BLOCK * 16 : n;
-            a->next_block = size * 2;
-        }
-        if (!b) {
-            b = xcalloc(1, sizeof *b + size);
-            b->size = size;
-        }
-        b->used = 0;
-        b->next = a->head;
-        a->head = b;
+    if (n > SIZE_MAX / 2)
+        xcalloc(1, n); /* no such block: out of memory, exit 3 */
+    n = n ? (n + ARENA_ALIGN - 1) & ~(size_t)(ARENA_ALIGN - 1) : ARENA_ALIGN;
+    /* blocks double up to ARENA_MAX_BLOCK, then stay there */
+    size_t size = a->next_block ? a->next_block : ARENA_MIN_BLOCK;
+    a->next_block = size < ARENA_MAX_BLOCK ? size * 2 : ARENA_MAX_BLOCK;
+    if (size < n)
+        size = n;
+    /* zeroed once, here: every byte of a block is handed out once and never
+     * reused, so arena_alloc need not clear it again (a block this large
+     * comes from the kernel already zero) */
+    ArenaBlock *b = size >= HUGE_PAGE ? block_huge(size) : NULL;
+    if (!b && size >= HUGE_PAGE) {
+        /* no room for the mapping (an address-space limit, say): go on in
+         * the usual blocks, so a generous hint never turns into an
+         * out-of-memory exit that the document itself would not cause */
+        size = ARENA_MIN_BLOCK * 16 > n ? ARENA_MIN_BLOCK * 16 : n;
+        a->next_block = size * 2;
     }
-    void *p = (char *)b->data + b->used;
-    b->used += n;
+    if (!b) {
+        b = xcalloc(1, sizeof *b + size);
+        b->size = size;
+    }
+    b->next = a->head;
+    a->head = b;
+    a->cur = (char *)b->data + n;
+    a->left = b->size - n;
     a->used_total += n;
-    return p;
+    return b->data;
 }
 
 char *arena_strndup(Arena *a, const char *s, size_t n)
