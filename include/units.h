@@ -10,6 +10,7 @@
 #ifndef HEADROOM_UNITS_H
 #define HEADROOM_UNITS_H
 
+#include <math.h>
 #include <stdbool.h>
 #include <stddef.h>
 
@@ -32,11 +33,52 @@ typedef struct Dim {
 
 Dim dim_none(void);
 Dim dim_base(int which);             /* one of DIM_LENGTH ... */
-Dim dim_mul(Dim a, Dim b);
-Dim dim_div(Dim a, Dim b);
 Dim dim_pow(Dim a, double p);        /* exponents rounded to 1e-9 */
-bool dim_eq(Dim a, Dim b);
-bool dim_is_none(Dim a);
+
+/* Exponents are kept on a 1e-9 grid so that m^0.5 * m^0.5 is exactly m and
+ * (m^3)^(1/3) is exactly m; the rounding also turns -0 into 0. An exponent
+ * already whole (nearly every one: m, s^-2, kg*m^-3) is on the grid as it
+ * is: x * 1e9 is then an exact integer below 2^53 and the rounding would
+ * give x back; + 0.0 turns -0 into 0. The products and quotients below are
+ * inline, like qty: every multiplication of quantities makes one, and out of
+ * line each went through a 56-byte temporary (issue 17). */
+static inline double dim_exp_round(double x)
+{
+    if (x > -1e6 && x < 1e6 && x == (double)(long)x)
+        return x + 0.0;
+    double r = round(x * 1e9) / 1e9;
+    return r == 0 ? 0.0 : r;
+}
+
+static inline Dim dim_mul(Dim a, Dim b)
+{
+    for (int i = 0; i < DIM_COUNT; i++)
+        a.e[i] = dim_exp_round(a.e[i] + b.e[i]);
+    return a;
+}
+
+static inline Dim dim_div(Dim a, Dim b)
+{
+    for (int i = 0; i < DIM_COUNT; i++)
+        a.e[i] = dim_exp_round(a.e[i] - b.e[i]);
+    return a;
+}
+
+static inline bool dim_eq(Dim a, Dim b)
+{
+    for (int i = 0; i < DIM_COUNT; i++)
+        if (!(fabs(a.e[i] - b.e[i]) < 5e-10))
+            return false;
+    return true;
+}
+
+static inline bool dim_is_none(Dim a)
+{
+    for (int i = 0; i < DIM_COUNT; i++)
+        if (!(fabs(a.e[i]) < 5e-10)) /* dim_eq(a, DIM_NONE): every exponent 0 */
+            return false;
+    return true;
+}
 
 /* Named dimensions, built once. */
 extern const Dim DIM_NONE, DIM_L, DIM_M, DIM_T, DIM_THETA, DIM_AREA, DIM_VOLUME,
@@ -128,7 +170,10 @@ const char *unit_suggest(const char *name, size_t len);
 
 /* Value in the unit -> quantity, and back. unit_to_qty applies the offset for
  * a lone absolute temperature unit and sets the temperature kind. */
-Quantity unit_to_qty(double v, const Unit *u);
+static inline Quantity unit_to_qty(double v, const Unit *u)
+{
+    return (Quantity){v * u->factor + u->offset, u->dim, u->temp, u->pref};
+}
 double unit_from_si(double si, const Unit *u, bool is_difference);
 
 /* Display systems and the default display unit for a dimension. */

@@ -67,19 +67,6 @@ static const Dim dim_freq = D_FREQ, dim_mflow = D_MFLOW, dim_spheat = D_SPHEAT,
                  dim_tcond = D_TCOND, dim_current = D_CURR, dim_amount = D_AMT,
                  dim_luminous = D_LUM;
 
-/* Exponents are kept on a 1e-9 grid so that m^0.5 * m^0.5 is exactly m and
- * (m^3)^(1/3) is exactly m; the rounding also turns -0 into 0. */
-static double exp_round(double x)
-{
-    /* an exponent already whole (nearly every one: m, s^-2, kg*m^-3) is on
-     * the grid as it is: x * 1e9 is an exact integer below 2^53, so the
-     * rounding would give x back; + 0.0 turns -0 into 0 */
-    if (x > -1e6 && x < 1e6 && x == (double)(long)x)
-        return x + 0.0;
-    double r = round(x * 1e9) / 1e9;
-    return r == 0 ? 0.0 : r;
-}
-
 Dim dim_none(void)
 {
     return DIM_NONE;
@@ -93,38 +80,11 @@ Dim dim_base(int which)
     return d;
 }
 
-Dim dim_mul(Dim a, Dim b)
-{
-    for (int i = 0; i < DIM_COUNT; i++)
-        a.e[i] = exp_round(a.e[i] + b.e[i]);
-    return a;
-}
-
-Dim dim_div(Dim a, Dim b)
-{
-    for (int i = 0; i < DIM_COUNT; i++)
-        a.e[i] = exp_round(a.e[i] - b.e[i]);
-    return a;
-}
-
 Dim dim_pow(Dim a, double p)
 {
     for (int i = 0; i < DIM_COUNT; i++)
-        a.e[i] = exp_round(a.e[i] * p);
+        a.e[i] = dim_exp_round(a.e[i] * p);
     return a;
-}
-
-bool dim_eq(Dim a, Dim b)
-{
-    for (int i = 0; i < DIM_COUNT; i++)
-        if (!(fabs(a.e[i] - b.e[i]) < 5e-10))
-            return false;
-    return true;
-}
-
-bool dim_is_none(Dim a)
-{
-    return dim_eq(a, DIM_NONE);
 }
 
 /* Plain words for the dimensions a piping calc meets. Where two quantities
@@ -905,11 +865,6 @@ const Unit *unit_intern(const Unit *u)
 }
 
 /* ---- converting -------------------------------------------------------- */
-
-Quantity unit_to_qty(double v, const Unit *u)
-{
-    return (Quantity){v * u->factor + u->offset, u->dim, u->temp, u->pref};
-}
 
 double unit_from_si(double si, const Unit *u, bool is_difference)
 {
