@@ -242,6 +242,17 @@ static bool scalable(EvalCtx *c, const Expr *at, const Value *v, BinOp op)
     return false;
 }
 
+/* A number, TEMP_NONE and PRES_PLAIN, dimension left to the caller: what
+ * value_number(qty(si, d)) makes, field by field. */
+static void put_number(Value *out, double si)
+{
+    memset(out, 0, sizeof *out);
+    out->kind = VAL_NUMBER;
+    out->q.si = si;
+    out->q.temp = TEMP_NONE;
+    out->q.pref = PRES_PLAIN;
+}
+
 static bool eval_binary(EvalCtx *c, const Expr *e, Value *out)
 {
     Value a, b;
@@ -269,8 +280,11 @@ static bool eval_binary(EvalCtx *c, const Expr *e, Value *out)
         double x = e->op == OP_MUL ? a.q.si * b.q.si : a.q.si / b.q.si;
         if (!finite_or_error(c, e->pos, x, e->op == OP_MUL ? "multiplication" : "division"))
             return false;
-        Dim d = e->op == OP_MUL ? dim_mul(a.q.dim, b.q.dim) : dim_div(a.q.dim, b.q.dim);
-        *out = value_number(qty(x, d));
+        /* written into *out a field at a time: built in a temporary and
+         * copied, its 8-byte stores were read back in 16-byte pieces */
+        put_number(out, x);
+        for (int i = 0; i < DIM_COUNT; i++)
+            out->q.dim.e[i] = dim_exp_round(e->op == OP_MUL ? a.q.dim.e[i] + b.q.dim.e[i] : a.q.dim.e[i] - b.q.dim.e[i]);
         if (dim_is_none(a.q.dim) || dim_is_none(b.q.dim))
             keep_heat_rate(&a, &b, out);
         return true;
@@ -403,7 +417,12 @@ bool eval_expr(EvalCtx *c, const Expr *e, Value *out)
             diag_error(c->diags, e->pos, "number '%s' is out of range", e->text);
             return false;
         }
-        *out = e->has_unit ? value_number(unit_to_qty(e->number, e->unit)) : value_number(qty_number(e->number));
+        put_number(out, e->has_unit ? e->number * e->unit->factor + e->unit->offset : e->number); /* unit_to_qty */
+        out->q.dim = e->has_unit ? e->unit->dim : DIM_NONE;
+        if (e->has_unit) {
+            out->q.temp = e->unit->temp;
+            out->q.pref = e->unit->pref;
+        }
         if (out->q.pref == PRES_ABSOLUTE)
             c->ev->atmosphere_used = true;
         if (e->has_unit && dim_eq(out->q.dim, DIM_POWER) && strstr(e->unit->text, "Btu")) {
