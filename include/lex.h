@@ -49,6 +49,9 @@ typedef struct Lexer {
 /* Set up for one line; finds the comment start (a '#' outside strings). */
 void lex_init(Lexer *lx, const char *line, size_t len, Pos start, DiagList *diags);
 Token lex_next(Lexer *lx);
+/* The same, written into *t (the parser's current token): no token is built
+ * in a temporary and copied. */
+void lex_scan(Lexer *lx, Token *t);
 /* The rest of the line up to (not including) `stop`, trimmed; used for check
  * labels. Advances past `stop`. Returns false if `stop` is not found before
  * the comment. */

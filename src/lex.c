@@ -197,19 +197,18 @@ static size_t unit_length(const char *s, size_t left)
     return i;
 }
 
-Token lex_next(Lexer *lx)
+void lex_scan(Lexer *lx, Token *t)
 {
     const char *s = lx->line;
     size_t end = lx->comment_at;
     while (lx->at < end && (s[lx->at] == ' ' || s[lx->at] == '\t' || s[lx->at] == '\r'))
         lx->at++;
-    Token t;
-    memset(&t, 0, sizeof t);
-    t.pos = pos_at(lx, lx->at);
-    t.text = s + lx->at;
+    memset(t, 0, sizeof *t);
+    t->pos = pos_at(lx, lx->at);
+    t->text = s + lx->at;
     if (lx->at >= end) {
-        t.kind = TOK_EOL;
-        return t;
+        t->kind = TOK_EOL;
+        return;
     }
     unsigned char c = (unsigned char)s[lx->at];
     size_t left = end - lx->at;
@@ -217,9 +216,9 @@ Token lex_next(Lexer *lx)
     size_t cn;
 
     if (is_digit(c) || (c == '.' && left > 1 && is_digit((unsigned char)s[lx->at + 1]))) {
-        size_t n = num_parse(s + lx->at, left, &t.number);
-        t.kind = TOK_NUMBER;
-        t.len = n;
+        size_t n = num_parse(s + lx->at, left, &t->number);
+        t->kind = TOK_NUMBER;
+        t->len = n;
         lx->at += n;
         /* A digit or letter glued to the number that is not an exponent. */
         size_t save = lx->at;
@@ -227,36 +226,36 @@ Token lex_next(Lexer *lx)
             lx->at++;
         size_t ul = lx->at < end ? unit_length(s + lx->at, end - lx->at) : 0;
         if (ul > 0 && !lexicon_keyword(s + lx->at, ul, KW_ENDS_UNIT)) {
-            t.unit = s + lx->at;
-            t.unit_len = ul;
-            t.unit_pos = pos_at(lx, lx->at);
+            t->unit = s + lx->at;
+            t->unit_len = ul;
+            t->unit_pos = pos_at(lx, lx->at);
             lx->at += ul;
         } else {
             lx->at = save;
         }
-        return t;
+        return;
     }
     if (is_middle_dot(s + lx->at, left)) {
-        t.kind = TOK_STAR;
-        t.middle_dot = 1;
-        t.len = 2;
+        t->kind = TOK_STAR;
+        t->middle_dot = 1;
+        t->len = 2;
         lx->at += 2;
-        return t;
+        return;
     }
     if ((cn = cmp_symbol(s + lx->at, left, &ck)) > 0) {
-        t.kind = ck;
-        t.len = cn;
+        t->kind = ck;
+        t->len = cn;
         lx->at += cn;
-        return t;
+        return;
     }
     if (is_name_start(c)) {
         size_t n = name_length(s + lx->at, left);
         if (n == 0)
             n = 1;
-        t.kind = TOK_NAME;
-        t.len = n;
+        t->kind = TOK_NAME;
+        t->len = n;
         lx->at += n;
-        return t;
+        return;
     }
     if (c == '"') {
         size_t i = lx->at + 1;
@@ -266,38 +265,38 @@ Token lex_next(Lexer *lx)
             i++;
         }
         if (i >= lx->len) {
-            diag_error(lx->diags, t.pos, "unterminated string: expected '\"' before the end of the line");
-            t.kind = TOK_ERROR;
+            diag_error(lx->diags, t->pos, "unterminated string: expected '\"' before the end of the line");
+            t->kind = TOK_ERROR;
             lx->at = end;
-            return t;
+            return;
         }
-        t.kind = TOK_STRING;
-        t.text = s + lx->at + 1;
-        t.len = i - lx->at - 1;
+        t->kind = TOK_STRING;
+        t->text = s + lx->at + 1;
+        t->len = i - lx->at - 1;
         lx->at = i + 1;
         /* A '#' inside the string was skipped by lex_init already. */
-        return t;
+        return;
     }
     lx->at++;
-    t.len = 1;
+    t->len = 1;
     switch (c) {
-    case '+': t.kind = TOK_PLUS; break;
-    case '-': t.kind = TOK_MINUS; break;
-    case '*': t.kind = TOK_STAR; break;
-    case '/': t.kind = TOK_SLASH; break;
-    case '^': t.kind = TOK_CARET; break;
-    case '(': t.kind = TOK_LPAREN; break;
-    case ')': t.kind = TOK_RPAREN; break;
-    case ',': t.kind = TOK_COMMA; break;
-    case '.': t.kind = TOK_DOT; break;
-    case ':': t.kind = TOK_COLON; break;
+    case '+': t->kind = TOK_PLUS; break;
+    case '-': t->kind = TOK_MINUS; break;
+    case '*': t->kind = TOK_STAR; break;
+    case '/': t->kind = TOK_SLASH; break;
+    case '^': t->kind = TOK_CARET; break;
+    case '(': t->kind = TOK_LPAREN; break;
+    case ')': t->kind = TOK_RPAREN; break;
+    case ',': t->kind = TOK_COMMA; break;
+    case '.': t->kind = TOK_DOT; break;
+    case ':': t->kind = TOK_COLON; break;
     case '=':
         if (lx->at < end && s[lx->at] == '=') {
-            diag_error(lx->diags, t.pos, "'==' is not an operator: a definition uses '=', a check uses <=, <, >= or >");
+            diag_error(lx->diags, t->pos, "'==' is not an operator: a definition uses '=', a check uses <=, <, >= or >");
             lx->at++;
-            t.kind = TOK_ERROR;
+            t->kind = TOK_ERROR;
         } else {
-            t.kind = TOK_ASSIGN;
+            t->kind = TOK_ASSIGN;
         }
         break;
     case '<':
@@ -305,19 +304,26 @@ Token lex_next(Lexer *lx)
         bool or_equal = lx->at < end && s[lx->at] == '=';
         if (or_equal) {
             lx->at++;
-            t.len = 2;
+            t->len = 2;
         }
-        t.kind = c == '<' ? (or_equal ? TOK_LE : TOK_LT) : (or_equal ? TOK_GE : TOK_GT);
+        t->kind = c == '<' ? (or_equal ? TOK_LE : TOK_LT) : (or_equal ? TOK_GE : TOK_GT);
         break;
     }
     default:
         if (c < 0x20 || c == 0x7F)
-            diag_error(lx->diags, t.pos, "unexpected control character (byte 0x%02X)", c);
+            diag_error(lx->diags, t->pos, "unexpected control character (byte 0x%02X)", c);
         else
-            diag_error(lx->diags, t.pos, "unexpected character '%c'", c);
-        t.kind = TOK_ERROR;
+            diag_error(lx->diags, t->pos, "unexpected character '%c'", c);
+        t->kind = TOK_ERROR;
         break;
     }
+    return;
+}
+
+Token lex_next(Lexer *lx)
+{
+    Token t;
+    lex_scan(lx, &t);
     return t;
 }
 

@@ -27,7 +27,7 @@ typedef struct Parser {
     size_t unit_len;
 } Parser;
 
-static void advance(Parser *p) { p->tok = lex_next(&p->lx); }
+static void advance(Parser *p) { lex_scan(&p->lx, &p->tok); }
 
 static void fail(Parser *p, Pos pos, const char *fmt, const char *arg)
 {
