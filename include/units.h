@@ -13,6 +13,7 @@
 #include <math.h>
 #include <stdbool.h>
 #include <stddef.h>
+#include <stdint.h>
 
 #include "constants.h"
 
@@ -79,6 +80,11 @@ static inline bool dim_is_none(Dim a)
             return false;
     return true;
 }
+
+/* A hash of a dimension's exact bits, a temperature kind and a unit system,
+ * for the small per-thread caches keyed by them (unit_default, the shown
+ * unit of eval_display.c). */
+uint64_t dim_key_hash(const Dim *d, int temp, int sys);
 
 /* Named dimensions, built once. */
 extern const Dim DIM_NONE, DIM_L, DIM_M, DIM_T, DIM_THETA, DIM_AREA, DIM_VOLUME,

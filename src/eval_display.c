@@ -54,13 +54,7 @@ static _Thread_local struct {
 
 static size_t shown_slot(const Value *v, UnitSystem sys)
 {
-    uint64_t h = (uint64_t)v->q.temp * 31u + (uint64_t)sys;
-    for (int i = 0; i < DIM_COUNT; i++) {
-        uint64_t bits;
-        memcpy(&bits, &v->q.dim.e[i], sizeof bits);
-        h = (h ^ bits) * 1099511628211u;
-    }
-    return (size_t)(h >> 40) % SHOWN_CACHE;
+    return (size_t)(dim_key_hash(&v->q.dim, (int)v->q.temp, (int)sys) >> 40) % SHOWN_CACHE;
 }
 
 const Unit *eval_shown_unit(const Evaluated *ev, const Value *v)

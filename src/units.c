@@ -67,6 +67,17 @@ static const Dim dim_freq = D_FREQ, dim_mflow = D_MFLOW, dim_spheat = D_SPHEAT,
                  dim_tcond = D_TCOND, dim_current = D_CURR, dim_amount = D_AMT,
                  dim_luminous = D_LUM;
 
+uint64_t dim_key_hash(const Dim *d, int temp, int sys)
+{
+    uint64_t h = (uint64_t)temp * 31u + (uint64_t)sys; /* FNV-1a over the exponents' bits */
+    for (int i = 0; i < DIM_COUNT; i++) {
+        uint64_t bits;
+        memcpy(&bits, &d->e[i], sizeof bits);
+        h = (h ^ bits) * 1099511628211u;
+    }
+    return h;
+}
+
 Dim dim_none(void)
 {
     return DIM_NONE;
@@ -945,13 +956,7 @@ static _Thread_local struct {
 
 Unit unit_default(Dim d, TempKind temp, UnitSystem sys)
 {
-    uint64_t h = (uint64_t)temp * 31u + (uint64_t)sys;
-    for (int i = 0; i < DIM_COUNT; i++) {
-        uint64_t bits;
-        memcpy(&bits, &d.e[i], sizeof bits);
-        h = (h ^ bits) * 1099511628211u;
-    }
-    size_t k = (size_t)(h >> 40) % DEFAULT_CACHE;
+    size_t k = (size_t)(dim_key_hash(&d, (int)temp, (int)sys) >> 40) % DEFAULT_CACHE;
     if (default_cache[k].used && default_cache[k].temp == temp && default_cache[k].sys == sys &&
         memcmp(&default_cache[k].d, &d, sizeof d) == 0)
         return default_cache[k].u;
