@@ -144,20 +144,16 @@ static void value_text(const Evaluated *ev, const Value *v, const Unit *shown, T
     char buf[128];
     switch (v->kind) {
     case VAL_NUMBER: {
-        /* render_quantity's text, which never needs cutting here (a number
-         * of at most 63 bytes, a unit of at most 47) */
+        /* render_quantity's text, never cut in 128 bytes (a number of at
+         * most 63, a unit of at most 47) */
         Unit made;
         const Unit *u = shown;
         if (!u || !u->text[0]) {
             made = eval_display_unit(ev, v, NULL);
             u = &made;
         }
-        num_sig(unit_from_si(v->q.si, u, v->q.temp == TEMP_NONE), ev->digits, buf, 64);
+        render_quantity(ev, v, u, buf, sizeof buf);
         text_puts(out, buf);
-        if (strcmp(u->text, "1") != 0 && u->text[0] != '\0') {
-            text_putc(out, ' ');
-            text_puts(out, u->text);
-        }
         break;
     }
     case VAL_STRING:
