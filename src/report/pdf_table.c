@@ -77,8 +77,11 @@ static double fn_table(Pdf *P, const Item *it, double top)
     double y = top;
     size_t first = (size_t)it->aux, last = first + (size_t)it->depth;
     if (first == 0) {
-        pdf_text_color(P, FONT_SANS_BOLD, 7.4, x[0], y - 8, t->title, GREY);
-        y -= 12;
+        /* wrapped to the text width (a long title ran past the sheet's
+         * border); the first line's baseline 8 below the top, 12 to the
+         * table, each further line 9 */
+        double width = P->sheet.body_r - P->sheet.margin_w - x[0];
+        y -= pdf_wrap_color(P, FONT_SANS_BOLD, 7.4, 9, x[0], y - 8 + 7.4 * 0.85, width, t->title, GREY) + 3;
     }
     double hh = 22, x0 = x[0], x1 = x[t->ncols];
     if (P->page)
