@@ -22,9 +22,15 @@
 
 /* ---- name table: open addressing, names -> slots ---------------------- */
 
+/* A name and its slot side by side: a look-up reads one entry (at 100,000
+ * names the table is megabytes, and two arrays were two cache misses). */
+typedef struct NameEntry {
+    const char *key;
+    int slot;
+} NameEntry;
+
 struct NameTable {
-    const char **keys;
-    int *slots;
+    NameEntry *at;
     size_t cap;
     size_t len;
 };
@@ -46,15 +52,14 @@ static NameTable *names_new(Arena *a, size_t expected)
     while (cap < expected * 2 + 1)
         cap *= 2;
     t->cap = cap;
-    t->keys = arena_alloc(a, cap * sizeof *t->keys);
-    t->slots = arena_alloc(a, cap * sizeof *t->slots);
+    t->at = arena_alloc(a, cap * sizeof *t->at);
     return t;
 }
 
 static size_t names_find(const NameTable *t, const char *name)
 {
     size_t i = (size_t)hash_name(name) & (t->cap - 1);
-    while (t->keys[i] && strcmp(t->keys[i], name) != 0)
+    while (t->at[i].key && strcmp(t->at[i].key, name) != 0)
         i = (i + 1) & (t->cap - 1);
     return i;
 }
@@ -64,7 +69,7 @@ int doc_lookup(const Document *doc, const char *name)
     if (!doc->names)
         return -1;
     size_t i = names_find(doc->names, name);
-    return doc->names->keys[i] ? doc->names->slots[i] : -1;
+    return doc->names->at[i].key ? doc->names->at[i].slot : -1;
 }
 
 /* ---- resolution --------------------------------------------------------- */
@@ -252,13 +257,10 @@ static bool name_is_ascii(const char *s)
     return true;
 }
 
-static void warn_lookalikes(Document *doc, DiagList *diags)
+/* `any`: some statement's name is not all ASCII. Two different all-ASCII
+ * names never share a skeleton: only such a calc has anything to compare. */
+static void warn_lookalikes(Document *doc, DiagList *diags, bool any)
 {
-    /* Two different all-ASCII names never share a skeleton: only a calc
-     * with a name outside ASCII has anything to compare. */
-    bool any = false;
-    for (size_t i = 0; i < doc->nstmts && !any; i++)
-        any = doc->stmts[i]->name && !name_is_ascii(doc->stmts[i]->name);
     if (!any)
         return;
     StrMap skeletons = {0}; /* skeleton -> first statement with it */
@@ -298,46 +300,47 @@ static void resolve_statements(Document *doc, DiagList *diags)
 {
     doc->names = names_new(&doc->arena, doc->nstmts);
     /* First pass: every definition, so "used before its definition" can name
-     * the later line. A name defined twice keeps its first definition. */
+     * the later line. A name defined twice keeps its first definition. The
+     * same pass counts the check labels and notes a name outside ASCII. */
+    size_t nlabels = 0;
+    bool non_ascii = false;
     for (size_t i = 0; i < doc->nstmts; i++) {
         Stmt *s = doc->stmts[i];
+        nlabels += s->kind == STMT_CHECK && s->label;
+        if (s->name && !non_ascii)
+            non_ascii = !name_is_ascii(s->name);
         if ((s->kind != STMT_DEF && s->kind != STMT_SOLVE && s->kind != STMT_PATH && s->kind != STMT_NETWORK &&
              s->kind != STMT_CURVE) ||
             !s->name)
             continue;
         size_t k = names_find(doc->names, s->name);
-        if (doc->names->keys[k]) {
-            const Stmt *first = doc->stmts[doc->names->slots[k]];
+        if (doc->names->at[k].key) {
+            const Stmt *first = doc->stmts[doc->names->at[k].slot];
             diag_error(diags, s->name_pos, "'%s' is already defined at %d:%d; names are assigned once", s->name,
                        first->name_pos.line, first->name_pos.col);
             s->parse_failed = 1;
             continue;
         }
-        doc->names->keys[k] = s->name;
-        doc->names->slots[k] = (int)i;
+        doc->names->at[k] = (NameEntry){s->name, (int)i};
         doc->names->len++;
     }
-    warn_lookalikes(doc, diags);
+    warn_lookalikes(doc, diags, non_ascii);
     /* Check labels are unique: reviewers and diffs refer to them. The
      * table is sized for the labels, not for every statement. */
-    size_t nlabels = 0;
-    for (size_t i = 0; i < doc->nstmts; i++)
-        nlabels += doc->stmts[i]->kind == STMT_CHECK && doc->stmts[i]->label;
     NameTable *labels = names_new(&doc->arena, nlabels);
     for (size_t i = 0; i < doc->nstmts; i++) {
         Stmt *s = doc->stmts[i];
         if (s->kind != STMT_CHECK || !s->label)
             continue;
         size_t k = names_find(labels, s->label);
-        if (labels->keys[k]) {
-            const Stmt *first = doc->stmts[labels->slots[k]];
+        if (labels->at[k].key) {
+            const Stmt *first = doc->stmts[labels->at[k].slot];
             diag_error(diags, s->name_pos, "%s '%s' is already defined at %d:%d", first->finding ? "finding" : "check",
                        s->label, first->pos.line,
                        first->pos.col);
             continue;
         }
-        labels->keys[k] = s->label;
-        labels->slots[k] = (int)i;
+        labels->at[k] = (NameEntry){s->label, (int)i};
     }
 
     StrMap source_keys = {0};
