@@ -440,8 +440,29 @@ static Expr *parse_expr(Parser *p)
 
 /* Citations `[key]` are lifted out of a trailing comment; the rest is the
  * description. */
+/* True when the description of comment c[0..len) is c itself: no citation
+ * bracket, tab or NUL, and no blank at either end or next to another (the
+ * common comment, copied as it is). */
+static bool comment_is_plain(const char *c, size_t len)
+{
+    if (len == 0 || c[0] == ' ' || c[len - 1] == ' ')
+        return false;
+    for (size_t i = 0; i < len; i++) {
+        char ch = c[i];
+        if (ch == '[' || ch == '\t' || ch == '\0' || (ch == ' ' && c[i + 1] == ' '))
+            return false;
+    }
+    return true;
+}
+
 static void parse_comment(Parser *p, Stmt *st, const char *c, size_t len, Pos pos)
 {
+    if (comment_is_plain(c, len)) {
+        st->description = arena_strndup(p->arena, c, len);
+        st->ncites = 0;
+        st->cites = NULL;
+        return;
+    }
     Vec cites = {0};
     /* One pass: the description is the comment without its citations, with
      * leading and trailing blanks dropped and every run of blanks inside
