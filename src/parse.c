@@ -438,8 +438,6 @@ static Expr *parse_expr(Parser *p)
     return lhs;
 }
 
-/* Citations `[key]` are lifted out of a trailing comment; the rest is the
- * description. */
 /* True when the description of comment c[0..len) is c itself: no citation
  * bracket, tab or NUL, and no blank at either end or next to another (the
  * common comment, copied as it is). */
@@ -455,6 +453,8 @@ static bool comment_is_plain(const char *c, size_t len)
     return true;
 }
 
+/* Citations `[key]` are lifted out of a trailing comment; the rest is the
+ * description. */
 static void parse_comment(Parser *p, Stmt *st, const char *c, size_t len, Pos pos)
 {
     if (comment_is_plain(c, len)) {
