@@ -123,6 +123,14 @@ src/starters.inc: $(wildcard templates/starters/*.calc.md templates/starters/pac
 src/report/pdf_texts.inc: templates/cautions.md templates/gen-texts.sh
 	sh templates/gen-texts.sh > $@
 
+# The objects that include them say so here: on a first build there is no .d
+# file yet to say it, so the committed .inc would be compiled in even where
+# its templates are newer, and the next make (make install in the tests,
+# while other suites run the program) would make it again and relink.
+$(BUILD)/obj/src/main.o $(BUILD)/san/src/main.o: src/starters.inc
+$(BUILD)/obj/src/report/cautions.o $(BUILD)/san/src/report/cautions.o \
+  $(BUILD)/fuzz/obj/src/report/cautions.o: src/report/pdf_texts.inc
+
 unit-tests: $(UNIT_TESTS)
 	@set -e; for t in $(UNIT_TESTS); do echo "== $$t"; $$t; done
 
