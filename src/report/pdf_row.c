@@ -103,12 +103,14 @@ double pdf_method_line(Pdf *P, const Method *m, int ref, double x, double top, d
     bool same_line = hw + 8 + f->w <= width;
     double asc = f->h > size * 0.8 ? f->h : size * 0.8;
     double base = y - asc - 1;
-    pdf_text_color(P, FONT_SERIF_ITALIC, size, x, same_line ? base : y - size * 0.85, head, GREY);
     if (same_line) {
+        pdf_text_color(P, FONT_SERIF_ITALIC, size, x, base, head, GREY);
         mbox_draw(f, &P->painter, x + hw + 8, base);
         y = base - f->d - 2;
     } else {
-        y -= size * 1.25;
+        /* the name on its own lines (wrapped where it is wider than the
+         * column), the formula under it */
+        y -= pdf_wrap_color(P, FONT_SERIF_ITALIC, size, size * 1.25, x, y, width, head, GREY);
         mbox_draw(f, &P->painter, x + 14, y - f->h);
         y -= f->h + f->d + 2;
     }
