@@ -403,7 +403,7 @@ static void one_key(FmCtx *c, const char *key, yaml_node_t *k, yaml_node_t *v)
             char list[256];
             plumbing_codes_list(list, sizeof list);
             diag_error(c->diags, node_pos(c, v),
-                       "front matter: 'code' names the model plumbing code whose fixture tables "
+                       "front matter: 'code' names the plumbing code whose fixture tables "
                        "wsfu() and hunter() read; known: %s; found '%s'", list, s);
         }
     } else if (strcmp(key, "revisions") == 0) {

@@ -42,12 +42,14 @@ typedef struct PlumbingCode {
     const char *aliases;       /* '|'-separated: "IPC-2018|2018 IPC" */
     const char *name;          /* "International Plumbing Code, 2018 edition (ICC)" */
     const char *load_table;    /* "Appendix E, Table E103.3(2), Load values assigned to fixtures" */
-    const FixtureLoadRow *loads;
+    const FixtureLoadRow *loads; /* NULL when no verified copy is shipped */
     size_t nloads;
+    const char *why_no_loads;  /* why the load table is not shipped, or NULL */
     const char *demand_table;  /* "Appendix E, Table E103.3(3), Table for estimating demand" */
     const DemandRow *demand;   /* NULL when no verified copy is shipped */
     size_t ndemand;
     const char *why_no_demand; /* why the demand table is not shipped, or NULL */
+    const char *why_no_valve;  /* where the rows have no flush valve column: why, or NULL */
 } PlumbingCode;
 
 const PlumbingCode *plumbing_code_default(void);
@@ -60,7 +62,8 @@ typedef enum LoadStatus {
     LOAD_OK,
     LOAD_UNKNOWN_KIND,   /* no such fixture in the shipped rows */
     LOAD_NOT_SHIPPED,    /* a fixture of the code's table whose row is not shipped */
-    LOAD_NO_USE          /* the kind is there, but not for that use */
+    LOAD_NO_USE,         /* the kind is there, but not for that use */
+    LOAD_NO_TABLE        /* the code's load table is not shipped at all */
 } LoadStatus;
 
 /* The row for a fixture kind and use (FIXTURE_USE_ANY: the private row when

@@ -84,7 +84,12 @@ static const Method *load_method(CallCtx *cx, const PlumbingCode *c, const Fixtu
 static void load_error(CallCtx *cx, const PlumbingCode *c, const char *fn, Pos at, const char *kind,
                        LoadStatus st, FixtureUse use)
 {
-    if (st == LOAD_NOT_SHIPPED) {
+    if (st == LOAD_NO_TABLE) {
+        diag_error(cx->diags, at,
+                   "%s: %s ships no fixture load table: %s; take each fixture's load from that code "
+                   "and enter it as a number (hunter() reads a total load)",
+                   fn, c->key, c->why_no_loads ? c->why_no_loads : "it has no rows");
+    } else if (st == LOAD_NOT_SHIPPED) {
         diag_error(cx->diags, at,
                    "%s: the %s row for \"%s\" (%s) is not shipped: it could not be verified "
                    "against a published copy of the table; take that load from the code adopted "
@@ -150,6 +155,15 @@ bool demand_hunter_flow(CallCtx *cx, const char *system, double load, Pos at, do
     case DEMAND_OK:
         break;
     case DEMAND_NO_TABLE:
+        if (c->demand && c->why_no_valve) {
+            diag_error(cx->diags, at,
+                       "hunter: %s ships no demand table for flush valve systems: %s; enter the demand "
+                       "as a flow taken from the code adopted for the project, or enter that table as a "
+                       "```curve block of demand against load in wsfu and read it as NAME(load) (in a "
+                       "path: demand: NAME)",
+                       c->key, c->why_no_valve);
+            return false;
+        }
         diag_error(cx->diags, at,
                    "hunter: the %s demand table (%s) is not shipped: %s; enter the demand as a flow "
                    "taken from the code adopted for the project, or enter that code's demand table as a "
@@ -171,14 +185,18 @@ bool demand_hunter_flow(CallCtx *cx, const char *system, double load, Pos at, do
     }
     Method *m = arena_alloc(cx->arena, sizeof *m);
     m->key = arena_printf(cx->arena, "hunter:%s:%d:%zu:%zu", c->key, (int)ds, lo, hi);
+    /* the rows read, with their demands, so the interpolation can be redone from the sheet */
+    double q_lo = ds == SYSTEM_FLUSH_VALVE ? c->demand[lo].q_valve : c->demand[lo].q_tank;
+    double q_hi = ds == SYSTEM_FLUSH_VALVE ? c->demand[hi].q_valve : c->demand[hi].q_tank;
     if (lo == hi)
-        m->title = arena_printf(cx->arena, "Peak demand by Hunter's curve, %s systems: the row %g wsfu",
-                                SYSTEMS[ds], c->demand[lo].load);
+        m->title = arena_printf(cx->arena,
+                                "Peak demand by Hunter's curve, %s systems: the row %g wsfu, %g gal/min",
+                                SYSTEMS[ds], c->demand[lo].load, q_lo);
     else
         m->title = arena_printf(cx->arena,
                                 "Peak demand by Hunter's curve, %s systems: linear between the rows "
-                                "%g and %g wsfu",
-                                SYSTEMS[ds], c->demand[lo].load, c->demand[hi].load);
+                                "L₁ = %g wsfu, Q₁ = %g gal/min and L₂ = %g wsfu, Q₂ = %g gal/min",
+                                SYSTEMS[ds], c->demand[lo].load, q_lo, c->demand[hi].load, q_hi);
     m->formula = lo == hi ? NULL : "Q = Q_1 + (Q_2 - Q_1)*(L - L_1)/(L_2 - L_1)";
     m->validity = "total loads within the table; the demand of fixtures, not of continuous uses";
     m->reference = arena_printf(cx->arena, "%s, %s", c->name, c->demand_table);
@@ -235,9 +253,8 @@ bool demand_curve_flow(CallCtx *cx, const Value *curve, double load, Pos at, con
     m->validity = "loads within the curve's rows; the demand of fixtures, not of continuous uses";
     m->reference = arena_printf(cx->arena,
                                 "The curve %s is the calc's own table: the demand table of the plumbing code "
-                                "adopted for the project, as entered and cited in the calc; the program ships "
-                                "no demand table for it",
-                                cd->name);
+                                "adopted for the project, as entered and cited in the calc%s",
+                                cd->name, code_of(cx)->demand ? "" : "; the program ships no demand table for it");
     call_use_method(cx, m);
     *Q = q;
     return true;
@@ -256,7 +273,7 @@ bool fn_hunter(CallCtx *cx, const CallArgs *a, Value *out)
         return false;
     /* a table that is not shipped is the call's fault, a load outside it the argument's */
     const PlumbingCode *c = code_of(cx);
-    Pos at = c->demand ? arg_at(a, 0) : a->pos;
+    Pos at = c->demand && (sys != 1 || !c->why_no_valve) ? arg_at(a, 0) : a->pos;
     if (!demand_hunter_flow(cx, SYSTEMS[sys == 1 ? 1 : 0], load, at, &Q))
         return false;
     *out = value_hinted(qty(Q, DIM_FLOW), "gal/min", "L/s");

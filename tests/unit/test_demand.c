@@ -117,6 +117,66 @@ static void test_load_lookup(void **state)
                      DEMAND_NO_TABLE);
 }
 
+/* Illinois Plumbing Code, 77 Ill. Adm. Code 890, Appendix A, Table N, "Water
+ * Supply Fixture Units (WSFU) for a Supply System with Flush Tanks Water
+ * Closets", the WSFU and Demand (GPM) columns, row by row as the Joint
+ * Committee on Administrative Rules publishes Section 890.TABLE N
+ * (ilga.gov). */
+static const double IL_TABLE_N[][2] = {
+    {2, 2},       {4, 3},       {6, 5},       {8, 6.5},     {10, 8},      {12, 9.2},    {14, 10.4},
+    {16, 11.6},   {20, 14},     {25, 17},     {30, 20},     {35, 22.5},   {40, 25},     {45, 27},
+    {50, 29},     {60, 32},     {70, 35},     {80, 38},     {90, 41},     {100, 43.5},  {120, 48},
+    {140, 52.5},  {160, 57},    {180, 61},    {200, 65},    {225, 70},    {250, 75},    {275, 80},
+    {300, 85},    {350, 95},    {400, 105},   {450, 115},   {500, 125},   {600, 145},   {750, 170},
+    {1000, 208},  {1250, 240},  {1500, 267},  {1750, 294},  {2000, 320},
+};
+
+static void test_demand_illinois_table_n(void **state)
+{
+    (void)state;
+    const PlumbingCode *c = plumbing_code_find("Illinois 2014");
+    assert_non_null(c);
+    assert_ptr_equal(c, plumbing_code_find("77 Ill. Adm. Code 890"));
+    assert_ptr_equal(c, plumbing_code_find("illinois plumbing code"));
+    size_t n = sizeof IL_TABLE_N / sizeof IL_TABLE_N[0];
+    assert_int_equal(c->ndemand, n);
+    double q;
+    size_t lo, hi;
+    for (size_t i = 0; i < n; i++) {
+        /* every row as printed, and no flush valve column */
+        assert_true(c->demand[i].load == IL_TABLE_N[i][0]);
+        assert_true(c->demand[i].q_tank == IL_TABLE_N[i][1]);
+        assert_true(isnan(c->demand[i].q_valve));
+        assert_int_equal(demand_interpolate(c->demand, c->ndemand, SYSTEM_FLUSH_TANK, IL_TABLE_N[i][0], &q, &lo, &hi),
+                         DEMAND_OK);
+        assert_true(q == IL_TABLE_N[i][1] && lo == i && hi == i);
+    }
+    /* between rows, by hand: 3 wsfu, 2 + (3 - 2)*(3 - 2)/(4 - 2) = 2.5 gal/min;
+     * 17 wsfu, 11.6 + (14 - 11.6)*(17 - 16)/(20 - 16) = 12.2; 110 wsfu,
+     * 43.5 + (48 - 43.5)*(110 - 100)/(120 - 100) = 45.75; 1900 wsfu,
+     * 294 + (320 - 294)*(1900 - 1750)/(2000 - 1750) = 309.6 */
+    assert_int_equal(demand_interpolate(c->demand, c->ndemand, SYSTEM_FLUSH_TANK, 3, &q, &lo, &hi), DEMAND_OK);
+    assert_near(q, 2.5, 1e-12);
+    assert_true(lo == 0 && hi == 1);
+    assert_int_equal(demand_interpolate(c->demand, c->ndemand, SYSTEM_FLUSH_TANK, 17, &q, &lo, &hi), DEMAND_OK);
+    assert_near(q, 12.2, 1e-12);
+    assert_int_equal(demand_interpolate(c->demand, c->ndemand, SYSTEM_FLUSH_TANK, 110, &q, &lo, &hi), DEMAND_OK);
+    assert_near(q, 45.75, 1e-12);
+    assert_int_equal(demand_interpolate(c->demand, c->ndemand, SYSTEM_FLUSH_TANK, 1900, &q, &lo, &hi), DEMAND_OK);
+    assert_near(q, 309.6, 1e-12);
+    /* outside the table, and the column it does not have, refused */
+    assert_int_equal(demand_interpolate(c->demand, c->ndemand, SYSTEM_FLUSH_TANK, 1.5, &q, &lo, &hi), DEMAND_BELOW);
+    assert_int_equal(demand_interpolate(c->demand, c->ndemand, SYSTEM_FLUSH_TANK, 2001, &q, &lo, &hi), DEMAND_ABOVE);
+    assert_int_equal(demand_interpolate(c->demand, c->ndemand, SYSTEM_FLUSH_VALVE, 100, &q, &lo, &hi),
+                     DEMAND_NO_TABLE);
+    assert_non_null(c->why_no_valve);
+    /* no load table: every kind is refused as a table not shipped */
+    const FixtureLoadRow *r;
+    assert_null(c->loads);
+    assert_non_null(c->why_no_loads);
+    assert_int_equal(fixture_load_find(c, "lavatory", FIXTURE_USE_ANY, &r), LOAD_NO_TABLE);
+}
+
 /* A demand table worked by hand (test data, not a code's table): rows
  * 2, 4, 10 with flush-tank 5, 8, 14 and flush-valve blank, 20, 30. */
 static const DemandRow HAND[] = {{2, 5, NAN}, {4, 8, 20}, {10, 14, 30}};
@@ -215,6 +275,7 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_loads_ipc2018_table_e103_3_2),
         cmocka_unit_test(test_load_lookup),
+        cmocka_unit_test(test_demand_illinois_table_n),
         cmocka_unit_test(test_interpolation_by_hand),
         cmocka_unit_test(test_peak_exact_by_hand),
         cmocka_unit_test(test_peak_normal_by_hand),
