@@ -303,6 +303,9 @@ static double fn_net_summary(Pdf *P, const Item *it, double top)
               nr->iterations, a, ut[2], nr->nodes[nr->imbalance_node].id, b, ut[2], c, ut[3]);
     y -= pdf_wrap(P, FONT_SERIF, 9, 11.5, x + 4, y, W - 4, sb_str(&sb)) + 2;
     sb_free(&sb);
+    /* the network's warnings (a link in the transition zone, a regulator not
+     * regulating ...) beside its results, and counted on the cover */
+    y -= pdf_warnings(P, r, x + 4, y, W - 4);
     sb_puts(&sb, "Bold in the tables: the lowest junction pressure and the highest velocity.");
     char figs[96];
     pdf_figures_of(P, st->index, figs, sizeof figs);
@@ -338,6 +341,7 @@ void pdf_network_items(Pdf *P, Vec *items, const Stmt *st)
         it->layout.keep_with_next = k + NET_CHUNK >= nr->nlinks;
     }
     item_add(items, P, fn_net_summary, st, 0, 3);
+    ((Item *)items->items[items->len - 1])->warnings = (int)r->nwarnings;
 }
 
 /* ---- the network figure --------------------------------------------------- */
