@@ -144,6 +144,8 @@ typedef struct NetNode {
     const char *field;       /* its record field name ("J_1") */
     Pos pos;
     Expr *elevation, *demand, *head, *pressure, *x, *y;
+    FittingItem *fixtures;   /* the fixtures cell (DESIGN 2.11, 2.12): the fixtures served at the node */
+    size_t nfixtures;
 } NetNode;
 
 typedef struct NetLink {
@@ -164,6 +166,11 @@ typedef struct NetworkSpec {
     const char *friction;    /* friction_factor method, NULL: default */
     const char *fittings;    /* k_fitting method, NULL: default */
     Expr *tolerance;         /* a flow; NULL: 1e-9 m^3/s */
+    PathDemand demand;       /* `demand:` as a path's: how a node's fixture load becomes its demand */
+    const char *demand_system;
+    Expr *demand_curve;
+    Pos demand_pos;
+    bool has_fixtures;       /* the node table has a fixtures column */
     NetNode *nodes;
     size_t nnodes;
     NetLink *links;

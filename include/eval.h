@@ -65,6 +65,10 @@ typedef struct NodeResult {
     bool supply;
     double z, head, p, demand;   /* demand: the flow leaving (a supply: what it delivers, negative) */
     double x, y;                 /* when the table has coordinates */
+    bool has_load;               /* the demand was made from the node's fixtures (demand:) */
+    double load;                 /* their load, wsfu */
+    const double *fixture_each;  /* wsfu of one fixture of each item of the fixtures cell */
+    const double *fixture_total; /* and of the item's count of them */
 } NodeResult;
 
 typedef struct LinkResult {

@@ -172,8 +172,9 @@ void value_describe(const Value *v, UnitSystem sys, char *buf, size_t n);
 bool demand_item_load(CallCtx *cx, const char *words, Pos at, double *wsfu_each);
 bool demand_hunter_flow(CallCtx *cx, const char *system, double load, Pos at, double *Q);
 /* The demand of a load (wsfu) by the calc's curve of demand against load
- * (`demand: NAME`); refused outside its rows. `segment` names the row. */
-bool demand_curve_flow(CallCtx *cx, const Value *curve, double load, Pos at, const char *segment, double *Q);
+ * (`demand: NAME`); refused outside its rows. `id` names the row: a path's
+ * segment, or a network's node when `node`. */
+bool demand_curve_flow(CallCtx *cx, const Value *curve, double load, Pos at, bool node, const char *id, double *Q);
 /* peak_demand for a path: the fixture probability table is needed. */
 bool demand_peak_flow(CallCtx *cx, Pos at);
 

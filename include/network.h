@@ -15,6 +15,9 @@
 /* The evaluated cells; VAL_NONE where a cell is absent. */
 typedef struct NetNodeInput {
     Value elevation, demand, head, pressure, x, y;
+    bool has_load;           /* demand made from the node's fixtures: their load and each item's */
+    double load;
+    double *fixture_each, *fixture_total;
 } NetNodeInput;
 
 typedef struct NetLinkInput {

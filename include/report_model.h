@@ -138,6 +138,11 @@ PathColumns report_path_columns(const Evaluated *ev, const PathResult *pr);
  * factor, no device). The segment column has no number. */
 double report_path_cell(const SegmentResult *g, int kind);
 
+/* Under a network's node table whose demands come from the nodes' fixtures
+ * (`demand:`): how those demands were made, and that summing them in a link
+ * overstates its peak. Text and PDF print it; JSON carries each node's load. */
+extern const char REPORT_NODE_DEMAND_NOTE[];
+
 /* Build the model of `ev` in `a`. Never fails (an unevaluated row says so). */
 const ReportModel *report_model_build(const Evaluated *ev, Arena *a);
 /* The model without its rows (rows NULL, no method's first_use, no warning

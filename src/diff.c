@@ -238,14 +238,19 @@ static bool network_same(const Diff *d, const NetworkSpec *a, const NetworkSpec 
         return a == b;
     if (a->loss != b->loss || !str_same(a->friction, b->friction) || !str_same(a->fittings, b->fittings) ||
         a->nnodes != b->nnodes || a->nlinks != b->nlinks || !expr_same(d, a->fluid, b->fluid) ||
-        !expr_same(d, a->tolerance, b->tolerance))
+        !expr_same(d, a->tolerance, b->tolerance) || a->demand != b->demand ||
+        !str_same(a->demand_system, b->demand_system) || !expr_same(d, a->demand_curve, b->demand_curve))
         return false;
     for (size_t i = 0; i < a->nnodes; i++) {
         const NetNode *x = &a->nodes[i], *y = &b->nodes[i];
         if (!str_same(x->id, y->id) || !expr_same(d, x->elevation, y->elevation) || !expr_same(d, x->demand, y->demand) ||
             !expr_same(d, x->head, y->head) || !expr_same(d, x->pressure, y->pressure) || !expr_same(d, x->x, y->x) ||
-            !expr_same(d, x->y, y->y))
+            !expr_same(d, x->y, y->y) || x->nfixtures != y->nfixtures)
             return false;
+        /* a changed fixture count changes the network's input */
+        for (size_t k = 0; k < x->nfixtures; k++)
+            if (x->fixtures[k].count != y->fixtures[k].count || !str_same(x->fixtures[k].kind, y->fixtures[k].kind))
+                return false;
     }
     for (size_t i = 0; i < a->nlinks; i++) {
         const NetLink *x = &a->links[i], *y = &b->links[i];
@@ -760,13 +765,13 @@ static void add_value_change(Builder *b, bool input, const char *name, int o, in
         d->stmt_marks[n] = MARK_CHANGED;
 }
 
-/* The fixtures cell of a segment as one line: "2 lavatory, 1 bidet". */
-static const char *fixtures_text(Arena *a, const PathSegment *g)
+/* A fixtures cell as one line: "2 lavatory, 1 bidet". */
+static const char *fixtures_text(Arena *a, const FittingItem *items, size_t n)
 {
     StrBuf sb = {0};
-    for (size_t k = 0; k < g->nfixtures; k++)
-        sb_printf(&sb, "%s%d %s", k ? ", " : "", g->fixtures[k].count, g->fixtures[k].kind);
-    const char *s = arena_printf(a, "%s", g->nfixtures ? sb_str(&sb) : "none");
+    for (size_t k = 0; k < n; k++)
+        sb_printf(&sb, "%s%d %s", k ? ", " : "", items[k].count, items[k].kind);
+    const char *s = arena_printf(a, "%s", n ? sb_str(&sb) : "none");
     sb_free(&sb);
     return s;
 }
@@ -784,7 +789,30 @@ static void path_fixture_inputs(Builder *b, int o, int n, const Stmt *os, const 
         for (size_t k = 0; k < pa->nsegs && !x; k++)
             if (str_same(pa->segs[k].id, y->id))
                 x = &pa->segs[k];
-        const char *tb = fixtures_text(a, y), *ta = x ? fixtures_text(a, x) : "none";
+        const char *tb = fixtures_text(a, y->fixtures, y->nfixtures);
+        const char *ta = x ? fixtures_text(a, x->fixtures, x->nfixtures) : "none";
+        if (strcmp(ta, tb) == 0)
+            continue;
+        Value ov = value_string(ta), nv = value_string(tb);
+        add_value_change(b, true, arena_printf(a, "%s.%s.fixtures", ns->name, y->field ? y->field : ""),
+                         o, n, &ov, &nv, NULL, NULL, false);
+    }
+}
+
+/* A network's fixtures cells are inputs too: "NETWORK.NODE.fixtures". */
+static void network_fixture_inputs(Builder *b, int o, int n, const Stmt *os, const Stmt *ns)
+{
+    const NetworkSpec *na = os->network, *nb = ns->network;
+    if (!na || !nb || (!na->has_fixtures && !nb->has_fixtures))
+        return;
+    Arena *a = &b->d->arena;
+    for (size_t i = 0; i < nb->nnodes; i++) {
+        const NetNode *y = &nb->nodes[i], *x = NULL;
+        for (size_t k = 0; k < na->nnodes && !x; k++)
+            if (str_same(na->nodes[k].id, y->id))
+                x = &na->nodes[k];
+        const char *tb = fixtures_text(a, y->fixtures, y->nfixtures);
+        const char *ta = x ? fixtures_text(a, x->fixtures, x->nfixtures) : "none";
         if (strcmp(ta, tb) == 0)
             continue;
         Value ov = value_string(ta), nv = value_string(tb);
@@ -853,6 +881,8 @@ static void compare_values(Builder *b)
         bool input = is_input(ns) && is_input(od->stmts[o]);
         if (ns->kind == STMT_PATH && od->stmts[o]->kind == STMT_PATH)
             path_fixture_inputs(b, o, (int)i, od->stmts[o], ns);
+        if (ns->kind == STMT_NETWORK && od->stmts[o]->kind == STMT_NETWORK)
+            network_fixture_inputs(b, o, (int)i, od->stmts[o], ns);
         const Value *ov = &ro->value, *nv = &rn->value;
         size_t found = 0;
         bool dim_changed = false;

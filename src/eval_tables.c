@@ -90,7 +90,7 @@ void eval_path(Evaluated *ev, const Stmt *s, StmtResult *res, EvalCtx *c)
         bool got = ps->demand == PATH_DEMAND_HUNTER
                        ? demand_hunter_flow(c->call, ps->demand_system, in[i].load, ps->demand_pos, &Q)
                    : ps->demand == PATH_DEMAND_CURVE
-                       ? demand_curve_flow(c->call, &dcurve, in[i].load, ps->demand_pos, ps->segs[i].id, &Q)
+                       ? demand_curve_flow(c->call, &dcurve, in[i].load, ps->demand_pos, false, ps->segs[i].id, &Q)
                        : demand_peak_flow(c->call, ps->demand_pos);
         if (!got) {
             res->state = RES_FAILED;
@@ -211,6 +211,59 @@ void eval_curve(const Stmt *s, StmtResult *res, EvalCtx *c)
 }
 
 /* A network: evaluate every cell, then solve it (network.c). */
+/* `demand:` in a network: each junction's demand is the demand of the load
+ * of the fixtures it serves (its fixtures cell), by the code's demand table,
+ * the calc's curve or the peak demand model. In a network there is no one
+ * "downstream", so the load is converted node by node and the links carry
+ * the sum of those demands: where a link serves several nodes that sum
+ * overstates the peak (demands do not add), which errs on the safe side;
+ * the report says so beside the node table. A node whose cell is empty has
+ * no demand. */
+static bool network_demands(EvalCtx *c, const NetworkSpec *ns, NetNodeInput *ni)
+{
+    Value dcurve;
+    if (ns->demand == PATH_DEMAND_CURVE && !eval_expr(c, ns->demand_curve, &dcurve))
+        return false;
+    bool ok = true;
+    for (size_t i = 0; i < ns->nnodes; i++) {
+        const NetNode *nd = &ns->nodes[i];
+        if (nd->nfixtures == 0)
+            continue;
+        double load = 0;
+        bool node_ok = true;
+        ni[i].fixture_each = arena_alloc(&c->doc->arena, (nd->nfixtures + 1) * sizeof(double));
+        ni[i].fixture_total = arena_alloc(&c->doc->arena, (nd->nfixtures + 1) * sizeof(double));
+        for (size_t k = 0; k < nd->nfixtures; k++) {
+            double each;
+            if (demand_item_load(c->call, nd->fixtures[k].kind, nd->fixtures[k].pos, &each)) {
+                ni[i].fixture_each[k] = each;
+                ni[i].fixture_total[k] = nd->fixtures[k].count * each;
+                load += ni[i].fixture_total[k];
+            } else {
+                node_ok = false;
+            }
+        }
+        if (!node_ok) {
+            ok = false;
+            continue;
+        }
+        double Q = 0;
+        bool got = ns->demand == PATH_DEMAND_HUNTER
+                       ? demand_hunter_flow(c->call, ns->demand_system, load, ns->demand_pos, &Q)
+                   : ns->demand == PATH_DEMAND_CURVE
+                       ? demand_curve_flow(c->call, &dcurve, load, ns->demand_pos, true, nd->id, &Q)
+                       : demand_peak_flow(c->call, ns->demand_pos);
+        if (!got) {
+            ok = false;
+            continue;
+        }
+        ni[i].has_load = true;
+        ni[i].load = load;
+        ni[i].demand = value_hinted(qty(Q, DIM_FLOW), "gal/min", "L/s");
+    }
+    return ok;
+}
+
 void eval_network(Evaluated *ev, const Stmt *s, StmtResult *res, EvalCtx *c)
 {
     const NetworkSpec *ns = s->network;
@@ -239,6 +292,10 @@ void eval_network(Evaluated *ev, const Stmt *s, StmtResult *res, EvalCtx *c)
     }
     if (!ok) {
         res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
+        return;
+    }
+    if (ns->has_fixtures && !network_demands(c, ns, ni)) {
+        res->state = RES_FAILED;
         return;
     }
     const NetworkResult *nr = NULL;

@@ -217,11 +217,13 @@ static Value hinted(double si, Dim d, const char *us, const char *si_unit)
 
 static Record *node_record(CallCtx *cx, const NodeResult *n)
 {
-    Record *r = record_new(cx->arena, "node", 4);
+    Record *r = record_new(cx->arena, "node", n->has_load ? 5 : 4);
     record_set(r, 0, "head", value_number(qty(n->head, DIM_L)));
     record_set(r, 1, "p", value_number(qty(n->p, DIM_PRESSURE)));
     record_set(r, 2, "demand", value_number(qty(n->demand, DIM_FLOW)));
     record_set(r, 3, "elevation", value_number(qty(n->z, DIM_L)));
+    if (n->has_load)
+        record_set(r, 4, "load", value_number(qty_number(n->load)));
     return r;
 }
 
@@ -275,7 +277,11 @@ static bool read_inputs(CallCtx *cx, const NetworkSpec *ns, const NetNodeInput *
             H[i] = ni[i].head.q.si;
         else if (nd->pressure)
             H[i] = o->z + ni[i].pressure.q.si / (nr->rho * G);
-        demand[i] = nd->demand ? ni[i].demand.q.si : 0;
+        demand[i] = nd->demand || ni[i].has_load ? ni[i].demand.q.si : 0;
+        o->has_load = ni[i].has_load;
+        o->load = ni[i].has_load ? ni[i].load : NAN;
+        o->fixture_each = ni[i].fixture_each;
+        o->fixture_total = ni[i].fixture_total;
         if (ns->has_xy) {
             o->x = ni[i].x.q.si;
             o->y = ni[i].y.q.si;

@@ -399,6 +399,8 @@ static void resolve_statements(Document *doc, DiagList *diags)
             ok = resolve_expr(&r, ns->fluid);
             if (ns->tolerance)
                 ok = resolve_expr(&r, ns->tolerance) && ok;
+            if (ns->demand_curve)
+                ok = resolve_expr(&r, ns->demand_curve) && ok;
             for (size_t k = 0; k < ns->nnodes; k++) {
                 NetNode *nd = &ns->nodes[k];
                 Expr *cells[] = {nd->elevation, nd->demand, nd->head, nd->pressure, nd->x, nd->y};

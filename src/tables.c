@@ -206,14 +206,14 @@ static const char *word_value(Arena *a, const Cell *c)
 /* The fixtures cell: "12 lavatory private, 2 bidet": items separated by
  * commas, each a whole count from 1 to 9999 and the fixture's words (the
  * kind and an optional use, read by wsfu's table at evaluation). */
-static bool parse_fixtures(Arena *a, const Cell *c, PathSegment *seg, DiagList *diags)
+static bool parse_fixtures(Arena *a, const Cell *c, FittingItem **items, size_t *nitems, DiagList *diags)
 {
     if (cell_empty(c) || cell_is(c, "none"))
         return true;
     size_t cap = 1;
     for (size_t i = 0; i < c->len; i++)
         cap += c->text[i] == ',';
-    seg->fixtures = arena_alloc(a, cap * sizeof *seg->fixtures);
+    *items = arena_alloc(a, cap * sizeof **items);
     bool ok = true;
     for (size_t i = 0; i <= c->len; i++) {
         size_t start = i;
@@ -247,7 +247,7 @@ static bool parse_fixtures(Arena *a, const Cell *c, PathSegment *seg, DiagList *
             ok = false;
             continue;
         }
-        FittingItem *it = &seg->fixtures[seg->nfixtures++];
+        FittingItem *it = &(*items)[(*nitems)++];
         it->count = (int)count;
         it->pos = p;
         it->pos.col += (int)(k - s);
@@ -325,32 +325,33 @@ static const bool column_required[NCOLS] = {true, true, true, true, true, false,
  * (a flow) against the load in water supply fixture units — the demand table
  * of the code adopted for the project, typed by the engineer and cited in
  * the calc, where the program ships none. */
-static bool parse_demand_option(Arena *a, const Cell *v, PathSpec *ps, DiagList *diags)
+static bool parse_demand_option(Arena *a, const Cell *v, PathDemand *demand, const char **system, Expr **curve,
+                                Pos *pos, DiagList *diags)
 {
     static const char *const forms[][2] = {
         {"hunter", "flush tank"},
         {"hunter(\"flush tank\")", "flush tank"},
         {"hunter(\"flush valve\")", "flush valve"},
     };
-    ps->demand_pos = v->pos;
+    *pos = v->pos;
     for (size_t k = 0; k < sizeof forms / sizeof forms[0]; k++)
         if (v->len == strlen(forms[k][0]) && memcmp(v->text, forms[k][0], v->len) == 0) {
-            ps->demand = PATH_DEMAND_HUNTER;
-            ps->demand_system = forms[k][1];
+            *demand = PATH_DEMAND_HUNTER;
+            *system = forms[k][1];
             return true;
         }
     if (v->len == strlen("peak_demand") && memcmp(v->text, "peak_demand", v->len) == 0) {
-        ps->demand = PATH_DEMAND_PEAK;
+        *demand = PATH_DEMAND_PEAK;
         return true;
     }
     bool name = v->len > 0 && (isalpha((unsigned char)v->text[0]) || v->text[0] == '_');
     for (size_t i = 0; i < v->len && name; i++)
         name = isalnum((unsigned char)v->text[i]) || v->text[i] == '_';
     if (name) {
-        ps->demand_curve = parse_expression_at(a, v->text, v->len, v->pos, diags);
-        if (!ps->demand_curve)
+        *curve = parse_expression_at(a, v->text, v->len, v->pos, diags);
+        if (!*curve)
             return false;
-        ps->demand = PATH_DEMAND_CURVE;
+        *demand = PATH_DEMAND_CURVE;
         return true;
     }
     diag_error(diags, v->pos,
@@ -459,7 +460,8 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
                 ok = false;
             }
         } else if (cell_is(&key, "demand")) {
-            ok = parse_demand_option(a, &value, ps, diags) && ok;
+            ok = parse_demand_option(a, &value, &ps->demand, &ps->demand_system, &ps->demand_curve, &ps->demand_pos,
+                                     diags) && ok;
         } else if (cell_is(&key, "fittings")) {
             ps->fittings = word_value(a, &value);
             if (fitting_method_parse(ps->fittings) < 0) {
@@ -594,7 +596,7 @@ Stmt *tables_parse_path(Arena *a, const char *name, Pos at, const FenceLine *lin
                 continue;
             }
             if (c == COL_FIXTURES) {
-                row_ok = parse_fixtures(a, cell, seg, diags) && row_ok;
+                row_ok = parse_fixtures(a, cell, &seg->fixtures, &seg->nfixtures, diags) && row_ok;
                 continue;
             }
             if (cell_empty(cell)) {
@@ -884,8 +886,9 @@ Stmt *tables_parse_curve(Arena *a, const char *name, Pos at, const FenceLine *li
 
 /* ---- network blocks (DESIGN 2.12) ---------------------------------------- */
 
-enum { NC_NODE, NC_ELEVATION, NC_DEMAND, NC_HEAD, NC_PRESSURE, NC_X, NC_Y, NODE_NCOLS };
-static const char *const node_columns[NODE_NCOLS] = {"node", "elevation", "demand", "head", "pressure", "x", "y"};
+enum { NC_NODE, NC_ELEVATION, NC_DEMAND, NC_HEAD, NC_PRESSURE, NC_X, NC_Y, NC_FIXTURES, NODE_NCOLS };
+static const char *const node_columns[NODE_NCOLS] = {"node", "elevation", "demand", "head", "pressure", "x", "y",
+                                                     "fixtures"};
 
 enum { LC_LINK, LC_FROM, LC_TO, LC_PIPE, LC_LENGTH, LC_FITTINGS, LC_K, LC_C, LC_DEVICE, LINK_NCOLS };
 static const char *const link_columns[LINK_NCOLS] = {"link", "from", "to", "pipe", "length", "fittings", "K", "C", "device"};
@@ -1017,7 +1020,8 @@ static void parse_network_options(Arena *a, NetworkSpec *ns, const FenceLine *l,
 {
     Cell key, value;
     if (!fence_option_read(l, &key, &value,
-                           "expected an option 'key: value' (fluid, loss, friction, fittings, tolerance) or the node table",
+                           "expected an option 'key: value' (fluid, loss, friction, fittings, tolerance, demand) or the "
+                           "node table",
                            ok, diags))
         return;
     if (value.len == 0) {
@@ -1029,6 +1033,9 @@ static void parse_network_options(Arena *a, NetworkSpec *ns, const FenceLine *l,
     } else if (cell_is(&key, "tolerance")) {
         ns->tolerance = parse_expression_at(a, value.text, value.len, value.pos, diags);
         *ok = ns->tolerance && *ok;
+    } else if (cell_is(&key, "demand")) {
+        *ok = parse_demand_option(a, &value, &ns->demand, &ns->demand_system, &ns->demand_curve, &ns->demand_pos,
+                                  diags) && *ok;
     } else if (cell_is(&key, "loss")) {
         const char *w = word_value(a, &value);
         if (strcmp(w, "darcy") == 0)
@@ -1057,7 +1064,7 @@ static void parse_network_options(Arena *a, NetworkSpec *ns, const FenceLine *l,
             *ok = false;
         }
     } else {
-        diag_error(diags, key.pos, "unknown network option '%.*s' (fluid, loss, friction, fittings, tolerance)",
+        diag_error(diags, key.pos, "unknown network option '%.*s' (fluid, loss, friction, fittings, tolerance, demand)",
                    (int)key.len, key.text);
         *ok = false;
     }
@@ -1080,6 +1087,19 @@ static bool parse_network_nodes(Arena *a, NetworkSpec *ns, const NetTable *t, Di
         ok = false;
     }
     ns->has_xy = t->col_of[NC_X] >= 0 && t->col_of[NC_Y] >= 0;
+    /* a fixtures column and demand: go together (DESIGN 2.11): each node's
+     * demand is then the demand of the load of the fixtures it serves */
+    ns->has_fixtures = t->col_of[NC_FIXTURES] >= 0;
+    if (ns->has_fixtures && ns->demand == PATH_DEMAND_NONE) {
+        diag_error(diags, t->header_pos,
+                   "a 'fixtures' column needs the option 'demand:' (hunter(\"flush tank\"), hunter(\"flush valve\"), "
+                   "peak_demand or the name of a curve of demand against load) to make each node's demand");
+        ok = false;
+    }
+    if (!ns->has_fixtures && ns->demand != PATH_DEMAND_NONE) {
+        diag_error(diags, ns->demand_pos, "'demand:' takes each node's demand from its fixtures, but the node table has no 'fixtures' column");
+        ok = false;
+    }
     ns->nodes = arena_alloc(a, (t->nrows + 1) * sizeof *ns->nodes);
     size_t supplies = 0;
     for (size_t r = 0; r < t->nrows; r++) {
@@ -1114,6 +1134,21 @@ static bool parse_network_nodes(Arena *a, NetworkSpec *ns, const NetTable *t, Di
             nd->y = net_expr(a, yc, &ok, diags);
             if (!nd->x || !nd->y) {
                 diag_error(diags, (nd->x ? yc : xc)->pos, "every node needs both coordinates when the table has x and y");
+                ok = false;
+            }
+        }
+        if (ns->has_fixtures) {
+            const Cell *fc = net_cell(t, r, NC_FIXTURES);
+            ok = parse_fixtures(a, fc, &nd->fixtures, &nd->nfixtures, diags) && ok;
+            if (nd->nfixtures && nd->demand) {
+                diag_error(diags, fc->pos,
+                           "node '%s' gives a 'demand' and 'fixtures': keep one (with demand: the fixtures make the demand)",
+                           nd->id ? nd->id : "?");
+                ok = false;
+            }
+            if (nd->nfixtures && (nd->head || nd->pressure)) {
+                diag_error(diags, fc->pos, "node '%s' is a supply (it has a head or pressure): leave its 'fixtures' cell empty",
+                           nd->id ? nd->id : "?");
                 ok = false;
             }
         }

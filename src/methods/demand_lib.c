@@ -210,7 +210,7 @@ bool demand_hunter_flow(CallCtx *cx, const char *system, double load, Pos at, do
  * adopted for the project as the engineer enters and cites it. Read between
  * its rows by the curve's interpolation; a load outside its rows is refused
  * (a demand table is not extrapolated), as hunter() refuses one. */
-bool demand_curve_flow(CallCtx *cx, const Value *curve, double load, Pos at, const char *segment, double *Q)
+bool demand_curve_flow(CallCtx *cx, const Value *curve, double load, Pos at, bool node, const char *id, double *Q)
 {
     const CurveData *cd = curve_of(curve);
     if (!cd) {
@@ -232,9 +232,9 @@ bool demand_curve_flow(CallCtx *cx, const Value *curve, double load, Pos at, con
     const Curve *c = &cd->curve;
     if (!isfinite(load) || curve_side(c, load) != 0) {
         diag_error(cx->diags, at,
-                   "demand: segment %s carries %g wsfu, outside curve '%s', which runs from %g to %g wsfu; a "
+                   "demand: %s %s carries %g wsfu, outside curve '%s', which runs from %g to %g wsfu; a "
                    "demand table is not extrapolated: extend the curve with rows of the adopted code's table",
-                   segment, load, cd->name, c->x[0], c->x[c->n - 1]);
+                   node ? "node" : "segment", id, load, cd->name, c->x[0], c->x[c->n - 1]);
         return false;
     }
     double q = curve_eval(c, load, NULL);
@@ -244,11 +244,11 @@ bool demand_curve_flow(CallCtx *cx, const Value *curve, double load, Pos at, con
     }
     Method *m = arena_alloc(cx->arena, sizeof *m);
     bool loglog = c->interp == CURVE_LOGLOG;
-    m->key = arena_printf(cx->arena, "demand_curve:%s", cd->name);
+    m->key = arena_printf(cx->arena, node ? "demand_curve_node:%s" : "demand_curve:%s", cd->name);
     m->title = arena_printf(cx->arena,
-                            "Peak demand of each segment's summed fixture load by the curve %s (demand against "
-                            "load), %s between its rows",
-                            cd->name, loglog ? "log-log" : "linear");
+                            "Peak demand of each %s by the curve %s (demand against load), %s between its rows",
+                            node ? "node's fixture load" : "segment's summed fixture load", cd->name,
+                            loglog ? "log-log" : "linear");
     m->formula = loglog ? "Q = Q_1*(L/L_1)^(ln(Q_2/Q_1)/ln(L_2/L_1))" : "Q = Q_1 + (Q_2 - Q_1)*(L - L_1)/(L_2 - L_1)";
     m->validity = "loads within the curve's rows; the demand of fixtures, not of continuous uses";
     m->reference = arena_printf(cx->arena,

@@ -13,6 +13,11 @@
 #include "render.h"
 #include "report_model.h"
 
+const char REPORT_NODE_DEMAND_NOTE[] =
+    "Each node's demand is the demand of the load of the fixtures it serves, converted node by node; a "
+    "link that serves several nodes carries the sum of their demands, which overstates its peak (loads "
+    "add, demands do not) and so errs on the safe side.";
+
 static const char *expr_text(const ReportModel *m, const StmtResult *row, const Expr *e, bool sub, Arena *a)
 {
     return render_expr_string(m->ev, row, e, sub, m->value_texts, a);

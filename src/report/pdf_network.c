@@ -15,7 +15,7 @@
 
 #include "numfmt.h"
 
-enum { NET_CHUNK = 30, NODE_COLS = 5, LINK_COLS = 14, MAX_NET_COLS = 14 };
+enum { NET_CHUNK = 30, NODE_COLS = 6, LINK_COLS = 14, MAX_NET_COLS = 14 };
 #define NT_SIZE 7.6
 #define NT_WORD 5.6
 
@@ -45,24 +45,29 @@ static void units_of(const Pdf *P, Unit *uQ, Unit *uL, Unit *uV, Unit *uP, Unit 
     unit_parse(us == UNITS_US ? "in" : "mm", 2, uD, &bo, &bl);
 }
 
-static NetCols node_cols(const Pdf *P)
+/* The node table's columns: node, elevation, [fixture load,] demand, head,
+ * pressure — the load (in wsfu) only where the demands come from the
+ * nodes' fixtures (demand:). The pressure is always the last column. */
+static NetCols node_cols(const Pdf *P, bool load)
 {
     NetCols c;
     memset(&c, 0, sizeof c);
     Unit uQ, uL, uV, uP, uD;
     units_of(P, &uQ, &uL, &uV, &uP, &uD);
-    static const char *const W[NODE_COLS] = {"node", "elevation", "demand", "head", "pressure"};
-    static const char *const S[NODE_COLS] = {"", "z", "q", "H", "p"};
-    c.n = NODE_COLS;
-    for (int i = 0; i < c.n; i++) {
-        c.word[i] = W[i];
-        c.symbol[i] = S[i];
-        c.has_unit[i] = i > 0;
+    static const char *const W[NODE_COLS] = {"node", "elevation", "fixture load, wsfu", "demand", "head", "pressure"};
+    static const char *const S[NODE_COLS] = {"", "z", "L", "q", "H", "p"};
+    const Unit U[NODE_COLS] = {uL, uL, uL, uQ, uL, uP};
+    c.n = 0;
+    for (int i = 0; i < NODE_COLS; i++) {
+        if (i == 2 && !load)
+            continue;
+        c.word[c.n] = W[i];
+        c.symbol[c.n] = S[i];
+        c.has_unit[c.n] = i > 0 && i != 2;
+        c.unit[c.n] = U[i];
+        c.n++;
     }
     c.text[0] = true;
-    c.unit[1] = c.unit[3] = uL;
-    c.unit[2] = uQ;
-    c.unit[4] = uP;
     return c;
 }
 
@@ -108,11 +113,13 @@ static void node_cell(const Pdf *P, const NetworkResult *nr, const NetCols *c, s
                       size_t n)
 {
     const NodeResult *g = &nr->nodes[k];
-    double si[NODE_COLS] = {0, g->z, g->demand, g->head, g->p};
+    /* with a load column the table has NODE_COLS columns, else one fewer */
+    double si[NODE_COLS] = {0, g->z, g->has_load ? g->load : NAN, g->demand, g->head, g->p};
+    int at = c->n == NODE_COLS || i < 2 ? i : i + 1;
     if (i == 0)
         snprintf(buf, n, "%s", g->id);
     else
-        number_cell(P, si[i], c, i, buf, n);
+        number_cell(P, si[at], c, i, buf, n);
 }
 
 static const char *device_word(const LinkResult *g)
@@ -200,7 +207,7 @@ static double fn_net_table(Pdf *P, const Item *it, double top)
     const NetworkResult *nr = P->ev->results[st->index].made->network;
     bool nodes = it->depth > 0;
     size_t count = (size_t)(nodes ? it->depth : -it->depth);
-    NetCols c = nodes ? node_cols(P) : link_cols(P);
+    NetCols c = nodes ? node_cols(P, st->network->has_fixtures) : link_cols(P);
     CellFn cell = nodes ? node_cell : link_cell;
     size_t rows = nodes ? nr->nnodes : nr->nlinks;
     double W = nodes ? fmin(full_width(P), 330) : full_width(P);
@@ -212,7 +219,7 @@ static double fn_net_table(Pdf *P, const Item *it, double top)
         for (int i = 0; i < c.n; i++) {
             char buf[96];
             cell(P, nr, &c, k, i, buf, sizeof buf);
-            bool strong = nodes ? (i == 4 && k == nr->p_min_node && !nr->nodes[k].supply)
+            bool strong = nodes ? (i == c.n - 1 && k == nr->p_min_node && !nr->nodes[k].supply)
                                 : (i == 6 && k == nr->V_max_link);
             FontRole f = i == 0 ? FONT_SANS_BOLD : strong ? FONT_SERIF_BOLD : c.text[i] ? FONT_SANS : FONT_SERIF;
             double w = pdf_width(P, f, L.size, buf);
@@ -306,6 +313,29 @@ static double fn_net_summary(Pdf *P, const Item *it, double top)
     /* the network's warnings (a link in the transition zone, a regulator not
      * regulating ...) beside its results, and counted on the cover */
     y -= pdf_warnings(P, r, x + 4, y, W - 4);
+    if (st->network->has_fixtures) {
+        /* the fixture schedule behind the node loads, and how they became demands */
+        sb_puts(&sb, "Fixtures served at each node: ");
+        bool any = false;
+        for (size_t i = 0; i < nr->nnodes; i++) {
+            const NetNode *nd = &st->network->nodes[i];
+            const NodeResult *g = &nr->nodes[i];
+            for (size_t f = 0; f < nd->nfixtures && g->has_load; f++) {
+                char each[48], total[48];
+                num_typeset(g->fixture_each[f], P->env.digits, each, sizeof each);
+                num_typeset(g->fixture_total[f], P->env.digits, total, sizeof total);
+                if (f == 0)
+                    sb_printf(&sb, "%s%s: ", any ? "; " : "", g->id);
+                else
+                    sb_puts(&sb, ", ");
+                sb_printf(&sb, "%d %s × %s = %s wsfu", nd->fixtures[f].count, nd->fixtures[f].kind, each, total);
+                any = true;
+            }
+        }
+        sb_printf(&sb, ". %s", REPORT_NODE_DEMAND_NOTE);
+        y -= pdf_wrap(P, FONT_SERIF, 9, 11.5, x + 4, y, W - 4, sb_str(&sb)) + 2;
+        sb_free(&sb);
+    }
     sb_puts(&sb, "Bold in the tables: the lowest junction pressure and the highest velocity.");
     char figs[96];
     pdf_figures_of(P, st->index, figs, sizeof figs);

@@ -533,16 +533,37 @@ static void put_network(const Evaluated *ev, const Stmt *s, const StmtResult *r,
     unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
     sb_printf(out, ": %zu nodes, %zu links, %s loss, global gradient algorithm (Todini and Pilati 1988)\n",
               nr->nnodes, nr->nlinks, nr->darcy ? "Darcy-Weisbach" : "Hazen-Williams");
-    sb_printf(out, "  %-10s %10s %10s %10s %10s\n", "node", "elevation", "demand", "head", "p");
-    sb_printf(out, "  %-10s %10s %10s %10s %10s\n", "", uL.text, uQ.text, uL.text, uP.text);
+    /* a load column where the demands come from the nodes' fixtures (demand:) */
+    bool load = s->network->has_fixtures;
+    sb_printf(out, "  %-10s %10s%s %10s %10s %10s\n", "node", "elevation", load ? "       load" : "", "demand", "head", "p");
+    sb_printf(out, "  %-10s %10s%s %10s %10s %10s\n", "", uL.text, load ? "       wsfu" : "", uQ.text, uL.text, uP.text);
     for (size_t i = 0; i < nr->nnodes; i++) {
         const NodeResult *n = &nr->nodes[i];
         sb_printf(out, "  %-10s", n->id);
         put_cell(ev, n->z, &uL, true, out);
+        if (load && n->has_load)
+            put_cell(ev, n->load, &one, true, out);
+        else if (load)
+            sb_printf(out, " %10s", "-");
         put_cell(ev, n->demand, &uQ, true, out);
         put_cell(ev, n->head, &uL, true, out);
         put_cell(ev, n->p, &uP, true, out);
         sb_puts(out, n->supply ? "  supply\n" : i == nr->p_min_node ? "  lowest pressure\n" : "\n");
+    }
+    if (load) {
+        /* the fixture schedule behind the loads: kind, count, load each, total */
+        sb_puts(out, "  fixtures served at each node (load each and total in wsfu):\n");
+        for (size_t i = 0; i < nr->nnodes; i++) {
+            const NetNode *nd = &s->network->nodes[i];
+            for (size_t k = 0; k < nd->nfixtures && nr->nodes[i].has_load; k++) {
+                sb_printf(out, "    %-10s %5d %-32s x", nr->nodes[i].id, nd->fixtures[k].count, nd->fixtures[k].kind);
+                put_cell(ev, nr->nodes[i].fixture_each[k], &one, true, out);
+                sb_puts(out, " =");
+                put_cell(ev, nr->nodes[i].fixture_total[k], &one, true, out);
+                sb_putc(out, '\n');
+            }
+        }
+        sb_printf(out, "  %s\n", REPORT_NODE_DEMAND_NOTE);
     }
     static const char *const states[] = {"", "closed", "regulating", "wide open"};
     sb_printf(out, "  %-10s %-8s %-8s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "link", "from", "to", "Q", "D",
