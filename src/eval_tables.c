@@ -210,7 +210,6 @@ void eval_curve(const Stmt *s, StmtResult *res, EvalCtx *c)
     res->state = RES_OK;
 }
 
-/* A network: evaluate every cell, then solve it (network.c). */
 /* `demand:` in a network: each junction's demand is the demand of the load
  * of the fixtures it serves (its fixtures cell), by the code's demand table,
  * the calc's curve or the peak demand model. In a network there is no one
@@ -219,11 +218,8 @@ void eval_curve(const Stmt *s, StmtResult *res, EvalCtx *c)
  * overstates the peak (demands do not add), which errs on the safe side;
  * the report says so beside the node table. A node whose cell is empty has
  * no demand. */
-static bool network_demands(EvalCtx *c, const NetworkSpec *ns, NetNodeInput *ni)
+static bool network_demands(EvalCtx *c, const NetworkSpec *ns, const Value *dcurve, NetNodeInput *ni)
 {
-    Value dcurve;
-    if (ns->demand == PATH_DEMAND_CURVE && !eval_expr(c, ns->demand_curve, &dcurve))
-        return false;
     bool ok = true;
     for (size_t i = 0; i < ns->nnodes; i++) {
         const NetNode *nd = &ns->nodes[i];
@@ -251,7 +247,7 @@ static bool network_demands(EvalCtx *c, const NetworkSpec *ns, NetNodeInput *ni)
         bool got = ns->demand == PATH_DEMAND_HUNTER
                        ? demand_hunter_flow(c->call, ns->demand_system, load, ns->demand_pos, &Q)
                    : ns->demand == PATH_DEMAND_CURVE
-                       ? demand_curve_flow(c->call, &dcurve, load, ns->demand_pos, true, nd->id, &Q)
+                       ? demand_curve_flow(c->call, dcurve, load, ns->demand_pos, true, nd->id, &Q)
                        : demand_peak_flow(c->call, ns->demand_pos);
         if (!got) {
             ok = false;
@@ -264,6 +260,7 @@ static bool network_demands(EvalCtx *c, const NetworkSpec *ns, NetNodeInput *ni)
     return ok;
 }
 
+/* A network: evaluate every cell, then solve it (network.c). */
 void eval_network(Evaluated *ev, const Stmt *s, StmtResult *res, EvalCtx *c)
 {
     const NetworkSpec *ns = s->network;
@@ -294,7 +291,13 @@ void eval_network(Evaluated *ev, const Stmt *s, StmtResult *res, EvalCtx *c)
         res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
         return;
     }
-    if (ns->has_fixtures && !network_demands(c, ns, ni)) {
+    /* demand: NAME — the curve of demand against load the calc gives */
+    Value dcurve = {0};
+    if (ns->demand == PATH_DEMAND_CURVE && !eval_expr(c, ns->demand_curve, &dcurve)) {
+        res->state = c->upstream ? RES_NOT_EVALUATED : RES_FAILED;
+        return;
+    }
+    if (ns->has_fixtures && !network_demands(c, ns, &dcurve, ni)) {
         res->state = RES_FAILED;
         return;
     }
