@@ -250,8 +250,10 @@ static bool network_demands(EvalCtx *c, const NetworkSpec *ns, const Value *dcur
                        ? demand_curve_flow(c->call, dcurve, load, ns->demand_pos, true, nd->id, &Q)
                        : demand_peak_flow(c->call, ns->demand_pos);
         if (!got) {
+            /* as in a path, the first refusal ends it: a table that is not
+             * shipped would refuse every node alike */
             ok = false;
-            continue;
+            break;
         }
         ni[i].has_load = true;
         ni[i].load = load;
