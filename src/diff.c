@@ -776,6 +776,22 @@ static const char *fixtures_text(Arena *a, const FittingItem *items, size_t n)
     return s;
 }
 
+/* One fixtures cell as an input: listed as "STMT.FIELD.fixtures" when its
+ * text differs from the old revision's (an empty cell, or a row that is new,
+ * reads "none"). */
+static void fixture_input(Builder *b, int o, int n, const Stmt *ns, const char *field, const FittingItem *old_items,
+                          size_t old_n, const FittingItem *new_items, size_t new_n)
+{
+    Arena *a = &b->d->arena;
+    const char *tb = fixtures_text(a, new_items, new_n);
+    const char *ta = fixtures_text(a, old_items, old_n);
+    if (strcmp(ta, tb) == 0)
+        return;
+    Value ov = value_string(ta), nv = value_string(tb);
+    add_value_change(b, true, arena_printf(a, "%s.%s.fixtures", ns->name, field ? field : ""), o, n, &ov, &nv, NULL,
+                     NULL, false);
+}
+
 /* A path's fixtures cells are inputs (DESIGN 2.11): a changed count or kind
  * at a segment is listed as an input change "PATH.SEGMENT.fixtures". */
 static void path_fixture_inputs(Builder *b, int o, int n, const Stmt *os, const Stmt *ns)
@@ -783,19 +799,12 @@ static void path_fixture_inputs(Builder *b, int o, int n, const Stmt *os, const 
     const PathSpec *pa = os->path, *pb = ns->path;
     if (!pa || !pb || (!pa->has_fixtures && !pb->has_fixtures))
         return;
-    Arena *a = &b->d->arena;
     for (size_t i = 0; i < pb->nsegs; i++) {
         const PathSegment *y = &pb->segs[i], *x = NULL;
         for (size_t k = 0; k < pa->nsegs && !x; k++)
             if (str_same(pa->segs[k].id, y->id))
                 x = &pa->segs[k];
-        const char *tb = fixtures_text(a, y->fixtures, y->nfixtures);
-        const char *ta = x ? fixtures_text(a, x->fixtures, x->nfixtures) : "none";
-        if (strcmp(ta, tb) == 0)
-            continue;
-        Value ov = value_string(ta), nv = value_string(tb);
-        add_value_change(b, true, arena_printf(a, "%s.%s.fixtures", ns->name, y->field ? y->field : ""),
-                         o, n, &ov, &nv, NULL, NULL, false);
+        fixture_input(b, o, n, ns, y->field, x ? x->fixtures : NULL, x ? x->nfixtures : 0, y->fixtures, y->nfixtures);
     }
 }
 
@@ -805,19 +814,12 @@ static void network_fixture_inputs(Builder *b, int o, int n, const Stmt *os, con
     const NetworkSpec *na = os->network, *nb = ns->network;
     if (!na || !nb || (!na->has_fixtures && !nb->has_fixtures))
         return;
-    Arena *a = &b->d->arena;
     for (size_t i = 0; i < nb->nnodes; i++) {
         const NetNode *y = &nb->nodes[i], *x = NULL;
         for (size_t k = 0; k < na->nnodes && !x; k++)
             if (str_same(na->nodes[k].id, y->id))
                 x = &na->nodes[k];
-        const char *tb = fixtures_text(a, y->fixtures, y->nfixtures);
-        const char *ta = x ? fixtures_text(a, x->fixtures, x->nfixtures) : "none";
-        if (strcmp(ta, tb) == 0)
-            continue;
-        Value ov = value_string(ta), nv = value_string(tb);
-        add_value_change(b, true, arena_printf(a, "%s.%s.fixtures", ns->name, y->field ? y->field : ""),
-                         o, n, &ov, &nv, NULL, NULL, false);
+        fixture_input(b, o, n, ns, y->field, x ? x->fixtures : NULL, x ? x->nfixtures : 0, y->fixtures, y->nfixtures);
     }
 }
 

@@ -14,6 +14,29 @@
 #include "methods/devices_lib.h"
 #include "numfmt.h"
 
+/* The loads of a fixtures cell's items (each[k] of one fixture, total[k] of
+ * the item's count of them, arrays made in the document's arena) and their
+ * sum in *load. False after an item's error (reported at the item). */
+static bool fixture_schedule(EvalCtx *c, const FittingItem *items, size_t n, double **each, double **total,
+                             double *load)
+{
+    bool ok = true;
+    *each = arena_alloc(&c->doc->arena, (n + 1) * sizeof(double));
+    *total = arena_alloc(&c->doc->arena, (n + 1) * sizeof(double));
+    *load = 0;
+    for (size_t k = 0; k < n; k++) {
+        double one;
+        if (demand_item_load(c->call, items[k].kind, items[k].pos, &one)) {
+            (*each)[k] = one;
+            (*total)[k] = items[k].count * one;
+            *load += (*total)[k];
+        } else {
+            ok = false;
+        }
+    }
+    return ok;
+}
+
 /* The fixture load of every segment of a path with a fixtures column: the
  * fixtures taken off at a segment's outlet and at every outlet after it are
  * downstream of its inlet, so a segment's load is the sum of its own and
@@ -24,19 +47,8 @@ static bool path_loads(EvalCtx *c, const PathSpec *ps, SegmentInput *in)
     double below = 0;
     for (size_t i = ps->nsegs; i-- > 0;) {
         const PathSegment *g = &ps->segs[i];
-        double outlet = 0;
-        in[i].fixture_each = arena_alloc(&c->doc->arena, (g->nfixtures + 1) * sizeof(double));
-        in[i].fixture_total = arena_alloc(&c->doc->arena, (g->nfixtures + 1) * sizeof(double));
-        for (size_t k = 0; k < g->nfixtures; k++) {
-            double each;
-            if (demand_item_load(c->call, g->fixtures[k].kind, g->fixtures[k].pos, &each)) {
-                in[i].fixture_each[k] = each;
-                in[i].fixture_total[k] = g->fixtures[k].count * each;
-                outlet += in[i].fixture_total[k];
-            } else {
-                ok = false;
-            }
-        }
+        double outlet;
+        ok = fixture_schedule(c, g->fixtures, g->nfixtures, &in[i].fixture_each, &in[i].fixture_total, &outlet) && ok;
         below += outlet;
         in[i].has_load = true;
         in[i].load = below;
@@ -225,21 +237,8 @@ static bool network_demands(EvalCtx *c, const NetworkSpec *ns, const Value *dcur
         const NetNode *nd = &ns->nodes[i];
         if (nd->nfixtures == 0)
             continue;
-        double load = 0;
-        bool node_ok = true;
-        ni[i].fixture_each = arena_alloc(&c->doc->arena, (nd->nfixtures + 1) * sizeof(double));
-        ni[i].fixture_total = arena_alloc(&c->doc->arena, (nd->nfixtures + 1) * sizeof(double));
-        for (size_t k = 0; k < nd->nfixtures; k++) {
-            double each;
-            if (demand_item_load(c->call, nd->fixtures[k].kind, nd->fixtures[k].pos, &each)) {
-                ni[i].fixture_each[k] = each;
-                ni[i].fixture_total[k] = nd->fixtures[k].count * each;
-                load += ni[i].fixture_total[k];
-            } else {
-                node_ok = false;
-            }
-        }
-        if (!node_ok) {
+        double load;
+        if (!fixture_schedule(c, nd->fixtures, nd->nfixtures, &ni[i].fixture_each, &ni[i].fixture_total, &load)) {
             ok = false;
             continue;
         }
