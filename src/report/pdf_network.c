@@ -332,7 +332,7 @@ static double fn_net_summary(Pdf *P, const Item *it, double top)
                 any = true;
             }
         }
-        sb_printf(&sb, ". %s", REPORT_NODE_DEMAND_NOTE);
+        sb_printf(&sb, "%s. %s", any ? "" : "none", REPORT_NODE_DEMAND_NOTE);
         y -= pdf_wrap(P, FONT_SERIF, 9, 11.5, x + 4, y, W - 4, sb_str(&sb)) + 2;
         sb_free(&sb);
     }

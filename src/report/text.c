@@ -553,6 +553,7 @@ static void put_network(const Evaluated *ev, const Stmt *s, const StmtResult *r,
     if (load) {
         /* the fixture schedule behind the loads: kind, count, load each, total */
         sb_puts(out, "  fixtures served at each node (load each and total in wsfu):\n");
+        bool any = false;
         for (size_t i = 0; i < nr->nnodes; i++) {
             const NetNode *nd = &s->network->nodes[i];
             for (size_t k = 0; k < nd->nfixtures && nr->nodes[i].has_load; k++) {
@@ -561,8 +562,11 @@ static void put_network(const Evaluated *ev, const Stmt *s, const StmtResult *r,
                 sb_puts(out, " =");
                 put_cell(ev, nr->nodes[i].fixture_total[k], &one, true, out);
                 sb_putc(out, '\n');
+                any = true;
             }
         }
+        if (!any)
+            sb_puts(out, "    none\n");
         sb_printf(out, "  %s\n", REPORT_NODE_DEMAND_NOTE);
     }
     static const char *const states[] = {"", "closed", "regulating", "wide open"};
