@@ -138,6 +138,36 @@ PathColumns report_path_columns(const Evaluated *ev, const PathResult *pr);
  * factor, no device). The segment column has no number. */
 double report_path_cell(const SegmentResult *g, int kind);
 
+/* The columns of a network's node and link tables, defined once for the
+ * listing and the PDF, as a path's are: the listing's head (key), the
+ * PDF's words and symbol, and the unit each is shown in. The node table has
+ * a fixture load column when the demands come from the nodes' fixtures. */
+enum { NET_COLUMNS_MAX = 14 };
+typedef enum NodeColumnKind { NCOL_NODE, NCOL_Z, NCOL_LOAD, NCOL_DEMAND, NCOL_HEAD, NCOL_P } NodeColumnKind;
+typedef enum LinkColumnKind {
+    LCOL_LINK, LCOL_FROM, LCOL_TO, LCOL_Q, LCOL_D, LCOL_L, LCOL_V, LCOL_RE, LCOL_F, LCOL_K, LCOL_HF, LCOL_HM,
+    LCOL_DPDEV, LCOL_DEVICE
+} LinkColumnKind;
+
+typedef struct NetColumns {
+    int n;
+    int map[NET_COLUMNS_MAX];            /* the NodeColumnKind or LinkColumnKind of column i */
+    const char *key[NET_COLUMNS_MAX];    /* the listing's head: "p", "h_f" */
+    const char *word[NET_COLUMNS_MAX];   /* "pressure", "friction loss" */
+    const char *symbol[NET_COLUMNS_MAX]; /* "p", "Delta_p"; "" where none */
+    Unit unit[NET_COLUMNS_MAX];          /* shown in; a pure number's unit where none */
+    bool has_unit[NET_COLUMNS_MAX];
+    bool text[NET_COLUMNS_MAX];          /* an id or a word, not a number */
+} NetColumns;
+
+NetColumns report_node_columns(const Evaluated *ev, bool load);
+NetColumns report_link_columns(const Evaluated *ev);
+/* A node's or link's value in a column, in SI; NAN where there is none (no
+ * load, no friction factor). A link without a device has a device drop of 0.
+ * Id and word columns have none. */
+double report_node_cell(const NodeResult *g, int kind);
+double report_link_cell(const LinkResult *g, int kind);
+
 /* Under a network's node table whose demands come from the nodes' fixtures
  * (`demand:`): how those demands were made, and that summing them in a link
  * overstates its peak. Text and PDF print it; JSON carries each node's load. */

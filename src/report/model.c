@@ -373,6 +373,85 @@ double report_path_cell(const SegmentResult *g, int kind)
     return kind >= 0 && kind < PATH_COLUMNS_MAX ? si[kind] : NAN;
 }
 
+/* The display units a network's columns are shown in. */
+static void net_units(const Evaluated *ev, Unit *uQ, Unit *uL, Unit *uV, Unit *uP, Unit *uD, Unit *one)
+{
+    UnitSystem us = ev->units;
+    *uQ = unit_default(DIM_FLOW, TEMP_NONE, us);
+    *uL = unit_default(DIM_L, TEMP_NONE, us);
+    *uV = unit_default(DIM_VELOCITY, TEMP_NONE, us);
+    *uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
+    *one = unit_default(DIM_NONE, TEMP_NONE, us);
+    *uD = *uL;
+    size_t bo, bl;
+    unit_parse(us == UNITS_US ? "in" : "mm", 2, uD, &bo, &bl);
+}
+
+NetColumns report_node_columns(const Evaluated *ev, bool load)
+{
+    static const char *const KEY[] = {"node", "elevation", "load", "demand", "head", "p"};
+    static const char *const WORD[] = {"node", "elevation", "fixture load, wsfu", "demand", "head", "pressure"};
+    static const char *const SYMBOL[] = {"", "z", "L", "q", "H", "p"};
+    Unit uQ, uL, uV, uP, uD, one;
+    net_units(ev, &uQ, &uL, &uV, &uP, &uD, &one);
+    const Unit unit[] = {one, uL, one, uQ, uL, uP};
+    NetColumns c;
+    memset(&c, 0, sizeof c);
+    for (int q = NCOL_NODE; q <= NCOL_P; q++) {
+        if (q == NCOL_LOAD && !load)
+            continue;
+        int i = c.n++;
+        c.map[i] = q;
+        c.key[i] = KEY[q];
+        c.word[i] = WORD[q];
+        c.symbol[i] = SYMBOL[q];
+        c.unit[i] = unit[q];
+        c.has_unit[i] = q != NCOL_NODE && q != NCOL_LOAD;
+        c.text[i] = q == NCOL_NODE;
+    }
+    return c;
+}
+
+NetColumns report_link_columns(const Evaluated *ev)
+{
+    static const char *const KEY[] = {"link", "from", "to", "Q", "D", "L", "V", "Re", "f", "K", "h_f", "h_m",
+                                      "dp_device", "device"};
+    static const char *const WORD[] = {"link",          "from",          "to",           "flow",
+                                       "bore",          "length",        "velocity",     "Reynolds number",
+                                       "friction factor", "fittings K",  "friction loss", "fitting loss",
+                                       "device drop",   "device"};
+    static const char *const SYMBOL[] = {"", "", "", "Q", "D", "L", "V", "Re", "f", "K", "h_f", "h_m", "Delta_p", ""};
+    Unit uQ, uL, uV, uP, uD, one;
+    net_units(ev, &uQ, &uL, &uV, &uP, &uD, &one);
+    const Unit unit[] = {one, one, one, uQ, uD, uL, uV, one, one, one, uL, uL, uP, one};
+    NetColumns c;
+    memset(&c, 0, sizeof c);
+    for (int q = LCOL_LINK; q <= LCOL_DEVICE; q++) {
+        int i = c.n++;
+        c.map[i] = q;
+        c.key[i] = KEY[q];
+        c.word[i] = WORD[q];
+        c.symbol[i] = SYMBOL[q];
+        c.unit[i] = unit[q];
+        c.has_unit[i] = q == LCOL_Q || q == LCOL_D || q == LCOL_L || q == LCOL_V || q == LCOL_HF || q == LCOL_HM ||
+                        q == LCOL_DPDEV;
+        c.text[i] = q == LCOL_LINK || q == LCOL_FROM || q == LCOL_TO || q == LCOL_DEVICE;
+    }
+    return c;
+}
+
+double report_node_cell(const NodeResult *g, int kind)
+{
+    double si[] = {NAN, g->z, g->has_load ? g->load : NAN, g->demand, g->head, g->p};
+    return kind >= 0 && kind <= NCOL_P ? si[kind] : NAN;
+}
+
+double report_link_cell(const LinkResult *g, int kind)
+{
+    double si[] = {NAN, NAN, NAN, g->Q, g->D, g->L, g->V, g->Re, g->f, g->K, g->h_f, g->h_m, g->dp_device, NAN};
+    return kind >= 0 && kind <= LCOL_DEVICE ? si[kind] : NAN;
+}
+
 const ModelMethod *report_model_method(const ReportModel *model, const Method *m)
 {
     for (size_t k = 0; k < model->nmethods; k++)

@@ -15,88 +15,17 @@
 
 #include "numfmt.h"
 
-enum { NET_CHUNK = 30, NODE_COLS = 6, LINK_COLS = 14, MAX_NET_COLS = 14 };
+enum { NET_CHUNK = 30, MAX_NET_COLS = NET_COLUMNS_MAX };
 #define NT_SIZE 7.6
 #define NT_WORD 5.6
 
-typedef struct NetCols {
-    int n;
-    const char *word[MAX_NET_COLS];
-    const char *symbol[MAX_NET_COLS];
-    Unit unit[MAX_NET_COLS];
-    bool has_unit[MAX_NET_COLS];
-    bool text[MAX_NET_COLS];   /* an id or a word, left aligned */
-} NetCols;
+/* The columns are the report model's (report_node_columns,
+ * report_link_columns), as the listing's tables have them. */
+typedef NetColumns NetCols;
 
 static double full_width(const Pdf *P)
 {
     return P->sheet.body_r - P->sheet.body_l;
-}
-
-static void units_of(const Pdf *P, Unit *uQ, Unit *uL, Unit *uV, Unit *uP, Unit *uD)
-{
-    UnitSystem us = P->ev->units;
-    *uQ = unit_default(DIM_FLOW, TEMP_NONE, us);
-    *uL = unit_default(DIM_L, TEMP_NONE, us);
-    *uV = unit_default(DIM_VELOCITY, TEMP_NONE, us);
-    *uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
-    size_t bo, bl;
-    *uD = *uL;
-    unit_parse(us == UNITS_US ? "in" : "mm", 2, uD, &bo, &bl);
-}
-
-/* The node table's columns: node, elevation, [fixture load,] demand, head,
- * pressure — the load (in wsfu) only where the demands come from the
- * nodes' fixtures (demand:). The pressure is always the last column. */
-static NetCols node_cols(const Pdf *P, bool load)
-{
-    NetCols c;
-    memset(&c, 0, sizeof c);
-    Unit uQ, uL, uV, uP, uD;
-    units_of(P, &uQ, &uL, &uV, &uP, &uD);
-    static const char *const W[NODE_COLS] = {"node", "elevation", "fixture load, wsfu", "demand", "head", "pressure"};
-    static const char *const S[NODE_COLS] = {"", "z", "L", "q", "H", "p"};
-    const Unit U[NODE_COLS] = {uL, uL, uL, uQ, uL, uP};
-    c.n = 0;
-    for (int i = 0; i < NODE_COLS; i++) {
-        if (i == 2 && !load)
-            continue;
-        c.word[c.n] = W[i];
-        c.symbol[c.n] = S[i];
-        c.has_unit[c.n] = i > 0 && i != 2;
-        c.unit[c.n] = U[i];
-        c.n++;
-    }
-    c.text[0] = true;
-    return c;
-}
-
-static NetCols link_cols(const Pdf *P)
-{
-    NetCols c;
-    memset(&c, 0, sizeof c);
-    Unit uQ, uL, uV, uP, uD;
-    units_of(P, &uQ, &uL, &uV, &uP, &uD);
-    static const char *const W[LINK_COLS] = {"link",          "from",       "to",          "flow",
-                                             "bore",          "length",     "velocity",    "Reynolds number",
-                                             "friction factor", "fittings K", "friction loss", "fitting loss",
-                                             "device drop",   "device"};
-    static const char *const S[LINK_COLS] = {"", "", "", "Q", "D", "L", "V", "Re", "f", "K", "h_f", "h_m",
-                                             "Delta_p", ""};
-    c.n = LINK_COLS;
-    for (int i = 0; i < c.n; i++) {
-        c.word[i] = W[i];
-        c.symbol[i] = S[i];
-    }
-    c.text[0] = c.text[1] = c.text[2] = c.text[13] = true;
-    c.has_unit[3] = c.has_unit[4] = c.has_unit[5] = c.has_unit[6] = true;
-    c.has_unit[10] = c.has_unit[11] = c.has_unit[12] = true;
-    c.unit[3] = uQ;
-    c.unit[4] = uD;
-    c.unit[5] = c.unit[10] = c.unit[11] = uL;
-    c.unit[6] = uV;
-    c.unit[12] = uP;
-    return c;
 }
 
 static void number_cell(const Pdf *P, double si, const NetCols *c, int i, char *buf, size_t n)
@@ -113,13 +42,10 @@ static void node_cell(const Pdf *P, const NetworkResult *nr, const NetCols *c, s
                       size_t n)
 {
     const NodeResult *g = &nr->nodes[k];
-    /* with a load column the table has NODE_COLS columns, else one fewer */
-    double si[NODE_COLS] = {0, g->z, g->has_load ? g->load : NAN, g->demand, g->head, g->p};
-    int at = c->n == NODE_COLS || i < 2 ? i : i + 1;
-    if (i == 0)
+    if (c->map[i] == NCOL_NODE)
         snprintf(buf, n, "%s", g->id);
     else
-        number_cell(P, si[at], c, i, buf, n);
+        number_cell(P, report_node_cell(g, c->map[i]), c, i, buf, n);
 }
 
 static const char *device_word(const LinkResult *g)
@@ -141,13 +67,12 @@ static void link_cell(const Pdf *P, const NetworkResult *nr, const NetCols *c, s
                       size_t n)
 {
     const LinkResult *g = &nr->links[k];
-    double si[LINK_COLS] = {0, 0, 0, g->Q, g->D, g->L, g->V, g->Re, g->f, g->K, g->h_f, g->h_m, g->dp_device, 0};
-    switch (i) {
-    case 0: snprintf(buf, n, "%s", g->id); return;
-    case 1: snprintf(buf, n, "%s", nr->nodes[g->from].id); return;
-    case 2: snprintf(buf, n, "%s", nr->nodes[g->to].id); return;
-    case 13: snprintf(buf, n, "%s", device_word(g)); return;
-    case 12:
+    switch (c->map[i]) {
+    case LCOL_LINK: snprintf(buf, n, "%s", g->id); return;
+    case LCOL_FROM: snprintf(buf, n, "%s", nr->nodes[g->from].id); return;
+    case LCOL_TO: snprintf(buf, n, "%s", nr->nodes[g->to].id); return;
+    case LCOL_DEVICE: snprintf(buf, n, "%s", device_word(g)); return;
+    case LCOL_DPDEV:
         if (g->device == NET_DEVICE_NONE) {
             snprintf(buf, n, "—");
             return;
@@ -155,7 +80,7 @@ static void link_cell(const Pdf *P, const NetworkResult *nr, const NetCols *c, s
         break;
     default: break;
     }
-    number_cell(P, si[i], c, i, buf, n);
+    number_cell(P, report_link_cell(g, c->map[i]), c, i, buf, n);
 }
 
 typedef struct NetLayout {
@@ -207,7 +132,7 @@ static double fn_net_table(Pdf *P, const Item *it, double top)
     const NetworkResult *nr = P->ev->results[st->index].made->network;
     bool nodes = it->depth > 0;
     size_t count = (size_t)(nodes ? it->depth : -it->depth);
-    NetCols c = nodes ? node_cols(P, st->network->has_fixtures) : link_cols(P);
+    NetCols c = nodes ? report_node_columns(P->ev, st->network->has_fixtures) : report_link_columns(P->ev);
     CellFn cell = nodes ? node_cell : link_cell;
     size_t rows = nodes ? nr->nnodes : nr->nlinks;
     double W = nodes ? fmin(full_width(P), 330) : full_width(P);
@@ -219,8 +144,8 @@ static double fn_net_table(Pdf *P, const Item *it, double top)
         for (int i = 0; i < c.n; i++) {
             char buf[96];
             cell(P, nr, &c, k, i, buf, sizeof buf);
-            bool strong = nodes ? (i == c.n - 1 && k == nr->p_min_node && !nr->nodes[k].supply)
-                                : (i == 6 && k == nr->V_max_link);
+            bool strong = nodes ? (c.map[i] == NCOL_P && k == nr->p_min_node && !nr->nodes[k].supply)
+                                : (c.map[i] == LCOL_V && k == nr->V_max_link);
             FontRole f = i == 0 ? FONT_SANS_BOLD : strong ? FONT_SERIF_BOLD : c.text[i] ? FONT_SANS : FONT_SERIF;
             double w = pdf_width(P, f, L.size, buf);
             double x = c.text[i] ? L.x[i] + 4 : L.x[i + 1] - 4 - w;

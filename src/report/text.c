@@ -525,30 +525,31 @@ static void put_network(const Evaluated *ev, const Stmt *s, const StmtResult *r,
         return;
     }
     const NetworkResult *nr = r->made->network;
-    UnitSystem us = ev->units;
-    Unit uQ = unit_default(DIM_FLOW, TEMP_NONE, us), uL = unit_default(DIM_L, TEMP_NONE, us);
-    Unit uV = unit_default(DIM_VELOCITY, TEMP_NONE, us), uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
-    Unit uD, one = unit_default(DIM_NONE, TEMP_NONE, us);
-    size_t bo, bl;
-    unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
+    Unit uL = unit_default(DIM_L, TEMP_NONE, ev->units), one = unit_default(DIM_NONE, TEMP_NONE, ev->units);
     sb_printf(out, ": %zu nodes, %zu links, %s loss, global gradient algorithm (Todini and Pilati 1988)\n",
               nr->nnodes, nr->nlinks, nr->darcy ? "Darcy-Weisbach" : "Hazen-Williams");
-    /* a load column where the demands come from the nodes' fixtures (demand:) */
+    /* the columns are the report model's, as the PDF's node and link tables
+     * have them; a load column where the demands come from the nodes'
+     * fixtures (demand:) */
     bool load = s->network->has_fixtures;
-    sb_printf(out, "  %-10s %10s%s %10s %10s %10s\n", "node", "elevation", load ? "       load" : "", "demand", "head", "p");
-    sb_printf(out, "  %-10s %10s%s %10s %10s %10s\n", "", uL.text, load ? "       wsfu" : "", uQ.text, uL.text, uP.text);
-    for (size_t i = 0; i < nr->nnodes; i++) {
-        const NodeResult *n = &nr->nodes[i];
+    NetColumns c = report_node_columns(ev, load);
+    for (int row = 0; row < 2; row++) {
+        sb_printf(out, "  %-10s", row ? "" : c.key[0]);
+        for (int i = 1; i < c.n; i++)
+            sb_printf(out, " %10s", !row ? c.key[i] : c.map[i] == NCOL_LOAD ? "wsfu" : c.has_unit[i] ? c.unit[i].text : "");
+        sb_putc(out, '\n');
+    }
+    for (size_t k = 0; k < nr->nnodes; k++) {
+        const NodeResult *n = &nr->nodes[k];
         sb_printf(out, "  %-10s", n->id);
-        put_cell(ev, n->z, &uL, true, out);
-        if (load && n->has_load)
-            put_cell(ev, n->load, &one, true, out);
-        else if (load)
-            sb_printf(out, " %10s", "-");
-        put_cell(ev, n->demand, &uQ, true, out);
-        put_cell(ev, n->head, &uL, true, out);
-        put_cell(ev, n->p, &uP, true, out);
-        sb_puts(out, n->supply ? "  supply\n" : i == nr->p_min_node ? "  lowest pressure\n" : "\n");
+        for (int i = 1; i < c.n; i++) {
+            double x = report_node_cell(n, c.map[i]);
+            if (isfinite(x))
+                put_cell(ev, x, &c.unit[i], true, out);
+            else
+                sb_printf(out, " %10s", "-");
+        }
+        sb_puts(out, n->supply ? "  supply\n" : k == nr->p_min_node ? "  lowest pressure\n" : "\n");
     }
     if (load) {
         /* the fixture schedule behind the loads: kind, count, load each, total */
@@ -570,26 +571,29 @@ static void put_network(const Evaluated *ev, const Stmt *s, const StmtResult *r,
         sb_printf(out, "  %s\n", REPORT_NODE_DEMAND_NOTE);
     }
     static const char *const states[] = {"", "closed", "regulating", "wide open"};
-    sb_printf(out, "  %-10s %-8s %-8s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "link", "from", "to", "Q", "D",
-              "L", "V", "Re", "f", "K", "h_f", "h_m", "dp_device");
-    sb_printf(out, "  %-10s %-8s %-8s %10s %10s %10s %10s %10s %10s %10s %10s %10s %10s\n", "", "", "", uQ.text, uD.text,
-              uL.text, uV.text, "", "", "", uL.text, uL.text, uP.text);
+    NetColumns lc = report_link_columns(ev);
+    for (int row = 0; row < 2; row++) {
+        sb_printf(out, "  %-10s", row ? "" : lc.key[0]);
+        for (int i = 1; i < lc.n; i++) {
+            const char *h = !row ? lc.key[i] : lc.has_unit[i] ? lc.unit[i].text : "";
+            if (lc.map[i] == LCOL_DEVICE)
+                continue; /* the device is written after the numbers, where there is one */
+            sb_printf(out, lc.text[i] ? " %-8s" : " %10s", h);
+        }
+        sb_putc(out, '\n');
+    }
     for (size_t l = 0; l < nr->nlinks; l++) {
         const LinkResult *g = &nr->links[l];
         sb_printf(out, "  %-10s %-8s %-8s", g->id, nr->nodes[g->from].id, nr->nodes[g->to].id);
-        put_cell(ev, g->Q, &uQ, true, out);
-        put_cell(ev, g->D, &uD, true, out);
-        put_cell(ev, g->L, &uL, true, out);
-        put_cell(ev, g->V, &uV, true, out);
-        put_cell(ev, g->Re, &one, true, out);
-        if (isnan(g->f))
-            sb_printf(out, " %10s", "-");
-        else
-            put_cell(ev, g->f, &one, true, out);
-        put_cell(ev, g->K, &one, true, out);
-        put_cell(ev, g->h_f, &uL, true, out);
-        put_cell(ev, g->h_m, &uL, true, out);
-        put_cell(ev, g->dp_device, &uP, true, out);
+        for (int i = 3; i < lc.n; i++) {
+            if (lc.map[i] == LCOL_DEVICE)
+                continue;
+            double x = report_link_cell(g, lc.map[i]);
+            if (isfinite(x))
+                put_cell(ev, x, &lc.unit[i], true, out);
+            else
+                sb_printf(out, " %10s", "-");
+        }
         const char *dev = g->device == NET_DEVICE_CHECK ? "check valve"
                           : g->device == NET_DEVICE_PUMP ? "pump"
                           : g->device == NET_DEVICE_PRV  ? "PRV"

@@ -276,6 +276,43 @@ static void test_renderers_carry_rows(void **state)
     free(buf);
 }
 
+/* A network's columns are the model's: the load column only where the
+ * demands come from fixtures, the pressure last, and each cell the
+ * node's or link's own value in SI (NAN where there is none). */
+static void test_network_columns(void **state)
+{
+    (void)state;
+    load("units: US\n", "x = 1");
+    NetColumns plain = report_node_columns(ev, false), fx = report_node_columns(ev, true);
+    assert_int_equal(plain.n, 5);
+    assert_int_equal(fx.n, 6);
+    assert_int_equal(fx.map[2], NCOL_LOAD);
+    assert_string_equal(fx.word[2], "fixture load, wsfu");
+    assert_false(fx.has_unit[2]);
+    for (int i = 0; i < plain.n; i++)
+        assert_int_not_equal(plain.map[i], NCOL_LOAD);
+    assert_int_equal(plain.map[plain.n - 1], NCOL_P);
+    assert_string_equal(plain.unit[plain.n - 1].text, "psi");
+    assert_string_equal(plain.key[plain.n - 1], "p");
+    NodeResult g = {.z = 3, .head = 40, .p = 2e5, .demand = 0.001, .has_load = true, .load = 12.6};
+    assert_true(report_node_cell(&g, NCOL_LOAD) == 12.6);
+    assert_true(report_node_cell(&g, NCOL_DEMAND) == 0.001);
+    assert_true(report_node_cell(&g, NCOL_P) == 2e5);
+    g.has_load = false;
+    assert_true(isnan(report_node_cell(&g, NCOL_LOAD)));
+    assert_true(isnan(report_node_cell(&g, NCOL_NODE)));
+    NetColumns lc = report_link_columns(ev);
+    assert_int_equal(lc.n, 14);
+    assert_true(lc.text[LCOL_FROM] && lc.text[LCOL_DEVICE] && !lc.text[LCOL_Q]);
+    assert_string_equal(lc.unit[LCOL_D].text, "in");
+    assert_string_equal(lc.key[LCOL_DPDEV], "dp_device");
+    LinkResult k = {.Q = 0.002, .f = NAN, .h_f = 1.5, .dp_device = 0, .device = NET_DEVICE_NONE};
+    assert_true(report_link_cell(&k, LCOL_Q) == 0.002);
+    assert_true(isnan(report_link_cell(&k, LCOL_F)));
+    assert_true(report_link_cell(&k, LCOL_DPDEV) == 0);
+    assert_true(isnan(report_link_cell(&k, LCOL_DEVICE)));
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -288,6 +325,7 @@ int main(void)
         cmocka_unit_test(test_wave_speed_branch),
         cmocka_unit_test(test_solve_uses_at_root),
         cmocka_unit_test(test_renderers_carry_rows),
+        cmocka_unit_test(test_network_columns),
     };
     int rc = cmocka_run_group_tests(tests, NULL, NULL);
     arena_free(&arena);
