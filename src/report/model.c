@@ -325,6 +325,21 @@ const ReportModel *report_model_build(const Evaluated *ev, Arena *a)
     return m;
 }
 
+/* The display units a path's and a network's columns are shown in (a bore
+ * in inches or millimetres). */
+static void table_units(const Evaluated *ev, Unit *uQ, Unit *uL, Unit *uV, Unit *uP, Unit *uD, Unit *one)
+{
+    UnitSystem us = ev->units;
+    *uQ = unit_default(DIM_FLOW, TEMP_NONE, us);
+    *uL = unit_default(DIM_L, TEMP_NONE, us);
+    *uV = unit_default(DIM_VELOCITY, TEMP_NONE, us);
+    *uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
+    *one = unit_default(DIM_NONE, TEMP_NONE, us);
+    *uD = *uL;
+    size_t bo, bl;
+    unit_parse(us == UNITS_US ? "in" : "mm", 2, uD, &bo, &bl);
+}
+
 PathColumns report_path_columns(const Evaluated *ev, const PathResult *pr)
 {
     static const char *const KEY[PATH_COLUMNS_MAX] = {
@@ -335,15 +350,10 @@ PathColumns report_path_columns(const Evaluated *ev, const PathResult *pr)
         "fitting loss",    "inlet pressure",  "device loss",    "outlet pressure"};
     static const char *const SYMBOL[PATH_COLUMNS_MAX] = {"",  "",  "Q",   "D",   "L",   "Delta_z", "V",    "Re",
                                                          "f", "K",   "h_f", "h_m", "p_in",    "Delta_p_dev", "p_out"};
-    UnitSystem us = ev->units;
     PathColumns c;
     memset(&c, 0, sizeof c);
-    Unit uQ = unit_default(DIM_FLOW, TEMP_NONE, us), uL = unit_default(DIM_L, TEMP_NONE, us);
-    Unit uV = unit_default(DIM_VELOCITY, TEMP_NONE, us), uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
-    Unit one = unit_default(DIM_NONE, TEMP_NONE, us);
-    Unit uD = uL;
-    size_t bo, bl;
-    unit_parse(us == UNITS_US ? "in" : "mm", 2, &uD, &bo, &bl);
+    Unit uQ, uL, uV, uP, uD, one;
+    table_units(ev, &uQ, &uL, &uV, &uP, &uD, &one);
     bool load = pr && pr->nsegs && pr->segs[0].has_load;
     for (int q = 0; q < PATH_COLUMNS_MAX; q++) {
         if ((q == PCOL_DPDEV && (!pr || pr->ndevices == 0)) || (q == PCOL_LOAD && !load))
@@ -373,18 +383,18 @@ double report_path_cell(const SegmentResult *g, int kind)
     return kind >= 0 && kind < PATH_COLUMNS_MAX ? si[kind] : NAN;
 }
 
-/* The display units a network's columns are shown in. */
-static void net_units(const Evaluated *ev, Unit *uQ, Unit *uL, Unit *uV, Unit *uP, Unit *uD, Unit *one)
+/* Column q of a network table, added at the end. */
+static void net_column(NetColumns *c, int q, const char *key, const char *word, const char *symbol, Unit unit,
+                       bool has_unit, bool text)
 {
-    UnitSystem us = ev->units;
-    *uQ = unit_default(DIM_FLOW, TEMP_NONE, us);
-    *uL = unit_default(DIM_L, TEMP_NONE, us);
-    *uV = unit_default(DIM_VELOCITY, TEMP_NONE, us);
-    *uP = unit_default(DIM_PRESSURE, TEMP_NONE, us);
-    *one = unit_default(DIM_NONE, TEMP_NONE, us);
-    *uD = *uL;
-    size_t bo, bl;
-    unit_parse(us == UNITS_US ? "in" : "mm", 2, uD, &bo, &bl);
+    int i = c->n++;
+    c->map[i] = q;
+    c->key[i] = key;
+    c->word[i] = word;
+    c->symbol[i] = symbol;
+    c->unit[i] = unit;
+    c->has_unit[i] = has_unit;
+    c->text[i] = text;
 }
 
 NetColumns report_node_columns(const Evaluated *ev, bool load)
@@ -393,22 +403,13 @@ NetColumns report_node_columns(const Evaluated *ev, bool load)
     static const char *const WORD[] = {"node", "elevation", "fixture load, wsfu", "demand", "head", "pressure"};
     static const char *const SYMBOL[] = {"", "z", "L", "q", "H", "p"};
     Unit uQ, uL, uV, uP, uD, one;
-    net_units(ev, &uQ, &uL, &uV, &uP, &uD, &one);
+    table_units(ev, &uQ, &uL, &uV, &uP, &uD, &one);
     const Unit unit[] = {one, uL, one, uQ, uL, uP};
     NetColumns c;
     memset(&c, 0, sizeof c);
-    for (int q = NCOL_NODE; q <= NCOL_P; q++) {
-        if (q == NCOL_LOAD && !load)
-            continue;
-        int i = c.n++;
-        c.map[i] = q;
-        c.key[i] = KEY[q];
-        c.word[i] = WORD[q];
-        c.symbol[i] = SYMBOL[q];
-        c.unit[i] = unit[q];
-        c.has_unit[i] = q != NCOL_NODE && q != NCOL_LOAD;
-        c.text[i] = q == NCOL_NODE;
-    }
+    for (int q = NCOL_NODE; q <= NCOL_P; q++)
+        if (q != NCOL_LOAD || load)
+            net_column(&c, q, KEY[q], WORD[q], SYMBOL[q], unit[q], q != NCOL_NODE && q != NCOL_LOAD, q == NCOL_NODE);
     return c;
 }
 
@@ -422,21 +423,15 @@ NetColumns report_link_columns(const Evaluated *ev)
                                        "device drop",   "device"};
     static const char *const SYMBOL[] = {"", "", "", "Q", "D", "L", "V", "Re", "f", "K", "h_f", "h_m", "Delta_p", ""};
     Unit uQ, uL, uV, uP, uD, one;
-    net_units(ev, &uQ, &uL, &uV, &uP, &uD, &one);
+    table_units(ev, &uQ, &uL, &uV, &uP, &uD, &one);
     const Unit unit[] = {one, one, one, uQ, uD, uL, uV, one, one, one, uL, uL, uP, one};
     NetColumns c;
     memset(&c, 0, sizeof c);
-    for (int q = LCOL_LINK; q <= LCOL_DEVICE; q++) {
-        int i = c.n++;
-        c.map[i] = q;
-        c.key[i] = KEY[q];
-        c.word[i] = WORD[q];
-        c.symbol[i] = SYMBOL[q];
-        c.unit[i] = unit[q];
-        c.has_unit[i] = q == LCOL_Q || q == LCOL_D || q == LCOL_L || q == LCOL_V || q == LCOL_HF || q == LCOL_HM ||
-                        q == LCOL_DPDEV;
-        c.text[i] = q == LCOL_LINK || q == LCOL_FROM || q == LCOL_TO || q == LCOL_DEVICE;
-    }
+    for (int q = LCOL_LINK; q <= LCOL_DEVICE; q++)
+        net_column(&c, q, KEY[q], WORD[q], SYMBOL[q], unit[q],
+                   q == LCOL_Q || q == LCOL_D || q == LCOL_L || q == LCOL_V || q == LCOL_HF || q == LCOL_HM ||
+                       q == LCOL_DPDEV,
+                   q == LCOL_LINK || q == LCOL_FROM || q == LCOL_TO || q == LCOL_DEVICE);
     return c;
 }
 
